@@ -1,0 +1,95 @@
+/**
+ * What the renderer draws: a document model with every sentence already written (from templates/) and every number
+ * already formatted. The renderer decides layout only; it never computes statistics or chooses words.
+ */
+
+export type VerdictKind = 'supported' | 'not-supported' | 'opposite' | 'too-little-data';
+
+/** Data for one chart; the renderer turns it into a Vega-Lite spec, then SVG, then PDF vectors. */
+export type ChartData =
+  | {
+      kind: 'rates';
+      /** One bar (a dot with its interval) per selection, in this order. Rates are fractions 0..1. */
+      bars: Array<{ label: string; rate: number; lower: number; upper: number; n: number }>;
+      /** Axis title, e.g. "Agreeing (%)". */
+      axisTitle: string;
+      /** Optional reference line (a target), as a fraction. */
+      reference?: { value: number; label: string };
+    }
+  | {
+      kind: 'scatter';
+      points: Array<{ label: string; x: number; y: number; n: number }>;
+      xTitle: string;
+      yTitle: string;
+      /** Least-squares line y = intercept + slope * x, drawn across the range of x. */
+      fit?: { intercept: number; slope: number };
+      /** Text shown in a corner, e.g. "r = 0.41". */
+      note?: string;
+      /** True when x and y are fractions to show as percentages. */
+      percent: boolean;
+    };
+
+export interface Chart {
+  data: ChartData;
+  /** Alt text: one generated sentence saying what the chart shows. */
+  alt: string;
+}
+
+export interface NumberRow {
+  label: string;
+  value: string;
+}
+
+export interface ClaimSection {
+  id: string;
+  /** The claim in the user's words. */
+  statement: string;
+  verdict: VerdictKind;
+  /** Word for the verdict, e.g. "Supported". */
+  verdictLabel: string;
+  /** What was compared and how many answered, one sentence. */
+  compared: string;
+  hypotheses: { null: string; alternative: string };
+  /** The numbers table: rates or r with intervals, difference, statistic, p raw and adjusted. */
+  numbers: NumberRow[];
+  chart?: Chart;
+  /** The verdict paragraph. */
+  verdictText: string;
+  cautions: string[];
+  /** One line naming the method, e.g. "Two-proportion z test (pooled); Wilson and Newcombe intervals." */
+  methodLine: string;
+}
+
+export interface SummaryRow {
+  id: string;
+  statement: string;
+  verdict: VerdictKind;
+  verdictLabel: string;
+  /** e.g. "61% vs 67%, gap −6 points (−9 to −3)". */
+  keyFigure: string;
+}
+
+export interface PackModel {
+  title: string;
+  organisation: string;
+  description?: string;
+  /** The date shown on the cover (from the claims file or an option; never the clock, so builds are repeatable). */
+  date: string;
+  /** e.g. "95% (two-sided unless a claim says otherwise)". */
+  confidenceText: string;
+  /** e.g. "Holm's method across the 9 claims tested". */
+  adjustmentText: string;
+  sources: Array<{ id: string; file: string; description: string; rows: number; sha256: string }>;
+  /** A short paragraph under the summary table: how to read it and the overall cautions. */
+  summaryIntro: string;
+  summary: SummaryRow[];
+  claims: ClaimSection[];
+  /** Method notes: one entry per method used, with what it assumes and its published source. */
+  methods: Array<{ name: string; text: string; source: string }>;
+  /** Glossary in plain words. */
+  glossary: Array<{ term: string; text: string }>;
+  /** Reproducibility: tool version, command, file fingerprints. */
+  reproducibility: NumberRow[];
+  /** General cautions that apply to the whole pack (response rates, cohorts, causation, local policy). */
+  generalCautions: string[];
+}
