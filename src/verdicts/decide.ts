@@ -1,0 +1,46 @@
+/**
+ * The verdict for one claim, derived from its analysis, its p-value adjusted for many claims, and its confidence
+ * level. Nothing is stored on the analysis: the decision is made here, once, and the words come later.
+ *
+ * - too-little-data: a selection (or too many units) fell below the minimum number of respondents.
+ * - supported: the adjusted p-value is below 1 - confidence and the estimate lies the way the claim said (or the
+ *   claim named no direction).
+ * - opposite: statistically significant, but the other way from the claim. For a one-sided claim this uses the
+ *   one-sided p-value in the opposite direction, adjusted by the same factor as the claim's own.
+ * - not-supported: everything else. This is not evidence that the claim is false.
+ */
+import type { Analysis } from '../analyse/types.js';
+import type { VerdictKind } from '../render/model.js';
+
+export interface Decision {
+  verdict: VerdictKind;
+  /** The claim's raw p-value (for its own direction or two-sided), if tested. */
+  p?: number;
+  /** The p-value after adjustment for many claims, if tested. */
+  pAdjusted?: number;
+  /** 1 - confidence. */
+  alpha: number;
+}
+
+export function decide(analysis: Analysis, pAdjusted: number | undefined): Decision {
+  const alpha = 1 - analysis.claim.confidence;
+  if (analysis.status === 'too-little-data' || !analysis.test || pAdjusted === undefined) {
+    return { verdict: 'too-little-data', alpha };
+  }
+  const p = analysis.test.p;
+  const base = { p, pAdjusted, alpha };
+  const expect = analysis.expectSign;
+  const observed = analysis.observedSign;
+  if (analysis.test.alternative === 'two-sided') {
+    if (pAdjusted >= alpha || observed === 0) return { verdict: 'not-supported', ...base };
+    if (expect === 0 || observed === expect) return { verdict: 'supported', ...base };
+    return { verdict: 'opposite', ...base };
+  }
+  if (pAdjusted < alpha) return { verdict: 'supported', ...base };
+  if (analysis.pOpposite !== undefined && p > 0) {
+    // The same multiplicity factor that turned p into pAdjusted, applied to the other direction's p-value.
+    const factor = pAdjusted / p;
+    if (Math.min(1, analysis.pOpposite * factor) < alpha) return { verdict: 'opposite', ...base };
+  }
+  return { verdict: 'not-supported', ...base };
+}
