@@ -1,0 +1,23 @@
+import type { Claim } from '../claims/types.js';
+import type { Cube } from '../data/types.js';
+import { analyseAssociation } from './association.js';
+import { analyseCompare, type CompareContext } from './compare.js';
+import type { Analysis } from './types.js';
+
+/** Test one claim on its source's cube. Adding a claim kind means adding a case here and a file beside this one. */
+export function analyse(claim: Claim, cube: Cube, ctx: CompareContext): Analysis {
+  switch (claim.kind) {
+    case 'compare':
+      return analyseCompare(claim, cube, ctx);
+    case 'association':
+      return analyseAssociation(claim, cube, ctx);
+  }
+}
+
+/** The columns a claim's selections use, so a respondent-level source keeps only those in its cube. */
+export function columnsUsed(claim: Claim): string[] {
+  const filters = claim.kind === 'compare' ? [claim.where, claim.focus, claim.against] : [claim.where, claim.x, claim.y];
+  const cols = new Set(filters.flatMap((f) => Object.keys(f)));
+  if (claim.kind === 'association') cols.add(claim.units);
+  return [...cols];
+}

@@ -1,0 +1,80 @@
+/**
+ * The whole pack's words: cover, summary, sections, method notes, glossary, reproducibility. Per-claim wording is in
+ * compose.ts; this file adds what belongs to the pack as a whole.
+ */
+import type { Analysis } from '../analyse/types.js';
+import type { ClaimsFile } from '../claims/types.js';
+import type { Cube } from '../data/types.js';
+import * as fmt from '../format/numbers.js';
+import type { ClaimSection, PackModel, SummaryRow } from '../render/model.js';
+import { METHODS, methodInfo } from '../stats/methods.js';
+import type { Templates } from './templates.js';
+
+export const ADJUST_NAMES: Record<ClaimsFile['adjust'], string> = {
+  holm: "Holm's method",
+  'benjamini-hochberg': 'the Benjamini–Hochberg method',
+  none: 'no adjustment',
+};
+
+export function composePack(input: {
+  claims: ClaimsFile;
+  claimsDisplay: string;
+  cubes: Cube[];
+  analyses: Analysis[];
+  sections: ClaimSection[];
+  summary: SummaryRow[];
+  claimsTested: number;
+  date: string;
+  version: string;
+  command: string;
+  templates: Templates;
+}): PackModel {
+  const { claims, templates } = input;
+  const adjustName = ADJUST_NAMES[claims.adjust];
+  const oneSided = claims.claims.some((c) => c.sided === 'one-sided');
+  const methodIds = [...new Set(input.analyses.flatMap((a) => a.methods))];
+  if (claims.adjust !== 'none' && input.claimsTested > 1) methodIds.push(claims.adjust);
+  const ordered = Object.keys(METHODS).filter((id) => methodIds.includes(id));
+  const view = {
+    claimsTested: input.claimsTested,
+    minRespondents: claims.minRespondents,
+    adjustName,
+    level: fmt.level(claims.confidence),
+    alphaPercent: fmt.level(1 - claims.confidence),
+  };
+  const glossary = templates.renderLines('glossary', view).map((line) => {
+    const at = line.indexOf(':');
+    return { term: line.slice(0, at).trim(), text: line.slice(at + 1).trim() };
+  });
+  return {
+    title: claims.title,
+    organisation: claims.organisation,
+    ...(claims.description !== undefined ? { description: claims.description } : {}),
+    date: input.date,
+    confidenceText: `${fmt.level(claims.confidence)}, two-sided${oneSided ? ' unless a claim states a one-sided test' : ''}`,
+    adjustmentText:
+      claims.adjust === 'none' || input.claimsTested < 2
+        ? 'None: each claim is judged on its own p-value'
+        : `${adjustName[0]?.toUpperCase()}${adjustName.slice(1)} across the ${input.claimsTested} claims tested`,
+    sources: input.cubes.map((c) => {
+      const spec = claims.sources.find((s) => s.id === c.sourceId);
+      const shape = spec?.shape === 'respondents' ? 'one row per respondent' : 'summary counts per group';
+      return { id: c.sourceId, file: c.file, description: `${shape}${spec?.sheet ? `, sheet "${spec.sheet}"` : ''}`, rows: c.rows, sha256: c.sha256 };
+    }),
+    summaryIntro: templates.render('summary.intro', view),
+    summary: input.summary,
+    claims: input.sections,
+    methods: ordered.map((id) => {
+      const info = methodInfo(id);
+      return { name: info.name, text: info.text, source: info.source };
+    }),
+    glossary,
+    reproducibility: [
+      { label: 'Tool', value: `warrant ${input.version}` },
+      { label: 'Command', value: input.command },
+      { label: 'Claims file', value: `${input.claimsDisplay} (SHA-256 ${claims.sha256})` },
+      ...input.cubes.map((c) => ({ label: `Data: ${c.sourceId}`, value: `${c.file}, ${fmt.count(c.rows)} rows (SHA-256 ${c.sha256})` })),
+    ],
+    generalCautions: templates.renderLines('general-cautions', view),
+  };
+}
