@@ -1,0 +1,118 @@
+/**
+ * Reading a claims file, in stages:
+ *
+ *   bytes (size limit, SHA-256, UTF-8)
+ *     -> YAML document (syntax errors with line:column)          yaml.ts
+ *     -> schema check (plain messages, closest-key suggestions)   validate.ts
+ *     -> cross-field and file-system rules                        rules.ts
+ *     -> normalized ClaimsFile (defaults, resolved paths, places) normalize.ts
+ *
+ * Problems from the schema and the rules are gathered together and thrown as one InputError, in file order.
+ */
+import { createHash } from 'node:crypto';
+import { readFile, stat } from 'node:fs/promises';
+import { dirname, isAbsolute, relative, resolve } from 'node:path';
+import { InputError, type Problem } from '../errors.js';
+import { normalize } from './normalize.js';
+import { crossFieldProblems } from './rules.js';
+import type { ClaimsFile } from './types.js';
+import { schemaProblems } from './validate.js';
+import { parseYaml } from './yaml.js';
+
+/** Claims files are a few kilobytes; anything over this is not a claims file. */
+export const MAX_CLAIMS_BYTES = 1024 * 1024;
+
+/** How a path is shown to the user: relative to the working folder when that is shorter and inside it. */
+export function displayPathFor(absPath: string): string {
+  const rel = relative(process.cwd(), absPath);
+  return rel !== '' && !rel.startsWith('..') && !isAbsolute(rel) ? rel : absPath;
+}
+
+/** Sort problems by line, then column; problems without a line go last, in their original order. */
+export function inFileOrder(problems: Problem[]): Problem[] {
+  return problems
+    .map((p, i) => ({ p, i }))
+    .sort((a, b) => {
+      const la = a.p.line ?? Infinity;
+      const lb = b.p.line ?? Infinity;
+      if (la !== lb) return la - lb;
+      const ca = a.p.column ?? 0;
+      const cb = b.p.column ?? 0;
+      return ca !== cb ? ca - cb : a.i - b.i;
+    })
+    .map((x) => x.p);
+}
+
+/** Decode UTF-8 strictly; on failure report the line and column of the first bad byte. */
+function decodeUtf8(bytes: Buffer, file: string): string {
+  try {
+    return new TextDecoder('utf-8', { fatal: true }).decode(bytes).replace(/^\uFEFF/, '');
+  } catch {
+    const loose = new TextDecoder('utf-8').decode(bytes).replace(/^\uFEFF/, '');
+    const at = loose.indexOf('\uFFFD');
+    const before = loose.slice(0, Math.max(0, at));
+    const line = before.split('\n').length;
+    const column = at - before.lastIndexOf('\n');
+    throw new InputError({
+      file,
+      line,
+      column,
+      problem: 'the claims file is not UTF-8 text (it may have been saved in an older encoding such as Windows-1252)',
+      fix: 'Save it again as UTF-8 in your text editor',
+    });
+  }
+}
+
+/**
+ * Read, check and normalize a claims file.
+ * @param path the claims file (absolute, or relative to the working folder)
+ * @param displayPath how to name the file in messages (default: relative to the working folder)
+ * @throws InputError listing every problem found, each with line:column and a fix
+ */
+export async function readClaims(path: string, displayPath?: string): Promise<ClaimsFile> {
+  const absPath = resolve(path);
+  const file = displayPath ?? displayPathFor(absPath);
+  let info;
+  try {
+    info = await stat(absPath);
+  } catch {
+    throw new InputError({
+      file,
+      problem: 'the claims file was not found',
+      fix: `Check the path; it was looked for at ${absPath}`,
+    });
+  }
+  if (info.isDirectory()) {
+    throw new InputError({
+      file,
+      problem: 'this is a folder, not a claims file',
+      fix: 'Give the path of the .yaml claims file inside the folder',
+    });
+  }
+  const tooBig = (size: number): InputError =>
+    new InputError({
+      file,
+      found: `${size} bytes`,
+      problem: `the claims file is larger than ${MAX_CLAIMS_BYTES / 1024 / 1024} MB, far more than any set of claims needs`,
+      fix: 'Check that this is the claims file and not a data file; data files belong under sources',
+    });
+  if (info.size > MAX_CLAIMS_BYTES) throw tooBig(info.size);
+  const bytes = await readFile(absPath);
+  if (bytes.length > MAX_CLAIMS_BYTES) throw tooBig(bytes.length);
+  const sha256 = createHash('sha256').update(bytes).digest('hex');
+  return parseClaimsText(decodeUtf8(bytes, file), { absPath, file, sha256 });
+}
+
+/** The checks after reading the bytes: exposed for tests and for callers that already hold the text. */
+export function parseClaimsText(text: string, opts: { absPath: string; file: string; sha256: string }): ClaimsFile {
+  const outcome = parseYaml(text, opts.file);
+  if (!outcome.ok) throw new InputError(inFileOrder(outcome.problems));
+  const parsed = outcome.parsed;
+  const problems = schemaProblems(parsed, opts.file);
+  // A file that is not a mapping at all has nothing further to check.
+  if (parsed.data !== null && typeof parsed.data === 'object' && !Array.isArray(parsed.data)) {
+    problems.push(...crossFieldProblems(parsed, opts.file, dirname(opts.absPath)));
+  }
+  if (problems.length > 0) throw new InputError(inFileOrder(problems));
+  return normalize(parsed, opts.absPath, opts.sha256);
+}

@@ -1,0 +1,334 @@
+/**
+ * Checks the data read from a claims file against schema/claims.schema.json and turns each ajv error into a plain
+ * problem: where it is (line:column), what is wrong, and how to fix it.
+ */
+import type { ErrorObject } from 'ajv';
+import type { Problem } from '../errors.js';
+import { claimsSchema, claimsValidator, type JsonSchema } from './schema.js';
+import { closest } from './suggest.js';
+import { locate, type ParsedYaml } from './yaml.js';
+
+type Segment = string | number;
+
+/** An example line for each key, used in "add ..." fixes. */
+const EXAMPLE: Record<string, string> = {
+  title: 'title: Student voice 2026',
+  organisation: "organisation: Tarnmoor Students' Guild",
+  sources: 'sources: with one entry per data file, e.g. "results: { file: data/summary.xlsx, shape: summary, respondents: Respondents, agree: Agreeing }"',
+  claims: 'claims: followed by a list of claims, each starting with "- id: ..."',
+  id: 'id: feedback-below-region',
+  claim: 'claim: followed by the claim in plain words',
+  kind: 'kind: compare (or kind: association)',
+  file: 'file: data/summary.csv (a path relative to the claims file)',
+  shape: 'shape: summary (counts per group) or shape: respondents (one row per person)',
+  respondents: 'respondents: followed by the name of the column holding the number who answered',
+  questions: 'questions: [Q01, Q02] listing the answer columns',
+  focus: 'focus: { provider: Tarnmoor College } naming the selection the claim is about',
+  against: 'against: { region: Ellerby Vale } naming the selection it is compared with',
+  expect: 'expect: lower, higher or different (compare) or positive, negative or any (association)',
+  units: 'units: department naming the column whose values are the units',
+  x: 'x: { question: Q12 } defining the first measure',
+  y: 'y: { question: Q27 } defining the second measure',
+};
+
+function typeWords(t: unknown): string {
+  const one = (s: string): string =>
+    ({
+      string: 'text',
+      number: 'a number',
+      integer: 'a whole number',
+      object: 'a mapping of keys to values',
+      array: 'a list',
+      boolean: 'true or false',
+      null: 'empty',
+    })[s] ?? s;
+  return Array.isArray(t) ? t.map((x) => one(String(x))).join(' or ') : one(String(t));
+}
+
+function foundWords(v: unknown): string {
+  if (v === null || v === undefined) return 'nothing';
+  if (Array.isArray(v)) return 'a list';
+  if (typeof v === 'object') return 'a mapping';
+  if (typeof v === 'boolean') return String(v);
+  return JSON.stringify(v) ?? String(v);
+}
+
+/** JSON pointer (/claims/0/id) -> path segments. */
+export function pointerToPath(pointer: string): Segment[] {
+  if (pointer === '') return [];
+  return pointer
+    .slice(1)
+    .split('/')
+    .map((s) => s.replace(/~1/g, '/').replace(/~0/g, '~'))
+    .map((s) => (/^(0|[1-9][0-9]*)$/.test(s) ? Number(s) : s));
+}
+
+function get(data: unknown, path: readonly Segment[]): unknown {
+  let v = data;
+  for (const s of path) {
+    if (v === null || typeof v !== 'object') return undefined;
+    v = (v as Record<string, unknown>)[String(s)];
+  }
+  return v;
+}
+
+/** "claim "feedback-below-region"" / "source "results"" / "the claims file", for the object at `path`. */
+export function describeOwner(data: unknown, path: readonly Segment[]): string {
+  if (path.length >= 2 && path[0] === 'claims' && typeof path[1] === 'number') {
+    const id = get(data, ['claims', path[1]!, 'id']);
+    const name = typeof id === 'string' && id !== '' ? `claim "${id}"` : `claim ${path[1]! + 1}`;
+    const rest = path.slice(2).map(String);
+    return rest.length > 0 ? `${name}, under ${rest.join(' > ')}` : name;
+  }
+  if (path.length >= 2 && path[0] === 'sources') {
+    const rest = path.slice(2).map(String);
+    return rest.length > 0 ? `source "${path[1]}", under ${rest.join(' > ')}` : `source "${path[1]}"`;
+  }
+  if (path.length === 0) return 'the claims file';
+  return `the claims file, under ${path.map(String).join(' > ')}`;
+}
+
+/** The keys allowed in the object at `schema`, leaving out those forbidden by a matching if/then branch. */
+function allowedKeys(schema: JsonSchema, value: unknown): string[] {
+  const keys = Object.keys(schema.properties ?? {});
+  const forbidden = new Set<string>();
+  for (const branch of schema.allOf ?? []) {
+    const props = branch.if?.properties ?? {};
+    const matches = Object.entries(props).every(
+      ([k, s]) => typeof s === 'object' && get(value, [k]) === s.const,
+    );
+    if (!matches) continue;
+    for (const [k, s] of Object.entries(branch.then?.properties ?? {})) if (s === false) forbidden.add(k);
+  }
+  return keys.filter((k) => !forbidden.has(k));
+}
+
+/** Which kind or shape allows a key that the current one forbids, e.g. units -> kind: association. */
+function ownerOfKey(schema: JsonSchema, key: string): string | undefined {
+  for (const branch of schema.allOf ?? []) {
+    const then = branch.then?.properties ?? {};
+    if (then[key] === false) continue;
+    const entries = Object.entries(branch.if?.properties ?? {});
+    const [name, s] = entries[0] ?? [];
+    if (name && typeof s === 'object' && s.const !== undefined) {
+      // The branch that does not forbid the key names the kind/shape it belongs to.
+      const forbidsSomewhereElse = (schema.allOf ?? []).some((b) => b !== branch && b.then?.properties?.[key] === false);
+      if (forbidsSomewhereElse) return `${name}: ${String(s.const)}`;
+    }
+  }
+  return undefined;
+}
+
+/** Run the schema; return plain problems (unsorted). Confidence values are left to the cross-field rules. */
+export function schemaProblems(parsed: ParsedYaml, file: string): Problem[] {
+  const validate = claimsValidator();
+  if (validate(parsed.data)) return [];
+  const errors = (validate.errors ?? []) as ErrorObject[];
+  const data = parsed.data;
+  const problems: Problem[] = [];
+
+  // Group-level errors (anyOf, oneOf) replace the errors of their branches.
+  const groups = errors.filter((e) => e.keyword === 'anyOf' || e.keyword === 'oneOf');
+  const isBranchError = (e: ErrorObject): boolean =>
+    groups.some((g) => g !== e && e.instancePath === g.instancePath && e.schemaPath.startsWith(g.schemaPath + '/'));
+
+  const seen = new Set<string>();
+  for (const e of errors) {
+    if (e.keyword === 'if' || isBranchError(e)) continue;
+    const path = pointerToPath(e.instancePath);
+    const last = path[path.length - 1];
+    // Confidence is read and range-checked with its own message by the cross-field rules.
+    if (last === 'confidence' && (path.length === 1 || (path.length === 3 && path[0] === 'claims'))) continue;
+    const p = toProblem(e, path, parsed, file, data);
+    if (!p) continue;
+    const key = `${p.line}:${p.column}:${p.problem}`;
+    if (seen.has(key)) continue;
+    seen.add(key);
+    problems.push(p);
+  }
+  return problems;
+}
+
+function toProblem(e: ErrorObject, path: Segment[], parsed: ParsedYaml, file: string, data: unknown): Problem | undefined {
+  const at = locate(parsed, path);
+  const valuePlace = at.value ?? at.key ?? at.nearest;
+  const parentSchema = (e.parentSchema ?? {}) as JsonSchema;
+  const last = path[path.length - 1];
+  const field = last === undefined ? undefined : String(last);
+  const value = get(data, path);
+  const base = (place: { line: number; column: number }): Problem => ({ file, line: place.line, column: place.column, problem: '', fix: '' });
+
+  switch (e.keyword) {
+    case 'additionalProperties': {
+      const key = String((e.params as { additionalProperty: string }).additionalProperty);
+      const keyAt = locate(parsed, [...path, key]);
+      const allowed = allowedKeys(parentSchema, value);
+      const allKeys = Object.keys(parentSchema.properties ?? {});
+      const suggestion = closest(key, allowed) ?? closest(key, allKeys);
+      const p = base(keyAt.key ?? keyAt.value ?? at.nearest);
+      p.field = key;
+      p.problem = `"${key}" is not a key warrant knows in ${describeOwner(data, path)}`;
+      p.fix =
+        suggestion !== undefined
+          ? `Did you mean "${suggestion}"? Rename the key to ${suggestion}`
+          : `Remove it, or use one of the keys allowed here: ${allowed.join(', ')}`;
+      return p;
+    }
+    case 'false schema': {
+      // A key that exists, but not for this kind of claim or shape of source.
+      const owner = path.slice(0, -1);
+      const ownerValue = get(data, owner);
+      const defs = claimsSchema().definitions ?? {};
+      const isClaim = owner[0] === 'claims';
+      const schema = (isClaim ? defs.claim : defs.source) ?? {};
+      const selector = isClaim ? 'kind' : 'shape';
+      const current = String(get(ownerValue, [selector]));
+      const belongs = ownerOfKey(schema, String(field));
+      const p = base(at.key ?? valuePlace);
+      p.field = field;
+      p.problem = `"${field}" does not apply when ${selector} is ${current}${belongs ? ` (it belongs with ${belongs})` : ''}, in ${describeOwner(data, owner)}`;
+      p.fix = belongs ? `Remove ${field}, or change the line to ${belongs} if that is what you meant` : `Remove ${field}`;
+      return p;
+    }
+    case 'required': {
+      const missing = String((e.params as { missingProperty: string }).missingProperty);
+      const p = base(at.value ?? at.nearest);
+      p.field = missing;
+      p.problem = `${describeOwner(data, path)} has no "${missing}", which is required${requiredWhy(parentSchema, missing, value)}`;
+      p.fix = `Add ${EXAMPLE[missing] ?? `${missing}: ...`}`;
+      return p;
+    }
+    case 'oneOf': {
+      // The only oneOf is agree / agree_percent in a summary source.
+      const passing = (e.params as { passingSchemas: number[] | null }).passingSchemas;
+      const p = base(at.value ?? at.nearest);
+      p.field = 'agree';
+      if (passing === null) {
+        p.problem = `${describeOwner(data, path)} says neither which column holds the number who agreed (agree) nor the percent who agreed (agree_percent)`;
+        p.fix = 'Add agree: followed by the column of counts, or agree_percent: followed by the column of percents';
+      } else {
+        p.problem = `${describeOwner(data, path)} gives both agree and agree_percent`;
+        p.fix = 'Keep agree (exact counts) and delete agree_percent, unless the file has only percents';
+      }
+      return p;
+    }
+    case 'anyOf': {
+      // The only anyOf is a filter value.
+      const p = base(valuePlace);
+      p.field = field;
+      p.found = foundWords(value);
+      p.problem = `the value for column "${field}" in ${describeOwner(data, path.slice(0, -1))} is not a value to match`;
+      p.fix =
+        value === null
+          ? `Write the value after "${field}:", or a list such as [2025, 2026]`
+          : 'Write text, a number, or a list of them such as [2025, 2026]; put true/false or dates in quotes';
+      return p;
+    }
+    case 'type': {
+      const expected = (e.params as { type: string | string[] }).type;
+      const p = base(valuePlace);
+      if (field !== undefined) p.field = field;
+      p.found = foundWords(value);
+      const what = field === undefined ? 'the claims file' : typeof last === 'number' ? `item ${last + 1} of ${String(path[path.length - 2])}` : `"${field}"`;
+      p.problem = `${what} should be ${typeWords(expected)}`;
+      if (path.length === 0) {
+        p.problem = 'the claims file should be a mapping of keys (title, organisation, sources, claims)';
+        p.fix = 'Start the file with lines such as "title: Student voice 2026" and "organisation: ..."';
+      } else if (expected === 'string' || (Array.isArray(expected) && expected.includes('string'))) {
+        p.fix = value === null ? `Write a value after "${field}:"` : 'Write it as text; put it in quotes if it looks like a number, a date or true/false';
+      } else if (expected === 'array') {
+        p.fix = `Write a list, e.g. ${field}: [a, b] or one "- item" per line`;
+      } else if (expected === 'object') {
+        p.fix = `Write keys under ${field}, e.g. ${EXAMPLE[String(field)] ?? `${field}: { column: value }`}`;
+      } else if (expected === 'integer') {
+        p.fix = 'Write a whole number without quotes, e.g. 10';
+      } else {
+        p.fix = `Write ${typeWords(expected)}`;
+      }
+      return p;
+    }
+    case 'enum': {
+      const allowed = ((e.params as { allowedValues: unknown[] }).allowedValues ?? []).map(String);
+      const p = base(valuePlace);
+      p.field = field;
+      p.found = foundWords(value);
+      const kind = get(data, [...path.slice(0, -1), 'kind']);
+      const forKind = field === 'expect' && typeof kind === 'string' ? ` for a ${kind} claim` : '';
+      p.problem = `${foundWords(value)} is not an allowed value of ${field}${forKind} in ${describeOwner(data, path.slice(0, -1))}`;
+      const guess = typeof value === 'string' ? closest(value, allowed) : undefined;
+      p.fix = `Use one of: ${allowed.join(', ')}${guess !== undefined ? ` (did you mean ${guess}?)` : ''}`;
+      return p;
+    }
+    case 'pattern': {
+      const p = base(valuePlace);
+      p.field = field;
+      p.found = foundWords(value);
+      if (field === 'id') {
+        const slug = String(value).toLowerCase().replace(/[^a-z0-9_-]+/g, '-').replace(/^[-_]+|[-_]+$/g, '');
+        p.problem = `the claim id may hold only lower-case letters, digits, - and _, and must start with a letter or digit`;
+        p.fix = slug ? `Write it as ${slug}` : 'Write a short name such as feedback-below-region';
+      } else {
+        p.problem = `"${field}" is not written in the expected form`;
+        p.fix = String(parentSchema.description ?? 'See the description of this key');
+      }
+      return p;
+    }
+    case 'minLength': {
+      const p = base(valuePlace);
+      p.field = field;
+      p.problem = `"${field}" is empty in ${describeOwner(data, path.slice(0, -1))}`;
+      p.fix = `Write a value after "${field}:"`;
+      return p;
+    }
+    case 'minItems': {
+      const p = base(valuePlace);
+      p.field = field;
+      p.problem = `the list "${field}" is empty in ${describeOwner(data, path.slice(0, -1))}`;
+      p.fix = field === 'claims' ? 'Add at least one claim, starting with "- id: ..."' : `Put at least one item in ${field}`;
+      return p;
+    }
+    case 'minProperties': {
+      const p = base(valuePlace);
+      p.field = field;
+      p.problem = `"${field}" is empty in ${describeOwner(data, path.slice(0, -1))}`;
+      p.fix = field === 'sources' ? `Add ${EXAMPLE.sources}` : `Add at least one column and value, e.g. ${EXAMPLE[String(field)] ?? `${field}: { column: value }`}`;
+      return p;
+    }
+    case 'minimum': {
+      const limit = (e.params as { limit: number }).limit;
+      const p = base(valuePlace);
+      p.field = field;
+      p.found = foundWords(value);
+      p.problem = `"${field}" must be at least ${limit}`;
+      p.fix = `Write a whole number of ${limit} or more, e.g. 10`;
+      return p;
+    }
+    case 'uniqueItems': {
+      const p = base(valuePlace);
+      p.field = field;
+      p.problem = `the list "${field}" holds the same item twice in ${describeOwner(data, path.slice(0, -1))}`;
+      p.fix = 'Remove the repeated item';
+      return p;
+    }
+    default: {
+      const p = base(valuePlace);
+      if (field !== undefined) p.field = field;
+      p.problem = `${describeOwner(data, path)} does not fit the claims file format (${e.message ?? e.keyword})`;
+      p.fix = 'Compare it with the example claims file and the descriptions in schema/claims.schema.json';
+      return p;
+    }
+  }
+}
+
+/** ", for a compare claim" when the requirement comes from a kind/shape branch. */
+function requiredWhy(schema: JsonSchema, missing: string, value: unknown): string {
+  if ((schema.required ?? []).includes(missing) && schema.properties !== undefined && 'additionalProperties' in schema) {
+    return '';
+  }
+  const kind = get(value, ['kind']);
+  if (typeof kind === 'string') return ` for a ${kind} claim`;
+  const shape = get(value, ['shape']);
+  if (typeof shape === 'string') return ` for a source of shape ${shape}`;
+  return '';
+}
+

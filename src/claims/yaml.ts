@@ -1,0 +1,263 @@
+/**
+ * YAML text -> plain data, keeping the parsed document so that any value can be traced back to its line and column.
+ * YAML syntax errors become problems in plain words with the parser's own reason attached.
+ */
+import { isAlias, isMap, isPair, isScalar, isSeq, LineCounter, parseDocument, visit } from 'yaml';
+import type { Document, Node, ParsedNode } from 'yaml';
+import type { Problem } from '../errors.js';
+import type { Place } from './types.js';
+
+/** Guard against alias bombs ("billion laughs"): at most this many values may be produced through aliases. */
+export const MAX_ALIAS_COUNT = 1000;
+
+export interface ParsedYaml {
+  doc: Document.Parsed;
+  lines: LineCounter;
+  text: string;
+  data: unknown;
+}
+
+export type YamlOutcome = { ok: true; parsed: ParsedYaml } | { ok: false; problems: Problem[] };
+
+/** Plain-words reasons and fixes for the parser's error codes. */
+const SYNTAX: Record<string, { problem: string; fix: string }> = {
+  TAB_AS_INDENT: {
+    problem: 'a tab is used for indenting, which YAML does not allow',
+    fix: 'Indent with spaces only (two per level is usual)',
+  },
+  BAD_INDENT: {
+    problem: 'this line is not indented in line with the lines around it',
+    fix: 'Line it up with the other keys at the same level, using spaces',
+  },
+  BLOCK_AS_IMPLICIT_KEY: {
+    problem: 'this line is indented as if it belonged to the key before it, but that key already has a value on its own line',
+    fix: 'Line the key up with the one above it, or move the value of the key above onto lines of its own',
+  },
+  MULTILINE_IMPLICIT_KEY: {
+    problem: 'a key runs over more than one line, usually because a colon or an indent is missing on the line before',
+    fix: 'Check that every key on the lines above is followed by a colon and a space, and that indents line up',
+  },
+  DUPLICATE_KEY: {
+    problem: 'the same key is written twice in one mapping',
+    fix: 'Keep one of the two lines and delete the other',
+  },
+  BAD_DQ_ESCAPE: {
+    problem: 'a backslash inside double quotes starts an escape sequence YAML does not know',
+    fix: "Use single quotes around this value, or write each backslash twice",
+  },
+  BAD_SCALAR_START: {
+    problem: 'a value starts with a character that YAML reserves (such as @, ` or %)',
+    fix: 'Put the value in quotes',
+  },
+  MULTIPLE_DOCS: {
+    problem: 'the file holds more than one YAML document (there is a line with --- after the content started)',
+    fix: 'Keep a single document: delete the second --- line, or move the claims into one file',
+  },
+  BAD_ALIAS: {
+    problem: 'an alias (*name) refers to an anchor (&name) that is not defined before it',
+    fix: 'Define the anchor with &name before using *name, or write the value out in full',
+  },
+  MISSING_CHAR: {
+    problem: 'a bracket, quote, comma or colon is missing',
+    fix: 'Close every [ with ], every { with }, every quote with a matching quote, and put ": " after each key',
+  },
+  UNEXPECTED_TOKEN: {
+    problem: 'something here does not fit the structure around it',
+    fix: 'Check the indentation, colons and quotes on this line and the line before',
+  },
+  RESOURCE_EXHAUSTION: {
+    problem: 'the file nests brackets or lists too deeply to be read',
+    fix: 'Write the claims file as plain keys and lists, nested a few levels at most',
+  },
+  KEY_OVER_1024_CHARS: {
+    problem: 'a key is longer than 1024 characters',
+    fix: 'Shorten the key; long text belongs in a value',
+  },
+};
+const SYNTAX_DEFAULT = {
+  problem: 'this is not valid YAML',
+  fix: 'Check the indentation, colons and quotes on this line and the line before',
+};
+
+function placeOf(lines: LineCounter, offset: number): Place {
+  const { line, col } = lines.linePos(offset);
+  return { line: Math.max(1, line), column: Math.max(1, col) };
+}
+
+/** Parse YAML text. Only syntax problems are reported here; what the data mean is checked later. */
+export function parseYaml(text: string, file: string): YamlOutcome {
+  const lines = new LineCounter();
+  let doc: Document.Parsed;
+  try {
+    doc = parseDocument(text, { lineCounter: lines, prettyErrors: false, merge: true, uniqueKeys: true });
+  } catch (e) {
+    // The parser itself gave up (for example the call stack ran out on extreme nesting).
+    return {
+      ok: false,
+      problems: [{ file, line: 1, column: 1, problem: SYNTAX.RESOURCE_EXHAUSTION!.problem, fix: SYNTAX.RESOURCE_EXHAUSTION!.fix, found: String((e as Error)?.message ?? e) }],
+    };
+  }
+  if (doc.errors.length > 0) {
+    // After the first structural error the parser's later complaints are mostly echoes of it; duplicated keys are
+    // independent, so keep those that come before the first structural error.
+    const sorted = [...doc.errors].sort((a, b) => a.pos[0] - b.pos[0]);
+    const problems: Problem[] = [];
+    for (const err of sorted) {
+      const words = SYNTAX[err.code] ?? SYNTAX_DEFAULT;
+      const place = placeOf(lines, err.pos[0]);
+      const reason = err.message.split('\n')[0]!.replace(/\s*at line \d+, column \d+:?$/, '');
+      const problem: Problem = {
+        file,
+        line: place.line,
+        column: place.column,
+        problem: `${words.problem} (the YAML reader says: ${reason.replace(/\.$/, '')})`,
+        fix: words.fix,
+      };
+      if (err.code === 'DUPLICATE_KEY') {
+        const key = text.slice(err.pos[0], err.pos[1]).split(/[:\n]/)[0]!.trim();
+        if (key) problem.field = key;
+        problems.push(problem);
+        continue;
+      }
+      problems.push(problem);
+      break;
+    }
+    return { ok: false, problems };
+  }
+  if (doc.contents === null || (isScalar(doc.contents) && doc.contents.value === null)) {
+    return {
+      ok: false,
+      problems: [
+        {
+          file,
+          line: 1,
+          column: 1,
+          problem: 'the claims file is empty',
+          fix: 'Write at least title, organisation, sources and claims; see the example in the documentation',
+        },
+      ],
+    };
+  }
+  let data: unknown;
+  try {
+    data = doc.toJS({ maxAliasCount: MAX_ALIAS_COUNT });
+  } catch (e) {
+    const message = e instanceof Error ? e.message : String(e);
+    let firstAlias: Place = { line: 1, column: 1 };
+    visit(doc, {
+      Alias(_key, node) {
+        if (node.range) firstAlias = placeOf(lines, node.range[0]);
+        return visit.BREAK;
+      },
+    });
+    const bomb = /excessive alias/i.test(message);
+    return {
+      ok: false,
+      problems: [
+        {
+          file,
+          ...firstAlias,
+          problem: bomb
+            ? `aliases (*name) here expand to more than ${MAX_ALIAS_COUNT} values, which a claims file never needs`
+            : `an alias could not be resolved (the YAML reader says: ${message.replace(/\.$/, '')})`,
+          fix: bomb
+            ? 'Write the values out, or use each anchor only a few times'
+            : 'Define the anchor with &name before using *name, or write the value out in full',
+        },
+      ],
+    };
+  }
+  return { ok: true, parsed: { doc, lines, text, data } };
+}
+
+type Segment = string | number;
+
+/** What a path into the data points at in the YAML: the value node and, for a mapping entry, its key node. */
+export interface Located {
+  value?: Place;
+  key?: Place;
+  /** The closest enclosing node that was found, when the path could not be followed to its end. */
+  nearest: Place;
+}
+
+function nodeStart(lines: LineCounter, node: Node | null | undefined): Place | undefined {
+  const range = (node as ParsedNode | null | undefined)?.range;
+  return range ? placeOf(lines, range[0]) : undefined;
+}
+
+function findPair(doc: Document.Parsed, map: unknown, key: string, depth = 0): { key: Node | null; value: Node | null } | undefined {
+  if (!isMap(map) || depth > 20) return undefined;
+  for (const pair of map.items) {
+    if (!isPair(pair)) continue;
+    const k = pair.key;
+    const kv = isScalar(k) ? k.value : k;
+    if (kv !== null && typeof kv !== 'object' && String(kv) === key) {
+      return { key: k as Node | null, value: pair.value as Node | null };
+    }
+  }
+  // Keys brought in by a merge key (<<: *defaults) live in the anchored mapping.
+  for (const pair of map.items) {
+    if (isPair(pair) && isScalar(pair.key) && pair.key.value === '<<') {
+      const targets = isSeq(pair.value) ? pair.value.items : [pair.value];
+      for (const t of targets) {
+        const resolved = isAlias(t) ? t.resolve(doc) : t;
+        const found = findPair(doc, resolved, key, depth + 1);
+        if (found) return found;
+      }
+    }
+  }
+  return undefined;
+}
+
+/**
+ * Follow a path (object keys and list indexes) through the YAML document. A path that passes through an alias stops
+ * there, so the place reported is where the alias is used.
+ */
+export function locate(parsed: ParsedYaml, path: readonly Segment[]): Located {
+  const { doc, lines } = parsed;
+  let node: unknown = doc.contents;
+  let keyNode: Node | null | undefined;
+  let nearest: Place = nodeStart(lines, doc.contents) ?? { line: 1, column: 1 };
+  for (let i = 0; i < path.length; i++) {
+    const seg = path[i]!;
+    if (isAlias(node)) {
+      return { nearest: nodeStart(lines, node) ?? nearest };
+    }
+    if (isMap(node)) {
+      const found = findPair(doc, node, String(seg));
+      if (!found) return { nearest };
+      keyNode = found.key;
+      node = found.value;
+      const here = nodeStart(lines, found.value) ?? nodeStart(lines, found.key);
+      if (here) nearest = here;
+    } else if (isSeq(node) && typeof seg === 'number' || (isSeq(node) && /^\d+$/.test(String(seg)))) {
+      const item = (node as { items: unknown[] }).items[Number(seg)];
+      if (item === undefined) return { nearest };
+      keyNode = undefined;
+      node = item;
+      const here = nodeStart(lines, item as Node);
+      if (here) nearest = here;
+    } else {
+      return { nearest };
+    }
+  }
+  const located: Located = { nearest };
+  const v = nodeStart(lines, node as Node | null);
+  if (v) located.value = v;
+  const k = nodeStart(lines, keyNode);
+  if (k) located.key = k;
+  return located;
+}
+
+/** The text of a value exactly as written (without surrounding quotes), for messages such as "you wrote 95%". */
+export function writtenText(parsed: ParsedYaml, path: readonly Segment[]): string | undefined {
+  let node: unknown = parsed.doc.contents;
+  for (const seg of path) {
+    if (isMap(node)) node = findPair(parsed.doc, node, String(seg))?.value;
+    else if (isSeq(node)) node = node.items[Number(seg)];
+    else return undefined;
+  }
+  if (!isScalar(node) || !node.range) return undefined;
+  const raw = parsed.text.slice(node.range[0], node.range[1]).trim();
+  return typeof node.value === 'string' ? node.value.trim() : raw;
+}
