@@ -23,7 +23,8 @@ export interface Decision {
 }
 
 export function decide(analysis: Analysis, pAdjusted: number | undefined): Decision {
-  const alpha = 1 - analysis.claim.confidence;
+  // Rounded so that 1 - 0.95 is 0.05 exactly, not 0.050000000000000044: p = 0.05 is not below alpha.
+  const alpha = Number((1 - analysis.claim.confidence).toFixed(12));
   if (analysis.status === 'too-little-data' || !analysis.test || pAdjusted === undefined) {
     return { verdict: 'too-little-data', alpha };
   }
