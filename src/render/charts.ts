@@ -1,0 +1,318 @@
+/**
+ * Charts for the evidence pack: ChartData -> Vega-Lite spec -> Vega view (headless, no canvas) -> SVG string.
+ * The SVG is drawn into the PDF as vectors by pdf.ts. Text widths inside Vega are measured with the same Noto Sans
+ * faces the PDF embeds (fonts.ts), so axis labels are placed and sized as they will be drawn.
+ *
+ *   ChartData --chartSpec--> Vega-Lite spec --vega-lite compile--> Vega spec --View(renderer none)--> SVG
+ */
+import type { ChartData } from './model.js';
+import { CHART_FONT_FAMILY, faceFor, textWidth } from './fonts.js';
+
+/**
+ * Chart palette (our own). Safe for colour-blind readers because the three colours differ strongly in lightness
+ * (dark blue about L* 35, orange about L* 60, light grey-blue about L* 75), so they stay distinct in greyscale and
+ * under every common colour-vision deficiency; blue against orange is also the hue pair dichromats separate best.
+ * No meaning is carried by colour alone: the reference line is also dashed and labelled.
+ */
+export const PALETTE = {
+  ink: '#1d2733',
+  muted: '#5b6673',
+  grid: '#e3e6ea',
+  primary: '#1f4e8c',
+  secondary: '#c4620f',
+  light: '#9db8d6',
+} as const;
+
+/** Outer size of every chart in points (the PDF draws the SVG at 1 px = 1 pt). */
+export const CHART_WIDTH = 460;
+export const CHART_HEIGHT = 200;
+
+const AXIS_LABEL_SIZE = 9;
+const AXIS_TITLE_SIZE = 9.5;
+
+function baseConfig(): Record<string, unknown> {
+  return {
+    font: CHART_FONT_FAMILY,
+    background: '#ffffff',
+    view: { stroke: null },
+    axis: {
+      labelFont: CHART_FONT_FAMILY,
+      titleFont: CHART_FONT_FAMILY,
+      labelFontSize: AXIS_LABEL_SIZE,
+      titleFontSize: AXIS_TITLE_SIZE,
+      titleFontWeight: 'normal',
+      labelColor: PALETTE.ink,
+      titleColor: PALETTE.ink,
+      domainColor: PALETTE.muted,
+      tickColor: PALETTE.muted,
+      gridColor: PALETTE.grid,
+      labelLimit: 0,
+      titlePadding: 8,
+    },
+    text: { font: CHART_FONT_FAMILY, fontSize: AXIS_LABEL_SIZE, color: PALETTE.ink },
+  };
+}
+
+/** Round a fraction down (or up) to a tenth, for a dot-plot axis that does not need to start at zero. */
+function tenthFloor(v: number): number {
+  return Math.max(0, Math.floor(v * 10 + 1e-9) / 10);
+}
+function tenthCeil(v: number): number {
+  return Math.min(1, Math.ceil(v * 10 - 1e-9) / 10);
+}
+
+function requireFinite(value: number, what: string): void {
+  if (!Number.isFinite(value)) throw new Error(`Chart data: ${what} is ${value}; a finite number is required.`);
+}
+
+/** Group digits of a count with commas, e.g. 18500 -> "18,500". */
+function count(n: number): string {
+  return Math.round(n).toLocaleString('en-GB');
+}
+
+/** Outer height of a rates chart: about 30 pt a row plus the axis, within 110..CHART_HEIGHT + 60. */
+export function ratesChartHeight(rows: number): number {
+  return Math.max(110, Math.min(CHART_HEIGHT + 60, 56 + rows * 30));
+}
+
+function ratesSpec(data: Extract<ChartData, { kind: 'rates' }>): Record<string, unknown> {
+  if (data.bars.length === 0) throw new Error('Chart data: a rates chart needs at least one bar.');
+  const values = data.bars.map((b, i) => {
+    requireFinite(b.rate, `rate of "${b.label}"`);
+    requireFinite(b.lower, `lower bound of "${b.label}"`);
+    requireFinite(b.upper, `upper bound of "${b.label}"`);
+    return {
+      order: i,
+      row: `${b.label} (n = ${count(b.n)})`,
+      rate: b.rate,
+      lower: b.lower,
+      upper: b.upper,
+      rateText: `${Math.round(b.rate * 100)}%`,
+    };
+  });
+  const all = data.bars.flatMap((b) => [b.lower, b.upper, b.rate]);
+  if (data.reference) {
+    requireFinite(data.reference.value, 'reference value');
+    all.push(data.reference.value);
+  }
+  let lo = tenthFloor(Math.min(...all) - 0.02);
+  let hi = tenthCeil(Math.max(...all) + 0.06);
+  if (hi - lo < 0.2) {
+    const mid = (hi + lo) / 2;
+    lo = tenthFloor(mid - 0.1);
+    hi = tenthCeil(lo + 0.2);
+  }
+  const rowOrder = values.map((v) => v.row);
+  const y = {
+    field: 'row',
+    type: 'nominal',
+    sort: rowOrder,
+    title: null,
+    axis: { labelFontSize: AXIS_LABEL_SIZE, labelPadding: 6, ticks: false, domain: false, labelLimit: 0 },
+    scale: { paddingOuter: 0.5 },
+  };
+  const xScale = { domain: [lo, hi], nice: false, zero: false };
+  const layers: Array<Record<string, unknown>> = [
+    {
+      mark: { type: 'rule', color: PALETTE.primary, strokeWidth: 2 },
+      encoding: {
+        y,
+        x: {
+          field: 'lower',
+          type: 'quantitative',
+          scale: xScale,
+          title: data.axisTitle,
+          axis: { format: '.0%', grid: true, tickCount: Math.round((hi - lo) * 10), domain: false },
+        },
+        x2: { field: 'upper' },
+      },
+    },
+    {
+      mark: { type: 'tick', color: PALETTE.primary, orient: 'vertical', size: 10, thickness: 2 },
+      encoding: { y, x: { field: 'lower', type: 'quantitative' } },
+    },
+    {
+      mark: { type: 'tick', color: PALETTE.primary, orient: 'vertical', size: 10, thickness: 2 },
+      encoding: { y, x: { field: 'upper', type: 'quantitative' } },
+    },
+    {
+      mark: { type: 'point', filled: true, size: 70, color: PALETTE.primary, opacity: 1, stroke: '#ffffff', strokeWidth: 1 },
+      encoding: { y, x: { field: 'rate', type: 'quantitative' } },
+    },
+    {
+      mark: { type: 'text', align: 'left', dx: 7, baseline: 'middle', color: PALETTE.ink, fontWeight: 'bold' },
+      encoding: { y, x: { field: 'upper', type: 'quantitative' }, text: { field: 'rateText', type: 'nominal' } },
+    },
+  ];
+  if (data.reference) {
+    const ref = [{ value: data.reference.value, label: data.reference.label }];
+    layers.unshift(
+      {
+        data: { values: ref },
+        mark: { type: 'rule', color: PALETTE.secondary, strokeDash: [5, 3], strokeWidth: 1.5 },
+        encoding: { x: { field: 'value', type: 'quantitative' } },
+      },
+      {
+        data: { values: ref },
+        mark: { type: 'text', align: 'left', baseline: 'top', dx: 4, y: 0, color: PALETTE.secondary, fontStyle: 'italic' },
+        encoding: { x: { field: 'value', type: 'quantitative' }, text: { field: 'label', type: 'nominal' } },
+      },
+    );
+  }
+  return {
+    $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
+    width: CHART_WIDTH,
+    height: ratesChartHeight(data.bars.length),
+    autosize: { type: 'fit', contains: 'padding' },
+    padding: { left: 2, right: 8, top: 6, bottom: 2 },
+    config: baseConfig(),
+    data: { values },
+    layer: layers,
+  };
+}
+
+function scatterSpec(data: Extract<ChartData, { kind: 'scatter' }>): Record<string, unknown> {
+  if (data.points.length === 0) throw new Error('Chart data: a scatter chart needs at least one point.');
+  for (const p of data.points) {
+    requireFinite(p.x, `x of "${p.label}"`);
+    requireFinite(p.y, `y of "${p.label}"`);
+  }
+  const fmt = data.percent ? '.0%' : '~g';
+  const xs = data.points.map((p) => p.x);
+  const xScale = { zero: false, nice: true };
+  const yScale = { zero: false, nice: true };
+  const layers: Array<Record<string, unknown>> = [
+    {
+      data: { values: data.points.map((p) => ({ label: p.label, x: p.x, y: p.y, n: p.n })) },
+      mark: { type: 'point', filled: true, size: 40, color: PALETTE.primary, opacity: 0.8 },
+      encoding: {
+        x: { field: 'x', type: 'quantitative', title: data.xTitle, scale: xScale, axis: { format: fmt, grid: true } },
+        y: { field: 'y', type: 'quantitative', title: data.yTitle, scale: yScale, axis: { format: fmt, grid: true } },
+      },
+    },
+  ];
+  if (data.points.length <= 10) {
+    layers.push({
+      data: { values: data.points.map((p) => ({ label: p.label, x: p.x, y: p.y })) },
+      mark: { type: 'text', align: 'left', baseline: 'middle', dx: 6, color: PALETTE.muted, fontSize: 8 },
+      encoding: {
+        x: { field: 'x', type: 'quantitative' },
+        y: { field: 'y', type: 'quantitative' },
+        text: { field: 'label', type: 'nominal' },
+      },
+    });
+  }
+  if (data.fit) {
+    requireFinite(data.fit.intercept, 'fit intercept');
+    requireFinite(data.fit.slope, 'fit slope');
+    const x0 = Math.min(...xs);
+    const x1 = Math.max(...xs);
+    const line = [x0, x1].map((x) => ({ x, y: data.fit!.intercept + data.fit!.slope * x }));
+    layers.push({
+      data: { values: line },
+      mark: { type: 'line', color: PALETTE.secondary, strokeWidth: 1.75 },
+      encoding: { x: { field: 'x', type: 'quantitative' }, y: { field: 'y', type: 'quantitative' } },
+    });
+  }
+  if (data.note) {
+    layers.push({
+      data: { values: [{ note: data.note }] },
+      mark: { type: 'text', align: 'left', baseline: 'top', x: 6, y: 4, color: PALETTE.ink, fontWeight: 'bold', fontSize: 10 },
+      encoding: { text: { field: 'note', type: 'nominal' } },
+    });
+  }
+  return {
+    $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
+    width: CHART_WIDTH,
+    height: CHART_HEIGHT,
+    autosize: { type: 'fit', contains: 'padding' },
+    padding: { left: 2, right: 8, top: 6, bottom: 2 },
+    config: baseConfig(),
+    layer: layers,
+  };
+}
+
+/** The Vega-Lite spec for a chart. Pure: same data, same spec. */
+export function chartSpec(data: ChartData): object {
+  switch (data.kind) {
+    case 'rates':
+      return ratesSpec(data);
+    case 'scatter':
+      return scatterSpec(data);
+    default: {
+      const never: never = data;
+      throw new Error(`Chart data: unknown chart kind ${JSON.stringify((never as { kind: unknown }).kind)}.`);
+    }
+  }
+}
+
+interface VegaTextItem {
+  fontSize?: number;
+  fontWeight?: string | number;
+  fontStyle?: string;
+}
+
+let metricsInstalled = false;
+
+type VegaModule = typeof import('vega');
+type VegaLiteModule = typeof import('vega-lite');
+let libs: Promise<{ vega: VegaModule; vl: VegaLiteModule }> | undefined;
+
+/** Load vega and vega-lite on first use (each costs a few tenths of a second to import). */
+async function loadLibs(): Promise<{ vega: VegaModule; vl: VegaLiteModule }> {
+  libs ??= Promise.all([import('vega'), import('vega-lite')]).then(([vega, vl]) => {
+    if (!metricsInstalled) {
+      // Vega without a canvas guesses 0.8 em per character; measure with the embedded faces instead.
+      const metrics = (vega as unknown as { textMetrics: { width: (item: VegaTextItem, text: unknown) => number } })
+        .textMetrics;
+      metrics.width = (item: VegaTextItem, text: unknown): number => {
+        const s = text == null ? '' : String(text).trim();
+        return textWidth(s, item.fontSize ?? 11, faceFor(item.fontWeight, item.fontStyle));
+      };
+      metricsInstalled = true;
+    }
+    return { vega, vl };
+  });
+  return libs;
+}
+
+/** Compile a chart to a Vega spec, collecting every Vega-Lite warning (a correct spec compiles with none). */
+export async function compileChart(data: ChartData): Promise<{ vegaSpec: object; warnings: string[] }> {
+  const { vl } = await loadLibs();
+  const warnings: string[] = [];
+  const logger: Record<string, (...args: unknown[]) => unknown> = {
+    level() {
+      return logger;
+    },
+    warn(...args: unknown[]) {
+      warnings.push(args.map(String).join(' '));
+      return logger;
+    },
+    info() {
+      return logger;
+    },
+    debug() {
+      return logger;
+    },
+    error(...args: unknown[]) {
+      throw new Error(`Vega-Lite error: ${args.map(String).join(' ')}`);
+    },
+  };
+  const result = vl.compile(chartSpec(data) as Parameters<VegaLiteModule['compile']>[0], {
+    logger: logger as unknown as NonNullable<Parameters<VegaLiteModule['compile']>[1]>['logger'],
+  });
+  return { vegaSpec: result.spec, warnings };
+}
+
+/** The chart as an SVG string, rendered headless (no canvas). */
+export async function chartSvg(data: ChartData): Promise<string> {
+  const { vega } = await loadLibs();
+  const { vegaSpec, warnings } = await compileChart(data);
+  if (warnings.length > 0) throw new Error(`Chart spec has Vega-Lite warnings: ${warnings.join('; ')}`);
+  const view = new vega.View(vega.parse(vegaSpec as Parameters<VegaModule['parse']>[0]), { renderer: 'none' });
+  try {
+    return await view.toSVG();
+  } finally {
+    view.finalize();
+  }
+}

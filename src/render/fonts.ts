@@ -1,0 +1,99 @@
+/**
+ * The fonts of the evidence pack: Noto Sans (SIL Open Font License) static TrueType faces from the
+ * @expo-google-fonts/noto-sans package, located through Node's module resolution rather than a fixed path.
+ * Only TTF is used: pdfkit embeds and subsets it, accented glyphs included, and the same bytes feed the
+ * width measurement below, so what is measured for layout is what gets drawn.
+ */
+import { createRequire } from 'node:module';
+import { readFileSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import * as fontkit from 'fontkit';
+
+export type Face = 'regular' | 'bold' | 'italic';
+
+/** Family name used in chart specs; the SVG font callback maps it back to one of our faces. */
+export const CHART_FONT_FAMILY = 'Noto Sans';
+
+const FACE_FILES: Record<Face, string> = {
+  regular: '400Regular/NotoSans_400Regular.ttf',
+  bold: '700Bold/NotoSans_700Bold.ttf',
+  italic: '400Regular_Italic/NotoSans_400Regular_Italic.ttf',
+};
+
+/** The pdfkit names under which the faces are registered. */
+export const FONT_NAME: Record<Face, string> = {
+  regular: 'Warrant-Regular',
+  bold: 'Warrant-Bold',
+  italic: 'Warrant-Italic',
+};
+
+let packageDir: string | undefined;
+
+function fontPackageDir(): string {
+  if (packageDir === undefined) {
+    const require = createRequire(import.meta.url);
+    packageDir = dirname(require.resolve('@expo-google-fonts/noto-sans/package.json'));
+  }
+  return packageDir;
+}
+
+/** Absolute path of the TTF file for a face. */
+export function fontPath(face: Face): string {
+  return join(fontPackageDir(), FACE_FILES[face]);
+}
+
+const bytesCache = new Map<Face, Buffer>();
+const fontCache = new Map<Face, fontkit.Font>();
+
+/** The TTF bytes of a face (read once). */
+export function fontBytes(face: Face): Buffer {
+  let bytes = bytesCache.get(face);
+  if (bytes === undefined) {
+    const path = fontPath(face);
+    try {
+      bytes = readFileSync(path);
+    } catch (e) {
+      throw new Error(
+        `The font file ${path} could not be read (${(e as Error).message}); ` +
+          'reinstall the @expo-google-fonts/noto-sans package.',
+      );
+    }
+    bytesCache.set(face, bytes);
+  }
+  return bytes;
+}
+
+function fontFor(face: Face): fontkit.Font {
+  let font = fontCache.get(face);
+  if (font === undefined) {
+    font = fontkit.create(fontBytes(face));
+    fontCache.set(face, font);
+  }
+  return font;
+}
+
+/** Width in points of `text` set in `face` at `size` points, with the font's own advances and kerning. */
+export function textWidth(text: string, size: number, face: Face = 'regular'): number {
+  if (text.length === 0 || size <= 0) return 0;
+  const font = fontFor(face);
+  return (font.layout(text).advanceWidth / font.unitsPerEm) * size;
+}
+
+/** The face that a CSS-like weight and style select: bold for weights of 600 and over or "bold", else italic or regular. */
+export function faceFor(weight: unknown, style: unknown): Face {
+  const w = typeof weight === 'number' ? weight : typeof weight === 'string' ? weight.trim().toLowerCase() : '';
+  const bold = w === 'bold' || w === 'bolder' || (typeof w === 'number' ? w >= 600 : Number(w) >= 600);
+  if (bold) return 'bold';
+  return style === 'italic' || style === 'oblique' ? 'italic' : 'regular';
+}
+
+/** True when every character of `text` has a glyph in the regular face (whitespace aside). */
+export function hasGlyphs(text: string, face: Face = 'regular'): boolean {
+  const font = fontFor(face);
+  for (const ch of text) {
+    const cp = ch.codePointAt(0)!;
+    if (/\s/.test(ch)) continue;
+    if (!font.hasGlyphForCodePoint(cp)) return false;
+  }
+  return true;
+}

@@ -1,0 +1,758 @@
+/**
+ * The evidence pack as a PDF: layout only. Every sentence and number comes ready-made in the PackModel.
+ *
+ * Properties the committee (and anyone checking the pack) can rely on:
+ * - Deterministic: the info dates are fixed (from options or a fixed epoch), so two builds are byte-identical.
+ * - Tagged PDF 1.7 (ISO 32000-1, section 14.8): a structure tree in reading order (H1/H2/H3, P, Table/TR/TH/TD,
+ *   L/LI/LBody, Figure with alt text), page furniture (header, footer, rules, shading, verdict marks) marked as
+ *   Artifact, document language en-GB and the title shown in the viewer's title bar.
+ * - Bookmarks for every main section and every claim.
+ * - Nothing overflows: every block is measured with the same font before it is drawn, moved to a new page when it
+ *   does not fit, and tables repeat their header row on each page they continue on.
+ */
+import PDFDocument from 'pdfkit';
+import SVGtoPDF from 'svg-to-pdfkit';
+import type { ChartData, ClaimSection, PackModel, VerdictKind } from './model.js';
+import { FONT_NAME, fontBytes, type Face } from './fonts.js';
+import { chartSvg } from './charts.js';
+
+type Doc = PDFKit.Document;
+type Struct = PDFKit.StructureElement;
+
+export interface RenderOptions {
+  /** Date written into the PDF info dictionary; defaults to a fixed epoch so that builds repeat byte for byte. */
+  createdAt?: Date;
+}
+
+/** The fixed date used when no creation date is given (a build must not depend on the clock). */
+export const FIXED_EPOCH = new Date(Date.UTC(2000, 0, 1, 0, 0, 0));
+
+// ---- Page geometry (points; A4 is 595.28 x 841.89) ----
+const PAGE = { width: 595.28, height: 841.89 };
+const MARGIN = { top: 76, bottom: 72, left: 66, right: 66 };
+const CONTENT_WIDTH = PAGE.width - MARGIN.left - MARGIN.right;
+const CONTENT_BOTTOM = PAGE.height - MARGIN.bottom;
+/** Slack kept under every block so that rounding in line heights can never push text past the margin. */
+const SLACK = 2;
+
+// ---- Typography: one accent colour, body 10.5 pt, headings 16 / 13 pt ----
+const COLOR = {
+  ink: '#1d2733',
+  muted: '#5b6673',
+  accent: '#1f4e8c',
+  rule: '#cfd5dc',
+  shade: '#f1f4f8',
+} as const;
+const SIZE = { title: 24, h2: 16, h3: 13, sub: 10.5, body: 10.5, table: 9.5, small: 8.5, furniture: 8 } as const;
+const LINE_GAP = 2.2;
+const PARA_GAP = 8;
+
+/** Verdict marks: a shape for each verdict, so the verdict never rests on colour alone. */
+const MARK_DESCRIPTION: Record<VerdictKind, string> = {
+  supported: 'filled circle',
+  'not-supported': 'hollow circle',
+  opposite: 'downward triangle',
+  'too-little-data': 'dash',
+};
+
+interface Cell {
+  text: string;
+  face?: Face;
+  mark?: VerdictKind;
+}
+
+interface Column {
+  header: string;
+  width: number;
+  face?: Face;
+}
+
+/** A unit of layout: measured first, then drawn where it fits. */
+interface Block {
+  /** Full height including the space after it. */
+  height(): number;
+  /** Height that must fit on the current page before the block may start (tables: header plus first row). */
+  minHeight(): number;
+  /** Keep this block on the same page as the start of the next one (headings). */
+  keepWithNext?: boolean;
+  draw(parent: Struct): void;
+}
+
+class Layout {
+  readonly doc: Doc;
+  constructor(doc: Doc) {
+    this.doc = doc;
+  }
+
+  get y(): number {
+    return this.doc.y;
+  }
+  set y(v: number) {
+    this.doc.y = v;
+  }
+
+  remaining(): number {
+    return CONTENT_BOTTOM - SLACK - this.doc.y;
+  }
+
+  atTop(): boolean {
+    return this.doc.y <= MARGIN.top + 0.5;
+  }
+
+  newPage(): void {
+    this.doc.addPage();
+    this.doc.x = MARGIN.left;
+    this.doc.y = MARGIN.top;
+  }
+
+  ensure(height: number): void {
+    if (height > this.remaining() && !this.atTop()) this.newPage();
+  }
+
+  setFont(face: Face, size: number, color: string = COLOR.ink): void {
+    this.doc.font(FONT_NAME[face]).fontSize(size).fillColor(color);
+  }
+
+  textHeight(text: string, face: Face, size: number, width: number, lineGap = LINE_GAP): number {
+    this.doc.font(FONT_NAME[face]).fontSize(size);
+    return this.doc.heightOfString(text, { width, lineGap });
+  }
+
+  /** Draw decoration (rules, shading, marks) as an Artifact so that assistive technology skips it. */
+  artifact(draw: () => void): void {
+    this.doc.markContent('Artifact');
+    this.doc.save();
+    draw();
+    this.doc.restore();
+    this.doc.endMarkedContent();
+  }
+
+  /** Lay blocks out in order under `parent`, moving to a new page where a block (with any kept heading) does not fit. */
+  flow(blocks: Block[], parent: Struct): void {
+    blocks.forEach((block, i) => {
+      let need = block.minHeight();
+      let j = i;
+      while (blocks[j]?.keepWithNext && blocks[j + 1]) {
+        need += blocks[j + 1]!.minHeight();
+        j++;
+      }
+      if (j > i) need = need - block.minHeight() + block.height();
+      this.ensure(need);
+      block.draw(parent);
+    });
+  }
+
+  // ---- Blocks ----
+
+  heading(level: 'H1' | 'H2' | 'H3', text: string, opts: { size?: number; spaceAfter?: number; color?: string } = {}): Block {
+    const size = opts.size ?? (level === 'H1' ? SIZE.title : level === 'H2' ? SIZE.h2 : SIZE.sub);
+    const after = opts.spaceAfter ?? (level === 'H3' ? 4 : 10);
+    const color = opts.color ?? (level === 'H3' ? COLOR.accent : COLOR.ink);
+    const h = (): number => this.textHeight(text, 'bold', size, CONTENT_WIDTH, 1);
+    return {
+      keepWithNext: true,
+      height: () => h() + after,
+      minHeight: () => h() + after,
+      draw: (parent) => {
+        const top = this.y;
+        parent.add(
+          this.doc.struct(level, {}, () => {
+            this.setFont('bold', size, color);
+            this.doc.text(text, MARGIN.left, top, { width: CONTENT_WIDTH, lineGap: 1 });
+          }),
+        );
+        this.y = top + h() + after;
+      },
+    };
+  }
+
+  paragraph(
+    text: string,
+    opts: { face?: Face; size?: number; color?: string; spaceAfter?: number; indent?: number; tag?: string } = {},
+  ): Block {
+    const face = opts.face ?? 'regular';
+    const size = opts.size ?? SIZE.body;
+    const after = opts.spaceAfter ?? PARA_GAP;
+    const indent = opts.indent ?? 0;
+    const width = CONTENT_WIDTH - indent;
+    const h = (): number => this.textHeight(text, face, size, width);
+    return {
+      height: () => h() + after,
+      minHeight: () => Math.min(h(), 3 * (size * 1.4)) + after,
+      draw: (parent) => {
+        const top = this.y;
+        parent.add(
+          this.doc.struct(opts.tag ?? 'P', {}, () => {
+            this.setFont(face, size, opts.color ?? COLOR.ink);
+            this.doc.text(text, MARGIN.left + indent, top, { width, lineGap: LINE_GAP });
+          }),
+        );
+        this.y = Math.max(this.y, top + h()) + after;
+      },
+    };
+  }
+
+  /** The verdict paragraph on a shaded panel with an accent bar at its left edge. */
+  panel(text: string): Block {
+    const pad = 9;
+    const width = CONTENT_WIDTH - 2 * pad - 3;
+    const h = (): number => this.textHeight(text, 'regular', SIZE.body, width) + 2 * pad - LINE_GAP;
+    return {
+      height: () => h() + 12,
+      minHeight: () => h() + 12,
+      draw: (parent) => {
+        const top = this.y;
+        const height = h();
+        this.artifact(() => {
+          this.doc.rect(MARGIN.left, top, CONTENT_WIDTH, height).fill(COLOR.shade);
+          this.doc.rect(MARGIN.left, top, 3, height).fill(COLOR.accent);
+        });
+        parent.add(
+          this.doc.struct('P', {}, () => {
+            this.setFont('regular', SIZE.body);
+            this.doc.text(text, MARGIN.left + 3 + pad, top + pad, { width, lineGap: LINE_GAP });
+          }),
+        );
+        this.y = top + height + 12;
+      },
+    };
+  }
+
+  /** A bulleted list (L > LI > Lbl + LBody); the bullet glyph is drawn as a small vector dot. */
+  bullets(items: string[]): Block {
+    const indent = 14;
+    const width = CONTENT_WIDTH - indent;
+    const itemHeights = (): number[] => items.map((t) => this.textHeight(t, 'regular', SIZE.body, width) + 4);
+    return {
+      height: () => itemHeights().reduce((a, b) => a + b, 0) + 6,
+      minHeight: () => (itemHeights()[0] ?? 0) + 6,
+      draw: (parent) => {
+        const list = this.doc.struct('L');
+        parent.add(list);
+        const heights = itemHeights();
+        items.forEach((text, i) => {
+          const h = heights[i]!;
+          this.ensure(h);
+          const top = this.y;
+          const li = this.doc.struct('LI');
+          list.add(li);
+          this.artifact(() => {
+            this.doc.circle(MARGIN.left + 4, top + SIZE.body * 0.72, 1.9).fill(COLOR.accent);
+          });
+          li.add(
+            this.doc.struct('LBody', {}, () => {
+              this.setFont('regular', SIZE.body);
+              this.doc.text(text, MARGIN.left + indent, top, { width, lineGap: LINE_GAP });
+            }),
+          );
+          this.y = top + h;
+        });
+        list.end();
+        this.y += 6;
+      },
+    };
+  }
+
+  /** A small vector mark for a verdict, centred at (cx, cy), radius about r. */
+  drawMark(kind: VerdictKind, cx: number, cy: number, r = 4): void {
+    const d = this.doc;
+    d.lineWidth(1.3);
+    switch (kind) {
+      case 'supported':
+        d.circle(cx, cy, r).fill(COLOR.accent);
+        break;
+      case 'not-supported':
+        d.circle(cx, cy, r - 0.6).stroke(COLOR.accent);
+        break;
+      case 'opposite':
+        d.polygon([cx - r - 0.4, cy - r + 0.8], [cx + r + 0.4, cy - r + 0.8], [cx, cy + r + 0.6]).fill(COLOR.accent);
+        break;
+      case 'too-little-data':
+        d.rect(cx - r, cy - 1.2, 2 * r, 2.4).fill(COLOR.accent);
+        break;
+    }
+  }
+
+  /** The verdict badge of a claim: outlined box with the mark and the verdict word. */
+  badge(kind: VerdictKind, label: string): Block {
+    const size = 11;
+    const padX = 9;
+    const height = 22;
+    return {
+      height: () => height + 12,
+      minHeight: () => height + 12,
+      draw: (parent) => {
+        const top = this.y;
+        this.doc.font(FONT_NAME.bold).fontSize(size);
+        const w = Math.min(CONTENT_WIDTH, this.doc.widthOfString(label) + 2 * padX + 16);
+        this.artifact(() => {
+          this.doc.lineWidth(1).roundedRect(MARGIN.left, top, w, height, 3).stroke(COLOR.accent);
+          this.drawMark(kind, MARGIN.left + padX + 4, top + height / 2, 4.2);
+        });
+        parent.add(
+          this.doc.struct('P', {}, () => {
+            this.setFont('bold', size, COLOR.accent);
+            this.doc.text(label, MARGIN.left + padX + 14, top + (height - size * 1.36) / 2, {
+              width: w - padX - 14,
+              lineBreak: false,
+            });
+          }),
+        );
+        this.y = top + height + 12;
+      },
+    };
+  }
+
+  /**
+   * A table with a header row repeated on each page it continues on. Rows never split across pages and cell text
+   * always wraps inside its column.
+   */
+  table(columns: Column[], rows: Cell[][], opts: { header?: boolean; size?: number; spaceAfter?: number } = {}): Block {
+    const showHeader = opts.header ?? true;
+    const size = opts.size ?? SIZE.table;
+    const padX = 5;
+    const padY = 4.5;
+    const after = opts.spaceAfter ?? 12;
+    const total = columns.reduce((a, c) => a + c.width, 0);
+    const scale = CONTENT_WIDTH / total;
+    const widths = columns.map((c) => c.width * scale);
+    const markRoom = 13;
+    const cellTextWidth = (i: number, cell?: Cell): number => widths[i]! - 2 * padX - (cell?.mark ? markRoom : 0);
+    const rowHeight = (cells: Cell[], face?: Face): number =>
+      Math.max(
+        ...cells.map((cell, i) =>
+          this.textHeight(cell.text, face ?? cell.face ?? columns[i]!.face ?? 'regular', size, cellTextWidth(i, cell), 1.5),
+        ),
+      ) +
+      2 * padY -
+      1.5;
+    const headerCells: Cell[] = columns.map((c) => ({ text: c.header, face: 'bold' }));
+    const headerHeight = (): number => (showHeader ? rowHeight(headerCells, 'bold') : 0);
+
+    const drawRow = (cells: Cell[], top: number, height: number, tag: 'TH' | 'TD' | null, parent: Struct | null): void => {
+      let x = MARGIN.left;
+      cells.forEach((cell, i) => {
+        const face = tag === 'TH' || tag === null ? 'bold' : (cell.face ?? columns[i]!.face ?? 'regular');
+        let textX = x + padX;
+        if (cell.mark) {
+          const mark = cell.mark;
+          const mx = x + padX + 4.5;
+          this.artifact(() => this.drawMark(mark, mx, top + padY + size * 0.68, 3.8));
+          textX += markRoom;
+        }
+        const draw = (): void => {
+          this.setFont(face, size, tag === 'TH' || tag === null ? COLOR.muted : COLOR.ink);
+          this.doc.text(cell.text, textX, top + padY, { width: cellTextWidth(i, cell), lineGap: 1.5 });
+        };
+        if (parent && tag) parent.add(this.doc.struct(tag, {}, draw));
+        else this.artifact(draw);
+        x += widths[i]!;
+      });
+      this.artifact(() => {
+        this.doc
+          .lineWidth(tag === 'TD' ? 0.5 : 0.9)
+          .moveTo(MARGIN.left, top + height)
+          .lineTo(MARGIN.left + CONTENT_WIDTH, top + height)
+          .stroke(tag === 'TD' ? COLOR.rule : COLOR.muted);
+      });
+    };
+
+    return {
+      height: () => headerHeight() + rows.reduce((a, r) => a + rowHeight(r), 0) + after,
+      minHeight: () => headerHeight() + (rows[0] ? rowHeight(rows[0]) : 0) + after,
+      draw: (parent) => {
+        const tableEl = this.doc.struct('Table');
+        parent.add(tableEl);
+        const hh = headerHeight();
+        if (showHeader) {
+          const top = this.y;
+          const tr = this.doc.struct('TR');
+          tableEl.add(tr);
+          drawRow(headerCells, top, hh, 'TH', tr);
+          this.y = top + hh;
+        }
+        for (const row of rows) {
+          const h = rowHeight(row);
+          if (h > this.remaining() && !this.atTop()) {
+            this.newPage();
+            if (showHeader) {
+              // The repeated header is visual only: the structure tree already has the header row once.
+              const top = this.y;
+              drawRow(headerCells, top, hh, null, null);
+              this.y = top + hh;
+            }
+          }
+          const top = this.y;
+          const tr = this.doc.struct('TR');
+          tableEl.add(tr);
+          drawRow(row, top, h, 'TD', tr);
+          this.y = top + h;
+        }
+        tableEl.end();
+        this.y += after;
+      },
+    };
+  }
+
+  /** A chart drawn as vectors from SVG, tagged as a Figure with its alt text, with the alt text as a caption. */
+  figure(svg: string, alt: string): Block {
+    const { width, height } = svgSize(svg);
+    const scale = Math.min(1, CONTENT_WIDTH / width);
+    const w = width * scale;
+    const h = height * scale;
+    const captionHeight = (): number => this.textHeight(alt, 'italic', SIZE.small, CONTENT_WIDTH, 1.5);
+    return {
+      height: () => h + 6 + captionHeight() + 12,
+      minHeight: () => h + 6 + captionHeight() + 12,
+      draw: (parent) => {
+        const top = this.y;
+        const x = MARGIN.left + (CONTENT_WIDTH - w) / 2;
+        parent.add(
+          this.doc.struct('Figure', { alt, bbox: [x, top, x + w, top + h], placement: 'Block' }, () => {
+            SVGtoPDF(this.doc, svg, x, top, {
+              width: w,
+              height: h,
+              assumePt: true,
+              fontCallback: (_family, bold, italic) =>
+                bold ? FONT_NAME.bold : italic ? FONT_NAME.italic : FONT_NAME.regular,
+              warningCallback: (message) => {
+                throw new Error(`Chart SVG could not be drawn: ${message}`);
+              },
+            });
+          }),
+        );
+        // The caption repeats the alt text for sighted readers; as an Artifact it is not read twice.
+        this.artifact(() => {
+          this.setFont('italic', SIZE.small, COLOR.muted);
+          this.doc.text(alt, MARGIN.left, top + h + 6, { width: CONTENT_WIDTH, lineGap: 1.5 });
+        });
+        this.y = top + h + 6 + captionHeight() + 12;
+      },
+    };
+  }
+
+  /** Vertical space. */
+  space(points: number): Block {
+    return {
+      height: () => points,
+      minHeight: () => 0,
+      draw: () => {
+        this.y = Math.min(this.y + points, CONTENT_BOTTOM);
+      },
+    };
+  }
+}
+
+/** Width and height of an SVG from its root attributes. */
+function svgSize(svg: string): { width: number; height: number } {
+  const root = /<svg\b[^>]*>/.exec(svg)?.[0] ?? '';
+  const width = Number(/\swidth="([\d.]+)"/.exec(root)?.[1]);
+  const height = Number(/\sheight="([\d.]+)"/.exec(root)?.[1]);
+  if (!(width > 0 && height > 0)) throw new Error('Chart SVG has no width and height on its root element.');
+  return { width, height };
+}
+
+function shortHash(sha256: string): string {
+  return sha256.length > 12 ? sha256.slice(0, 12) : sha256;
+}
+
+function shorten(text: string, max: number): string {
+  const t = text.replace(/\s+/g, ' ').trim();
+  return t.length <= max ? t : `${t.slice(0, max - 1).trimEnd()}\u2026`;
+}
+
+function claimBlocks(
+  L: Layout,
+  claim: ClaimSection,
+  svg: string | undefined,
+  bookmarks: () => PDFKit.OutlineItem,
+): Block[] {
+  const blocks: Block[] = [];
+  // Heading: "Claim C1" label above the statement in the user's words, one H2 element.
+  const label = `Claim ${claim.id}`;
+  const statementHeight = (): number => L.textHeight(claim.statement, 'bold', SIZE.h3, CONTENT_WIDTH, 1.5);
+  const headH = (): number => SIZE.small * 1.4 + 3 + statementHeight() + 10;
+  blocks.push({
+    keepWithNext: true,
+    height: headH,
+    minHeight: headH,
+    draw: (parent) => {
+      const top = L.y;
+      bookmarks().addItem(`${claim.id}: ${shorten(claim.statement, 70)}`, { left: PAGE.width, top: top - 12 });
+      parent.add(
+        L.doc.struct('H2', {}, () => {
+          L.setFont('bold', SIZE.small, COLOR.accent);
+          L.doc.text(label.toUpperCase(), MARGIN.left, top, { width: CONTENT_WIDTH, characterSpacing: 0.8 });
+          L.setFont('bold', SIZE.h3);
+          L.doc.text(claim.statement, MARGIN.left, top + SIZE.small * 1.4 + 3, { width: CONTENT_WIDTH, lineGap: 1.5 });
+        }),
+      );
+      L.y = top + headH();
+    },
+  });
+  blocks.push(L.badge(claim.verdict, claim.verdictLabel));
+  blocks.push(L.heading('H3', 'What was compared'));
+  blocks.push(L.paragraph(claim.compared));
+  blocks.push(L.heading('H3', 'What was tested'));
+  blocks.push(
+    L.table(
+      [
+        { header: '', width: 130, face: 'bold' },
+        { header: '', width: 337 },
+      ],
+      [
+        [{ text: 'Null hypothesis' }, { text: claim.hypotheses.null }],
+        [{ text: 'Alternative hypothesis' }, { text: claim.hypotheses.alternative }],
+      ],
+      { header: false, size: SIZE.body - 0.5 },
+    ),
+  );
+  if (claim.numbers.length > 0) {
+    blocks.push(L.heading('H3', 'The numbers'));
+    blocks.push(
+      L.table(
+        [
+          { header: 'Quantity', width: 230 },
+          { header: 'Value', width: 237 },
+        ],
+        claim.numbers.map((r) => [{ text: r.label }, { text: r.value }]),
+      ),
+    );
+  }
+  if (claim.chart && svg) blocks.push(L.figure(svg, claim.chart.alt));
+  blocks.push(L.heading('H3', 'Verdict'));
+  blocks.push(L.panel(claim.verdictText));
+  if (claim.cautions.length > 0) {
+    blocks.push(L.heading('H3', 'Cautions'));
+    blocks.push(L.bullets(claim.cautions));
+  }
+  blocks.push(L.paragraph(claim.methodLine, { face: 'italic', size: SIZE.small, color: COLOR.muted, spaceAfter: 14 }));
+  return blocks;
+}
+
+function blocksHeight(blocks: Block[]): number {
+  return blocks.reduce((a, b) => a + b.height(), 0);
+}
+
+/** Render the evidence pack. Deterministic: the same model and options give the same bytes. */
+export async function renderPdf(model: PackModel, options: RenderOptions = {}): Promise<Buffer> {
+  if (!model.title.trim()) throw new Error('Pack model: the title is empty; a title is required for the PDF.');
+  const created = options.createdAt ?? FIXED_EPOCH;
+  if (Number.isNaN(created.getTime())) throw new Error('Render options: createdAt is not a valid date.');
+
+  // Charts first (asynchronous), then all drawing in one synchronous pass.
+  const svgs = new Map<string, string>();
+  for (const claim of model.claims) {
+    if (claim.chart) svgs.set(claim.id, await chartSvg(claim.chart.data as ChartData));
+  }
+
+  const doc = new PDFDocument({
+    size: 'A4',
+    margins: MARGIN,
+    bufferPages: true,
+    autoFirstPage: false,
+    tagged: true,
+    lang: 'en-GB',
+    displayTitle: true,
+    pdfVersion: '1.7',
+    font: null,
+    info: {
+      Title: model.title,
+      Author: model.organisation,
+      Subject: model.description ?? 'Evidence pack',
+      Creator: 'warrant',
+      Producer: 'warrant',
+      CreationDate: created,
+      ModDate: created,
+    },
+  });
+  for (const face of ['regular', 'bold', 'italic'] as const) doc.registerFont(FONT_NAME[face], fontBytes(face));
+  const chunks: Buffer[] = [];
+  doc.on('data', (c: Buffer) => chunks.push(c));
+  const finished = new Promise<Buffer>((resolve, reject) => {
+    doc.on('end', () => resolve(Buffer.concat(chunks)));
+    doc.on('error', reject);
+  });
+
+  const L = new Layout(doc);
+  L.newPage();
+  const root = doc.struct('Document');
+  doc.addStructure(root);
+  const bookmark = (title: string): PDFKit.OutlineItem => doc.outline.addItem(title, { left: PAGE.width, top: L.y - 12 });
+
+  // ---- Cover ----
+  const cover = doc.struct('Sect');
+  root.add(cover);
+  L.y = MARGIN.top + 90;
+  bookmark('Cover');
+  const coverBlocks: Block[] = [
+    L.paragraph('EVIDENCE PACK', { face: 'bold', size: SIZE.small, color: COLOR.accent, spaceAfter: 6 }),
+    L.heading('H1', model.title, { spaceAfter: 8 }),
+    L.paragraph(model.organisation, { size: SIZE.h3, color: COLOR.muted, spaceAfter: 18 }),
+  ];
+  if (model.description) coverBlocks.push(L.paragraph(model.description, { spaceAfter: 18 }));
+  coverBlocks.push(
+    L.table(
+      [
+        { header: '', width: 150, face: 'bold' },
+        { header: '', width: 317 },
+      ],
+      [
+        [{ text: 'Date' }, { text: model.date }],
+        [{ text: 'Confidence level' }, { text: model.confidenceText }],
+        [{ text: 'Adjustment for many claims' }, { text: model.adjustmentText }],
+        [{ text: 'Claims in this pack' }, { text: String(model.claims.length) }],
+      ],
+      { header: false, size: SIZE.body - 0.5, spaceAfter: 24 },
+    ),
+  );
+  if (model.sources.length > 0) {
+    coverBlocks.push(L.heading('H2', 'Data sources', { size: SIZE.h3, spaceAfter: 8 }));
+    coverBlocks.push(
+      L.table(
+        [
+          { header: 'Source', width: 150 },
+          { header: 'File', width: 150 },
+          { header: 'Rows', width: 55 },
+          { header: 'SHA-256 (first 12)', width: 112 },
+        ],
+        model.sources.map((s) => [
+          { text: s.description ? `${s.id}: ${s.description}` : s.id },
+          { text: s.file },
+          { text: s.rows.toLocaleString('en-GB') },
+          { text: shortHash(s.sha256) },
+        ]),
+      ),
+    );
+  }
+  L.flow(coverBlocks, cover);
+  cover.end();
+
+  // ---- Summary ----
+  L.newPage();
+  const summary = doc.struct('Sect');
+  root.add(summary);
+  bookmark('Summary');
+  L.flow(
+    [
+      L.heading('H2', 'Summary'),
+      L.paragraph(model.summaryIntro, { spaceAfter: 14 }),
+      L.table(
+        [
+          { header: 'Claim', width: 38, face: 'bold' },
+          { header: 'Statement', width: 205 },
+          { header: 'Verdict', width: 92 },
+          { header: 'Key figure', width: 132 },
+        ],
+        model.summary.map((r) => [
+          { text: r.id },
+          { text: r.statement },
+          { text: r.verdictLabel, mark: r.verdict },
+          { text: r.keyFigure },
+        ]),
+      ),
+      L.paragraph(
+        'Marks: ' +
+          (['supported', 'not-supported', 'opposite', 'too-little-data'] as const)
+            .filter((k) => model.summary.some((r) => r.verdict === k))
+            .map((k) => `${MARK_DESCRIPTION[k]} = ${model.summary.find((r) => r.verdict === k)!.verdictLabel}`)
+            .join('; ') +
+          '.',
+        { size: SIZE.small, color: COLOR.muted },
+      ),
+    ],
+    summary,
+  );
+  summary.end();
+
+  // ---- Claims: each on a new page unless it fits in the space left ----
+  let claimsBookmark: PDFKit.OutlineItem | undefined;
+  for (const claim of model.claims) {
+    const blocks = claimBlocks(L, claim, svgs.get(claim.id), () => claimsBookmark!);
+    if (claimsBookmark === undefined || blocksHeight(blocks) > L.remaining()) L.newPage();
+    else L.y += 10;
+    // The "Claims" bookmark points at the first claim; each claim's bookmark sits under it.
+    claimsBookmark ??= doc.outline.addItem('Claims', { left: PAGE.width, top: L.y - 12, expanded: true });
+    const sect = doc.struct('Sect');
+    root.add(sect);
+    L.flow(blocks, sect);
+    sect.end();
+  }
+
+  // ---- Closing sections ----
+  const closing = (title: string, blocks: Block[]): void => {
+    if (blocks.length === 0) return;
+    L.newPage();
+    const sect = doc.struct('Sect');
+    root.add(sect);
+    bookmark(title);
+    L.flow([L.heading('H2', title), ...blocks], sect);
+    sect.end();
+  };
+  closing('General cautions', model.generalCautions.length > 0 ? [L.bullets(model.generalCautions)] : []);
+  closing(
+    'Method notes',
+    model.methods.flatMap((m) => [
+      L.heading('H3', m.name),
+      L.paragraph(m.text, { spaceAfter: 4 }),
+      L.paragraph(`Source: ${m.source}`, { face: 'italic', size: SIZE.small, color: COLOR.muted, spaceAfter: 14 }),
+    ]),
+  );
+  closing(
+    'Glossary',
+    model.glossary.length > 0
+      ? [
+          L.table(
+            [
+              { header: 'Term', width: 130, face: 'bold' },
+              { header: 'Meaning', width: 337 },
+            ],
+            model.glossary.map((g) => [{ text: g.term }, { text: g.text }]),
+            { size: SIZE.body - 0.5 },
+          ),
+        ]
+      : [],
+  );
+  closing(
+    'Reproducibility',
+    model.reproducibility.length > 0
+      ? [
+          L.table(
+            [
+              { header: 'Item', width: 150, face: 'bold' },
+              { header: 'Value', width: 317 },
+            ],
+            model.reproducibility.map((r) => [{ text: r.label }, { text: r.value }]),
+          ),
+        ]
+      : [],
+  );
+
+  // ---- Page furniture on every page, as Artifacts: title header from page 2, "Page N of M" footer ----
+  const range = doc.bufferedPageRange();
+  for (let i = range.start; i < range.start + range.count; i++) {
+    doc.switchToPage(i);
+    const bottom = doc.page.margins.bottom;
+    doc.page.margins.bottom = 0;
+    doc.markContent('Artifact', { type: 'Pagination' });
+    if (i > range.start) {
+      doc.font(FONT_NAME.regular).fontSize(SIZE.furniture).fillColor(COLOR.muted);
+      doc.text(shorten(model.title, 95), MARGIN.left, MARGIN.top - 34, { width: CONTENT_WIDTH, lineBreak: false });
+      doc.lineWidth(0.5).moveTo(MARGIN.left, MARGIN.top - 20).lineTo(PAGE.width - MARGIN.right, MARGIN.top - 20).stroke(COLOR.rule);
+    }
+    doc.lineWidth(0.5).moveTo(MARGIN.left, PAGE.height - 50).lineTo(PAGE.width - MARGIN.right, PAGE.height - 50).stroke(COLOR.rule);
+    doc.font(FONT_NAME.regular).fontSize(SIZE.furniture).fillColor(COLOR.muted);
+    doc.text(shorten(model.organisation, 70), MARGIN.left, PAGE.height - 42, { width: CONTENT_WIDTH / 2, lineBreak: false });
+    doc.text(`Page ${i - range.start + 1} of ${range.count}`, MARGIN.left + CONTENT_WIDTH / 2, PAGE.height - 42, {
+      width: CONTENT_WIDTH / 2,
+      align: 'right',
+      lineBreak: false,
+    });
+    doc.endMarkedContent();
+    doc.page.margins.bottom = bottom;
+  }
+
+  root.end();
+  doc.end();
+  return finished;
+}

@@ -1,0 +1,129 @@
+/**
+ * Minimal type declarations for the untyped libraries the renderer uses (pdfkit 0.20, fontkit 2, svg-to-pdfkit).
+ * Only the members used in src/render are declared.
+ */
+declare module 'fontkit' {
+  export interface GlyphRun {
+    advanceWidth: number;
+  }
+  export interface Font {
+    unitsPerEm: number;
+    ascent: number;
+    descent: number;
+    layout(text: string): GlyphRun;
+    hasGlyphForCodePoint(codePoint: number): boolean;
+  }
+  export function create(buffer: Buffer | Uint8Array): Font;
+}
+
+declare module 'svg-to-pdfkit' {
+  interface SvgToPdfOptions {
+    width?: number;
+    height?: number;
+    assumePt?: boolean;
+    precision?: number;
+    preserveAspectRatio?: string;
+    fontCallback?: (family: string, bold: boolean, italic: boolean, options: { fauxItalic: boolean; fauxBold: boolean }) => string;
+    warningCallback?: (message: string) => void;
+  }
+  function SVGtoPDF(doc: unknown, svg: string, x: number, y: number, options?: SvgToPdfOptions): void;
+  export default SVGtoPDF;
+}
+
+/** pdfkit's document API (global namespace, as in pdfkit's own typings). */
+declare namespace PDFKit {
+  interface TextOptions {
+    width?: number;
+    height?: number;
+    align?: 'left' | 'center' | 'right' | 'justify';
+    lineGap?: number;
+    paragraphGap?: number;
+    continued?: boolean;
+    lineBreak?: boolean;
+    ellipsis?: boolean | string;
+    indent?: number;
+    features?: string[];
+    characterSpacing?: number;
+    destination?: string;
+    goTo?: string;
+  }
+  interface StructureElement {
+    add(child: StructureElement | (() => void)): StructureElement;
+    end(): void;
+  }
+  interface OutlineItem {
+    addItem(title: string, options?: { top?: number; left?: number; zoom?: number; expanded?: boolean; fit?: boolean }): OutlineItem;
+  }
+  interface Page {
+    width: number;
+    height: number;
+    margins: { top: number; bottom: number; left: number; right: number };
+  }
+  interface DocumentInfo {
+    Title?: string;
+    Author?: string;
+    Subject?: string;
+    Keywords?: string;
+    Creator?: string;
+    Producer?: string;
+    CreationDate?: Date;
+    ModDate?: Date;
+  }
+  interface DocumentOptions {
+    size?: string | [number, number];
+    margins?: { top: number; bottom: number; left: number; right: number };
+    bufferPages?: boolean;
+    autoFirstPage?: boolean;
+    tagged?: boolean;
+    lang?: string;
+    displayTitle?: boolean;
+    pdfVersion?: '1.3' | '1.4' | '1.5' | '1.6' | '1.7' | '1.7ext3';
+    info?: DocumentInfo;
+    compress?: boolean;
+    font?: string | null;
+  }
+  interface Document extends NodeJS.ReadableStream {
+    x: number;
+    y: number;
+    page: Page;
+    info: DocumentInfo;
+    outline: OutlineItem;
+    registerFont(name: string, src: string | Buffer): this;
+    font(name: string): this;
+    fontSize(size: number): this;
+    fillColor(color: string, opacity?: number): this;
+    strokeColor(color: string, opacity?: number): this;
+    lineWidth(w: number): this;
+    text(text: string, x?: number, y?: number, options?: TextOptions): this;
+    widthOfString(text: string, options?: TextOptions): number;
+    heightOfString(text: string, options?: TextOptions): number;
+    currentLineHeight(includeGap?: boolean): number;
+    addPage(options?: DocumentOptions): this;
+    switchToPage(n: number): Page;
+    bufferedPageRange(): { start: number; count: number };
+    flushPages(): void;
+    moveTo(x: number, y: number): this;
+    lineTo(x: number, y: number): this;
+    rect(x: number, y: number, w: number, h: number): this;
+    roundedRect(x: number, y: number, w: number, h: number, r: number): this;
+    circle(x: number, y: number, r: number): this;
+    polygon(...points: Array<[number, number]>): this;
+    closePath(): this;
+    fill(color?: string): this;
+    stroke(color?: string): this;
+    fillAndStroke(fill?: string, stroke?: string): this;
+    save(): this;
+    restore(): this;
+    struct(type: string, options?: { alt?: string; lang?: string; actual?: string; bbox?: number[]; placement?: string }, children?: (() => void) | StructureElement[]): StructureElement;
+    addStructure(el: StructureElement): this;
+    markContent(tag: string, options?: { type?: string; bbox?: number[] } | null): this;
+    endMarkedContent(): this;
+    addNamedDestination(name: string, ...args: unknown[]): void;
+    end(): void;
+  }
+}
+
+declare module 'pdfkit' {
+  const PDFDocument: new (options?: PDFKit.DocumentOptions) => PDFKit.Document;
+  export default PDFDocument;
+}

@@ -1,0 +1,122 @@
+/**
+ * Renderer tests: the sample model is rendered and the PDF is checked with poppler-utils (pdfinfo, pdftotext) and
+ * qpdf, tools outside the project: text extraction proves the embedded glyphs map back to the right characters.
+ */
+import { describe, it, expect, beforeAll } from 'vitest';
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { renderPdf } from '../../src/render/pdf.js';
+import { sampleModel, VERDICT_TEXTS, LONG_STATEMENT } from './sample-model.js';
+
+const dir = mkdtempSync(join(tmpdir(), 'warrant-render-'));
+let pdf: Buffer;
+let pdfPath: string;
+
+function run(cmd: string, args: string[]): string {
+  return execFileSync(cmd, args, { encoding: 'utf8' });
+}
+
+/** pdftotext output with line breaks and runs of spaces folded, so wrapped paragraphs can be searched whole. */
+function plainText(path: string): string {
+  return run('pdftotext', ['-enc', 'UTF-8', path, '-']).replace(/\s+/g, ' ');
+}
+
+beforeAll(async () => {
+  pdf = await renderPdf(sampleModel);
+  pdfPath = join(dir, 'sample.pdf');
+  writeFileSync(pdfPath, pdf);
+});
+
+describe('renderPdf on the sample model', () => {
+  it('writes a PDF 1.7 file', () => {
+    expect(pdf.subarray(0, 8).toString('latin1')).toBe('%PDF-1.7');
+  });
+
+  it('pdfinfo reports the title, a tagged file, A4 pages and a plausible page count', () => {
+    const info = run('pdfinfo', [pdfPath]);
+    expect(info).toMatch(/^Title:\s+Student voice claims 2024: Coleg Gŵyr and partners$/m);
+    expect(info).toMatch(/^Tagged:\s+yes$/m);
+    expect(info).toMatch(/^Page size:\s+595\.28 x 841\.89 pts \(A4\)$/m);
+    const pages = Number(/^Pages:\s+(\d+)$/m.exec(info)?.[1]);
+    // Cover, summary, at least one page per two claims, and the four closing sections.
+    expect(pages).toBeGreaterThanOrEqual(8);
+    expect(pages).toBeLessThanOrEqual(16);
+  });
+
+  it('pdftotext finds every verdict paragraph, whole and with accents intact', () => {
+    const text = plainText(pdfPath);
+    for (const paragraph of Object.values(VERDICT_TEXTS)) expect(text).toContain(paragraph);
+    for (const name of ['Coleg Gŵyr', 'Ysgol Brynŷs', 'Szkoła Łąka', 'Naïve Arts', 'Llŷn', 'Łódź']) {
+      expect(text).toContain(name);
+    }
+  });
+
+  it('wraps the long statement in the summary table and the claim heading without losing words', () => {
+    const text = plainText(pdfPath);
+    // The claim heading prints the whole statement once as running text.
+    expect(text).toContain(LONG_STATEMENT);
+    // In the summary table the statement is wrapped inside its column: every word is present.
+    const summaryPage = run('pdftotext', ['-enc', 'UTF-8', '-f', '2', '-l', '2', pdfPath, '-']);
+    for (const word of LONG_STATEMENT.split(' ')) expect(summaryPage).toContain(word);
+  });
+
+  it('numbers every page "Page N of M"', () => {
+    const info = run('pdfinfo', [pdfPath]);
+    const pages = Number(/^Pages:\s+(\d+)$/m.exec(info)?.[1]);
+    const text = plainText(pdfPath);
+    for (let n = 1; n <= pages; n++) expect(text).toContain(`Page ${n} of ${pages}`);
+  });
+
+  it('has a structure tree in reading order with headings, tables, lists and figures with alt text', () => {
+    const tree = run('pdfinfo', ['-struct', pdfPath]);
+    for (const tag of ['Document', 'H1', 'H2', 'H3', 'P', 'Table', 'TR', 'TH', 'TD', 'L', 'LI', 'LBody', 'Figure']) {
+      expect(tree).toMatch(new RegExp(`^\\s*${tag}\\b`, 'm'));
+    }
+    expect((tree.match(/^\s*Figure\b/gm) ?? []).length).toBe(3);
+    const withText = run('pdfinfo', ['-struct-text', pdfPath]);
+    const firstClaim = withText.indexOf('CLAIM C1');
+    const lastClaim = withText.indexOf('CLAIM C5');
+    const glossary = withText.indexOf('Glossary');
+    expect(firstClaim).toBeGreaterThan(withText.indexOf('Summary'));
+    expect(lastClaim).toBeGreaterThan(firstClaim);
+    expect(glossary).toBeGreaterThan(lastClaim);
+  });
+
+  it('gives each figure its alt text in the structure tree', () => {
+    // qpdf's JSON view decodes PDF text strings (UTF-16 or PDFDocEncoding) to "u:..." values.
+    const json = run('qpdf', ['--json', '--json-key=qpdf', pdfPath]);
+    const alts = [...json.matchAll(/"\/Alt": "u:((?:[^"\\]|\\.)*)"/g)].map((m) => JSON.parse(`"${m[1]}"`) as string);
+    const expected = sampleModel.claims.flatMap((c) => (c.chart ? [c.chart.alt] : []));
+    expect(alts).toEqual(expected);
+    expect(json).toContain('"/Lang": "u:en-GB"');
+  });
+
+  it('has a bookmark for every main section and every claim', () => {
+    const qdf = run('qpdf', ['--json', '--json-key=outlines', pdfPath]);
+    const outlines = JSON.parse(qdf).outlines as Array<{ title: string; kids: Array<{ title: string }> }>;
+    const titles = outlines.map((o) => o.title);
+    expect(titles).toEqual(['Cover', 'Summary', 'Claims', 'General cautions', 'Method notes', 'Glossary', 'Reproducibility']);
+    const claims = outlines.find((o) => o.title === 'Claims')!.kids.map((k) => k.title.slice(0, 3));
+    expect(claims).toEqual(['C1:', 'C2:', 'C3:', 'C4:', 'C5:']);
+  });
+
+  it('is byte-identical when rendered twice, and the date option is the only date written', async () => {
+    const again = await renderPdf(sampleModel);
+    expect(Buffer.compare(pdf, again)).toBe(0);
+    const dated = await renderPdf(sampleModel, { createdAt: new Date(Date.UTC(2024, 5, 3, 12, 0, 0)) });
+    expect(Buffer.compare(pdf, dated)).not.toBe(0);
+    const datedPath = join(dir, 'dated.pdf');
+    writeFileSync(datedPath, dated);
+    expect(run('pdfinfo', ['-isodates', datedPath])).toMatch(/^CreationDate:\s+2024-06-03T12:00:00/m);
+  });
+
+  it('qpdf finds no structural damage', () => {
+    expect(run('qpdf', ['--check', pdfPath])).toMatch(/No syntax or stream encoding errors found/);
+  });
+
+  it('refuses a model without a title', async () => {
+    await expect(renderPdf({ ...sampleModel, title: '  ' })).rejects.toThrow(/title is empty/);
+  });
+});
