@@ -31,7 +31,12 @@ export function readConfidence(raw: unknown): ConfidenceReading {
   // Round away the last-bit noise of dividing by 100 (99.9 / 100 is not exactly 0.999 in binary).
   const value = percent || n > 1 ? Number((n / 100).toPrecision(12)) : n;
   if (!(value > 0.5 && value <= 0.999)) {
-    return { ok: false, written, reason: 'is not a confidence level above 50% and at most 99.9%' };
+    const understood = `${Number((value * 100).toPrecision(12))}%`;
+    return {
+      ok: false,
+      written,
+      reason: `is read as ${understood}, outside the accepted range (above 50% and at most 99.9%)`,
+    };
   }
   return { ok: true, value, written };
 }

@@ -36,7 +36,7 @@ export function crossFieldProblems(parsed: ParsedYaml, file: string, claimsDir: 
       ...at(path),
       field: 'confidence',
       found: r.written,
-      problem: `the confidence level ${r.reason}`,
+      problem: `the confidence level ${r.written} ${r.reason}`,
       fix: `Write it as ${CONFIDENCE_FORMS}; any level above 50% and up to 99.9% is accepted`,
     });
   };
@@ -178,6 +178,13 @@ function fileProblems(written: string, claimsDir: string, file: string, place: {
     ];
   }
   if (stat.isDirectory()) {
+    let inside: string | undefined;
+    try {
+      inside = readdirSync(abs).find((n) => DATA_EXTENSIONS[extname(n).toLowerCase()] !== undefined);
+    } catch {
+      inside = undefined;
+    }
+    const folder = written.replace(/[\\/]+$/, '');
     return [
       {
         file,
@@ -185,7 +192,10 @@ function fileProblems(written: string, claimsDir: string, file: string, place: {
         field: 'file',
         found: written,
         problem: `${abs} is a folder, not a data file`,
-        fix: 'Point file at the .csv or .xlsx file inside the folder, e.g. ' + `${written.replace(/\/+$/, '')}/results.xlsx`,
+        fix:
+          inside !== undefined
+            ? `Point file at the data file inside the folder, e.g. ${folder}/${inside}`
+            : 'Point file at a .csv or .xlsx file; this folder holds none',
       },
     ];
   }

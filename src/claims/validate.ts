@@ -45,6 +45,11 @@ function typeWords(t: unknown): string {
   return Array.isArray(t) ? t.map((x) => one(String(x))).join(' or ') : one(String(t));
 }
 
+/** The value as it is quoted in the "found" part of a message (formatProblem adds the quotes). */
+function foundRaw(v: unknown): string {
+  return typeof v === 'string' ? v : foundWords(v);
+}
+
 function foundWords(v: unknown): string {
   if (v === null || v === undefined) return 'nothing';
   if (Array.isArray(v)) return 'a list';
@@ -216,7 +221,7 @@ function toProblem(e: ErrorObject, path: Segment[], parsed: ParsedYaml, file: st
       // The only anyOf is a filter value.
       const p = base(valuePlace);
       p.field = field;
-      p.found = foundWords(value);
+      p.found = foundRaw(value);
       p.problem = `the value for column "${field}" in ${describeOwner(data, path.slice(0, -1))} is not a value to match`;
       p.fix =
         value === null
@@ -228,7 +233,7 @@ function toProblem(e: ErrorObject, path: Segment[], parsed: ParsedYaml, file: st
       const expected = (e.params as { type: string | string[] }).type;
       const p = base(valuePlace);
       if (field !== undefined) p.field = field;
-      p.found = foundWords(value);
+      p.found = foundRaw(value);
       const what = field === undefined ? 'the claims file' : typeof last === 'number' ? `item ${last + 1} of ${String(path[path.length - 2])}` : `"${field}"`;
       p.problem = `${what} should be ${typeWords(expected)}`;
       if (path.length === 0) {
@@ -251,7 +256,7 @@ function toProblem(e: ErrorObject, path: Segment[], parsed: ParsedYaml, file: st
       const allowed = ((e.params as { allowedValues: unknown[] }).allowedValues ?? []).map(String);
       const p = base(valuePlace);
       p.field = field;
-      p.found = foundWords(value);
+      p.found = foundRaw(value);
       const kind = get(data, [...path.slice(0, -1), 'kind']);
       const forKind = field === 'expect' && typeof kind === 'string' ? ` for a ${kind} claim` : '';
       p.problem = `${foundWords(value)} is not an allowed value of ${field}${forKind} in ${describeOwner(data, path.slice(0, -1))}`;
@@ -262,7 +267,7 @@ function toProblem(e: ErrorObject, path: Segment[], parsed: ParsedYaml, file: st
     case 'pattern': {
       const p = base(valuePlace);
       p.field = field;
-      p.found = foundWords(value);
+      p.found = foundRaw(value);
       if (field === 'id') {
         const slug = String(value).toLowerCase().replace(/[^a-z0-9_-]+/g, '-').replace(/^[-_]+|[-_]+$/g, '');
         p.problem = `the claim id may hold only lower-case letters, digits, - and _, and must start with a letter or digit`;
@@ -298,7 +303,7 @@ function toProblem(e: ErrorObject, path: Segment[], parsed: ParsedYaml, file: st
       const limit = (e.params as { limit: number }).limit;
       const p = base(valuePlace);
       p.field = field;
-      p.found = foundWords(value);
+      p.found = foundRaw(value);
       p.problem = `"${field}" must be at least ${limit}`;
       p.fix = `Write a whole number of ${limit} or more, e.g. 10`;
       return p;

@@ -103,18 +103,30 @@ export function parseYaml(text: string, file: string): YamlOutcome {
     const sorted = [...doc.errors].sort((a, b) => a.pos[0] - b.pos[0]);
     const problems: Problem[] = [];
     for (const err of sorted) {
-      const words = SYNTAX[err.code] ?? SYNTAX_DEFAULT;
-      const place = placeOf(lines, err.pos[0]);
-      const reason = err.message.split('\n')[0]!.replace(/\s*at line \d+, column \d+:?$/, '');
+      let words = SYNTAX[err.code] ?? SYNTAX_DEFAULT;
+      let offset = err.pos[0];
+      const reason = err.message.split('\n')[0]!.replace(/\s*at line \d+, column \d+:?$/, '').replace(/\.$/, '');
+      const quote = /^Missing closing (["'])quote/.exec(reason);
+      if (quote) {
+        // The parser notices at the end of the text; the mistake is where the quote was opened.
+        const opened = text.lastIndexOf(quote[1]!, Math.max(0, offset - 1));
+        if (opened >= 0) offset = opened;
+        words = {
+          problem: `a ${quote[1] === '"' ? 'double' : 'single'} quote opened here is never closed`,
+          fix: `Add the closing ${quote[1]} at the end of the value`,
+        };
+      }
+      const place = placeOf(lines, offset);
+      const ownWords = quote !== null || err.code === 'MULTIPLE_DOCS';
       const problem: Problem = {
         file,
         line: place.line,
         column: place.column,
-        problem: `${words.problem} (the YAML reader says: ${reason.replace(/\.$/, '')})`,
+        problem: ownWords ? words.problem : `${words.problem} (the YAML reader says: ${reason})`,
         fix: words.fix,
       };
       if (err.code === 'DUPLICATE_KEY') {
-        const key = text.slice(err.pos[0], err.pos[1]).split(/[:\n]/)[0]!.trim();
+        const key = text.slice(err.pos[0]).split(/[:\n]/)[0]!.trim();
         if (key) problem.field = key;
         problems.push(problem);
         continue;
