@@ -43,6 +43,10 @@ export interface Cube {
   approximate: boolean;
   /** True when the source has a population column. */
   hasPopulation: boolean;
+  /** Worksheet read, for XLSX sources. */
+  sheet?: string;
+  /** Plain-words notes on how the data were read (e.g. a percent column read as fractions), for the pack. */
+  notes?: string[];
 }
 
 /** Counts pooled over the cells a selection matches (respondent-weighted, never an average of percentages). */

@@ -1,0 +1,147 @@
+/**
+ * Streaming CSV rows.
+ *
+ * The file is opened with `{ encoding: 'utf8' }`, so Node's string decoder carries a multi-byte character that is split
+ * between two reads over to the next read; the text is then fed, piece by piece, to papaparse's incremental parser
+ * (`Papa.Parser.parse(text, base, ignoreLastRow)`), which returns the complete records and where the unfinished one
+ * starts. Only the unfinished record is carried over, so memory does not grow with the file.
+ *
+ * The delimiter (',' ';' or tab) and the line ending are taken from the header line (the first non-empty line),
+ * counting delimiters outside quotes. A byte-order mark is dropped.
+ */
+import { createReadStream } from 'node:fs';
+import Papa from 'papaparse';
+import { InputError } from '../errors.js';
+import type { ReadOptions, SheetRow } from './rows.js';
+
+export type Delimiter = ',' | ';' | '\t';
+type Newline = '\n' | '\r\n' | '\r';
+
+/** Largest amount of text looked at to find the header line before giving up and guessing from what was read. */
+const PEEK_LIMIT = 1 << 20;
+
+/** Count each candidate delimiter outside double quotes in one line; the most frequent wins, ',' on a tie or none. */
+export function detectDelimiter(line: string): Delimiter {
+  const counts: Record<Delimiter, number> = { ',': 0, ';': 0, '\t': 0 };
+  let quoted = false;
+  for (const ch of line) {
+    if (ch === '"') quoted = !quoted;
+    else if (!quoted && (ch === ',' || ch === ';' || ch === '\t')) counts[ch] += 1;
+  }
+  let best: Delimiter = ',';
+  for (const d of [';', '\t'] as const) if (counts[d] > counts[best]) best = d;
+  return best;
+}
+
+/** Where the first line that has any non-blank character ends, with its line ending; undefined if not yet seen. */
+function headerLineEnd(text: string): { line: string; newline: Newline } | undefined {
+  let start = 0;
+  for (;;) {
+    const lf = text.indexOf('\n', start);
+    const cr = text.indexOf('\r', start);
+    if (lf < 0 && cr < 0) return undefined;
+    let end: number;
+    let newline: Newline;
+    if (cr >= 0 && (lf < 0 || cr < lf)) {
+      // A lone '\r' at the very end of the text may be the first half of '\r\n': wait for more.
+      if (cr === text.length - 1) return undefined;
+      end = cr;
+      newline = text[cr + 1] === '\n' ? '\r\n' : '\r';
+    } else {
+      end = lf;
+      newline = '\n';
+    }
+    const line = text.slice(start, end);
+    if (line.trim() !== '') return { line, newline };
+    start = end + newline.length;
+  }
+}
+
+function openFailure(e: unknown, file: string): InputError | undefined {
+  const code = (e as { code?: string } | null)?.code;
+  if (code === 'ENOENT') {
+    return new InputError({ file, problem: 'The data file was not found', fix: 'Check the file path in the claims file; it is relative to the claims file' });
+  }
+  if (code === 'EISDIR') {
+    return new InputError({ file, problem: 'The data path is a folder, not a file', fix: 'Name the CSV file itself in the claims file' });
+  }
+  if (code === 'EACCES' || code === 'EPERM') {
+    return new InputError({ file, problem: 'The data file cannot be read (permission denied)', fix: 'Allow reading the file, or copy it somewhere readable' });
+  }
+  return undefined;
+}
+
+/**
+ * Yield every record of a CSV file in order, blank lines included (as a record of one empty value), so that `row`
+ * matches the row number a spreadsheet program shows for the same file. A record with a quoted line break counts as
+ * one row. Throws InputError for a missing file or a quote that is never closed.
+ */
+export async function* readCsvRows(path: string, options: ReadOptions = {}): AsyncGenerator<SheetRow> {
+  const file = options.displayPath ?? path;
+  const stream = createReadStream(path, {
+    encoding: 'utf8',
+    ...(options.chunkSize !== undefined ? { highWaterMark: Math.max(1, options.chunkSize) } : {}),
+  });
+  let parser: Papa.Parser | undefined;
+  let pending = '';
+  let first = true;
+  let row = 0;
+
+  function* emit(records: string[][]): Generator<SheetRow> {
+    for (const values of records) {
+      row += 1;
+      yield { row, values };
+    }
+  }
+
+  /** Quote errors in the records returned; an error in the unfinished last record is re-checked when it is complete. */
+  function checkErrors(errors: Papa.ParseError[], complete: number): void {
+    const quote = errors.find((e) => e.type === 'Quotes' && (e.row ?? 0) < complete);
+    if (quote !== undefined) {
+      throw new InputError({
+        file,
+        row: row + (quote.row ?? 0) + 1,
+        problem: quote.code === 'MissingQuotes' ? 'A quoted value is never closed' : 'A quoted value has text after its closing quote',
+        found: quote.message,
+        fix: 'Put a double quote at the end of the quoted value, and write any quote inside it twice ("")',
+      });
+    }
+  }
+
+  try {
+    for await (const chunk of stream as AsyncIterable<string>) {
+      let text = chunk;
+      if (first) {
+        if (text.length === 0) continue;
+        if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
+        first = false;
+      }
+      pending += text;
+      if (parser === undefined) {
+        const header = headerLineEnd(pending);
+        if (header === undefined && pending.length < PEEK_LIMIT) continue;
+        parser = new Papa.Parser({
+          delimiter: detectDelimiter(header?.line ?? pending),
+          newline: header?.newline ?? '\n',
+        });
+      }
+      const result = parser.parse(pending, 0, true) as Papa.ParseResult<string[]>;
+      checkErrors(result.errors, result.data.length);
+      pending = pending.slice(result.meta.cursor);
+      yield* emit(result.data);
+    }
+    if (pending !== '') {
+      if (parser === undefined) {
+        const header = headerLineEnd(pending + '\n');
+        parser = new Papa.Parser({ delimiter: detectDelimiter(header?.line ?? pending), newline: header?.newline ?? '\n' });
+      }
+      const result = parser.parse(pending, 0, false) as Papa.ParseResult<string[]>;
+      checkErrors(result.errors, Number.POSITIVE_INFINITY);
+      yield* emit(result.data);
+    }
+  } catch (e) {
+    throw openFailure(e, file) ?? e;
+  } finally {
+    stream.destroy();
+  }
+}

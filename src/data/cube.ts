@@ -1,0 +1,388 @@
+/**
+ * Read a data source into a cube of counts (see types.ts) in one streaming pass. Rows are added into a Map keyed by
+ * the row's dimension values and then dropped, so memory grows with the number of groups, not rows. The file's
+ * SHA-256 is computed in a second streaming pass run at the same time.
+ *
+ * Problems in data rows are collected (up to MAX_PROBLEMS) and reported together in one InputError; problems with
+ * the file or its header stop the read at once.
+ */
+import { InputError } from '../errors.js';
+import type { Problem } from '../errors.js';
+import type { SourceSpec } from '../claims/types.js';
+import type { Cell, Cube } from './types.js';
+import { readCsvRows } from './csv.js';
+import { openXlsxSheet } from './xlsx.js';
+import { sha256File } from './hash.js';
+import { isBlankRow } from './rows.js';
+import type { SheetRow } from './rows.js';
+import { fixFor } from './suggest.js';
+
+/** How many row problems are gathered before reading stops. */
+export const MAX_PROBLEMS = 25;
+
+export interface ReadCubeOptions {
+  /** Bytes per read (for tests that force chunk boundaries). */
+  chunkSize?: number;
+}
+
+/** A source, optionally naming the header row (1-based); by default the header is the first non-empty row. */
+export type CubeSource = SourceSpec & { headerRow?: number };
+
+type Where = Pick<Problem, 'file' | 'sheet'>;
+
+class Problems {
+  readonly list: Problem[] = [];
+  constructor(private readonly where: Where) {}
+  add(p: Omit<Problem, 'file' | 'sheet'>): void {
+    this.list.push({ ...this.where, ...p });
+    if (this.list.length >= MAX_PROBLEMS) this.throwIfAny();
+  }
+  throwIfAny(): void {
+    if (this.list.length > 0) throw new InputError(this.list);
+  }
+}
+
+/**
+ * Parse a count: a whole number, not negative. Accepts thousands separators written as "1,234".
+ * Returns undefined (after recording a problem) when the text is not a count.
+ */
+function parseCount(text: string, row: number, field: string, problems: Problems): number | undefined {
+  const cleaned = /^\d{1,3}(,\d{3})+$/.test(text) ? text.replace(/,/g, '') : text;
+  const x = Number(cleaned);
+  if (cleaned === '' || !Number.isFinite(x)) {
+    problems.add({ row, field, found: text, problem: 'A count is not a number', fix: 'Write the number of people as digits, e.g. 42; remove notes or markers from the cell' });
+    return undefined;
+  }
+  if (x < 0) {
+    problems.add({ row, field, found: text, problem: 'A count is negative', fix: 'Write the number of people, zero or more' });
+    return undefined;
+  }
+  if (!Number.isInteger(x)) {
+    problems.add({ row, field, found: text, problem: 'A count is not a whole number', fix: 'Write the number of people as a whole number; if this is a percentage, name the column with agree_percent instead' });
+    return undefined;
+  }
+  return x;
+}
+
+interface PercentValue {
+  value: number;
+  sign: boolean;
+}
+
+/** Parse a percentage: "72%", "72", "72.4" (0-100), or a fraction in [0, 1] (decided for the whole column later). */
+function parsePercent(text: string, row: number, field: string, problems: Problems): PercentValue | undefined {
+  const sign = text.endsWith('%');
+  const body = sign ? text.slice(0, -1).trim() : text;
+  const x = Number(body);
+  if (body === '' || !Number.isFinite(x)) {
+    problems.add({ row, field, found: text, problem: 'A percentage is not a number', fix: 'Write the percent agreeing as a number such as 72, 72.4 or 72%' });
+    return undefined;
+  }
+  if (x < 0 || x > 100) {
+    problems.add({ row, field, found: text, problem: 'A percentage is outside 0 to 100', fix: 'Write the percent agreeing as a number from 0 to 100' });
+    return undefined;
+  }
+  return { value: x, sign };
+}
+
+/** Header row and the rows after it. */
+async function findHeader(
+  rows: AsyncIterator<SheetRow>,
+  headerRow: number | undefined,
+  where: Where,
+): Promise<SheetRow> {
+  let seenAny = false;
+  for (;;) {
+    const next = await rows.next();
+    if (next.done) {
+      if (headerRow !== undefined && seenAny) {
+        throw new InputError({ ...where, row: headerRow, field: 'header_row', found: String(headerRow), problem: 'The file has no such row, or it is empty', fix: 'Give the number of the row that holds the column names' });
+      }
+      throw new InputError({ ...where, problem: seenAny ? 'The file has no rows with any text' : 'The file is empty', fix: 'Check that this is the right file, and that it was saved with its data' });
+    }
+    seenAny = true;
+    const r = next.value;
+    if (headerRow !== undefined) {
+      if (r.row < headerRow) continue;
+      if (r.row > headerRow || isBlankRow(r.values)) {
+        throw new InputError({ ...where, row: headerRow, field: 'header_row', found: String(headerRow), problem: 'The header row named is empty', fix: 'Give the number of the row that holds the column names' });
+      }
+      return r;
+    }
+    if (!isBlankRow(r.values)) return r;
+  }
+}
+
+export async function readCube(source: CubeSource, needed: string[], displayPath: string, options: ReadCubeOptions = {}): Promise<Cube> {
+  const file = displayPath;
+  const shaPromise = sha256File(source.path).then(
+    (h) => h,
+    () => '',
+  );
+  let sheet: string | undefined;
+  let rows: AsyncGenerator<SheetRow>;
+  const readOptions = { displayPath: file, ...(options.chunkSize !== undefined ? { chunkSize: options.chunkSize } : {}) };
+  if (source.format === 'xlsx') {
+    const opened = await openXlsxSheet(source.path, { ...readOptions, ...(source.sheet !== undefined ? { sheet: source.sheet } : {}) });
+    sheet = opened.sheet;
+    rows = opened.rows;
+  } else {
+    rows = readCsvRows(source.path, readOptions);
+  }
+  const where: Where = sheet !== undefined ? { file, sheet } : { file };
+  try {
+    const header = await findHeader(rows, source.headerRow, where);
+    const names = header.values.map((v) => v.trim());
+    const seen = new Map<string, number>();
+    names.forEach((n, i) => {
+      if (n === '') return;
+      const before = seen.get(n);
+      if (before !== undefined) {
+        throw new InputError({ ...where, row: header.row, field: n, found: n, problem: `Two columns have the same name (columns ${before + 1} and ${i + 1})`, fix: 'Give each column a different name in the header row' });
+      }
+      seen.set(n, i);
+    });
+    const known = names.filter((n) => n !== '');
+    const column = (name: string, role: string): number => {
+      const i = seen.get(name.trim());
+      if (i === undefined) {
+        throw new InputError({ ...where, row: header.row, field: role, found: name, problem: 'The file has no column with this name in its header row', fix: fixFor(name, known, 'columns') });
+      }
+      return i;
+    };
+    const body = { [Symbol.asyncIterator]: () => rows };
+    const common = { sourceId: source.id, file: source.file, ...(sheet !== undefined ? { sheet } : {}) };
+    const cube =
+      source.shape === 'summary'
+        ? await summaryCube(source, needed, body, header.row, names, column, where)
+        : await respondentsCube(source, needed, body, header.row, names, column, where);
+    return { ...common, sha256: await shaPromise, ...cube };
+  } finally {
+    await rows.return(undefined);
+  }
+}
+
+type CubeBody = Omit<Cube, 'sourceId' | 'file' | 'sha256'>;
+type ColumnOf = (name: string, role: string) => number;
+
+function distinctValues(dimensions: string[], cells: Cell[]): Record<string, string[]> {
+  const values: Record<string, string[]> = {};
+  for (const d of dimensions) {
+    const set = new Set<string>();
+    for (const c of cells) set.add(c.dims[d] ?? '');
+    values[d] = [...set];
+  }
+  return values;
+}
+
+function noDataRows(where: Where, headerRow: number): InputError {
+  return new InputError({ ...where, row: headerRow, problem: 'The file has a header row but no data rows below it', fix: 'Add the data rows, or point the claims file at the file that has them' });
+}
+
+async function summaryCube(
+  source: CubeSource,
+  needed: string[],
+  body: AsyncIterable<SheetRow>,
+  headerRow: number,
+  names: string[],
+  column: ColumnOf,
+  where: Where,
+): Promise<CubeBody> {
+  if (source.respondents === undefined) {
+    throw new InputError({ ...where, field: 'respondents', problem: `Source "${source.id}" does not name the column with the number who answered`, fix: 'Add "respondents: <column name>" to the source in the claims file' });
+  }
+  if (source.agree === undefined && source.agreePercent === undefined) {
+    throw new InputError({ ...where, field: 'agree', problem: `Source "${source.id}" names neither a count nor a percent agreeing column`, fix: 'Add "agree: <column name>" or "agree_percent: <column name>" to the source in the claims file' });
+  }
+  const nCol = column(source.respondents, 'respondents');
+  const agreeCol = source.agree !== undefined ? column(source.agree, 'agree') : undefined;
+  const pctCol = agreeCol === undefined && source.agreePercent !== undefined ? column(source.agreePercent, 'agree_percent') : undefined;
+  const popCol = source.population !== undefined ? column(source.population, 'population') : undefined;
+  const measures = new Set([nCol, agreeCol, pctCol, popCol].filter((i): i is number => i !== undefined));
+  const dimIdx: number[] = [];
+  names.forEach((n, i) => {
+    if (n !== '' && !measures.has(i)) dimIdx.push(i);
+  });
+  const dimensions = dimIdx.map((i) => names[i]!);
+  for (const d of needed) {
+    if (!dimensions.includes(d)) {
+      const isMeasure = [source.respondents, source.agree, source.agreePercent, source.population].includes(d);
+      throw new InputError({
+        ...where,
+        row: headerRow,
+        field: d,
+        found: d,
+        problem: isMeasure ? 'A claim selects on a column that holds counts, not groups' : 'A claim selects on a column the file does not have',
+        fix: fixFor(d, dimensions, 'group columns'),
+      });
+    }
+  }
+  const nName = names[nCol]!;
+  const agreeName = agreeCol !== undefined ? names[agreeCol]! : undefined;
+  const pctName = pctCol !== undefined ? names[pctCol]! : undefined;
+  const popName = popCol !== undefined ? names[popCol]! : undefined;
+
+  const problems = new Problems(where);
+  const cells = new Map<string, Cell>();
+  const percents = new Map<Cell, PercentValue>();
+  let rows = 0;
+  for await (const r of body) {
+    if (isBlankRow(r.values)) continue;
+    rows += 1;
+    const text = (i: number | undefined) => (i === undefined ? '' : (r.values[i] ?? '').trim());
+    const dims: Record<string, string> = {};
+    dimIdx.forEach((i, k) => {
+      dims[dimensions[k]!] = text(i);
+    });
+    const measureTexts = [nCol, agreeCol ?? pctCol, popCol].filter((i): i is number => i !== undefined).map(text);
+    if (measureTexts.every((t) => t === '')) {
+      problems.add({ row: r.row, field: nName, found: '', problem: 'This row names a group but has no counts', fix: 'Fill in the counts for this row, or delete the row' });
+      continue;
+    }
+    const blank = (name: string) => problems.add({ row: r.row, field: name, found: '', problem: 'A count is blank in a row that has other counts', fix: 'Fill in the missing number, or delete the row' });
+    let ok = true;
+    const nText = text(nCol);
+    const n = nText === '' ? (blank(nName), undefined) : parseCount(nText, r.row, nName, problems);
+    let agree: number | undefined;
+    let pct: PercentValue | undefined;
+    if (agreeCol !== undefined) {
+      const t = text(agreeCol);
+      agree = t === '' ? (blank(agreeName!), undefined) : parseCount(t, r.row, agreeName!, problems);
+      ok &&= agree !== undefined;
+    } else {
+      const t = text(pctCol);
+      pct = t === '' ? (blank(pctName!), undefined) : parsePercent(t, r.row, pctName!, problems);
+      ok &&= pct !== undefined;
+    }
+    let population: number | undefined;
+    if (popCol !== undefined) {
+      const t = text(popCol);
+      population = t === '' ? (blank(popName!), undefined) : parseCount(t, r.row, popName!, problems);
+      ok &&= population !== undefined;
+    }
+    if (n === undefined || !ok) continue;
+    if (agree !== undefined && agree > n) {
+      problems.add({ row: r.row, field: agreeName!, found: String(agree), problem: `More people agreed than answered (${agree} agreeing, ${n} respondents)`, fix: 'Check the two counts on this row; the agreeing count cannot exceed the number who answered' });
+      continue;
+    }
+    if (population !== undefined && n > population) {
+      problems.add({ row: r.row, field: popName!, found: String(population), problem: `More people answered than were eligible (${n} respondents, population ${population})`, fix: 'Check the population column: it should hold the number eligible to answer' });
+      continue;
+    }
+    const key = JSON.stringify(dimIdx.map((i) => text(i)));
+    const earlier = cells.get(key);
+    if (earlier !== undefined) {
+      const label = dimensions.map((d) => `${d} = ${dims[d]}`).join(', ');
+      problems.add({ row: r.row, field: dimensions.join(', '), found: label, problem: `This row repeats the group of row ${earlier.firstRow}`, fix: `Keep one row per group: remove or merge rows ${earlier.firstRow} and ${r.row}, or add the column that tells them apart` });
+      continue;
+    }
+    const cell: Cell = { dims, n, agree: agree ?? 0, approximate: pct !== undefined, firstRow: r.row };
+    if (population !== undefined) cell.population = population;
+    cells.set(key, cell);
+    if (pct !== undefined) percents.set(cell, pct);
+  }
+  problems.throwIfAny();
+  if (rows === 0) throw noDataRows(where, headerRow);
+
+  const notes: string[] = [];
+  if (pctName !== undefined) {
+    const all = [...percents.values()];
+    const fractions = all.length > 0 && all.every((p) => !p.sign && p.value <= 1) && all.some((p) => !Number.isInteger(p.value));
+    if (fractions) {
+      notes.push(`The values in "${pctName}" are all between 0 and 1, so they were read as fractions (0.72 means 72%).`);
+    }
+    notes.push(`Agreeing counts were worked out from the rounded percentages in "${pctName}", so they are approximate.`);
+    for (const [cell, p] of percents) {
+      const share = fractions ? p.value : p.value / 100;
+      cell.agree = Math.min(cell.n, Math.round(share * cell.n));
+    }
+  }
+  const list = [...cells.values()];
+  return {
+    rows,
+    dimensions,
+    cells: list,
+    values: distinctValues(dimensions, list),
+    approximate: pctName !== undefined && list.length > 0,
+    hasPopulation: popCol !== undefined,
+    ...(notes.length > 0 ? { notes } : {}),
+  };
+}
+
+async function respondentsCube(
+  source: CubeSource,
+  needed: string[],
+  body: AsyncIterable<SheetRow>,
+  headerRow: number,
+  names: string[],
+  column: ColumnOf,
+  where: Where,
+): Promise<CubeBody> {
+  const questions = source.questions ?? [];
+  if (questions.length === 0) {
+    throw new InputError({ ...where, field: 'questions', problem: `Source "${source.id}" lists no question columns`, fix: 'Add "questions: [<column>, ...]" to the source in the claims file, naming the answer columns' });
+  }
+  const qColName = source.questionColumn;
+  const existing = names.indexOf(qColName);
+  if (existing >= 0) {
+    throw new InputError({ ...where, row: headerRow, field: 'question_column', found: qColName, problem: 'The name chosen for the question column is already a column in the file', fix: 'Choose another name with "question_column:" in the source' });
+  }
+  const qIdx = questions.map((q) => column(q, 'questions'));
+  const qSet = new Set(qIdx);
+  const dimensionsWanted = [...new Set(needed.filter((d) => d !== qColName))];
+  const dimIdx = dimensionsWanted.map((d) => {
+    const i = column(d, d);
+    if (qSet.has(i)) {
+      throw new InputError({ ...where, row: headerRow, field: d, found: d, problem: 'A claim selects on an answer column as if it held groups', fix: `Select answers through "${qColName}" (e.g. ${qColName}: ${d}) instead` });
+    }
+    return i;
+  });
+  const dimensions = [...dimensionsWanted, qColName];
+  const na = new Set(source.notApplicableCodes);
+  const agreeCodes = new Set(source.agreeCodes);
+  const maxCode = Math.max(5, ...source.agreeCodes);
+
+  const problems = new Problems(where);
+  const cells = new Map<string, Cell>();
+  let rows = 0;
+  for await (const r of body) {
+    if (isBlankRow(r.values)) continue;
+    rows += 1;
+    const dimValues = dimIdx.map((i) => (r.values[i] ?? '').trim());
+    for (let k = 0; k < qIdx.length; k++) {
+      const raw = (r.values[qIdx[k]!] ?? '').trim();
+      if (raw === '') continue;
+      const q = questions[k]!;
+      const code = /^[+-]?\d+(\.0+)?$/.test(raw) ? Number(raw) : NaN;
+      if (Number.isNaN(code)) {
+        problems.add({ row: r.row, field: names[qIdx[k]!]!, found: raw, problem: 'An answer is not a whole-number code', fix: `Code answers as whole numbers (1 to ${maxCode}); list any code meaning "not applicable" under not_applicable in the source` });
+        continue;
+      }
+      if (na.has(code)) continue;
+      if (code < 1 || code > maxCode) {
+        problems.add({ row: r.row, field: names[qIdx[k]!]!, found: raw, problem: `An answer code is outside 1 to ${maxCode}`, fix: 'Correct the answer, or list the code under not_applicable in the source if it means "not applicable"' });
+        continue;
+      }
+      const key = JSON.stringify([...dimValues, q]);
+      let cell = cells.get(key);
+      if (cell === undefined) {
+        const dims: Record<string, string> = {};
+        dimensionsWanted.forEach((d, j) => {
+          dims[d] = dimValues[j]!;
+        });
+        dims[qColName] = q;
+        cell = { dims, n: 0, agree: 0, approximate: false, firstRow: r.row };
+        cells.set(key, cell);
+      }
+      cell.n += 1;
+      if (agreeCodes.has(code)) cell.agree += 1;
+    }
+  }
+  problems.throwIfAny();
+  if (rows === 0) throw noDataRows(where, headerRow);
+  const list = [...cells.values()];
+  const values = distinctValues(dimensionsWanted, list);
+  values[qColName] = [...questions];
+  return { rows, dimensions, cells: list, values, approximate: false, hasPopulation: false };
+}
+

@@ -1,0 +1,122 @@
+/**
+ * Selections on a cube: which cells a filter matches, and their counts pooled by respondents (sum of agreeing over
+ * sum of answering, never an average of percentages).
+ *
+ * Filter values compare as text after trimming ("2026" equals 2026); a list matches any of its values. A column the
+ * cube does not have, or a value that appears nowhere in its column (almost always a misspelling), is an InputError
+ * naming the column or value and listing what the data hold.
+ */
+import { InputError } from '../errors.js';
+import type { Filter, FilterValue } from '../claims/types.js';
+import type { Cell, Cube, Pooled } from './types.js';
+import { fixFor } from './suggest.js';
+
+function wantedTexts(value: FilterValue): string[] {
+  return (Array.isArray(value) ? value : [value]).map((v) => String(v).trim());
+}
+
+/** True when the cell's value in every filtered column is (any of) the filter's value(s). */
+export function matches(cell: Cell, filter: Filter): boolean {
+  for (const [col, value] of Object.entries(filter)) {
+    const have = cell.dims[col];
+    if (have === undefined || !wantedTexts(value).includes(have)) return false;
+  }
+  return true;
+}
+
+/** Throw an InputError when the filter names a column the cube does not have or a value no cell has. */
+export function checkFilter(cube: Cube, filter: Filter): void {
+  const where = { file: cube.file, ...(cube.sheet !== undefined ? { sheet: cube.sheet } : {}) };
+  for (const [col, value] of Object.entries(filter)) {
+    if (!cube.dimensions.includes(col)) {
+      throw new InputError({ ...where, field: col, found: col, problem: `The data of source "${cube.sourceId}" have no column with this name to select on`, fix: fixFor(col, cube.dimensions, 'columns') });
+    }
+    const known = cube.values[col] ?? [];
+    for (const v of wantedTexts(value)) {
+      if (!known.includes(v)) {
+        throw new InputError({ ...where, field: col, found: v, problem: `No row of source "${cube.sourceId}" has this value in column "${col}"`, fix: fixFor(v, known, `values of "${col}"`) });
+      }
+    }
+  }
+}
+
+function poolCells(cells: Iterable<Cell>, withPopulation: boolean): Pooled {
+  let n = 0;
+  let agree = 0;
+  let population = 0;
+  let approximate = false;
+  let count = 0;
+  for (const c of cells) {
+    n += c.n;
+    agree += c.agree;
+    population += c.population ?? 0;
+    approximate ||= c.approximate;
+    count += 1;
+  }
+  const pooled: Pooled = { n, agree, approximate, cells: count };
+  if (withPopulation) pooled.population = population;
+  return pooled;
+}
+
+/** Counts summed over the cells the filter matches. */
+export function pool(cube: Cube, filter: Filter): Pooled {
+  checkFilter(cube, filter);
+  return poolCells(
+    cube.cells.filter((c) => matches(c, filter)),
+    cube.hasPopulation,
+  );
+}
+
+/**
+ * Counts per value of `unitColumn` over the cells the filter matches, in the order the values first appear in the
+ * data. Units with no matching cell are left out.
+ */
+export function poolByUnit(cube: Cube, filter: Filter, unitColumn: string): Map<string, Pooled> {
+  checkFilter(cube, filter);
+  checkFilter(cube, { [unitColumn]: [] });
+  const groups = new Map<string, Cell[]>();
+  for (const u of cube.values[unitColumn] ?? []) groups.set(u, []);
+  for (const c of cube.cells) {
+    if (!matches(c, filter)) continue;
+    const u = c.dims[unitColumn] ?? '';
+    const list = groups.get(u);
+    if (list === undefined) groups.set(u, [c]);
+    else list.push(c);
+  }
+  const out = new Map<string, Pooled>();
+  for (const [u, cells] of groups) if (cells.length > 0) out.set(u, poolCells(cells, cube.hasPopulation));
+  return out;
+}
+
+export type Relation = 'separate' | 'focus-inside' | 'against-inside' | 'overlap' | 'same';
+
+export interface Related {
+  focus: Pooled;
+  against: Pooled;
+  relation: Relation;
+  /** When one selection contains the other: the larger one without the cells of the smaller. */
+  rest?: Pooled;
+}
+
+/**
+ * Pool two selections and say how they relate, cell by cell: no shared cell ('separate', also when either is empty),
+ * the same cells ('same'), one inside the other, or a partial overlap. When one contains the other, `rest` pools the
+ * larger selection's cells that the smaller does not match (a unit against a group that includes it is compared
+ * with the rest of the group).
+ */
+export function relate(cube: Cube, focus: Filter, against: Filter): Related {
+  checkFilter(cube, focus);
+  checkFilter(cube, against);
+  const f = new Set(cube.cells.filter((c) => matches(c, focus)));
+  const a = new Set(cube.cells.filter((c) => matches(c, against)));
+  let shared = 0;
+  for (const c of f) if (a.has(c)) shared += 1;
+  const pooledF = poolCells(f, cube.hasPopulation);
+  const pooledA = poolCells(a, cube.hasPopulation);
+  const base = { focus: pooledF, against: pooledA };
+  if (shared === 0) return { ...base, relation: 'separate' };
+  if (shared === f.size && shared === a.size) return { ...base, relation: 'same' };
+  if (shared === f.size) return { ...base, relation: 'focus-inside', rest: poolCells([...a].filter((c) => !f.has(c)), cube.hasPopulation) };
+  if (shared === a.size) return { ...base, relation: 'against-inside', rest: poolCells([...f].filter((c) => !a.has(c)), cube.hasPopulation) };
+  return { ...base, relation: 'overlap' };
+}

@@ -1,0 +1,480 @@
+/**
+ * A focused streaming reader for one worksheet of an XLSX workbook (Office Open XML, ECMA-376 Part 1, §18 SpreadsheetML).
+ *
+ * yauzl reads the zip's central directory and inflates only the parts needed: the package relationships
+ * (`_rels/.rels`), the workbook (`xl/workbook.xml`) and its relationships (to find a sheet's part by name), the shared
+ * strings table, and the sheet itself. Each part's bytes are decoded with one `TextDecoder` in streaming mode, so a
+ * character split between two inflated pieces is carried over intact, and the text is fed to saxes, a SAX parser.
+ * Rows are handed out as they close; only the shared strings are held in memory (cells refer to them by index).
+ *
+ * Cell values (ECMA-376 §18.3.1.4 `c`, §18.18.11 ST_CellType): `s` shared string (rich-text runs joined), `str`
+ * formula text, `inlineStr` (`is` element), `n` number, `b` boolean (TRUE/FALSE), `e` error (#N/A...), `d` ISO date.
+ * A formula cell is read from its cached value `v`; formulas are never evaluated, and a formula with no cached value
+ * is an error naming the cell. Numbers are written as JavaScript's shortest text after rounding to 15 significant
+ * digits, the precision a spreadsheet program displays (so a stored 0.30000000000000004 reads "0.3", as the user sees
+ * it). Styles are not read, so a date formatted cell reads as its serial number.
+ */
+import yauzl from 'yauzl';
+import type { Entry, ZipFile } from 'yauzl';
+import { SaxesParser } from 'saxes';
+import type { SaxesTagPlain } from 'saxes';
+import { InputError } from '../errors.js';
+import type { ReadOptions, SheetRow } from './rows.js';
+
+export interface XlsxOptions extends ReadOptions {
+  /** Worksheet name; default the first visible sheet. */
+  sheet?: string;
+}
+
+export interface SheetInfo {
+  name: string;
+  hidden: boolean;
+  /** Path of the sheet's part inside the zip, e.g. "xl/worksheets/sheet1.xml". */
+  part: string;
+}
+
+export interface OpenedSheet {
+  /** The sheet read (the one named, or the first visible one). */
+  sheet: string;
+  sheets: SheetInfo[];
+  rows: AsyncGenerator<SheetRow>;
+}
+
+/** Spreadsheet column letters to a 0-based index: A -> 0, Z -> 25, AA -> 26. Throws on anything but letters. */
+export function columnIndex(letters: string): number {
+  if (!/^[A-Za-z]{1,3}$/.test(letters)) throw new Error(`Not a column reference: "${letters}"`);
+  let n = 0;
+  for (const ch of letters.toUpperCase()) n = n * 26 + (ch.charCodeAt(0) - 64);
+  return n - 1;
+}
+
+/** 0-based column index to letters: 0 -> A, 26 -> AA. */
+export function columnLetters(index: number): string {
+  let s = '';
+  let n = index + 1;
+  while (n > 0) {
+    const r = (n - 1) % 26;
+    s = String.fromCharCode(65 + r) + s;
+    n = Math.floor((n - 1) / 26);
+  }
+  return s;
+}
+
+/** A stored number as the text a reader expects: 15 significant digits, then JavaScript's shortest form. */
+export function formatNumber(stored: string): string {
+  const text = stored.trim();
+  const x = Number(text);
+  if (text === '' || !Number.isFinite(x)) return text;
+  const shown = Number(x.toPrecision(15));
+  return String(Object.is(shown, -0) ? 0 : shown);
+}
+
+function localName(name: string): string {
+  const i = name.indexOf(':');
+  return i < 0 ? name : name.slice(i + 1);
+}
+
+function attr(tag: SaxesTagPlain, local: string, prefixed = false): string | undefined {
+  for (const [k, v] of Object.entries(tag.attributes)) {
+    const i = k.indexOf(':');
+    if ((prefixed ? i >= 0 : i < 0) && localName(k) === local) return v;
+  }
+  return undefined;
+}
+
+function openZip(path: string, file: string): Promise<ZipFile> {
+  return new Promise((resolve, reject) => {
+    yauzl.open(path, { lazyEntries: true, autoClose: false }, (err, zip) => {
+      if (err) {
+        const code = (err as { code?: string }).code;
+        if (code === 'ENOENT') {
+          reject(new InputError({ file, problem: 'The data file was not found', fix: 'Check the file path in the claims file; it is relative to the claims file' }));
+        } else if (code === 'EISDIR') {
+          reject(new InputError({ file, problem: 'The data path is a folder, not a file', fix: 'Name the workbook file itself in the claims file' }));
+        } else {
+          reject(
+            new InputError({
+              file,
+              problem: 'The file is not an XLSX workbook (it is not a zip archive)',
+              found: err.message,
+              fix: 'Save the sheet as an Excel Workbook (.xlsx) or as CSV, and point the claims file at that',
+            }),
+          );
+        }
+        return;
+      }
+      resolve(zip);
+    });
+  });
+}
+
+function listEntries(zip: ZipFile): Promise<Map<string, Entry>> {
+  return new Promise((resolve, reject) => {
+    const entries = new Map<string, Entry>();
+    zip.on('entry', (e: Entry) => {
+      entries.set(e.fileName.replace(/\\/g, '/'), e);
+      zip.readEntry();
+    });
+    zip.once('end', () => resolve(entries));
+    zip.once('error', reject);
+    zip.readEntry();
+  });
+}
+
+function openEntry(zip: ZipFile, entry: Entry): Promise<NodeJS.ReadableStream & { destroy(): void }> {
+  return new Promise((resolve, reject) => {
+    zip.openReadStream(entry, (err, stream) => (err ? reject(err) : resolve(stream)));
+  });
+}
+
+/**
+ * Feed one zip part through a streaming UTF-8 decoder into a fresh SAX parser; after each piece, `drain` hands out
+ * whatever the handlers produced. `chunkSize` cuts the inflated bytes into pieces of that size (for tests).
+ */
+async function* parsePart<T>(
+  zip: ZipFile,
+  entry: Entry,
+  chunkSize: number | undefined,
+  setup: (parser: SaxesParser) => () => T[],
+  damaged: (message: string) => InputError,
+): AsyncGenerator<T> {
+  const stream = await openEntry(zip, entry);
+  const decoder = new TextDecoder('utf-8');
+  const parser = new SaxesParser({ xmlns: false });
+  let failure: Error | undefined;
+  parser.on('error', (e) => {
+    failure ??= e;
+  });
+  const drain = setup(parser);
+  const write = (text: string): T[] => {
+    if (text !== '') parser.write(text);
+    if (failure !== undefined) throw damaged(failure.message);
+    return drain();
+  };
+  try {
+    for await (const raw of stream as AsyncIterable<Buffer>) {
+      const step = chunkSize !== undefined && chunkSize > 0 ? chunkSize : raw.length;
+      for (let at = 0; at < raw.length; at += step) {
+        yield* write(decoder.decode(raw.subarray(at, at + step), { stream: true }));
+      }
+    }
+    yield* write(decoder.decode());
+    parser.close();
+    if (failure !== undefined) throw damaged(failure.message);
+    yield* drain();
+  } finally {
+    stream.destroy();
+  }
+}
+
+/** Read a small part (relationships, workbook) whole. */
+async function collect<T>(gen: AsyncGenerator<T>): Promise<T[]> {
+  const out: T[] = [];
+  for await (const x of gen) out.push(x);
+  return out;
+}
+
+function resolvePart(base: string, target: string): string {
+  if (target.startsWith('/')) return target.slice(1);
+  const parts = base.split('/').slice(0, -1);
+  for (const seg of target.split('/')) {
+    if (seg === '..') parts.pop();
+    else if (seg !== '.' && seg !== '') parts.push(seg);
+  }
+  return parts.join('/');
+}
+
+function relsPath(part: string): string {
+  const i = part.lastIndexOf('/');
+  return `${part.slice(0, i + 1)}_rels/${part.slice(i + 1)}.rels`;
+}
+
+/**
+ * Open a workbook and start reading one sheet. The returned `rows` yields each `<row>` present in the sheet (rows a
+ * spreadsheet program leaves out of the file, because they are empty, are not yielded), numbered by its `r`.
+ */
+export async function openXlsxSheet(path: string, options: XlsxOptions = {}): Promise<OpenedSheet> {
+  const file = options.displayPath ?? path;
+  const zip = await openZip(path, file);
+  let handedOver = false;
+  try {
+    const entries = await listEntries(zip);
+    const damaged = (part: string) => (message: string) =>
+      new InputError({
+        file,
+        problem: `The workbook is damaged: its part ${part} is not well-formed XML`,
+        found: message,
+        fix: 'Open the workbook in a spreadsheet program and save it again as .xlsx',
+      });
+    const notWorkbook = (what: string) =>
+      new InputError({
+        file,
+        problem: `The file is a zip archive but not an XLSX workbook (${what} is missing)`,
+        fix: 'Save the sheet as an Excel Workbook (.xlsx) or as CSV, and point the claims file at that',
+      });
+
+    const relations = async (part: string): Promise<Map<string, { type: string; target: string }>> => {
+      const map = new Map<string, { type: string; target: string }>();
+      const entry = entries.get(relsPath(part));
+      if (entry === undefined) return map;
+      const rels = await collect(
+        parsePart(zip, entry, options.chunkSize, (p) => {
+          const out: Array<{ id: string; type: string; target: string }> = [];
+          p.on('opentag', (tag) => {
+            if (localName(tag.name) !== 'Relationship') return;
+            const id = attr(tag as SaxesTagPlain, 'Id');
+            const target = attr(tag as SaxesTagPlain, 'Target');
+            if (id !== undefined && target !== undefined) {
+              out.push({ id, type: attr(tag as SaxesTagPlain, 'Type') ?? '', target });
+            }
+          });
+          return () => out.splice(0);
+        }, damaged(relsPath(part))),
+      );
+      for (const r of rels) map.set(r.id, { type: r.type, target: resolvePart(part, r.target) });
+      return map;
+    };
+
+    // The workbook part: named by the package relationships, usually xl/workbook.xml.
+    let workbookPart = 'xl/workbook.xml';
+    for (const r of (await relations('')).values()) {
+      if (r.type.endsWith('/officeDocument')) workbookPart = r.target;
+    }
+    const workbookEntry = entries.get(workbookPart);
+    if (workbookEntry === undefined) throw notWorkbook(workbookPart);
+    const workbookRels = await relations(workbookPart);
+
+    const sheetTags = await collect(
+      parsePart(zip, workbookEntry, options.chunkSize, (p) => {
+        const out: Array<{ name: string; hidden: boolean; rid: string }> = [];
+        p.on('opentag', (tag) => {
+          if (localName(tag.name) !== 'sheet') return;
+          const t = tag as SaxesTagPlain;
+          out.push({ name: attr(t, 'name') ?? '', hidden: (attr(t, 'state') ?? 'visible') !== 'visible', rid: attr(t, 'id', true) ?? '' });
+        });
+        return () => out.splice(0);
+      }, damaged(workbookPart)),
+    );
+    const sheets: SheetInfo[] = sheetTags.map((s) => ({
+      name: s.name,
+      hidden: s.hidden,
+      part: workbookRels.get(s.rid)?.target ?? '',
+    }));
+    const listed = sheets.map((s) => `"${s.name}"${s.hidden ? ' (hidden)' : ''}`).join(', ');
+
+    let chosen: SheetInfo | undefined;
+    if (options.sheet !== undefined) {
+      chosen = sheets.find((s) => s.name === options.sheet) ?? sheets.find((s) => s.name.trim().toLowerCase() === options.sheet!.trim().toLowerCase());
+      if (chosen === undefined) {
+        throw new InputError({
+          file,
+          field: 'sheet',
+          found: options.sheet,
+          problem: 'The workbook has no sheet with this name',
+          fix: sheets.length > 0 ? `Use one of the sheets in the workbook: ${listed}` : 'Add a sheet with data to the workbook',
+        });
+      }
+    } else {
+      chosen = sheets.find((s) => !s.hidden);
+      if (chosen === undefined) {
+        throw new InputError({
+          file,
+          problem: sheets.length > 0 ? 'The workbook has no visible sheet' : 'The workbook has no sheets',
+          fix: sheets.length > 0 ? `Name the sheet to read with "sheet:" in the claims file; the workbook has ${listed}` : 'Add a sheet with data to the workbook',
+        });
+      }
+    }
+    const sheetEntry = entries.get(chosen.part);
+    if (sheetEntry === undefined) throw notWorkbook(`the part for sheet "${chosen.name}"`);
+
+    // Shared strings: the workbook relationship of type sharedStrings, usually xl/sharedStrings.xml.
+    let stringsPart: string | undefined;
+    for (const r of workbookRels.values()) if (r.type.endsWith('/sharedStrings')) stringsPart = r.target;
+    const stringsEntry = entries.get(stringsPart ?? 'xl/sharedStrings.xml');
+    const shared = stringsEntry === undefined ? [] : await collect(parsePart(zip, stringsEntry, options.chunkSize, sharedStringsHandler, damaged(stringsPart ?? 'xl/sharedStrings.xml')));
+
+    const rows = sheetRows(zip, sheetEntry, options.chunkSize, shared, file, chosen.name, damaged(chosen.part));
+    handedOver = true;
+    return { sheet: chosen.name, sheets, rows };
+  } finally {
+    if (!handedOver) zip.close();
+  }
+}
+
+/** Read the rows of one sheet (see openXlsxSheet). */
+export async function* readXlsxRows(path: string, options: XlsxOptions = {}): AsyncGenerator<SheetRow> {
+  const opened = await openXlsxSheet(path, options);
+  yield* opened.rows;
+}
+
+/** `<si>` items of the shared strings table; text of `t` elements, runs joined, phonetic runs (`rPh`) left out. */
+function sharedStringsHandler(p: SaxesParser): () => string[] {
+  const out: string[] = [];
+  let inItem = false;
+  let phonetic = 0;
+  let inText = false;
+  let text = '';
+  p.on('opentag', (tag) => {
+    const n = localName(tag.name);
+    if (n === 'si') {
+      inItem = true;
+      text = '';
+    } else if (n === 'rPh') phonetic += 1;
+    else if (n === 't' && inItem && phonetic === 0) inText = true;
+  });
+  p.on('text', (t) => {
+    if (inText) text += t;
+  });
+  p.on('cdata', (t) => {
+    if (inText) text += t;
+  });
+  p.on('closetag', (tag) => {
+    const n = localName(tag.name);
+    if (n === 't') inText = false;
+    else if (n === 'rPh') phonetic -= 1;
+    else if (n === 'si') {
+      inItem = false;
+      out.push(text);
+    }
+  });
+  return () => out.splice(0);
+}
+
+async function* sheetRows(
+  zip: ZipFile,
+  entry: Entry,
+  chunkSize: number | undefined,
+  shared: string[],
+  file: string,
+  sheet: string,
+  damaged: (message: string) => InputError,
+): AsyncGenerator<SheetRow> {
+  try {
+    yield* parsePart<SheetRow>(
+      zip,
+      entry,
+      chunkSize,
+      (p) => {
+        const out: SheetRow[] = [];
+        let rowNumber = 0;
+        let values: string[] = [];
+        let col = -1;
+        let ref = '';
+        let type = 'n';
+        let hasFormula = false;
+        let hasValue = false;
+        let v = '';
+        let inline = '';
+        let collect: 'v' | 't' | null = null;
+        let phonetic = 0;
+        let inInline = false;
+        const fail = (problem: string, found: string, fix: string): never => {
+          throw new InputError({ file, sheet, row: rowNumber, field: `cell ${ref}`, found, problem, fix });
+        };
+        p.on('opentag', (tag) => {
+          const t = tag as SaxesTagPlain;
+          switch (localName(tag.name)) {
+            case 'row': {
+              const r = attr(t, 'r');
+              rowNumber = r !== undefined && /^\d+$/.test(r) ? Number(r) : rowNumber + 1;
+              values = [];
+              col = -1;
+              break;
+            }
+            case 'c': {
+              const r = attr(t, 'r');
+              const m = r === undefined ? null : /^([A-Za-z]{1,3})(\d+)$/.exec(r);
+              col = m !== null ? columnIndex(m[1]!) : col + 1;
+              ref = `${columnLetters(col)}${rowNumber}`;
+              type = attr(t, 't') ?? 'n';
+              hasFormula = false;
+              hasValue = false;
+              v = '';
+              inline = '';
+              break;
+            }
+            case 'f':
+              hasFormula = true;
+              break;
+            case 'v':
+              hasValue = true;
+              collect = 'v';
+              break;
+            case 'is':
+              inInline = true;
+              break;
+            case 'rPh':
+              phonetic += 1;
+              break;
+            case 't':
+              if (inInline && phonetic === 0) collect = 't';
+              break;
+          }
+        });
+        const onText = (s: string) => {
+          if (collect === 'v') v += s;
+          else if (collect === 't') inline += s;
+        };
+        p.on('text', onText);
+        p.on('cdata', onText);
+        p.on('closetag', (tag) => {
+          switch (localName(tag.name)) {
+            case 'v':
+            case 't':
+              collect = null;
+              break;
+            case 'is':
+              inInline = false;
+              break;
+            case 'rPh':
+              phonetic -= 1;
+              break;
+            case 'c': {
+              if (hasFormula && !hasValue) {
+                fail(
+                  'A formula cell has no saved result, and warrant does not calculate formulas',
+                  'a formula with no cached value',
+                  'Open the workbook in a spreadsheet program, let it calculate, and save it; or paste the values in place of the formulas',
+                );
+              }
+              let text: string;
+              switch (type) {
+                case 's': {
+                  const i = Number(v.trim());
+                  const s = Number.isInteger(i) ? shared[i] : undefined;
+                  if (s === undefined) {
+                    fail('The cell refers to a shared string that the workbook does not have', v, 'Open the workbook in a spreadsheet program and save it again as .xlsx');
+                  }
+                  text = s!;
+                  break;
+                }
+                case 'inlineStr':
+                  text = hasValue ? v : inline;
+                  break;
+                case 'b':
+                  text = v.trim() === '1' ? 'TRUE' : v.trim() === '0' ? 'FALSE' : v;
+                  break;
+                case 'n':
+                  text = formatNumber(v);
+                  break;
+                default: // str, e, d
+                  text = v;
+              }
+              while (values.length < col) values.push('');
+              values[col] = text;
+              break;
+            }
+            case 'row':
+              out.push({ row: rowNumber, values });
+              values = [];
+              break;
+          }
+        });
+        return () => out.splice(0);
+      },
+      damaged,
+    );
+  } finally {
+    zip.close();
+  }
+}
