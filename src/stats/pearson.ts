@@ -71,8 +71,14 @@ function weightedMean(v: readonly number[], w: readonly number[] | undefined): n
 export function correlationCoefficient(x: readonly number[], y: readonly number[], w?: readonly number[]): number {
   const mx = weightedMean(x, w);
   const my = weightedMean(y, w);
-  const dx = x.map((v) => v - mx);
-  const dy = y.map((v) => v - my);
+  // Deviations scaled by their largest magnitude (r is scale-free), so squares neither underflow nor overflow.
+  const scaled = (v: readonly number[], m: number): number[] => {
+    const d = v.map((a) => a - m);
+    const big = d.reduce((acc, a) => Math.max(acc, Math.abs(a)), 0);
+    return big > 0 && Number.isFinite(big) ? d.map((a) => a / big) : d;
+  };
+  const dx = scaled(x, mx);
+  const dy = scaled(y, my);
   const wdx = w === undefined ? dx : dx.map((d, i) => d * w[i]!);
   const wdy = w === undefined ? dy : dy.map((d, i) => d * w[i]!);
   const sxx = accurateDot(wdx, dx);
@@ -80,7 +86,7 @@ export function correlationCoefficient(x: readonly number[], y: readonly number[
   if (!(sxx > 0)) throw new Error('correlation is undefined: x does not vary.');
   if (!(syy > 0)) throw new Error('correlation is undefined: y does not vary.');
   const sxy = accurateDot(wdx, dy);
-  const r = sxy / (Math.sqrt(sxx) * Math.sqrt(syy));
+  const r = sxy / Math.sqrt(sxx * syy);
   return Math.max(-1, Math.min(1, r));
 }
 
