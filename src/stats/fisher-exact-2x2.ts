@@ -9,7 +9,13 @@
  *   with a relative allowance of 1e-7: sum of P(X = k) for P(X = k) <= P(X = x1) (1 + 1e-7).
  *   'less' (p1 below p2) is P(X <= x1), 'greater' is P(X >= x1).
  *
- * The table is [[x1, n1 - x1], [x2, n2 - x2]]. Estimate: p1 - p2, with Newcombe's hybrid score interval
+ * The table is given by its cells, as R's matrix(c(a, c, b, d), 2):
+ *
+ *                 agreeing   not agreeing
+ *     group 1        a            b
+ *     group 2        c            d
+ *
+ * so x1 = a of n1 = a + b and x2 = c of n2 = c + d. Estimate: p1 - p2, with Newcombe's hybrid score interval
  * (newcombe.ts; one-sided at the level for a one-sided alternative), so that every rate comparison reports a gap
  * in the reader's units. The conditional odds ratio is not reported.
  */
@@ -27,20 +33,29 @@ export interface FisherExact2x2Options {
 const REL_ERR = 1 + 1e-7;
 
 /**
- * Fisher's exact test of H0: p1 = p2 for x1 of n1 against x2 of n2; method 'fisher-exact-2x2'.
+ * Fisher's exact test of H0: p1 = p2 for the table [[a, b], [c, d]] (a of a + b agreeing in group 1, c of c + d in
+ * group 2); method 'fisher-exact-2x2'. The fifth argument is the alternative or an options object.
  *
- * @throws Error when counts are not whole numbers or out of range, or the level is outside (0, 1).
+ * @throws Error when a cell is negative or not a whole number, a group is empty, or the level is outside (0, 1).
  */
 export function fisherExact2x2(
-  x1: number,
-  n1: number,
-  x2: number,
-  n2: number,
-  options: FisherExact2x2Options = {},
+  a: number,
+  b: number,
+  c: number,
+  d: number,
+  alternativeOrOptions: Alternative | FisherExact2x2Options = {},
 ): TestResult {
   const fn = 'fisherExact2x2';
+  const options = typeof alternativeOrOptions === 'string' ? { alternative: alternativeOrOptions } : alternativeOrOptions;
   const alternative = options.alternative ?? 'two-sided';
   const level = options.level ?? 0.95;
+  for (const [name, v] of [['a', a], ['b', b], ['c', c], ['d', d]] as const) {
+    if (!(Number.isInteger(v) && v >= 0)) throw new Error(`${fn}: cell ${name} must be a whole number of 0 or more, got ${v}`);
+  }
+  const x1 = a;
+  const n1 = a + b;
+  const x2 = c;
+  const n2 = c + d;
   checkCounts(x1, n1, fn, true);
   checkCounts(x2, n2, fn, true);
   checkLevel(level, fn);

@@ -111,3 +111,15 @@ export function twoProportionZTest(
     warnings,
   };
 }
+
+/** Positional form of {@link twoProportionZTest}: twoProportionZ(x1, n1, x2, n2, alternative, level). */
+export function twoProportionZ(
+  x1: number,
+  n1: number,
+  x2: number,
+  n2: number,
+  alternative: Alternative = 'two-sided',
+  level = 0.95,
+): TestResult {
+  return twoProportionZTest(x1, n1, x2, n2, { alternative, level });
+}

@@ -92,3 +92,8 @@ export function wilsonInterval(x: number, n: number, options: WilsonOptions = {}
     interval: { lower, upper, level, method: options.populationSize === undefined ? 'wilson' : 'wilson-fpc' },
   };
 }
+
+/** Positional form of {@link wilsonInterval}: wilson(x, n, level, populationSize). */
+export function wilson(x: number, n: number, level = 0.95, populationSize?: number): RateEstimate {
+  return wilsonInterval(x, n, populationSize === undefined ? { level } : { level, populationSize });
+}
