@@ -42,14 +42,17 @@ class Problems {
   }
 }
 
+/** A number written in decimal (optionally with an exponent); hexadecimal, "Infinity" and the like are not numbers here. */
+const DECIMAL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+
 /**
  * Parse a count: a whole number, not negative. Accepts thousands separators written as "1,234".
  * Returns undefined (after recording a problem) when the text is not a count.
  */
 function parseCount(text: string, row: number, field: string, problems: Problems): number | undefined {
   const cleaned = /^\d{1,3}(,\d{3})+$/.test(text) ? text.replace(/,/g, '') : text;
-  const x = Number(cleaned);
-  if (cleaned === '' || !Number.isFinite(x)) {
+  const x = DECIMAL.test(cleaned) ? Number(cleaned) : NaN;
+  if (!Number.isFinite(x)) {
     problems.add({ row, field, found: text, problem: 'A count is not a number', fix: 'Write the number of people as digits, e.g. 42; remove notes or markers from the cell' });
     return undefined;
   }
@@ -73,8 +76,8 @@ interface PercentValue {
 function parsePercent(text: string, row: number, field: string, problems: Problems): PercentValue | undefined {
   const sign = text.endsWith('%');
   const body = sign ? text.slice(0, -1).trim() : text;
-  const x = Number(body);
-  if (body === '' || !Number.isFinite(x)) {
+  const x = DECIMAL.test(body) ? Number(body) : NaN;
+  if (!Number.isFinite(x)) {
     problems.add({ row, field, found: text, problem: 'A percentage is not a number', fix: 'Write the percent agreeing as a number such as 72, 72.4 or 72%' });
     return undefined;
   }

@@ -189,6 +189,7 @@ describe('readCube, respondent-level sources', () => {
 describe('readCube errors name the file, row, field and value', () => {
   const cases: Array<[string, string, Partial<CubeSource>, Record<string, unknown>, RegExp]> = [
     ['text in a count', 'G,Respondents,Agreeing\nA,10,5\nB,n/a,3\n', {}, { row: 3, field: 'Respondents', found: 'n/a' }, /not a number/],
+    ['hexadecimal count', 'G,Respondents,Agreeing\nA,0x10,5\n', {}, { row: 2, field: 'Respondents', found: '0x10' }, /not a number/],
     ['negative count', 'G,Respondents,Agreeing\nA,10,-5\n', {}, { row: 2, field: 'Agreeing', found: '-5' }, /negative/],
     ['fractional count', 'G,Respondents,Agreeing\nA,10.5,5\n', {}, { row: 2, field: 'Respondents', found: '10.5' }, /whole number/],
     ['agree above respondents', 'G,Respondents,Agreeing\nA,10,11\n', {}, { row: 2, field: 'Agreeing', found: '11' }, /More people agreed/],
