@@ -58,7 +58,10 @@ export interface LeastSquaresFit {
   residualSd: number;
   rSquared: number;
   adjustedRSquared: number;
-  /** Overall F test of all coefficients but the intercept; absent when the model has no such coefficient. */
+  /**
+   * Overall F test of all coefficients but the intercept; absent when the model has no such coefficient. F is
+   * Infinity (p = 0) for an exact fit, when RSS is below 2^-104 of the total sum of squares.
+   */
   fTest?: { value: number; df: [number, number]; p: number };
   /** y - fitted, for every observation given (including weight 0). */
   residuals: number[];
@@ -357,7 +360,9 @@ export function leastSquares(
     fitted,
   };
   if (dfModel > 0) {
-    const value = rss === 0 ? Infinity : (tss - rss) / dfModel / s2;
+    // A residual sum of squares below the rounding level of the data (relative 2^-104 of the total) is an exact fit.
+    const exact = rss <= Number.EPSILON * Number.EPSILON * tss;
+    const value = exact ? Infinity : (tss - rss) / dfModel / s2;
     fit.fTest = { value, df: [dfModel, dfResidual], p: value === Infinity ? 0 : fSf(value, dfModel, dfResidual) };
   }
   return fit;

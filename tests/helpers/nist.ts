@@ -78,6 +78,8 @@ export interface LinregCertified {
   parameters: { name: string; estimate: number; sd: number }[];
   residualSd: number;
   rSquared: number;
+  regression: { df: number; ss: number; ms: number; f: number };
+  residual: { df: number; ss: number; ms: number };
 }
 
 export function linregCertified(f: StrdFile): LinregCertified {
@@ -90,8 +92,12 @@ export function linregCertified(f: StrdFile): LinregCertified {
     });
   const sdTokens = lineTokens(f, /^\s+Standard Deviation\s/);
   const r2Tokens = lineTokens(f, /^\s+R-Squared\s/);
+  const reg = lineTokens(f, /^Regression\s+\d/).slice(1).map(certifiedNumber);
+  const res = lineTokens(f, /^Residual\s+\d/).slice(1).map(certifiedNumber);
   return {
     parameters,
+    regression: { df: reg[0]!, ss: reg[1]!, ms: reg[2]!, f: reg[3]! },
+    residual: { df: res[0]!, ss: res[1]!, ms: res[2]! },
     residualSd: certifiedNumber(sdTokens[sdTokens.length - 1]!),
     rSquared: certifiedNumber(r2Tokens[r2Tokens.length - 1]!),
   };
