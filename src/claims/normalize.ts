@@ -11,7 +11,7 @@ import { locate, type ParsedYaml } from './yaml.js';
 /** Defaults, in one place. */
 export const DEFAULTS = {
   confidence: 0.95,
-  confidenceWritten: '95% (the default)',
+  confidenceWritten: 'default',
   adjust: 'holm',
   minRespondents: 10,
   questionColumn: 'question',

@@ -14,7 +14,7 @@ type Segment = string | number;
 const EXAMPLE: Record<string, string> = {
   title: 'title: Student voice 2026',
   organisation: "organisation: Tarnmoor Students' Guild",
-  sources: 'sources: with one entry per data file, e.g. "results: { file: data/summary.xlsx, shape: summary, respondents: Respondents, agree: Agreeing }"',
+  sources: 'sources: followed by one entry per data file, such as "results: { file: data/summary.xlsx, shape: summary, respondents: Respondents, agree: Agreeing }"',
   claims: 'claims: followed by a list of claims, each starting with "- id: ..."',
   id: 'id: feedback-below-region',
   claim: 'claim: followed by the claim in plain words',
@@ -135,7 +135,12 @@ export function schemaProblems(parsed: ParsedYaml, file: string): Problem[] {
   // Group-level errors (anyOf, oneOf) replace the errors of their branches.
   const groups = errors.filter((e) => e.keyword === 'anyOf' || e.keyword === 'oneOf');
   const isBranchError = (e: ErrorObject): boolean =>
-    groups.some((g) => g !== e && e.instancePath === g.instancePath && e.schemaPath.startsWith(g.schemaPath + '/'));
+    groups.some(
+      (g) =>
+        g !== e &&
+        (e.instancePath === g.instancePath || e.instancePath.startsWith(g.instancePath + '/')) &&
+        e.schemaPath.startsWith(g.schemaPath + '/'),
+    );
 
   const seen = new Set<string>();
   for (const e of errors) {
@@ -159,7 +164,9 @@ function toProblem(e: ErrorObject, path: Segment[], parsed: ParsedYaml, file: st
   const valuePlace = at.value ?? at.key ?? at.nearest;
   const parentSchema = (e.parentSchema ?? {}) as JsonSchema;
   const last = path[path.length - 1];
-  const field = last === undefined ? undefined : String(last);
+  // For an item of a list, the field is the list's key (agree_codes, not "0").
+  const fieldSeg = typeof last === 'number' ? path[path.length - 2] : last;
+  const field = fieldSeg === undefined ? undefined : String(fieldSeg);
   const value = get(data, path);
   const base = (place: { line: number; column: number }): Problem => ({ file, line: place.line, column: place.column, problem: '', fix: '' });
 
@@ -234,7 +241,7 @@ function toProblem(e: ErrorObject, path: Segment[], parsed: ParsedYaml, file: st
       const p = base(valuePlace);
       if (field !== undefined) p.field = field;
       p.found = foundRaw(value);
-      const what = field === undefined ? 'the claims file' : typeof last === 'number' ? `item ${last + 1} of ${String(path[path.length - 2])}` : `"${field}"`;
+      const what = field === undefined ? 'the claims file' : typeof last === 'number' ? `item ${last + 1} of ${field}` : `"${field}"`;
       p.problem = `${what} should be ${typeWords(expected)}`;
       if (path.length === 0) {
         p.problem = 'the claims file should be a mapping of keys (title, organisation, sources, claims)';
@@ -243,8 +250,13 @@ function toProblem(e: ErrorObject, path: Segment[], parsed: ParsedYaml, file: st
         p.fix = value === null ? `Write a value after "${field}:"` : 'Write it as text; put it in quotes if it looks like a number, a date or true/false';
       } else if (expected === 'array') {
         p.fix = `Write a list, e.g. ${field}: [a, b] or one "- item" per line`;
+      } else if (expected === 'object' && path.length === 2 && path[0] === 'claims') {
+        p.fix = 'Start each claim with "- id: ..." and put its other keys (claim, kind, ...) on the lines below, indented to line up with id';
+      } else if (expected === 'object' && path.length === 2 && path[0] === 'sources') {
+        p.fix = `Put the keys of source "${String(last)}" on the lines below it, indented, starting with file: and shape:`;
       } else if (expected === 'object') {
-        p.fix = `Write keys under ${field}, e.g. ${EXAMPLE[String(field)] ?? `${field}: { column: value }`}`;
+        const example = EXAMPLE[String(field)] ?? `${field}: { column: value }`;
+        p.fix = value === null ? `Write the keys after "${field}:", as in ${example}, or delete the line` : `Write it as keys and values, as in ${example}`;
       } else if (expected === 'integer') {
         p.fix = 'Write a whole number without quotes, e.g. 10';
       } else {
@@ -258,7 +270,7 @@ function toProblem(e: ErrorObject, path: Segment[], parsed: ParsedYaml, file: st
       p.field = field;
       p.found = foundRaw(value);
       const kind = get(data, [...path.slice(0, -1), 'kind']);
-      const forKind = field === 'expect' && typeof kind === 'string' ? ` for a ${kind} claim` : '';
+      const forKind = field === 'expect' && typeof kind === 'string' ? ` for ${article(kind)} ${kind} claim` : '';
       p.problem = `${foundWords(value)} is not an allowed value of ${field}${forKind} in ${describeOwner(data, path.slice(0, -1))}`;
       const guess = typeof value === 'string' ? closest(value, allowed) : undefined;
       p.fix = `Use one of: ${allowed.join(', ')}${guess !== undefined ? ` (did you mean ${guess}?)` : ''}`;
@@ -331,9 +343,13 @@ function requiredWhy(schema: JsonSchema, missing: string, value: unknown): strin
     return '';
   }
   const kind = get(value, ['kind']);
-  if (typeof kind === 'string') return ` for a ${kind} claim`;
+  if (typeof kind === 'string') return ` for ${article(kind)} ${kind} claim`;
   const shape = get(value, ['shape']);
   if (typeof shape === 'string') return ` for a source of shape ${shape}`;
   return '';
 }
 
+
+function article(word: string): string {
+  return /^[aeiou]/i.test(word) ? 'an' : 'a';
+}
