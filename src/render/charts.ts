@@ -65,6 +65,25 @@ function requireFinite(value: number, what: string): void {
   if (!Number.isFinite(value)) throw new Error(`Chart data: ${what} is ${value}; a finite number is required.`);
 }
 
+/**
+ * An axis domain that contains every value with a little room, with ends on a round step (a 1, 2 or 5 multiple
+ * of a power of ten chosen so the range holds about five steps).
+ */
+export function roundDomain(values: number[]): [number, number] {
+  let lo = Math.min(...values);
+  let hi = Math.max(...values);
+  if (lo === hi) {
+    const pad = lo === 0 ? 1 : Math.abs(lo) * 0.1;
+    lo -= pad;
+    hi += pad;
+  }
+  const raw = (hi - lo) / 5;
+  const power = 10 ** Math.floor(Math.log10(raw));
+  const step = ([1, 2, 5, 10].find((m) => m * power >= raw) ?? 10) * power;
+  const pad = (hi - lo) * 0.02;
+  return [Math.floor((lo - pad) / step) * step, Math.ceil((hi + pad) / step) * step];
+}
+
 /** Group digits of a count with commas, e.g. 18500 -> "18,500". */
 function count(n: number): string {
   return Math.round(n).toLocaleString('en-GB');
@@ -179,8 +198,12 @@ function scatterSpec(data: Extract<ChartData, { kind: 'scatter' }>): Record<stri
   }
   const fmt = data.percent ? '.0%' : '~g';
   const xs = data.points.map((p) => p.x);
-  const xScale = { zero: false, nice: true };
-  const yScale = { zero: false, nice: true };
+  const ys = data.points.map((p) => p.y);
+  if (data.fit) {
+    for (const x of [Math.min(...xs), Math.max(...xs)]) ys.push(data.fit.intercept + data.fit.slope * x);
+  }
+  const xScale = { domain: roundDomain(xs), nice: false, zero: false };
+  const yScale = { domain: roundDomain(ys), nice: false, zero: false };
   const layers: Array<Record<string, unknown>> = [
     {
       data: { values: data.points.map((p) => ({ label: p.label, x: p.x, y: p.y, n: p.n })) },
@@ -214,14 +237,11 @@ function scatterSpec(data: Extract<ChartData, { kind: 'scatter' }>): Record<stri
       encoding: { x: { field: 'x', type: 'quantitative' }, y: { field: 'y', type: 'quantitative' } },
     });
   }
-  if (data.note) {
-    layers.push({
-      data: { values: [{ note: data.note }] },
-      mark: { type: 'text', align: 'left', baseline: 'top', x: 6, y: 4, color: PALETTE.ink, fontWeight: 'bold', fontSize: 10 },
-      encoding: { text: { field: 'note', type: 'nominal' } },
-    });
-  }
   return {
+    // The note (e.g. "r = 0.41") sits above the plot as its title, where it can never cover a point.
+    ...(data.note
+      ? { title: { text: data.note, anchor: 'start', fontSize: 10, fontWeight: 'bold', color: PALETTE.ink, offset: 6 } }
+      : {}),
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
     width: CHART_WIDTH,
     height: CHART_HEIGHT,

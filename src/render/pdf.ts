@@ -29,7 +29,7 @@ export const FIXED_EPOCH = new Date(Date.UTC(2000, 0, 1, 0, 0, 0));
 
 // ---- Page geometry (points; A4 is 595.28 x 841.89) ----
 const PAGE = { width: 595.28, height: 841.89 };
-const MARGIN = { top: 76, bottom: 72, left: 66, right: 66 };
+const MARGIN = { top: 66, bottom: 62, left: 66, right: 66 };
 const CONTENT_WIDTH = PAGE.width - MARGIN.left - MARGIN.right;
 const CONTENT_BOTTOM = PAGE.height - MARGIN.bottom;
 /** Slack kept under every block so that rounding in line heights can never push text past the margin. */
@@ -73,6 +73,8 @@ interface Block {
   height(): number;
   /** Height that must fit on the current page before the block may start (tables: header plus first row). */
   minHeight(): number;
+  /** Blank space at the end of height(), which may fall below the last line of a page. */
+  after?: number;
   /** Keep this block on the same page as the start of the next one (headings). */
   keepWithNext?: boolean;
   draw(parent: Struct): void;
@@ -137,7 +139,7 @@ class Layout {
         j++;
       }
       if (j > i) need = need - block.minHeight() + block.height();
-      this.ensure(need);
+      this.ensure(need - (blocks[j]!.after ?? 0));
       block.draw(parent);
     });
   }
@@ -151,6 +153,7 @@ class Layout {
     const h = (): number => this.textHeight(text, 'bold', size, CONTENT_WIDTH, 1);
     return {
       keepWithNext: true,
+      after,
       height: () => h() + after,
       minHeight: () => h() + after,
       draw: (parent) => {
@@ -177,6 +180,7 @@ class Layout {
     const width = CONTENT_WIDTH - indent;
     const h = (): number => this.textHeight(text, face, size, width);
     return {
+      after,
       height: () => h() + after,
       minHeight: () => Math.min(h(), 3 * (size * 1.4)) + after,
       draw: (parent) => {
@@ -198,6 +202,7 @@ class Layout {
     const width = CONTENT_WIDTH - 2 * pad - 3;
     const h = (): number => this.textHeight(text, 'regular', SIZE.body, width) + 2 * pad - LINE_GAP;
     return {
+      after: 12,
       height: () => h() + 12,
       minHeight: () => h() + 12,
       draw: (parent) => {
@@ -222,8 +227,9 @@ class Layout {
   bullets(items: string[]): Block {
     const indent = 14;
     const width = CONTENT_WIDTH - indent;
-    const itemHeights = (): number[] => items.map((t) => this.textHeight(t, 'regular', SIZE.body, width) + 4);
+    const itemHeights = (): number[] => items.map((t) => this.textHeight(t, 'regular', SIZE.body, width) + 3);
     return {
+      after: 9,
       height: () => itemHeights().reduce((a, b) => a + b, 0) + 6,
       minHeight: () => (itemHeights()[0] ?? 0) + 6,
       draw: (parent) => {
@@ -311,7 +317,7 @@ class Layout {
     const showHeader = opts.header ?? true;
     const size = opts.size ?? SIZE.table;
     const padX = 5;
-    const padY = 4.5;
+    const padY = 3.6;
     const after = opts.spaceAfter ?? 12;
     const total = columns.reduce((a, c) => a + c.width, 0);
     const scale = CONTENT_WIDTH / total;
@@ -358,6 +364,7 @@ class Layout {
     };
 
     return {
+      after,
       height: () => headerHeight() + rows.reduce((a, r) => a + rowHeight(r), 0) + after,
       minHeight: () => headerHeight() + (rows[0] ? rowHeight(rows[0]) : 0) + after,
       draw: (parent) => {
@@ -394,16 +401,16 @@ class Layout {
     };
   }
 
-  /** A chart drawn as vectors from SVG, tagged as a Figure with its alt text, with the alt text as a caption. */
+  /** A chart drawn as vectors from SVG, tagged as a Figure with its alt text and bounding box. */
   figure(svg: string, alt: string): Block {
     const { width, height } = svgSize(svg);
     const scale = Math.min(1, CONTENT_WIDTH / width);
     const w = width * scale;
     const h = height * scale;
-    const captionHeight = (): number => this.textHeight(alt, 'italic', SIZE.small, CONTENT_WIDTH, 1.5);
     return {
-      height: () => h + 6 + captionHeight() + 12,
-      minHeight: () => h + 6 + captionHeight() + 12,
+      after: 14,
+      height: () => h + 14,
+      minHeight: () => h + 14,
       draw: (parent) => {
         const top = this.y;
         const x = MARGIN.left + (CONTENT_WIDTH - w) / 2;
@@ -421,12 +428,7 @@ class Layout {
             });
           }),
         );
-        // The caption repeats the alt text for sighted readers; as an Artifact it is not read twice.
-        this.artifact(() => {
-          this.setFont('italic', SIZE.small, COLOR.muted);
-          this.doc.text(alt, MARGIN.left, top + h + 6, { width: CONTENT_WIDTH, lineGap: 1.5 });
-        });
-        this.y = top + h + 6 + captionHeight() + 12;
+        this.y = top + h + 14;
       },
     };
   }
@@ -490,10 +492,10 @@ function claimBlocks(
       L.y = top + headH();
     },
   });
+  // Lead with the answer: the verdict badge and paragraph come first, then what was compared, then the numbers.
   blocks.push(L.badge(claim.verdict, claim.verdictLabel));
-  blocks.push(L.heading('H3', 'What was compared'));
-  blocks.push(L.paragraph(claim.compared));
-  blocks.push(L.heading('H3', 'What was tested'));
+  blocks.push(L.panel(claim.verdictText));
+  blocks.push(L.heading('H3', 'What was compared and tested'));
   blocks.push(
     L.table(
       [
@@ -501,6 +503,7 @@ function claimBlocks(
         { header: '', width: 337 },
       ],
       [
+        [{ text: 'Compared' }, { text: claim.compared }],
         [{ text: 'Null hypothesis' }, { text: claim.hypotheses.null }],
         [{ text: 'Alternative hypothesis' }, { text: claim.hypotheses.alternative }],
       ],
@@ -512,26 +515,27 @@ function claimBlocks(
     blocks.push(
       L.table(
         [
-          { header: 'Quantity', width: 230 },
-          { header: 'Value', width: 237 },
+          { header: 'Quantity', width: 190 },
+          { header: 'Value', width: 277 },
         ],
         claim.numbers.map((r) => [{ text: r.label }, { text: r.value }]),
+        { header: false, spaceAfter: 4 },
       ),
     );
   }
+  // The method line reads as a note under the numbers it produced.
+  blocks.push(L.paragraph(claim.methodLine, { face: 'italic', size: SIZE.small, color: COLOR.muted, spaceAfter: 12 }));
   if (claim.chart && svg) blocks.push(L.figure(svg, claim.chart.alt));
-  blocks.push(L.heading('H3', 'Verdict'));
-  blocks.push(L.panel(claim.verdictText));
   if (claim.cautions.length > 0) {
     blocks.push(L.heading('H3', 'Cautions'));
     blocks.push(L.bullets(claim.cautions));
   }
-  blocks.push(L.paragraph(claim.methodLine, { face: 'italic', size: SIZE.small, color: COLOR.muted, spaceAfter: 14 }));
   return blocks;
 }
 
+/** Height of a run of blocks, less the blank space after the last one. */
 function blocksHeight(blocks: Block[]): number {
-  return blocks.reduce((a, b) => a + b.height(), 0);
+  return blocks.reduce((a, b) => a + b.height(), 0) - (blocks.at(-1)?.after ?? 0);
 }
 
 /** Render the evidence pack. Deterministic: the same model and options give the same bytes. */
@@ -737,13 +741,13 @@ export async function renderPdf(model: PackModel, options: RenderOptions = {}): 
     doc.markContent('Artifact', { type: 'Pagination' });
     if (i > range.start) {
       doc.font(FONT_NAME.regular).fontSize(SIZE.furniture).fillColor(COLOR.muted);
-      doc.text(shorten(model.title, 95), MARGIN.left, MARGIN.top - 34, { width: CONTENT_WIDTH, lineBreak: false });
-      doc.lineWidth(0.5).moveTo(MARGIN.left, MARGIN.top - 20).lineTo(PAGE.width - MARGIN.right, MARGIN.top - 20).stroke(COLOR.rule);
+      doc.text(shorten(model.title, 95), MARGIN.left, MARGIN.top - 32, { width: CONTENT_WIDTH, lineBreak: false });
+      doc.lineWidth(0.5).moveTo(MARGIN.left, MARGIN.top - 18).lineTo(PAGE.width - MARGIN.right, MARGIN.top - 18).stroke(COLOR.rule);
     }
-    doc.lineWidth(0.5).moveTo(MARGIN.left, PAGE.height - 50).lineTo(PAGE.width - MARGIN.right, PAGE.height - 50).stroke(COLOR.rule);
+    doc.lineWidth(0.5).moveTo(MARGIN.left, PAGE.height - 44).lineTo(PAGE.width - MARGIN.right, PAGE.height - 44).stroke(COLOR.rule);
     doc.font(FONT_NAME.regular).fontSize(SIZE.furniture).fillColor(COLOR.muted);
-    doc.text(shorten(model.organisation, 70), MARGIN.left, PAGE.height - 42, { width: CONTENT_WIDTH / 2, lineBreak: false });
-    doc.text(`Page ${i - range.start + 1} of ${range.count}`, MARGIN.left + CONTENT_WIDTH / 2, PAGE.height - 42, {
+    doc.text(shorten(model.organisation, 70), MARGIN.left, PAGE.height - 37, { width: CONTENT_WIDTH / 2, lineBreak: false });
+    doc.text(`Page ${i - range.start + 1} of ${range.count}`, MARGIN.left + CONTENT_WIDTH / 2, PAGE.height - 37, {
       width: CONTENT_WIDTH / 2,
       align: 'right',
       lineBreak: false,
