@@ -33,6 +33,13 @@ function load(relative: string): Record<string, Row[]> & { r_version?: string } 
 /** R 4.2 reference values, one array of rows per R function (pnorm, qnorm, pt, ...). */
 export const R_REF = load('../fixtures/r/distributions.json');
 
+/**
+ * scipy 1.17 and mpmath 1.3 (50-digit) second-opinion values, written by tests/fixtures/scipy/distributions.py:
+ * sections pt, pchisq, pf, qf, pbinom, phyper (scipy) and t_sf_quantile, t_sf, chisq_quantile_near_one,
+ * f_quantile_closed_form (mpmath).
+ */
+export const SCIPY_REF = load('../fixtures/scipy/distributions.json');
+
 export function num(row: Row, key: string): number {
   const v = row[key];
   if (typeof v !== 'number') throw new Error(`fixture row has no number ${key}: ${JSON.stringify(row)}`);
