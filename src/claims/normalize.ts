@@ -4,7 +4,7 @@
  */
 import { extname, resolve } from 'node:path';
 import { readConfidence } from './confidence.js';
-import { DATA_EXTENSIONS } from './rules.js';
+import { DATA_EXTENSIONS, DEFAULT_AGREE_CODES } from './rules.js';
 import type { AssociationClaim, Claim, ClaimsFile, CompareClaim, Filter, Place, SourceSpec } from './types.js';
 import { locate, type ParsedYaml } from './yaml.js';
 
@@ -15,7 +15,7 @@ export const DEFAULTS = {
   adjust: 'holm',
   minRespondents: 10,
   questionColumn: 'question',
-  agreeCodes: [4, 5],
+  agreeCodes: DEFAULT_AGREE_CODES,
   notApplicableCodes: [] as number[],
   sided: 'two-sided',
 } as const;

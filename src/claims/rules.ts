@@ -11,6 +11,9 @@ import { closest } from './suggest.js';
 import { describeOwner } from './validate.js';
 import { locate, type ParsedYaml } from './yaml.js';
 
+/** Codes counted as agreeing when agree_codes is not written (the top two points of a five-point scale). */
+export const DEFAULT_AGREE_CODES = [4, 5] as const;
+
 export const DATA_EXTENSIONS: Record<string, 'csv' | 'xlsx'> = { '.csv': 'csv', '.xlsx': 'xlsx' };
 
 type Rec = Record<string, unknown>;
@@ -76,16 +79,17 @@ export function crossFieldProblems(parsed: ParsedYaml, file: string, claimsDir: 
         }
       }
     }
-    if (Array.isArray(src.agree_codes) && Array.isArray(src.not_applicable)) {
-      const both = src.agree_codes.filter((c) => (src.not_applicable as unknown[]).includes(c));
+    const agreeCodes: unknown[] = Array.isArray(src.agree_codes) ? src.agree_codes : [...DEFAULT_AGREE_CODES];
+    if (Array.isArray(src.not_applicable)) {
+      const both = agreeCodes.filter((c) => (src.not_applicable as unknown[]).includes(c));
       if (both.length > 0) {
         problems.push({
           file,
           ...at(['sources', id, 'not_applicable']),
           field: 'not_applicable',
           found: both.join(', '),
-          problem: `code ${both.join(', ')} is listed both as agreeing and as not applicable in source "${id}"`,
-          fix: 'Keep each code in one list only',
+          problem: `code ${both.join(', ')} is listed both as agreeing and as not applicable in source "${id}"${Array.isArray(src.agree_codes) ? '' : ' (agree_codes is not written, so the default [4, 5] applies)'}`,
+          fix: Array.isArray(src.agree_codes) ? 'Keep each code in one list only' : 'Remove it from not_applicable, or write agree_codes without it',
         });
       }
     }
