@@ -260,16 +260,3 @@ export function locate(parsed: ParsedYaml, path: readonly Segment[]): Located {
   if (k) located.key = k;
   return located;
 }
-
-/** The text of a value exactly as written (without surrounding quotes), for messages such as "you wrote 95%". */
-export function writtenText(parsed: ParsedYaml, path: readonly Segment[]): string | undefined {
-  let node: unknown = parsed.doc.contents;
-  for (const seg of path) {
-    if (isMap(node)) node = findPair(parsed.doc, node, String(seg))?.value;
-    else if (isSeq(node)) node = node.items[Number(seg)];
-    else return undefined;
-  }
-  if (!isScalar(node) || !node.range) return undefined;
-  const raw = parsed.text.slice(node.range[0], node.range[1]).trim();
-  return typeof node.value === 'string' ? node.value.trim() : raw;
-}
