@@ -6,8 +6,8 @@
  * (`Papa.Parser.parse(text, base, ignoreLastRow)`), which returns the complete records and where the unfinished one
  * starts. Only the unfinished record is carried over, so memory does not grow with the file.
  *
- * The delimiter (',' ';' or tab) and the line ending are taken from the header line (the first non-empty line),
- * counting delimiters outside quotes. A byte-order mark is dropped.
+ * The delimiter (',' ';' or tab) and the line ending are taken from the header line (the first non-empty line with a
+ * delimiter, so a title line above the header is passed over), counting delimiters outside quotes. A byte-order mark is dropped.
  */
 import { createReadStream } from 'node:fs';
 import Papa from 'papaparse';
@@ -33,27 +33,53 @@ export function detectDelimiter(line: string): Delimiter {
   return best;
 }
 
-/** Where the first line that has any non-blank character ends, with its line ending; undefined if not yet seen. */
-function headerLineEnd(text: string): { line: string; newline: Newline } | undefined {
+function countDelimiters(line: string): number {
+  let quoted = false;
+  let n = 0;
+  for (const ch of line) {
+    if (ch === '"') quoted = !quoted;
+    else if (!quoted && (ch === ',' || ch === ';' || ch === '\t')) n += 1;
+  }
+  return n;
+}
+
+/** Lines looked at past a title line (one with no delimiter) before settling on ','. */
+const SNIFF_LINES = 10;
+
+/**
+ * Delimiter and line ending from the header line: the first non-empty line that has a delimiter (a title line above
+ * the header, with no delimiter, is passed over). Undefined while more text is needed; `final` means no more is coming.
+ */
+export function sniff(text: string, final: boolean): { delimiter: Delimiter; newline: Newline } | undefined {
   let start = 0;
+  let newline: Newline | undefined;
+  let lines = 0;
   for (;;) {
     const lf = text.indexOf('\n', start);
     const cr = text.indexOf('\r', start);
-    if (lf < 0 && cr < 0) return undefined;
     let end: number;
-    let newline: Newline;
-    if (cr >= 0 && (lf < 0 || cr < lf)) {
-      // A lone '\r' at the very end of the text may be the first half of '\r\n': wait for more.
-      if (cr === text.length - 1) return undefined;
+    let nl: Newline | undefined;
+    if (lf < 0 && cr < 0) {
+      if (!final) return undefined;
+      end = text.length;
+    } else if (cr >= 0 && (lf < 0 || cr < lf)) {
+      // A '\r' at the very end of the text may be the first half of '\r\n': wait for more.
+      if (cr === text.length - 1 && !final) return undefined;
       end = cr;
-      newline = text[cr + 1] === '\n' ? '\r\n' : '\r';
+      nl = text[cr + 1] === '\n' ? '\r\n' : '\r';
     } else {
       end = lf;
-      newline = '\n';
+      nl = '\n';
     }
+    newline ??= nl;
     const line = text.slice(start, end);
-    if (line.trim() !== '') return { line, newline };
-    start = end + newline.length;
+    if (line.trim() !== '') {
+      lines += 1;
+      if (countDelimiters(line) > 0) return { delimiter: detectDelimiter(line), newline: newline ?? '\n' };
+      if (lines >= SNIFF_LINES) return { delimiter: ',', newline: newline ?? '\n' };
+    }
+    if (nl === undefined) return { delimiter: ',', newline: newline ?? '\n' };
+    start = end + nl.length;
   }
 }
 
@@ -118,12 +144,9 @@ export async function* readCsvRows(path: string, options: ReadOptions = {}): Asy
       }
       pending += text;
       if (parser === undefined) {
-        const header = headerLineEnd(pending);
-        if (header === undefined && pending.length < PEEK_LIMIT) continue;
-        parser = new Papa.Parser({
-          delimiter: detectDelimiter(header?.line ?? pending),
-          newline: header?.newline ?? '\n',
-        });
+        const found = sniff(pending, pending.length >= PEEK_LIMIT);
+        if (found === undefined) continue;
+        parser = new Papa.Parser(found);
       }
       const result = parser.parse(pending, 0, true) as Papa.ParseResult<string[]>;
       checkErrors(result.errors, result.data.length);
@@ -131,10 +154,7 @@ export async function* readCsvRows(path: string, options: ReadOptions = {}): Asy
       yield* emit(result.data);
     }
     if (pending !== '') {
-      if (parser === undefined) {
-        const header = headerLineEnd(pending + '\n');
-        parser = new Papa.Parser({ delimiter: detectDelimiter(header?.line ?? pending), newline: header?.newline ?? '\n' });
-      }
+      parser ??= new Papa.Parser(sniff(pending, true)!);
       const result = parser.parse(pending, 0, false) as Papa.ParseResult<string[]>;
       checkErrors(result.errors, Number.POSITIVE_INFINITY);
       yield* emit(result.data);

@@ -149,7 +149,8 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
     const column = (name: string, role: string): number => {
       const i = seen.get(name.trim());
       if (i === undefined) {
-        throw new InputError({ ...where, row: header.row, field: role, found: name, problem: 'The file has no column with this name in its header row', fix: fixFor(name, known, 'columns') });
+        const title = known.length === 1 ? `; row ${header.row} looks like a title rather than the column names, so remove the rows above the header` : '';
+        throw new InputError({ ...where, row: header.row, field: role, found: name, problem: `The file has no column with this name in its header row (row ${header.row})`, fix: fixFor(name, known, 'columns') + title });
       }
       return i;
     };

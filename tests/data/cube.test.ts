@@ -243,6 +243,15 @@ describe('readCube errors name the file, row, field and value', () => {
     expect(e.message).toContain('Did you mean "Provider"?');
   });
 
+  it('a title line above the header: the semicolon delimiter is still found, and the error points at the title', async () => {
+    const path = csv('title.csv', 'Results 2026\r\n\r\nG;Respondents;Agreeing\r\nA;10;5\r\n');
+    const e = await failure(readCube(summarySource(path), [], 'title.csv'));
+    expect(e.problems[0]).toMatchObject({ row: 1, field: 'respondents', found: 'Respondents' });
+    expect(e.message).toMatch(/row 1 looks like a title/);
+    const cube = await readCube({ ...summarySource(path), headerRow: 3 }, ['G'], 'title.csv');
+    expect(cube.cells.map((c) => [c.dims['G'], c.n, c.agree, c.firstRow])).toEqual([['A', 10, 5, 4]]);
+  });
+
   it('a header row named explicitly', async () => {
     const path = csv('titled.csv', 'Results 2026\n\nG,Respondents,Agreeing\nA,10,5\n');
     const cube = await readCube({ ...summarySource(path), headerRow: 3 }, [], 't.csv');

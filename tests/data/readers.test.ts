@@ -8,7 +8,7 @@ import { tmpdir } from 'node:os';
 import { describe, expect, it } from 'vitest';
 import ExcelJS from 'exceljs';
 import Papa from 'papaparse';
-import { readCsvRows, detectDelimiter } from '../../src/data/csv.js';
+import { readCsvRows, detectDelimiter, sniff } from '../../src/data/csv.js';
 import { openXlsxSheet, readXlsxRows, formatNumber, columnIndex, columnLetters } from '../../src/data/xlsx.js';
 import type { SheetRow } from '../../src/data/rows.js';
 import { InputError } from '../../src/errors.js';
@@ -190,6 +190,12 @@ describe('CSV reader', () => {
     expect(detectDelimiter('a\tb\tc')).toBe('\t');
     expect(detectDelimiter('"a,b,c";d;e')).toBe(';');
     expect(detectDelimiter('single')).toBe(',');
+    // A title line with no delimiter is passed over; the line ending comes from the first line.
+    expect(sniff('Title\r\n\r\na;b\r\n', false)).toEqual({ delimiter: ';', newline: '\r\n' });
+    expect(sniff('Title\n', false)).toBeUndefined();
+    expect(sniff('Title\n', true)).toEqual({ delimiter: ',', newline: '\n' });
+    expect(sniff('a\tb\r', false)).toBeUndefined();
+    expect(sniff('a\tb\r', true)).toEqual({ delimiter: '\t', newline: '\r' });
   });
 
   it('numbers rows as a spreadsheet would: blank lines count, a quoted line break stays in one row', async () => {
