@@ -77,9 +77,9 @@ export async function main(argv: string[]): Promise<number> {
       .alias('h', 'help')
       .version()
       .wrap(Math.min(110, process.stdout.columns || 100))
-      .fail((msg, err, y) => {
+      .fail((msg, err) => {
         if (err) throw err;
-        process.stderr.write(`${y.help ? '' : ''}${msg}\nRun "warrant --help" to see the commands and options.\n`);
+        process.stderr.write(`${msg}\nRun "warrant --help" to see the commands and options.\n`);
         code = EXIT_INPUT;
       })
       .parseAsync();

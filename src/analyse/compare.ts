@@ -124,7 +124,13 @@ export function analyseCompare(claim: CompareClaim, cube: Cube, ctx: CompareCont
   const diff = focus.rate - against.rate;
   const interval = newcombe(focus.agree, focus.n, against.agree, against.n, claim.confidence);
   const sided = alternative === 'two-sided' ? 'two-sided' : 'one-sided';
-  const detectable = minDetectableDifference(focus.n, against.n, against.rate, 1 - claim.confidence, 0.8, sided);
+  // The smallest gap these samples would detect with 80% power, in the direction the claim expects (for an
+  // undirected claim, the larger of the two directions). Null when no gap in that direction is detectable.
+  const detectableBoth = minDetectableDifference(focus.n, against.n, against.rate, 1 - claim.confidence, 0.8, sided);
+  const candidates =
+    claim.expect === 'lower' ? [detectableBoth.decrease] : claim.expect === 'higher' ? [detectableBoth.increase] : [detectableBoth.increase, detectableBoth.decrease];
+  const found = candidates.filter((d): d is number => d !== null);
+  const detectable = found.length > 0 ? Math.max(...found) : undefined;
   const rates = [focus, against].filter((r) => r.population !== undefined).map((r) => r.n / (r.population as number));
   return {
     ...base,
@@ -136,7 +142,7 @@ export function analyseCompare(claim: CompareClaim, cube: Cube, ctx: CompareCont
     observedSign: sign(diff),
     difference: { value: diff, interval },
     cohensH: cohensH(focus.rate, against.rate),
-    detectable,
+    ...(detectable !== undefined ? { detectable } : {}),
     ...(rates.length > 0 ? { responseRate: Math.min(...rates) } : {}),
     methods: [
       useFisher ? 'fisher-exact-2x2' : 'two-proportion-z',

@@ -68,6 +68,116 @@ export const METHODS: Record<string, MethodInfo> = {
     text: 'Adjusts the p-values so that, on average, the share of supported claims that are false findings stays within the stated level. It is less strict than Holm and suits long lists of claims.',
     source: 'Benjamini, Y. and Hochberg, Y. (1995). Controlling the false discovery rate. Journal of the Royal Statistical Society B 57, 289–300.',
   },
+  'wilson-cc': {
+    name: 'Wilson score interval with continuity correction',
+    text: 'A slightly wider version of the Wilson interval that allows for the counts being whole numbers; it errs on the side of covering the true rate.',
+    source: 'Newcombe, R. G. (1998). Two-sided confidence intervals for the single proportion: comparison of seven methods. Statistics in Medicine 17, 857–872 (method 4).',
+  },
+  'clopper-pearson': {
+    name: 'Clopper–Pearson exact interval',
+    text: 'An interval for a single rate built from exact binomial tail probabilities. It never covers less than its stated level and is often wider than it needs to be.',
+    source: 'Clopper, C. J. and Pearson, E. S. (1934). The use of confidence or fiducial limits illustrated in the case of the binomial. Biometrika 26, 404–413.',
+  },
+  'one-sample-score': {
+    name: 'Score test against a fixed rate',
+    text: 'Tests whether a rate differs from a fixed value such as a target or a published benchmark, using the variance under the null hypothesis. It assumes independent respondents and enough of them for the normal approximation.',
+    source: 'Wilson (1927); Agresti, A. (2013). Categorical Data Analysis, 3rd ed., Wiley, section 1.4.',
+  },
+  'binomial-exact': {
+    name: 'Exact binomial test',
+    text: 'Tests a rate against a fixed value from exact binomial probabilities, for small groups where the normal approximation is poor.',
+    source: 'Clopper and Pearson (1934); two-sided p-value by summing outcomes no more likely than the one seen, as in Agresti (2013), section 1.4.',
+  },
+  'newcombe-hybrid-fpc': {
+    name: 'Newcombe hybrid score interval with finite-population correction',
+    text: 'Newcombe’s interval for a difference, built from Wilson intervals that each carry the finite-population correction where the number eligible is known.',
+    source: 'Newcombe (1998), method 10; Cochran (1977), ch. 3.',
+  },
+  wald: {
+    name: 'Wald interval for a difference',
+    text: 'The textbook interval for a difference of two rates, estimate plus or minus z standard errors. Used here only inside the equivalence test.',
+    source: 'Agresti, A. and Caffo, B. (2000). Simple and effective confidence intervals for proportions and differences of proportions. The American Statistician 54, 280–288.',
+  },
+  'tost-two-proportions': {
+    name: 'Two one-sided tests for equivalence',
+    text: 'Supports "no real difference" only if the difference is shown to be both above minus the margin and below plus the margin. A test that merely fails to find a difference cannot do this.',
+    source: 'Schuirmann, D. J. (1987). A comparison of the two one-sided tests procedure and the power approach for assessing the equivalence of average bioavailability. Journal of Pharmacokinetics and Biopharmaceutics 15, 657–680.',
+  },
+  'fisher-z': {
+    name: 'Fisher z interval for a correlation',
+    text: 'An interval for a correlation from the transformation z = atanh(r), whose sampling distribution is close to normal with variance 1/(n − 3).',
+    source: 'Fisher (1921).',
+  },
+  spearman: {
+    name: 'Spearman rank correlation',
+    text: 'The correlation of the units’ ranks rather than their values: it measures whether two measures rise together at all, not whether they follow a straight line, and is less swayed by one unusual unit.',
+    source: 'Spearman, C. (1904). The proof and measurement of association between two things. American Journal of Psychology 15, 72–101.',
+  },
+  'kendall-tau-b': {
+    name: 'Kendall rank correlation (tau-b)',
+    text: 'The balance of pairs of units ordered the same way on both measures against pairs ordered the opposite way, corrected for ties.',
+    source: 'Kendall, M. G. (1945). The treatment of ties in ranking problems. Biometrika 33, 239–251.',
+  },
+  'partial-pearson': {
+    name: 'Partial correlation',
+    text: 'The correlation of two measures after the straight-line effect of the named control variables has been removed from both. It controls only for the variables named, and only for their linear effect.',
+    source: 'Fisher, R. A. (1924). The distribution of the partial correlation coefficient. Metron 3, 329–332.',
+  },
+  'one-way-anova': {
+    name: 'One-way analysis of variance',
+    text: 'Tests whether the means of several groups are all equal, assuming roughly normal scores with similar spread in each group.',
+    source: 'Fisher, R. A. (1925). Statistical Methods for Research Workers, Oliver and Boyd.',
+  },
+  'chi-square-independence': {
+    name: 'Pearson chi-square test of independence',
+    text: 'Tests whether two categorical variables are related in a table of counts. It assumes expected counts of at least about 5; adjusted standardized residuals show which cells drive the result, and Cramér’s V gives its strength.',
+    source: 'Agresti, A. (2013). Categorical Data Analysis, 3rd ed., Wiley, sections 3.2–3.3.',
+  },
+  'chi-square-independence-yates': {
+    name: 'Chi-square test with Yates’ continuity correction',
+    text: 'The chi-square test for a 2×2 table with Yates’ correction, which makes it more cautious for small counts.',
+    source: 'Yates, F. (1934). Contingency tables involving small numbers and the χ² test. Supplement to the Journal of the Royal Statistical Society 1, 217–235.',
+  },
+  'fisher-exact-rxc': {
+    name: "Fisher's exact test for larger tables",
+    text: 'An exact test of independence for a table with more than two rows or columns, used when expected counts are small.',
+    source: 'Mehta, C. R. and Patel, N. R. (1983). A network algorithm for performing Fisher’s exact test in r × c contingency tables. Journal of the American Statistical Association 78, 427–434.',
+  },
+  'cochran-armitage-trend': {
+    name: 'Cochran–Armitage test for trend',
+    text: 'Tests whether a rate rises or falls steadily across ordered periods, with the fitted change per period. It looks for a straight-line trend and can miss a rise followed by a fall.',
+    source: 'Armitage, P. (1955). Tests for linear trends in proportions and frequencies. Biometrics 11, 375–386.',
+  },
+  'welch-t': {
+    name: 'Welch t test',
+    text: 'Compares two mean scores without assuming the two groups have the same spread.',
+    source: 'Welch, B. L. (1947). The generalization of "Student\'s" problem when several different population variances are involved. Biometrika 34, 28–35.',
+  },
+  'student-t': {
+    name: 'Student t test',
+    text: 'Compares two mean scores assuming the two groups have the same spread.',
+    source: 'Student (1908). The probable error of a mean. Biometrika 6, 1–25.',
+  },
+  'mann-whitney': {
+    name: 'Mann–Whitney U test',
+    text: 'Compares two groups’ scores by their ranks, without assuming a normal distribution; with ties and a continuity correction in the normal approximation.',
+    source: 'Mann, H. B. and Whitney, D. R. (1947). On a test of whether one of two random variables is stochastically larger than the other. Annals of Mathematical Statistics 18, 50–60.',
+  },
+  'benjamini-yekutieli': {
+    name: 'Benjamini–Yekutieli adjustment',
+    text: 'A version of the Benjamini–Hochberg adjustment that stays valid whatever the dependence between claims; more cautious.',
+    source: 'Benjamini, Y. and Yekutieli, D. (2001). The control of the false discovery rate in multiple testing under dependency. Annals of Statistics 29, 1165–1188.',
+  },
+  hochberg: {
+    name: "Hochberg's step-up adjustment",
+    text: 'A step-up version of Holm’s adjustment, slightly less cautious, valid when the claims’ tests are independent or positively related.',
+    source: 'Hochberg, Y. (1988). A sharper Bonferroni procedure for multiple tests of significance. Biometrika 75, 800–802.',
+  },
+  bonferroni: {
+    name: 'Bonferroni adjustment',
+    text: 'Multiplies each p-value by the number of claims tested; simple and the most cautious.',
+    source: 'Dunn, O. J. (1961). Multiple comparisons among means. Journal of the American Statistical Association 56, 52–64.',
+  },
 };
 
 export function methodInfo(id: string): MethodInfo {

@@ -98,7 +98,7 @@ function composeCompare(a: CompareAnalysis, decision: Decision, ctx: ComposeCont
     gapLower: fmt.pointsSize(a.observedSign < 0 ? d.interval.upper : d.interval.lower),
     gapUpper: fmt.pointsSize(a.observedSign < 0 ? d.interval.lower : d.interval.upper),
     diffWord: d.value < 0 ? 'lower' : 'higher',
-    detectable: fmt.pointsSize(a.detectable ?? NaN),
+    detectable: a.detectable !== undefined ? fmt.pointsSize(a.detectable) : '',
     testName: a.methods.includes('fisher-exact-2x2') ? "Fisher's exact test" : 'Pooled two-proportion z test',
     fpc: a.methods.includes('wilson-fpc'),
     adjustName: ctx.adjustName,
@@ -110,7 +110,7 @@ function composeCompare(a: CompareAnalysis, decision: Decision, ctx: ComposeCont
     { label: 'Difference', value: `${view.diff} points (interval ${view.diffLower} to ${view.diffUpper})` },
     ...commonRows(a, decision, ctx),
     { label: "Effect size (Cohen's h)", value: fmt.coefficient(a.cohensH ?? NaN) },
-    { label: 'Smallest difference detectable (80% power)', value: `about ${view.detectable} points` },
+    { label: 'Smallest difference detectable (80% power)', value: view.detectable ? `about ${view.detectable} points` : 'none within reach of these samples' },
   ];
   const cautions: string[] = [];
   if (a.relation !== 'separate') {
