@@ -124,11 +124,13 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
   );
   let sheet: string | undefined;
   let rows: AsyncGenerator<SheetRow>;
+  let close = (): void => {};
   const readOptions = { displayPath: file, ...(options.chunkSize !== undefined ? { chunkSize: options.chunkSize } : {}) };
   if (source.format === 'xlsx') {
     const opened = await openXlsxSheet(source.path, { ...readOptions, ...(source.sheet !== undefined ? { sheet: source.sheet } : {}) });
     sheet = opened.sheet;
     rows = opened.rows;
+    close = opened.close;
   } else {
     rows = readCsvRows(source.path, readOptions);
   }
@@ -163,6 +165,7 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
     return { ...common, sha256: await shaPromise, ...cube };
   } finally {
     await rows.return(undefined);
+    close();
   }
 }
 

@@ -38,6 +38,8 @@ export interface OpenedSheet {
   sheet: string;
   sheets: SheetInfo[];
   rows: AsyncGenerator<SheetRow>;
+  /** Close the workbook without reading the rows (reading them to the end, or stopping early, closes it too). */
+  close(): void;
 }
 
 /** Spreadsheet column letters to a 0-based index: A -> 0, Z -> 25, AA -> 26. Throws on anything but letters. */
@@ -196,6 +198,13 @@ function relsPath(part: string): string {
 export async function openXlsxSheet(path: string, options: XlsxOptions = {}): Promise<OpenedSheet> {
   const file = options.displayPath ?? path;
   const zip = await openZip(path, file);
+  let closed = false;
+  const close = (): void => {
+    if (!closed) {
+      closed = true;
+      zip.close();
+    }
+  };
   let handedOver = false;
   try {
     const entries = await listEntries(zip);
@@ -293,11 +302,11 @@ export async function openXlsxSheet(path: string, options: XlsxOptions = {}): Pr
     const stringsEntry = entries.get(stringsPart ?? 'xl/sharedStrings.xml');
     const shared = stringsEntry === undefined ? [] : await collect(parsePart(zip, stringsEntry, options.chunkSize, sharedStringsHandler, damaged(stringsPart ?? 'xl/sharedStrings.xml')));
 
-    const rows = sheetRows(zip, sheetEntry, options.chunkSize, shared, file, chosen.name, damaged(chosen.part));
+    const rows = sheetRows(zip, sheetEntry, options.chunkSize, shared, file, chosen.name, damaged(chosen.part), close);
     handedOver = true;
-    return { sheet: chosen.name, sheets, rows };
+    return { sheet: chosen.name, sheets, rows, close };
   } finally {
-    if (!handedOver) zip.close();
+    if (!handedOver) close();
   }
 }
 
@@ -348,6 +357,7 @@ async function* sheetRows(
   file: string,
   sheet: string,
   damaged: (message: string) => InputError,
+  close: () => void,
 ): AsyncGenerator<SheetRow> {
   try {
     yield* parsePart<SheetRow>(
@@ -475,6 +485,6 @@ async function* sheetRows(
       damaged,
     );
   } finally {
-    zip.close();
+    close();
   }
 }

@@ -112,6 +112,12 @@ describe('XLSX reader', () => {
     }
   });
 
+  it('can be closed without reading, more than once', async () => {
+    const opened = await openXlsxSheet(fx('summary.xlsx'));
+    opened.close();
+    expect(() => opened.close()).not.toThrow();
+  });
+
   it('reads a hidden sheet when it is named', async () => {
     const rows = await all(readXlsxRows(fx('handmade.xlsx'), { sheet: 'Hidden notes' }));
     expect(rows).toEqual([{ row: 1, values: ['Notes only'] }]);
