@@ -94,7 +94,7 @@ export function ratesChartHeight(rows: number): number {
   return Math.max(110, Math.min(CHART_HEIGHT + 60, 56 + rows * 30));
 }
 
-function ratesSpec(data: Extract<ChartData, { kind: 'rates' }>): Record<string, unknown> {
+function ratesSpec(data: Extract<ChartData, { kind: 'rates' }>, maxHeight: number): Record<string, unknown> {
   if (data.bars.length === 0) throw new Error('Chart data: a rates chart needs at least one bar.');
   const values = data.bars.map((b, i) => {
     requireFinite(b.rate, `rate of "${b.label}"`);
@@ -181,7 +181,7 @@ function ratesSpec(data: Extract<ChartData, { kind: 'rates' }>): Record<string, 
   return {
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
     width: CHART_WIDTH,
-    height: ratesChartHeight(data.bars.length),
+    height: Math.min(maxHeight, ratesChartHeight(data.bars.length)),
     autosize: { type: 'fit', contains: 'padding' },
     padding: { left: 2, right: 8, top: 6, bottom: 2 },
     config: baseConfig(),
@@ -190,7 +190,7 @@ function ratesSpec(data: Extract<ChartData, { kind: 'rates' }>): Record<string, 
   };
 }
 
-function scatterSpec(data: Extract<ChartData, { kind: 'scatter' }>): Record<string, unknown> {
+function scatterSpec(data: Extract<ChartData, { kind: 'scatter' }>, height: number): Record<string, unknown> {
   if (data.points.length === 0) throw new Error('Chart data: a scatter chart needs at least one point.');
   for (const p of data.points) {
     requireFinite(p.x, `x of "${p.label}"`);
@@ -244,7 +244,7 @@ function scatterSpec(data: Extract<ChartData, { kind: 'scatter' }>): Record<stri
       : {}),
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
     width: CHART_WIDTH,
-    height: CHART_HEIGHT,
+    height,
     autosize: { type: 'fit', contains: 'padding' },
     padding: { left: 2, right: 8, top: 6, bottom: 2 },
     config: baseConfig(),
@@ -252,13 +252,29 @@ function scatterSpec(data: Extract<ChartData, { kind: 'scatter' }>): Record<stri
   };
 }
 
+/** Options for the size of a chart. */
+export interface ChartSizeOptions {
+  /**
+   * Outer height in points: a scatter chart takes it exactly, a rates chart at most (its height follows its rows).
+   * Defaults to CHART_HEIGHT. The renderer passes a smaller height so that a claim fits on one page.
+   */
+  height?: number;
+}
+
+/** Smallest outer height that still leaves a readable plot. */
+export const MIN_CHART_HEIGHT = 130;
+
 /** The Vega-Lite spec for a chart. Pure: same data, same spec. */
-export function chartSpec(data: ChartData): object {
+export function chartSpec(data: ChartData, options: ChartSizeOptions = {}): object {
+  const height = options.height ?? CHART_HEIGHT;
+  if (!(height >= MIN_CHART_HEIGHT)) {
+    throw new Error(`Chart size: height ${height} is below the smallest readable height ${MIN_CHART_HEIGHT}.`);
+  }
   switch (data.kind) {
     case 'rates':
-      return ratesSpec(data);
+      return ratesSpec(data, Math.max(height, ratesChartHeight(1)));
     case 'scatter':
-      return scatterSpec(data);
+      return scatterSpec(data, height);
     default: {
       const never: never = data;
       throw new Error(`Chart data: unknown chart kind ${JSON.stringify((never as { kind: unknown }).kind)}.`);
@@ -297,7 +313,10 @@ async function loadLibs(): Promise<{ vega: VegaModule; vl: VegaLiteModule }> {
 }
 
 /** Compile a chart to a Vega spec, collecting every Vega-Lite warning (a correct spec compiles with none). */
-export async function compileChart(data: ChartData): Promise<{ vegaSpec: object; warnings: string[] }> {
+export async function compileChart(
+  data: ChartData,
+  options: ChartSizeOptions = {},
+): Promise<{ vegaSpec: object; warnings: string[] }> {
   const { vl } = await loadLibs();
   const warnings: string[] = [];
   const logger: Record<string, (...args: unknown[]) => unknown> = {
@@ -318,16 +337,16 @@ export async function compileChart(data: ChartData): Promise<{ vegaSpec: object;
       throw new Error(`Vega-Lite error: ${args.map(String).join(' ')}`);
     },
   };
-  const result = vl.compile(chartSpec(data) as Parameters<VegaLiteModule['compile']>[0], {
+  const result = vl.compile(chartSpec(data, options) as Parameters<VegaLiteModule['compile']>[0], {
     logger: logger as unknown as NonNullable<Parameters<VegaLiteModule['compile']>[1]>['logger'],
   });
   return { vegaSpec: result.spec, warnings };
 }
 
 /** The chart as an SVG string, rendered headless (no canvas). */
-export async function chartSvg(data: ChartData): Promise<string> {
+export async function chartSvg(data: ChartData, options: ChartSizeOptions = {}): Promise<string> {
   const { vega } = await loadLibs();
-  const { vegaSpec, warnings } = await compileChart(data);
+  const { vegaSpec, warnings } = await compileChart(data, options);
   if (warnings.length > 0) throw new Error(`Chart spec has Vega-Lite warnings: ${warnings.join('; ')}`);
   const view = new vega.View(vega.parse(vegaSpec as Parameters<VegaModule['parse']>[0]), { renderer: 'none' });
   try {

@@ -14,7 +14,7 @@ import PDFDocument from 'pdfkit';
 import SVGtoPDF from 'svg-to-pdfkit';
 import type { ChartData, ClaimSection, PackModel, VerdictKind } from './model.js';
 import { FONT_NAME, fontBytes, type Face } from './fonts.js';
-import { chartSvg } from './charts.js';
+import { chartSvg, MIN_CHART_HEIGHT } from './charts.js';
 
 type Doc = PDFKit.Document;
 type Struct = PDFKit.StructureElement;
@@ -46,6 +46,8 @@ const COLOR = {
 const SIZE = { title: 24, h2: 16, h3: 13, sub: 10.5, body: 10.5, table: 9.5, small: 8.5, furniture: 8 } as const;
 const LINE_GAP = 2.2;
 const PARA_GAP = 8;
+/** Space between two claims that share a page (a rule is drawn in it). */
+const CLAIM_GAP = 24;
 
 /** Verdict marks: a shape for each verdict, so the verdict never rests on colour alone. */
 const MARK_DESCRIPTION: Record<VerdictKind, string> = {
@@ -238,7 +240,7 @@ class Layout {
         const heights = itemHeights();
         items.forEach((text, i) => {
           const h = heights[i]!;
-          this.ensure(h);
+          this.ensure(h - 3);
           const top = this.y;
           const li = this.doc.struct('LI');
           list.add(li);
@@ -672,9 +674,27 @@ export async function renderPdf(model: PackModel, options: RenderOptions = {}): 
   // ---- Claims: each on a new page unless it fits in the space left ----
   let claimsBookmark: PDFKit.OutlineItem | undefined;
   for (const claim of model.claims) {
-    const blocks = claimBlocks(L, claim, svgs.get(claim.id), () => claimsBookmark!);
-    if (claimsBookmark === undefined || blocksHeight(blocks) > L.remaining()) L.newPage();
-    else L.y += 10;
+    let svg = svgs.get(claim.id);
+    let blocks = claimBlocks(L, claim, svg, () => claimsBookmark!);
+    // A claim slightly taller than a page gets a shorter chart (same type size) rather than a page of leftovers.
+    const overflow = blocksHeight(blocks) - (CONTENT_BOTTOM - SLACK - MARGIN.top);
+    if (claim.chart && svg && overflow > 0) {
+      const target = Math.floor(svgSize(svg).height - overflow - 1);
+      if (target >= MIN_CHART_HEIGHT) {
+        svg = await chartSvg(claim.chart.data, { height: target });
+        blocks = claimBlocks(L, claim, svg, () => claimsBookmark!);
+      }
+    }
+    if (claimsBookmark === undefined || blocksHeight(blocks) + CLAIM_GAP > L.remaining()) {
+      L.newPage();
+    } else {
+      // A claim that fits below the previous one is set off by a rule.
+      const y = L.y + CLAIM_GAP / 2 - 6;
+      L.artifact(() => {
+        doc.lineWidth(0.75).moveTo(MARGIN.left, y).lineTo(MARGIN.left + CONTENT_WIDTH, y).stroke(COLOR.rule);
+      });
+      L.y += CLAIM_GAP;
+    }
     // The "Claims" bookmark points at the first claim; each claim's bookmark sits under it.
     claimsBookmark ??= doc.outline.addItem('Claims', { left: PAGE.width, top: L.y - 12, expanded: true });
     const sect = doc.struct('Sect');
