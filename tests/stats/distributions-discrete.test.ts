@@ -76,11 +76,11 @@ describe('discrete distributions, properties', () => {
         expect(Math.abs(binomCdf(k, n, p) + binomSf(k, n, p) - 1)).toBeLessThanOrEqual(1e-14);
         let s = 0;
         for (let j = 0; j <= k; j++) s += binomPmf(j, n, p);
-        // The 1e-10 relative requirement; 2.8e-12 has been seen in random runs, far-tail sums included.
-        expect(relativeError(s, binomCdf(k, n, p))).toBeLessThanOrEqual(1e-10);
+        // Subnormal results (below 2.2e-308) hold fewer significant bits, so only normal doubles are compared.
+        if (binomCdf(k, n, p) > 1e-290) expect(relativeError(s, binomCdf(k, n, p))).toBeLessThanOrEqual(1e-12);
         // A cdf value that rounds to 1 maps to n, as in R; below that the quantile returns k itself.
         const c = binomCdf(k, n, p);
-        if (c < 1 - 1e-12) expect(binomQuantile(c, n, p)).toBe(k);
+        if (c < 1 - 1e-12 && c > 1e-290) expect(binomQuantile(c, n, p)).toBe(k);
       }),
     );
   });
