@@ -704,13 +704,19 @@ export async function renderPdf(model: PackModel, options: RenderOptions = {}): 
   }
 
   // ---- Closing sections ----
+  // The closing sections run on from one another: the first starts a page, the rest follow with a gap.
+  let closingStarted = false;
   const closing = (title: string, blocks: Block[]): void => {
     if (blocks.length === 0) return;
-    L.newPage();
+    if (!closingStarted) L.newPage();
+    else if (!L.atTop()) L.y += 22;
+    closingStarted = true;
+    const heading = L.heading('H2', title);
+    L.ensure(heading.height() + blocks[0]!.minHeight());
     const sect = doc.struct('Sect');
     root.add(sect);
     bookmark(title);
-    L.flow([L.heading('H2', title), ...blocks], sect);
+    L.flow([heading, ...blocks], sect);
     sect.end();
   };
   closing('General cautions', model.generalCautions.length > 0 ? [L.bullets(model.generalCautions)] : []);
