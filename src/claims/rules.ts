@@ -7,7 +7,7 @@ import { readdirSync, statSync } from 'node:fs';
 import { basename, dirname, extname, resolve } from 'node:path';
 import type { Problem } from '../errors.js';
 import { CONFIDENCE_FORMS, readConfidence } from './confidence.js';
-import { closest } from './suggest.js';
+import { closest } from '../suggest.js';
 import { describeOwner } from './validate.js';
 import { locate, type ParsedYaml } from './yaml.js';
 

@@ -5,7 +5,7 @@
 import type { ErrorObject } from 'ajv';
 import type { Problem } from '../errors.js';
 import { claimsSchema, claimsValidator, type JsonSchema } from './schema.js';
-import { closest } from './suggest.js';
+import { closest } from '../suggest.js';
 import { locate, type ParsedYaml } from './yaml.js';
 
 type Segment = string | number;

@@ -15,7 +15,7 @@ import { openXlsxSheet } from './xlsx.js';
 import { sha256File } from './hash.js';
 import { isBlankRow } from './rows.js';
 import type { SheetRow } from './rows.js';
-import { fixFor } from './suggest.js';
+import { fixFor } from '../suggest.js';
 
 /** How many row problems are gathered before reading stops. */
 export const MAX_PROBLEMS = 25;

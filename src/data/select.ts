@@ -9,7 +9,7 @@
 import { InputError } from '../errors.js';
 import type { Filter, FilterValue } from '../claims/types.js';
 import type { Cell, Cube, Pooled } from './types.js';
-import { fixFor } from './suggest.js';
+import { fixFor } from '../suggest.js';
 
 function wantedTexts(value: FilterValue): string[] {
   return (Array.isArray(value) ? value : [value]).map((v) => String(v).trim());

@@ -48,7 +48,11 @@ function commonRows(a: Analysis, decision: Decision, ctx: ComposeContext): Numbe
   }
   rows.push({ label: `p-value (${a.test?.alternative === 'two-sided' ? 'two-sided' : 'one-sided'})`, value: fmt.pValue(decision.p ?? NaN) });
   if (ctx.adjusted) rows.push({ label: `p-value adjusted for ${ctx.claimsTested} claims`, value: fmt.pValue(decision.pAdjusted ?? NaN) });
-  rows.push({ label: 'Confidence level', value: `${fmt.level(a.claim.confidence)} (written as ${a.claim.confidenceWritten})` });
+  const level = fmt.level(a.claim.confidence);
+  const written = a.claim.confidenceWritten;
+  // Say what was understood when the claims file wrote the level another way (0.95, 95), so nobody is surprised.
+  const understood = written === 'default' ? ' (the default)' : written.replace(/\s+/g, '') === level ? '' : ` (written as ${written})`;
+  rows.push({ label: 'Confidence level', value: `${level}${understood}` });
   return rows;
 }
 

@@ -2,7 +2,7 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { readConfidence } from '../../src/claims/confidence.js';
 import { claimsSchema, claimsSchemaPath, claimsValidator, type JsonSchema } from '../../src/claims/schema.js';
-import { closest, editDistance } from '../../src/claims/suggest.js';
+import { closest, editDistance } from '../../src/suggest.js';
 
 describe('edit distance', () => {
   it('matches published worked examples', () => {
