@@ -159,12 +159,14 @@ function ratesSpec(data: Extract<ChartData, { kind: 'rates' }>, maxHeight: numbe
       encoding: { y, x: { field: 'rate', type: 'quantitative' } },
     },
     {
-      mark: { type: 'text', align: 'left', dx: 7, baseline: 'middle', color: PALETTE.ink, fontWeight: 'bold' },
-      encoding: { y, x: { field: 'upper', type: 'quantitative' }, text: { field: 'rateText', type: 'nominal' } },
+      // The rates stand in a column at the right of the plot, where no interval or reference line can cross them.
+      mark: { type: 'text', align: 'left', dx: 10, baseline: 'middle', color: PALETTE.ink, fontWeight: 'bold' },
+      encoding: { y, x: { value: 'width' }, text: { field: 'rateText', type: 'nominal' } },
     },
   ];
   if (data.reference) {
     const ref = [{ value: data.reference.value, label: data.reference.label }];
+    const refOnRight = data.reference.value > (lo + hi) / 2;
     layers.unshift(
       {
         data: { values: ref },
@@ -173,7 +175,16 @@ function ratesSpec(data: Extract<ChartData, { kind: 'rates' }>, maxHeight: numbe
       },
       {
         data: { values: ref },
-        mark: { type: 'text', align: 'left', baseline: 'top', dx: 4, y: 0, color: PALETTE.secondary, fontStyle: 'italic' },
+        // The label sits on the side of the line with more room, so it is never cut at the plot edge.
+        mark: {
+          type: 'text',
+          align: refOnRight ? 'right' : 'left',
+          baseline: 'top',
+          dx: refOnRight ? -4 : 4,
+          y: 0,
+          color: PALETTE.secondary,
+          fontStyle: 'italic',
+        },
         encoding: { x: { field: 'value', type: 'quantitative' }, text: { field: 'label', type: 'nominal' } },
       },
     );

@@ -120,3 +120,65 @@ describe('renderPdf on the sample model', () => {
     await expect(renderPdf({ ...sampleModel, title: '  ' })).rejects.toThrow(/title is empty/);
   });
 });
+
+describe('renderPdf with a long summary and a many-row chart', () => {
+  const rows = Array.from({ length: 40 }, (_, i) => ({
+    id: `C${i + 1}`,
+    statement: `Claim number ${i + 1} about Ysgol Brynŷs: ${'the rate of agreement is different here '.repeat(1 + (i % 3))}`.trim(),
+    verdict: (['supported', 'not-supported', 'opposite', 'too-little-data'] as const)[i % 4]!,
+    verdictLabel: ['Supported', 'Not supported', 'Points the other way', 'Too little data'][i % 4]!,
+    keyFigure: `${50 + i}% vs 60%`,
+  }));
+  const base = sampleModel.claims[0]!;
+  const model = {
+    ...sampleModel,
+    summary: rows,
+    claims: [
+      {
+        ...base,
+        chart: {
+          alt: 'Dot chart of eight campuses.',
+          data: {
+            kind: 'rates' as const,
+            axisTitle: 'Agreeing (%)',
+            bars: Array.from({ length: 8 }, (_, i) => ({
+              label: `Campus ${String.fromCharCode(65 + i)} Łąka`,
+              rate: 0.5 + i * 0.03,
+              lower: 0.45 + i * 0.03,
+              upper: 0.55 + i * 0.03,
+              n: 100 + i,
+            })),
+            reference: { value: 0.7, label: 'Regional rate 70%' },
+          },
+        },
+      },
+    ],
+  };
+  let path: string;
+
+  beforeAll(async () => {
+    path = join(dir, 'long.pdf');
+    writeFileSync(path, await renderPdf(model));
+  });
+
+  it('continues the summary table over pages, repeating the header row, and loses no row', () => {
+    const info = run('pdfinfo', [path]);
+    const pages = Number(/^Pages:\s+(\d+)$/m.exec(info)?.[1]);
+    const summaryPages: string[] = [];
+    for (let p = 2; p <= pages; p++) {
+      const text = run('pdftotext', ['-enc', 'UTF-8', '-f', String(p), '-l', String(p), path, '-']);
+      if (/Claim number/.test(text)) summaryPages.push(text);
+    }
+    expect(summaryPages.length).toBeGreaterThanOrEqual(2);
+    for (const text of summaryPages) expect(text).toContain('Key figure');
+    const all = summaryPages.join('\n').replace(/\s+/g, ' ');
+    for (const r of rows) expect(all).toContain(`${r.keyFigure}`);
+    for (let i = 1; i <= 40; i++) expect(all).toContain(`Claim number ${i} about Ysgol Brynŷs`);
+  });
+
+  it('tags the repeated header rows as page furniture, so the structure tree has one header row', () => {
+    const tree = run('pdfinfo', ['-struct-text', path]);
+    const summaryTable = tree.slice(tree.indexOf('Summary'), tree.indexOf('CLAIM C1'));
+    expect((summaryTable.match(/"Key figure"/g) ?? []).length).toBe(1);
+  });
+});
