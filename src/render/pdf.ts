@@ -352,7 +352,9 @@ class Layout {
           this.setFont(face, size, tag === 'TH' || tag === null ? COLOR.muted : COLOR.ink);
           this.doc.text(cell.text, textX, top + padY, { width: cellTextWidth(i, cell), lineGap: 1.5 });
         };
-        if (parent && tag) parent.add(this.doc.struct(tag, {}, draw));
+        // In a table without a header row, a bold first column labels its row: tag it as a row header.
+        const cellTag = tag === 'TD' && !showHeader && i === 0 && columns[0]!.face === 'bold' ? 'TH' : tag;
+        if (parent && cellTag) parent.add(this.doc.struct(cellTag, {}, draw));
         else this.artifact(draw);
         x += widths[i]!;
       });

@@ -4,7 +4,7 @@
  */
 import { describe, it, expect } from 'vitest';
 import { chartSpec, chartSvg, compileChart, ratesChartHeight } from '../../src/render/charts.js';
-import { textWidth } from '../../src/render/fonts.js';
+import { hasGlyphs, textWidth } from '../../src/render/fonts.js';
 import { sampleModel } from './sample-model.js';
 import type { ChartData } from '../../src/render/model.js';
 
@@ -72,5 +72,13 @@ describe('textWidth', () => {
     expect(textWidth('Coleg Gŵyr', 20)).toBeCloseTo(2 * regular, 9);
     // Noto Sans has an advance of 572/1000 em for digits (tabular figures; font metrics, common practice).
     expect(textWidth('0', 10)).toBeCloseTo(5.72, 9);
+  });
+});
+
+describe('hasGlyphs', () => {
+  it('finds Welsh and Polish letters in Noto Sans, and reports Han characters it lacks', () => {
+    expect(hasGlyphs('Gŵyr Brynŷs Łąka Naïve')).toBe(true);
+    // Noto Sans (Latin, Greek, Cyrillic) has no CJK ideographs; those live in Noto Sans CJK (font coverage, common practice).
+    expect(hasGlyphs('满意度')).toBe(false);
   });
 });
