@@ -66,7 +66,8 @@ export async function loadData(claims: ClaimsFile, cwd: string): Promise<Cube[]>
   for (const source of claims.sources) {
     const users = claims.claims.filter((c) => c.source === source.id);
     if (users.length === 0) continue;
-    const needed = [...new Set(users.flatMap(columnsUsed))];
+    // Keep the period column too: relative periods (latest, previous) and year-on-year cautions need it.
+    const needed = [...new Set([...users.flatMap(columnsUsed), ...(source.period ? [source.period] : [])])];
     cubes.push(await readCube(source, needed, displayPath(source.path, cwd)));
   }
   return cubes;

@@ -1,4 +1,4 @@
-import type { Claim } from '../claims/types.js';
+import type { Claim, Filter } from '../claims/types.js';
 import type { Cube } from '../data/types.js';
 import { analyseAssociation } from './association.js';
 import { analyseCompare, type CompareContext } from './compare.js';
@@ -11,13 +11,22 @@ export function analyse(claim: Claim, cube: Cube, ctx: CompareContext): Analysis
       return analyseCompare(claim, cube, ctx);
     case 'association':
       return analyseAssociation(claim, cube, ctx);
+    default:
+      throw new Error(`internal: claims of kind "${claim.kind}" cannot be analysed yet`);
   }
 }
 
 /** The columns a claim's selections use, so a respondent-level source keeps only those in its cube. */
 export function columnsUsed(claim: Claim): string[] {
-  const filters = claim.kind === 'compare' ? [claim.where, claim.focus, claim.against] : [claim.where, claim.x, claim.y];
+  const filters: Filter[] = [claim.where];
+  if ('focus' in claim) filters.push(claim.focus, claim.against);
+  if ('select' in claim) filters.push(claim.select);
+  if (claim.kind === 'association') filters.push(claim.x, claim.y, ...claim.controls.map((c) => c.filter));
   const cols = new Set(filters.flatMap((f) => Object.keys(f)));
   if (claim.kind === 'association') cols.add(claim.units);
+  if (claim.kind === 'crosstab') {
+    cols.add(claim.rows);
+    if (claim.columns !== 'agreement') cols.add(claim.columns);
+  }
   return [...cols];
 }

@@ -72,6 +72,7 @@ export function normalize(parsed: ParsedYaml, absPath: string, sha256: string): 
       confidence: conf.value,
       confidenceWritten: conf.written,
       sided: ((c.test as string | undefined) ?? DEFAULTS.sided) as Claim['sided'],
+      minRespondents: (c.min_respondents as number | undefined) ?? (data.min_respondents as number | undefined) ?? DEFAULTS.minRespondents,
       place: placeAt(['claims', i], 'value'),
     };
     if (c.kind === 'compare') {
@@ -92,6 +93,10 @@ export function normalize(parsed: ParsedYaml, absPath: string, sha256: string): 
       units: c.units as string,
       x: copyFilter(c.x as Filter),
       y: copyFilter(c.y as Filter),
+      xMeasure: { type: 'agree' },
+      yMeasure: { type: 'agree' },
+      controls: [],
+      weighted: false,
       expect: c.expect as AssociationClaim['expect'],
     };
     if (typeof c.x_label === 'string') claim.xLabel = c.x_label;

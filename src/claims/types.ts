@@ -26,8 +26,14 @@
  *       expect: lower
  */
 
-/** A filter on one column: a single value or any of a list. Values compare as text ("2026" equals 2026). */
-export type FilterValue = string | number | Array<string | number>;
+/** One value or a list of values; values compare as text ("2026" equals 2026). */
+export type FilterScalar = string | number;
+/**
+ * A filter on one column: a single value, any of a list, or everything but some values (`{ not: ... }`).
+ * On the source's period column the words `latest`, `previous` and `latest-N` (N periods before the newest) name
+ * periods relative to the newest one in the data, so the same claims file works next year.
+ */
+export type FilterValue = FilterScalar | FilterScalar[] | { not: FilterScalar | FilterScalar[] };
 /** Filters on several columns at once; a row is selected when every column matches. */
 export type Filter = Record<string, FilterValue>;
 
@@ -65,8 +71,25 @@ export interface SourceSpec {
   agreeCodes: number[];
   /** respondents: codes that mean "not applicable" and are left out of the base (default none; blanks always are). */
   notApplicableCodes: number[];
+  /** Column holding the survey period (e.g. Year); enables `latest` / `previous` and the change and trend kinds. */
+  period?: string;
+  /**
+   * summary: further numeric columns (e.g. a staff-to-student ratio, a mean score) that claims may use as measures.
+   * A selection's value is the respondent-weighted mean of the column over its rows.
+   */
+  numeric?: string[];
+  /** 1-based row holding the column names (default: the first non-empty row). */
+  headerRow?: number;
   place: Place;
 }
+
+/**
+ * What is measured for a selection:
+ * - agree: the pooled agreement rate (agreeing / respondents);
+ * - mean: the mean answer score (respondent-level sources; answers as coded, not-applicable left out);
+ * - column: a numeric column of a summary source, respondent-weighted mean over the selection's rows.
+ */
+export type Measure = { type: 'agree' } | { type: 'mean' } | { type: 'column'; column: string };
 
 export type CompareExpect = 'lower' | 'higher' | 'different';
 export type AssociationExpect = 'positive' | 'negative' | 'any';
@@ -84,6 +107,12 @@ interface ClaimBase {
   /** How the confidence was written, e.g. "95%", to say what was understood. */
   confidenceWritten: string;
   sided: Sided;
+  /** Selections with fewer respondents than this are not tested (pack default unless the claim overrides it). */
+  minRespondents: number;
+  /** Where the number eligible is known, selections answered by a smaller share than this are not tested. */
+  minResponseRate?: number;
+  /** The smallest difference that matters, as a fraction (0.05 = 5 points); a smaller significant one is not "supported". */
+  smallestDifference?: number;
   place: Place;
 }
 
@@ -110,10 +139,106 @@ export interface AssociationClaim extends ClaimBase {
   y: Filter;
   xLabel?: string;
   yLabel?: string;
+  /** What each axis measures (default: agreement rate). */
+  xMeasure: Measure;
+  yMeasure: Measure;
+  /** Third variables to control for (partial correlation), each a measure across the same units. */
+  controls: Array<{ filter: Filter; measure: Measure; label: string }>;
+  /** Weight units by their respondents (default false: every unit counts once). */
+  weighted: boolean;
   expect: AssociationExpect;
 }
 
-export type Claim = CompareClaim | AssociationClaim;
+/** The same selection in two periods ("this fell since last year"). Uses the source's period column. */
+export interface ChangeClaim extends ClaimBase {
+  kind: 'change';
+  /** Earlier period: a value or a relative word (`previous`, `latest-2`). */
+  from: FilterScalar;
+  /** Later period (default `latest`). */
+  to: FilterScalar;
+  expect: CompareExpect;
+}
+
+export type TrendExpect = 'rising' | 'falling' | 'any';
+
+/** A trend in the agreement rate over three or more ordered periods. */
+export interface TrendClaim extends ClaimBase {
+  kind: 'trend';
+  /** The periods, oldest first, as values or relative words; or the last N periods in the data. */
+  periods: FilterScalar[] | { last: number };
+  expect: TrendExpect;
+}
+
+/** A selection against a fixed value: a target or a published benchmark figure. */
+export interface TargetClaim extends ClaimBase {
+  kind: 'target';
+  /** The selection, on top of `where`. */
+  select: Filter;
+  selectLabel?: string;
+  /** The fixed value as a fraction (0.8 for 80%). */
+  value: number;
+  /** How the value was written, e.g. "80%". */
+  valueWritten: string;
+  /** What the value is, e.g. "the 80% target" or "the national benchmark". */
+  valueLabel?: string;
+  expect: CompareExpect;
+}
+
+/** Two categorical variables related or not: a table of counts (e.g. campus by agreeing / not agreeing). */
+export interface CrosstabClaim extends ClaimBase {
+  kind: 'crosstab';
+  /** Column whose values are the table's rows. */
+  rows: string;
+  /**
+   * The table's columns: `agreement` (agreeing / not agreeing on the selection), or the name of another column
+   * whose values split the respondents.
+   */
+  columns: string;
+  expect: 'related';
+}
+
+/** Mean scores of two selections compared (respondent-level answers, or a numeric column). */
+export interface MeansClaim extends ClaimBase {
+  kind: 'means';
+  focus: Filter;
+  against: Filter;
+  focusLabel?: string;
+  againstLabel?: string;
+  measure: Measure;
+  /** Welch's t test (default), Student's t, or the Mann–Whitney test on the answers' ranks. */
+  test: 'welch' | 'student' | 'rank';
+  expect: CompareExpect;
+}
+
+/** "No real difference": two selections' rates within a stated margin of each other. */
+export interface EquivalenceClaim extends ClaimBase {
+  kind: 'equivalence';
+  focus: Filter;
+  against: Filter;
+  focusLabel?: string;
+  againstLabel?: string;
+  /** The margin as a fraction (0.05 = 5 points either way). */
+  margin: number;
+}
+
+/** A plain estimate with its margin of error; no hypothesis is tested. */
+export interface EstimateClaim extends ClaimBase {
+  kind: 'estimate';
+  select: Filter;
+  selectLabel?: string;
+  measure: Measure;
+}
+
+export type Claim =
+  | CompareClaim
+  | AssociationClaim
+  | ChangeClaim
+  | TrendClaim
+  | TargetClaim
+  | CrosstabClaim
+  | MeansClaim
+  | EquivalenceClaim
+  | EstimateClaim;
 export type ClaimKind = Claim['kind'];
 
 export interface ClaimsFile {
@@ -133,6 +258,10 @@ export interface ClaimsFile {
   adjust: 'holm' | 'benjamini-hochberg' | 'none';
   /** Selections with fewer respondents than this are not tested (common practice: 10). */
   minRespondents: number;
+  /** Pack default for the minimum response rate where the number eligible is known (fraction), if any. */
+  minResponseRate?: number;
+  /** Pack default for the smallest difference that matters (fraction), if any. */
+  smallestDifference?: number;
   sources: SourceSpec[];
   claims: Claim[];
 }

@@ -24,6 +24,10 @@ export interface Cell {
   approximate: boolean;
   /** First data row (1-based, as numbered in the file) that contributed to this cell. */
   firstRow: number;
+  /** respondents sources: how many valid answers had each code (code as text -> count), for mean scores and ranks. */
+  codes?: Record<string, number>;
+  /** summary sources: per numeric column, the sum of value × respondents and the sum of respondents weighted. */
+  numeric?: Record<string, { weightedSum: number; weight: number }>;
 }
 
 export interface Cube {
@@ -57,4 +61,8 @@ export interface Pooled {
   approximate: boolean;
   /** Number of cells pooled. */
   cells: number;
+  /** Pooled answer-code counts (respondents sources). */
+  codes?: Record<string, number>;
+  /** Pooled numeric-column sums (summary sources). */
+  numeric?: Record<string, { weightedSum: number; weight: number }>;
 }

@@ -3,7 +3,8 @@
  * already formatted. The renderer decides layout only; it never computes statistics or chooses words.
  */
 
-export type VerdictKind = 'supported' | 'not-supported' | 'opposite' | 'too-little-data';
+/** 'estimate' is for claims that test no hypothesis (a plain estimate with its margin of error). */
+export type VerdictKind = 'supported' | 'not-supported' | 'opposite' | 'too-little-data' | 'estimate';
 
 /** Data for one chart; the renderer turns it into a Vega-Lite spec, then SVG, then PDF vectors. */
 export type ChartData =
@@ -27,6 +28,37 @@ export type ChartData =
       note?: string;
       /** True when x and y are fractions to show as percentages. */
       percent: boolean;
+    }
+  | {
+      /** A rate per period, oldest first, with an interval band; optional fitted trend line. */
+      kind: 'periods';
+      points: Array<{ period: string; rate: number; lower: number; upper: number; n: number }>;
+      axisTitle: string;
+      /** Fitted rate per period (same order), drawn as a line. */
+      fit?: number[];
+    }
+  | {
+      /** Stacked bars, one per row of a table, split into parts (e.g. agreeing / not agreeing). Shares computed by the renderer. */
+      kind: 'stacked';
+      rows: Array<{ label: string; parts: Array<{ label: string; count: number }> }>;
+      axisTitle: string;
+    }
+  | {
+      /** Mean scores as dots with interval bars, on the answer scale. */
+      kind: 'means';
+      bars: Array<{ label: string; mean: number; lower: number; upper: number; n: number }>;
+      axisTitle: string;
+      /** Axis range, e.g. [1, 5]. */
+      domain: [number, number];
+    }
+  | {
+      /** One difference (fraction) with its interval against a band of ± margin (equivalence). */
+      kind: 'difference';
+      value: number;
+      lower: number;
+      upper: number;
+      margin: number;
+      axisTitle: string;
     };
 
 export interface Chart {

@@ -1,0 +1,81 @@
+/** Words for the "association" kind: two measures across units. */
+import type { AssociationAnalysis } from '../../analyse/types.js';
+import * as fmt from '../../format/numbers.js';
+import { filterLabel } from '../../analyse/labels.js';
+import type { Chart, NumberRow } from '../../render/model.js';
+import type { Decision } from '../decide.js';
+import type { View } from '../templates.js';
+import { commonRows, plural, pView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
+
+export function composeAssociation(a: AssociationAnalysis, decision: Decision, ctx: ComposeContext): Composed {
+  const t = ctx.templates;
+  const claim = a.claim;
+  const expectWord = claim.expect === 'positive' ? 'higher' : claim.expect === 'negative' ? 'lower' : '';
+  const oneSided = a.test ? a.test.alternative !== 'two-sided' : claim.sided === 'one-sided' && claim.expect !== 'any';
+  const xLabel = claim.xLabel ?? filterLabel(claim.x);
+  const yLabel = claim.yLabel ?? filterLabel(claim.y);
+  const unitName = claim.units.toLowerCase();
+  const unitsName = plural(claim.units);
+  const labelsOnly = { xLabel, yLabel, unitsName, expectWord, oneSided };
+  const hypotheses = { null: t.render('association.null', labelsOnly), alternative: t.render('association.alternative', labelsOnly) };
+  if (a.status === 'too-little-data' || !a.test || !a.fit) {
+    return tooLittle(a, decision, ctx, `${xLabel} against ${yLabel} across ${unitsName}.`, hypotheses);
+  }
+  const r = a.test.estimate.value;
+  const iv = a.test.interval;
+  const view: View = {
+    ...labelsOnly,
+    unitName,
+    unitCount: a.points.length,
+    scope: scopeText(claim.where),
+    xTotal: fmt.count(a.totals?.x ?? 0),
+    yTotal: fmt.count(a.totals?.y ?? 0),
+    level: fmt.level(claim.confidence),
+    r: fmt.coefficient(r),
+    rLower: fmt.coefficient(iv?.lower ?? NaN),
+    rUpper: fmt.coefficient(iv?.upper ?? NaN),
+    directionWord: r < 0 ? 'lower' : 'higher',
+    detectable: fmt.coefficient(a.detectable ?? NaN),
+    adjustName: ctx.adjustName,
+    minRespondents: ctx.minRespondents,
+    ...pView(decision, ctx),
+  };
+  const numbers: NumberRow[] = [
+    { label: 'Units', value: `${a.points.length} ${unitsName}` },
+    { label: 'Correlation (Pearson r)', value: `${view.r} (interval ${view.rLower} to ${view.rUpper})` },
+    { label: 'Least-squares line', value: `${yLabel} = ${fmt.plain(a.fit.intercept * 100, 1)} + ${fmt.plain(a.fit.slope, 2)} × ${xLabel} (in %); R² = ${fmt.coefficient(a.fit.rSquared)}` },
+    ...commonRows(a, decision, ctx),
+    { label: 'Smallest correlation detectable (80% power)', value: `about ${view.detectable}` },
+  ];
+  const cautions = [t.render('caution.causation', view), t.render('caution.ecological', view)];
+  if (a.points.length < 10) cautions.push(t.render('caution.few-units', view));
+  if (a.suppressedUnits.length > 0) {
+    cautions.push(t.render('caution.suppressed-units', { ...view, count: a.suppressedUnits.length, names: a.suppressedUnits.join(', ') }));
+  }
+  if (ctx.adjusted) cautions.push(t.render('caution.not-adjusted-interval', view));
+  const chart: Chart = {
+    data: {
+      kind: 'scatter',
+      points: a.points.map((p) => ({ label: p.unit, x: p.x, y: p.y, n: Math.min(p.nx, p.ny) })),
+      xTitle: `${xLabel} (% agreeing)`,
+      yTitle: `${yLabel} (% agreeing)`,
+      fit: { intercept: a.fit.intercept, slope: a.fit.slope },
+      note: `r = ${view.r}`,
+      percent: true,
+    },
+    alt: `Scatter chart of ${a.points.length} ${unitsName}: ${xLabel} across, ${yLabel} up, with the least-squares line; r = ${view.r} (interval ${view.rLower} to ${view.rUpper}).`,
+  };
+  return {
+    section: {
+      compared: t.render('association.compared', view),
+      hypotheses,
+      numbers,
+      chart,
+      verdictText: t.render(`association.${decision.verdict}`, view),
+      cautions,
+      methodLine: t.render('association.method', view),
+    },
+    key: t.render('association.key', view),
+  };
+}
+

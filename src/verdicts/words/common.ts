@@ -1,0 +1,86 @@
+/**
+ * Pieces every claim kind's wording uses: the context, number rows shared by all tests, the "too little data" section.
+ */
+import type { Analysis, RateSummary } from '../../analyse/types.js';
+import { filterLabel } from '../../analyse/labels.js';
+import type { Filter } from '../../claims/types.js';
+import * as fmt from '../../format/numbers.js';
+import type { ClaimSection, NumberRow } from '../../render/model.js';
+import type { Decision } from '../decide.js';
+import type { Templates } from '../templates.js';
+
+export interface ComposeContext {
+  templates: Templates;
+  /** How many claims were tested together (the adjustment's family). */
+  claimsTested: number;
+  /** The adjustment's name in words, e.g. "Holm's method". */
+  adjustName: string;
+  /** True when an adjustment other than none was applied and more than one claim was tested. */
+  adjusted: boolean;
+  minRespondents: number;
+  /** The column that holds survey years, if known, to spot year-on-year claims. */
+  periodColumns: string[];
+}
+
+/** What a kind's wording returns: the section body and the summary table's key figure. */
+export interface Composed {
+  section: Omit<ClaimSection, 'id' | 'statement' | 'verdictLabel' | 'verdict'>;
+  key: string;
+}
+
+export function rateView(r: RateSummary) {
+  return { label: r.label, n: fmt.count(r.n), rate: fmt.percent(r.rate), lower: fmt.percent(r.interval.lower), upper: fmt.percent(r.interval.upper) };
+}
+
+export function scopeText(where: Filter): string {
+  return Object.keys(where).length > 0 ? filterLabel(where) : '';
+}
+
+export function pView(decision: Decision, ctx: ComposeContext) {
+  return {
+    pPhrase: fmt.pPhrase(decision.p ?? NaN),
+    pAdjustedPhrase: `adjusted ${fmt.pPhrase(decision.pAdjusted ?? NaN)}`,
+    adjusted: ctx.adjusted,
+    claimsTested: ctx.claimsTested,
+  };
+}
+
+export function commonRows(a: Analysis, decision: Decision, ctx: ComposeContext): NumberRow[] {
+  const rows: NumberRow[] = [];
+  if (a.test?.statistic) {
+    const df = a.test.df === undefined ? '' : `, ${Array.isArray(a.test.df) ? a.test.df.join(' and ') : fmt.plain(a.test.df, 1)} degrees of freedom`;
+    rows.push({ label: 'Test statistic', value: `${a.test.statistic.symbol} = ${fmt.statistic(a.test.statistic.value)}${df}` });
+  }
+  rows.push({ label: `p-value (${a.test?.alternative === 'two-sided' ? 'two-sided' : 'one-sided'})`, value: fmt.pValue(decision.p ?? NaN) });
+  if (ctx.adjusted) rows.push({ label: `p-value adjusted for ${ctx.claimsTested} claims`, value: fmt.pValue(decision.pAdjusted ?? NaN) });
+  const level = fmt.level(a.claim.confidence);
+  const written = a.claim.confidenceWritten;
+  // Say what was understood when the claims file wrote the level another way (0.95, 95), so nobody is surprised.
+  const understood = written === 'default' ? ' (the default)' : written.replace(/\s+/g, '') === level ? '' : ` (written as ${written})`;
+  rows.push({ label: 'Confidence level', value: `${level}${understood}` });
+  return rows;
+}
+
+export function tooLittle(a: Analysis, decision: Decision, ctx: ComposeContext, compared: string, hypotheses: ClaimSection['hypotheses']): Composed {
+  const view = { shortfall: a.shortfall ?? 'too few people answered', minRespondents: ctx.minRespondents };
+  return {
+    section: {
+      compared,
+      hypotheses,
+      numbers: [{ label: 'Result', value: 'Withheld: too few respondents' }],
+      verdictText: ctx.templates.render('too-little-data', view),
+      cautions: [],
+      methodLine: 'No test was run.',
+    },
+    key: ctx.templates.render('too-little-data.key', view),
+  };
+}
+
+/** Plural of a unit column name for sentences: "Department" -> "departments". */
+export function plural(units: string): string {
+  const lower = units.toLowerCase();
+  if (/(s|x|ch|sh)$/.test(lower)) return `${lower}es`;
+  if (/[^aeiou]y$/.test(lower)) return `${lower.slice(0, -1)}ies`;
+  return `${lower}s`;
+}
+

@@ -1,0 +1,88 @@
+/** Words for the "compare" kind: two selections' agreement rates. */
+import type { CompareAnalysis } from '../../analyse/types.js';
+import * as fmt from '../../format/numbers.js';
+import { filterLabel } from '../../analyse/labels.js';
+import type { Chart, NumberRow } from '../../render/model.js';
+import type { Decision } from '../decide.js';
+import type { View } from '../templates.js';
+import { commonRows, pView, rateView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
+
+export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: ComposeContext): Composed {
+  const t = ctx.templates;
+  const claim = a.claim;
+  const expectWord = claim.expect === 'lower' ? 'lower' : claim.expect === 'higher' ? 'higher' : '';
+  const oneSided = a.test ? a.test.alternative !== 'two-sided' : claim.sided === 'one-sided' && claim.expect !== 'different';
+  const focusLabel = a.focus?.label ?? claim.focusLabel ?? filterLabel(claim.focus);
+  const againstLabel = a.against?.label ?? claim.againstLabel ?? filterLabel(claim.against);
+  const labelsOnly = { focus: { label: focusLabel }, against: { label: againstLabel }, expectWord, oneSided };
+  const hypotheses = { null: t.render('compare.null', labelsOnly), alternative: t.render('compare.alternative', labelsOnly) };
+  if (a.status === 'too-little-data' || !a.focus || !a.against || !a.difference || !a.test) {
+    const compared = `${focusLabel} against ${againstLabel}${scopeText(claim.where) ? `, for ${scopeText(claim.where)}` : ''}.`;
+    return tooLittle(a, decision, ctx, compared, hypotheses);
+  }
+  const d = a.difference;
+  const view: View = {
+    focus: rateView(a.focus),
+    against: rateView(a.against),
+    scope: scopeText(claim.where),
+    expectWord,
+    oneSided,
+    level: fmt.level(claim.confidence),
+    diff: fmt.points(d.value, { sign: true }),
+    diffLower: fmt.points(d.interval.lower, { sign: true }),
+    diffUpper: fmt.points(d.interval.upper, { sign: true }),
+    gap: fmt.pointsSize(d.value),
+    gapLower: fmt.pointsSize(a.observedSign < 0 ? d.interval.upper : d.interval.lower),
+    gapUpper: fmt.pointsSize(a.observedSign < 0 ? d.interval.lower : d.interval.upper),
+    diffWord: d.value < 0 ? 'lower' : 'higher',
+    detectable: a.detectable !== undefined ? fmt.pointsSize(a.detectable) : '',
+    testName: a.methods.includes('fisher-exact-2x2') ? "Fisher's exact test" : 'Pooled two-proportion z test',
+    fpc: a.methods.includes('wilson-fpc'),
+    adjustName: ctx.adjustName,
+    ...pView(decision, ctx),
+  };
+  const numbers: NumberRow[] = [
+    { label: `${a.focus.label}`, value: `${fmt.percent(a.focus.rate)} agreed of ${fmt.count(a.focus.n)} (interval ${fmt.percent(a.focus.interval.lower)} to ${fmt.percent(a.focus.interval.upper)})` },
+    { label: `${a.against.label}`, value: `${fmt.percent(a.against.rate)} agreed of ${fmt.count(a.against.n)} (interval ${fmt.percent(a.against.interval.lower)} to ${fmt.percent(a.against.interval.upper)})` },
+    { label: 'Difference', value: `${view.diff} points (interval ${view.diffLower} to ${view.diffUpper})` },
+    ...commonRows(a, decision, ctx),
+    { label: "Effect size (Cohen's h)", value: fmt.coefficient(a.cohensH ?? NaN) },
+    { label: 'Smallest difference detectable (80% power)', value: view.detectable ? `about ${view.detectable} points` : 'none within reach of these samples' },
+  ];
+  const cautions: string[] = [];
+  if (a.relation !== 'separate') {
+    const inner = a.relation === 'focus-inside' ? claim.focusLabel ?? filterLabel(claim.focus) : claim.againstLabel ?? filterLabel(claim.against);
+    const outer = a.relation === 'focus-inside' ? claim.againstLabel ?? filterLabel(claim.against) : claim.focusLabel ?? filterLabel(claim.focus);
+    const restN = a.relation === 'focus-inside' ? a.against.n : a.focus.n;
+    cautions.push(t.render('caution.rest-of-group', { inner, outer, restN: fmt.count(restN) }));
+  }
+  if (ctx.periodColumns.some((c) => c in claim.focus && c in claim.against)) cautions.push(t.render('caution.cohorts', {}));
+  for (const r of [a.focus, a.against]) {
+    if (r.n < 50) cautions.push(t.render('caution.small-sample', { n: fmt.count(r.n), label: r.label, onePerson: fmt.pointsSize(1 / r.n) }));
+  }
+  if (a.responseRate !== undefined && a.responseRate < 0.5) cautions.push(t.render('caution.response-rate', { rate: fmt.percent(a.responseRate) }));
+  if (a.focus.approximate || a.against.approximate) cautions.push(t.render('caution.rounded', {}));
+  if (a.methods.includes('fisher-exact-2x2')) cautions.push(t.render('caution.fisher', {}));
+  if (ctx.adjusted) cautions.push(t.render('caution.not-adjusted-interval', view));
+  const chart: Chart = {
+    data: {
+      kind: 'rates',
+      axisTitle: 'Agreeing (%)',
+      bars: [a.focus, a.against].map((r) => ({ label: r.label, rate: r.rate, lower: r.interval.lower, upper: r.interval.upper, n: r.n })),
+    },
+    alt: `Chart of agreement rates with ${fmt.level(claim.confidence)} intervals: ${a.focus.label} ${fmt.percent(a.focus.rate)} (${fmt.percent(a.focus.interval.lower)} to ${fmt.percent(a.focus.interval.upper)}), ${a.against.label} ${fmt.percent(a.against.rate)} (${fmt.percent(a.against.interval.lower)} to ${fmt.percent(a.against.interval.upper)}).`,
+  };
+  return {
+    section: {
+      compared: t.render('compare.compared', view),
+      hypotheses,
+      numbers,
+      chart,
+      verdictText: t.render(`compare.${decision.verdict}`, view),
+      cautions,
+      methodLine: t.render('compare.method', view),
+    },
+    key: t.render('compare.key', view),
+  };
+}
+
