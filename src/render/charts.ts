@@ -96,18 +96,11 @@ export function ratesChartHeight(rows: number): number {
 
 function ratesSpec(data: Extract<ChartData, { kind: 'rates' }>, maxHeight: number): Record<string, unknown> {
   if (data.bars.length === 0) throw new Error('Chart data: a rates chart needs at least one bar.');
-  const values = data.bars.map((b, i) => {
+  const rows = data.bars.map((b) => {
     requireFinite(b.rate, `rate of "${b.label}"`);
     requireFinite(b.lower, `lower bound of "${b.label}"`);
     requireFinite(b.upper, `upper bound of "${b.label}"`);
-    return {
-      order: i,
-      row: `${b.label} (n = ${count(b.n)})`,
-      rate: b.rate,
-      lower: b.lower,
-      upper: b.upper,
-      rateText: `${Math.round(b.rate * 100)}%`,
-    };
+    return { label: b.label, n: b.n, value: b.rate, lower: b.lower, upper: b.upper, text: `${Math.round(b.rate * 100)}%` };
   });
   const all = data.bars.flatMap((b) => [b.lower, b.upper, b.rate]);
   if (data.reference) {
@@ -121,6 +114,45 @@ function ratesSpec(data: Extract<ChartData, { kind: 'rates' }>, maxHeight: numbe
     lo = tenthFloor(mid - 0.1);
     hi = tenthCeil(lo + 0.2);
   }
+  return dotIntervalSpec(rows, data.axisTitle, [lo, hi], '.0%', Math.round((hi - lo) * 10), maxHeight, data.reference);
+}
+
+function meansSpec(data: Extract<ChartData, { kind: 'means' }>, maxHeight: number): Record<string, unknown> {
+  if (data.bars.length === 0) throw new Error('Chart data: a means chart needs at least one bar.');
+  const [lo, hi] = data.domain;
+  requireFinite(lo, 'lower end of the scale');
+  requireFinite(hi, 'upper end of the scale');
+  if (!(hi > lo)) throw new Error(`Chart data: the scale [${lo}, ${hi}] of a means chart is empty.`);
+  const rows = data.bars.map((b) => {
+    requireFinite(b.mean, `mean of "${b.label}"`);
+    requireFinite(b.lower, `lower bound of "${b.label}"`);
+    requireFinite(b.upper, `upper bound of "${b.label}"`);
+    return { label: b.label, n: b.n, value: b.mean, lower: b.lower, upper: b.upper, text: b.mean.toFixed(2) };
+  });
+  const ticks = hi - lo <= 10 && Number.isInteger(lo) && Number.isInteger(hi) ? hi - lo : 5;
+  return dotIntervalSpec(rows, data.axisTitle, [lo, hi], '~g', ticks, maxHeight);
+}
+
+/** Dots with interval bars, one row per selection in data order, labels with n, values in a column at the right. */
+function dotIntervalSpec(
+  rowsIn: Array<{ label: string; n: number; value: number; lower: number; upper: number; text: string }>,
+  axisTitle: string,
+  domain: [number, number],
+  format: string,
+  tickCount: number,
+  maxHeight: number,
+  reference?: { value: number; label: string },
+): Record<string, unknown> {
+  const [lo, hi] = domain;
+  const values = rowsIn.map((r, i) => ({
+    order: i,
+    row: `${r.label} (n = ${count(r.n)})`,
+    rate: r.value,
+    lower: r.lower,
+    upper: r.upper,
+    rateText: r.text,
+  }));
+  const data = { bars: rowsIn, axisTitle, reference };
   const rowOrder = values.map((v) => v.row);
   const y = {
     field: 'row',
@@ -141,7 +173,7 @@ function ratesSpec(data: Extract<ChartData, { kind: 'rates' }>, maxHeight: numbe
           type: 'quantitative',
           scale: xScale,
           title: data.axisTitle,
-          axis: { format: '.0%', grid: true, tickCount: Math.round((hi - lo) * 10), domain: false },
+          axis: { format, grid: true, tickCount, domain: false },
         },
         x2: { field: 'upper' },
       },
@@ -263,6 +295,166 @@ function scatterSpec(data: Extract<ChartData, { kind: 'scatter' }>, height: numb
   };
 }
 
+function periodsSpec(data: Extract<ChartData, { kind: 'periods' }>, height: number): Record<string, unknown> {
+  if (data.points.length === 0) throw new Error('Chart data: a periods chart needs at least one period.');
+  if (data.fit && data.fit.length !== data.points.length) {
+    throw new Error(`Chart data: ${data.fit.length} fitted rates given for ${data.points.length} periods.`);
+  }
+  const values = data.points.map((p, i) => {
+    requireFinite(p.rate, `rate of period "${p.period}"`);
+    requireFinite(p.lower, `lower bound of period "${p.period}"`);
+    requireFinite(p.upper, `upper bound of period "${p.period}"`);
+    if (data.fit) requireFinite(data.fit[i]!, `fitted rate of period "${p.period}"`);
+    return { period: `${p.period} (n = ${count(p.n)})`, rate: p.rate, lower: p.lower, upper: p.upper, fit: data.fit?.[i] };
+  });
+  const all = data.points.flatMap((p) => [p.lower, p.upper]).concat(data.fit ?? []);
+  const lo = tenthFloor(Math.min(...all) - 0.02);
+  const hi = tenthCeil(Math.max(...all) + 0.02);
+  const x = {
+    field: 'period',
+    type: 'ordinal',
+    sort: null,
+    title: null,
+    axis: { labelAngle: values.length > 5 ? -30 : 0, labelPadding: 6 },
+    scale: { padding: 0.5 },
+  };
+  const yScale = { domain: [lo, hi], nice: false, zero: false };
+  const layers: Array<Record<string, unknown>> = [
+    {
+      mark: { type: 'area', color: PALETTE.light, opacity: 0.45 },
+      encoding: {
+        x,
+        y: { field: 'lower', type: 'quantitative', scale: yScale, title: data.axisTitle, axis: { format: '.0%', grid: true } },
+        y2: { field: 'upper' },
+      },
+    },
+    {
+      mark: { type: 'line', color: PALETTE.primary, strokeWidth: 2, point: { filled: true, size: 50, color: PALETTE.primary } },
+      encoding: { x, y: { field: 'rate', type: 'quantitative' } },
+    },
+  ];
+  if (data.fit) {
+    layers.push({
+      mark: { type: 'line', color: PALETTE.secondary, strokeDash: [5, 3], strokeWidth: 1.5 },
+      encoding: { x, y: { field: 'fit', type: 'quantitative' } },
+    });
+  }
+  return {
+    $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
+    width: CHART_WIDTH,
+    height,
+    autosize: { type: 'fit', contains: 'padding' },
+    padding: { left: 2, right: 8, top: 6, bottom: 2 },
+    config: baseConfig(),
+    data: { values },
+    layer: layers,
+  };
+}
+
+/** Colours for the parts of a stacked bar, darkest first, so neighbouring parts always differ in lightness. */
+const STACK_COLOURS = [PALETTE.primary, PALETTE.light, PALETTE.secondary, '#e9c9a6', PALETTE.muted, '#d9dde2'];
+
+function stackedSpec(data: Extract<ChartData, { kind: 'stacked' }>, maxHeight: number): Record<string, unknown> {
+  if (data.rows.length === 0) throw new Error('Chart data: a stacked chart needs at least one row.');
+  const partNames: string[] = [];
+  const values = data.rows.flatMap((r) => {
+    const total = r.parts.reduce((a, p) => a + p.count, 0);
+    if (!(total > 0)) throw new Error(`Chart data: row "${r.label}" of a stacked chart has no counts.`);
+    return r.parts.map((p) => {
+      requireFinite(p.count, `count of "${p.label}" in "${r.label}"`);
+      if (!partNames.includes(p.label)) partNames.push(p.label);
+      return { row: `${r.label} (n = ${count(total)})`, part: p.label, order: partNames.indexOf(p.label), count: p.count };
+    });
+  });
+  if (partNames.length > STACK_COLOURS.length) {
+    throw new Error(`Chart data: a stacked chart can show at most ${STACK_COLOURS.length} parts; found ${partNames.length}.`);
+  }
+  const rowOrder = [...new Set(values.map((v) => v.row))];
+  return {
+    $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
+    width: CHART_WIDTH,
+    height: Math.min(maxHeight, ratesChartHeight(data.rows.length) + 24),
+    autosize: { type: 'fit', contains: 'padding' },
+    padding: { left: 2, right: 8, top: 6, bottom: 2 },
+    config: { ...baseConfig(), legend: { labelFont: CHART_FONT_FAMILY, labelFontSize: AXIS_LABEL_SIZE, orient: 'bottom', title: null } },
+    data: { values },
+    mark: { type: 'bar', stroke: '#ffffff', strokeWidth: 1 },
+    encoding: {
+      y: {
+        field: 'row',
+        type: 'nominal',
+        sort: rowOrder,
+        title: null,
+        axis: { ticks: false, domain: false, labelPadding: 6, labelLimit: 0 },
+      },
+      x: {
+        field: 'count',
+        type: 'quantitative',
+        stack: 'normalize',
+        title: data.axisTitle,
+        axis: { format: '.0%', grid: true },
+      },
+      color: {
+        field: 'part',
+        type: 'nominal',
+        sort: partNames,
+        scale: { domain: partNames, range: STACK_COLOURS.slice(0, partNames.length) },
+        legend: { title: null },
+      },
+      order: { field: 'order', type: 'quantitative' },
+    },
+  };
+}
+
+function differenceSpec(data: Extract<ChartData, { kind: 'difference' }>): Record<string, unknown> {
+  for (const [v, what] of [
+    [data.value, 'difference'],
+    [data.lower, 'lower bound'],
+    [data.upper, 'upper bound'],
+    [data.margin, 'margin'],
+  ] as const) {
+    requireFinite(v, what);
+  }
+  if (!(data.margin > 0)) throw new Error(`Chart data: the equivalence margin is ${data.margin}; it must be above 0.`);
+  // Shown in percentage points.
+  const pts = (v: number): number => v * 100;
+  const extent = Math.max(Math.abs(pts(data.lower)), Math.abs(pts(data.upper)), pts(data.margin)) * 1.25;
+  const [lo, hi] = roundDomain([-extent, extent]);
+  const xScale = { domain: [lo, hi], nice: false, zero: false };
+  const row = [{ value: pts(data.value), lower: pts(data.lower), upper: pts(data.upper), m0: -pts(data.margin), m1: pts(data.margin) }];
+  return {
+    $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
+    width: CHART_WIDTH,
+    height: 110,
+    autosize: { type: 'fit', contains: 'padding' },
+    padding: { left: 2, right: 8, top: 6, bottom: 2 },
+    config: baseConfig(),
+    data: { values: row },
+    layer: [
+      {
+        mark: { type: 'rect', color: PALETTE.light, opacity: 0.35 },
+        encoding: {
+          x: { field: 'm0', type: 'quantitative', scale: xScale, title: data.axisTitle, axis: { format: '+~g', grid: true } },
+          x2: { field: 'm1' },
+        },
+      },
+      { mark: { type: 'rule', color: PALETTE.muted, strokeDash: [2, 2] }, encoding: { x: { datum: 0, type: 'quantitative' } } },
+      {
+        mark: { type: 'rule', color: PALETTE.primary, strokeWidth: 2 },
+        encoding: { x: { field: 'lower', type: 'quantitative' }, x2: { field: 'upper' }, y: { value: 40 } },
+      },
+      {
+        mark: { type: 'point', filled: true, size: 70, color: PALETTE.primary, opacity: 1 },
+        encoding: { x: { field: 'value', type: 'quantitative' }, y: { value: 40 } },
+      },
+      {
+        mark: { type: 'text', baseline: 'top', dy: 4, color: PALETTE.muted, fontStyle: 'italic', y: 0 },
+        encoding: { x: { datum: 0, type: 'quantitative' }, text: { value: `Margin \u00b1${+pts(data.margin).toFixed(1)} points` } },
+      },
+    ],
+  };
+}
+
 /** Options for the size of a chart. */
 export interface ChartSizeOptions {
   /**
@@ -286,6 +478,14 @@ export function chartSpec(data: ChartData, options: ChartSizeOptions = {}): obje
       return ratesSpec(data, Math.max(height, ratesChartHeight(1)));
     case 'scatter':
       return scatterSpec(data, height);
+    case 'means':
+      return meansSpec(data, Math.max(height, ratesChartHeight(1)));
+    case 'periods':
+      return periodsSpec(data, height);
+    case 'stacked':
+      return stackedSpec(data, Math.max(height, ratesChartHeight(1) + 24));
+    case 'difference':
+      return differenceSpec(data);
     default: {
       const never: never = data;
       throw new Error(`Chart data: unknown chart kind ${JSON.stringify((never as { kind: unknown }).kind)}.`);

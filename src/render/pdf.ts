@@ -55,10 +55,13 @@ const MARK_DESCRIPTION: Record<VerdictKind, string> = {
   'not-supported': 'hollow circle',
   opposite: 'downward triangle',
   'too-little-data': 'dash',
+  estimate: 'diamond',
 };
 
 interface Cell {
   text: string;
+  /** A second, small muted line under the text (e.g. a claim's id under its statement). */
+  sub?: string;
   face?: Face;
   mark?: VerdictKind;
 }
@@ -278,6 +281,9 @@ class Layout {
       case 'too-little-data':
         d.rect(cx - r, cy - 1.2, 2 * r, 2.4).fill(COLOR.accent);
         break;
+      case 'estimate':
+        d.polygon([cx, cy - r - 0.6], [cx + r + 0.6, cy], [cx, cy + r + 0.6], [cx - r - 0.6, cy]).stroke(COLOR.accent);
+        break;
     }
   }
 
@@ -326,10 +332,14 @@ class Layout {
     const widths = columns.map((c) => c.width * scale);
     const markRoom = 13;
     const cellTextWidth = (i: number, cell?: Cell): number => widths[i]! - 2 * padX - (cell?.mark ? markRoom : 0);
+    const subHeight = (cell: Cell, i: number): number =>
+      cell.sub ? 1.5 + this.textHeight(cell.sub, 'regular', SIZE.small, cellTextWidth(i, cell), 1.5) : 0;
     const rowHeight = (cells: Cell[], face?: Face): number =>
       Math.max(
-        ...cells.map((cell, i) =>
-          this.textHeight(cell.text, face ?? cell.face ?? columns[i]!.face ?? 'regular', size, cellTextWidth(i, cell), 1.5),
+        ...cells.map(
+          (cell, i) =>
+            this.textHeight(cell.text, face ?? cell.face ?? columns[i]!.face ?? 'regular', size, cellTextWidth(i, cell), 1.5) +
+            subHeight(cell, i),
         ),
       ) +
       2 * padY -
@@ -348,14 +358,35 @@ class Layout {
           this.artifact(() => this.drawMark(mark, mx, top + padY + size * 0.68, 3.8));
           textX += markRoom;
         }
-        const draw = (): void => {
+        const drawMain = (): void => {
           this.setFont(face, size, tag === 'TH' || tag === null ? COLOR.muted : COLOR.ink);
           this.doc.text(cell.text, textX, top + padY, { width: cellTextWidth(i, cell), lineGap: 1.5 });
         };
+        const drawSub = (): void => {
+          if (!cell.sub) return;
+          const subTop = top + padY + this.textHeight(cell.text, face, size, cellTextWidth(i, cell), 1.5) + 1.5;
+          this.setFont('regular', SIZE.small, COLOR.muted);
+          this.doc.text(cell.sub, textX, subTop, { width: cellTextWidth(i, cell), lineGap: 1.5 });
+        };
         // In a table without a header row, a bold first column labels its row: tag it as a row header.
         const cellTag = tag === 'TD' && !showHeader && i === 0 && columns[0]!.face === 'bold' ? 'TH' : tag;
-        if (parent && cellTag) parent.add(this.doc.struct(cellTag, {}, draw));
-        else this.artifact(draw);
+        if (parent && cellTag) {
+          if (cell.sub) {
+            // Text and its small second line are separate paragraphs, so they are read as two phrases.
+            const el = this.doc.struct(cellTag);
+            parent.add(el);
+            el.add(this.doc.struct('P', {}, drawMain));
+            el.add(this.doc.struct('P', {}, drawSub));
+            el.end();
+          } else {
+            parent.add(this.doc.struct(cellTag, {}, drawMain));
+          }
+        } else {
+          this.artifact(() => {
+            drawMain();
+            drawSub();
+          });
+        }
         x += widths[i]!;
       });
       this.artifact(() => {
@@ -647,21 +678,19 @@ export async function renderPdf(model: PackModel, options: RenderOptions = {}): 
       L.paragraph(model.summaryIntro, { spaceAfter: 14 }),
       L.table(
         [
-          { header: 'Claim', width: 38, face: 'bold' },
-          { header: 'Statement', width: 205 },
+          { header: 'Claim', width: 243 },
           { header: 'Verdict', width: 92 },
           { header: 'Key figure', width: 132 },
         ],
         model.summary.map((r) => [
-          { text: r.id },
-          { text: r.statement },
+          { text: r.statement, sub: r.id },
           { text: r.verdictLabel, mark: r.verdict },
           { text: r.keyFigure },
         ]),
       ),
       L.paragraph(
         'Marks: ' +
-          (['supported', 'not-supported', 'opposite', 'too-little-data'] as const)
+          (['supported', 'not-supported', 'opposite', 'too-little-data', 'estimate'] as const)
             .filter((k) => model.summary.some((r) => r.verdict === k))
             .map((k) => `${MARK_DESCRIPTION[k]} = ${model.summary.find((r) => r.verdict === k)!.verdictLabel}`)
             .join('; ') +

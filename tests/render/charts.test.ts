@@ -12,10 +12,44 @@ const charts = sampleModel.claims.flatMap((c) => (c.chart ? [c.chart.data] : [])
 const rates = charts.find((c) => c.kind === 'rates')!;
 const scatter = charts.find((c) => c.kind === 'scatter')!;
 
+// Invented data for the other chart kinds.
+const periods: ChartData = {
+  kind: 'periods',
+  axisTitle: 'Satisfied (%)',
+  points: [
+    { period: '2021', rate: 0.72, lower: 0.66, upper: 0.77, n: 210 },
+    { period: '2022', rate: 0.69, lower: 0.63, upper: 0.74, n: 230 },
+    { period: '2023', rate: 0.66, lower: 0.6, upper: 0.71, n: 250 },
+  ],
+  fit: [0.72, 0.69, 0.66],
+};
+const stacked: ChartData = {
+  kind: 'stacked',
+  axisTitle: 'Share of respondents (%)',
+  rows: [
+    { label: 'Llŷn campus', parts: [{ label: 'Agree', count: 60 }, { label: 'Neutral', count: 25 }, { label: 'Disagree', count: 15 }] },
+    { label: 'Łódź exchange', parts: [{ label: 'Agree', count: 30 }, { label: 'Neutral', count: 10 }, { label: 'Disagree', count: 12 }] },
+  ],
+};
+const means: ChartData = {
+  kind: 'means',
+  axisTitle: 'Mean rating (1–5)',
+  domain: [1, 5],
+  bars: [
+    { label: 'Ynys Môn', mean: 3.9, lower: 3.7, upper: 4.1, n: 120 },
+    { label: 'Naïve Arts', mean: 3.4, lower: 3.1, upper: 3.7, n: 45 },
+  ],
+};
+const difference: ChartData = { kind: 'difference', axisTitle: 'Difference (points)', value: 0.004, lower: -0.015, upper: 0.021, margin: 0.03 };
+
 describe('chartSpec', () => {
   it.each([
     ['rates', rates],
     ['scatter', scatter],
+    ['periods', periods],
+    ['stacked', stacked],
+    ['means', means],
+    ['difference', difference],
   ] as const)('%s compiles without Vega-Lite warnings', async (_kind, data) => {
     const { warnings } = await compileChart(data);
     expect(warnings).toEqual([]);
@@ -46,6 +80,15 @@ describe('chartSpec', () => {
 });
 
 describe('chartSvg', () => {
+  it('draws every other kind with its labels', async () => {
+    expect(await chartSvg(periods)).toContain('2022 (n = 230)');
+    const st = await chartSvg(stacked);
+    expect(st).toContain('Llŷn campus (n = 100)');
+    expect(st).toContain('Disagree');
+    expect(await chartSvg(means)).toContain('Naïve Arts (n = 45)');
+    expect(await chartSvg(difference)).toContain('Margin ±3 points');
+  });
+
   it('draws the rates chart with n in labels, the reference label and percent ticks', async () => {
     const svg = await chartSvg(rates);
     expect(svg).toMatch(/^<svg[^>]* width="460" height="116"/);
