@@ -15,6 +15,7 @@ import { simpleLinearFit } from '../stats/least-squares.js';
 import { minDetectableCorrelation } from '../stats/power-correlation.js';
 import type { AnalysisSettings, AssociationAnalysis, UnitPoint } from './types.js';
 import { sign } from './labels.js';
+import { shortfall } from './thresholds.js';
 
 /** Fewest units for which r, its t test and the Fisher-z interval (n - 3 > 0) can all be computed. */
 export const MIN_UNITS = 4;
@@ -25,7 +26,7 @@ function alternativeFor(claim: AssociationClaim, opposite = false): Alternative 
   return positive ? 'greater' : 'less';
 }
 
-export function analyseAssociation(claim: AssociationClaim, cube: Cube, settings: AnalysisSettings): AssociationAnalysis {
+export function analyseAssociation(claim: AssociationClaim, cube: Cube, _settings: AnalysisSettings): AssociationAnalysis {
   const xs = poolByUnit(cube, { ...claim.where, ...claim.x }, claim.units);
   const ys = poolByUnit(cube, { ...claim.where, ...claim.y }, claim.units);
   const expectSign = claim.expect === 'positive' ? 1 : claim.expect === 'negative' ? -1 : 0;
@@ -35,7 +36,7 @@ export function analyseAssociation(claim: AssociationClaim, cube: Cube, settings
   for (const unit of units) {
     const px = xs.get(unit);
     const py = ys.get(unit);
-    if (!px || !py || px.n < settings.minRespondents || py.n < settings.minRespondents) {
+    if (!px || !py || shortfall(claim, [{ label: unit, pooled: px }, { label: unit, pooled: py }]) !== undefined) {
       suppressedUnits.push(unit);
       continue;
     }
@@ -54,7 +55,7 @@ export function analyseAssociation(claim: AssociationClaim, cube: Cube, settings
       ...base,
       points: [],
       status: 'too-little-data',
-      shortfall: `only ${points.length} ${points.length === 1 ? 'unit has' : 'units have'} at least ${settings.minRespondents} respondents on both measures, and at least ${MIN_UNITS} are needed`,
+      shortfall: `only ${points.length} ${points.length === 1 ? 'unit has' : 'units have'} enough respondents on both measures (at least ${claim.minRespondents}), and at least ${MIN_UNITS} are needed`,
       observedSign: 0,
     };
   }

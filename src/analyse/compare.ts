@@ -23,6 +23,7 @@ import { cohensH } from '../stats/cohens-h.js';
 import { minDetectableDifference } from '../stats/power-two-proportions.js';
 import type { AnalysisSettings, CompareAnalysis, RateSummary } from './types.js';
 import { filterLabel, sign } from './labels.js';
+import { shortfall } from './thresholds.js';
 
 export interface CompareContext extends AnalysisSettings {
   /** The claims file as shown to the user, for error messages. */
@@ -96,20 +97,11 @@ export function analyseCompare(claim: CompareClaim, cube: Cube, ctx: CompareCont
     expectSign: expectSign as 1 | -1 | 0,
     methods: [] as string[],
   };
-  const min = ctx.minRespondents;
-  const short = [
-    [focusName, focusPooled.n],
-    [againstLabel, againstPooled.n],
-  ].filter(([, n]) => (n as number) < min) as Array<[string, number]>;
-  if (short.length > 0) {
-    const names = short.map(([label]) => label).join(' and ');
-    return {
-      ...base,
-      status: 'too-little-data',
-      shortfall: `fewer than ${min} people answered in ${names}`,
-      observedSign: 0,
-    };
-  }
+  const why = shortfall(claim, [
+    { label: focusName, pooled: focusPooled },
+    { label: againstLabel, pooled: againstPooled },
+  ]);
+  if (why !== undefined) return { ...base, status: 'too-little-data', shortfall: why, observedSign: 0 };
 
   const focus = rateSummary(focusName, focusPooled, claim.confidence);
   const against = rateSummary(againstLabel, againstPooled, claim.confidence);
