@@ -90,6 +90,24 @@ export interface ClaimSection {
   cautions: string[];
   /** One line naming the method, e.g. "Two-proportion z test (pooled); Wilson and Newcombe intervals." */
   methodLine: string;
+  /**
+   * A notice to show prominently beside the claim, e.g. that the claim was edited after an earlier pack showed its
+   * results (weaker evidence), or that its verdict changed since the previous pack.
+   */
+  notices?: string[];
+}
+
+/** "What changed since <date>": the comparison with the previous pack of the same claims file. */
+export interface ChangeSection {
+  /** e.g. "What changed since 3 March 2025". */
+  heading: string;
+  /** One or two sentences: which pack this is compared with and what changed overall. */
+  intro: string;
+  /** Verdicts that changed: claim, before, after, and why (new data, changed claim, changed threshold). */
+  verdicts: Array<{ claim: string; before: string; after: string; why: string }>;
+  /** Other changes, one sentence each: estimates that moved beyond their intervals, claims added or removed,
+   * claims that became testable or untestable, data files whose fingerprint changed. */
+  notes: string[];
 }
 
 export interface SummaryRow {
@@ -124,4 +142,6 @@ export interface PackModel {
   reproducibility: NumberRow[];
   /** General cautions that apply to the whole pack (response rates, cohorts, causation, local policy). */
   generalCautions: string[];
+  /** Present when an earlier pack of the same claims file was found: drawn after the summary. */
+  changes?: ChangeSection;
 }
