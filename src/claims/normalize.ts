@@ -5,7 +5,27 @@
 import { extname, resolve } from 'node:path';
 import { readConfidence } from './confidence.js';
 import { DATA_EXTENSIONS, DEFAULT_AGREE_CODES } from './rules.js';
-import type { AssociationClaim, Claim, ClaimsFile, CompareClaim, Filter, Place, SourceSpec } from './types.js';
+import { readPoints, readShare } from './amounts.js';
+import type {
+  AssociationClaim,
+  AssociationExpect,
+  Claim,
+  ClaimKind,
+  ClaimsFile,
+  CompareClaim,
+  CompareExpect,
+  EquivalenceClaim,
+  EstimateClaim,
+  Filter,
+  FilterScalar,
+  FilterValue,
+  MeansClaim,
+  Measure,
+  Place,
+  SourceSpec,
+  TargetClaim,
+  TrendExpect,
+} from './types.js';
 import { locate, type ParsedYaml } from './yaml.js';
 
 /** Defaults, in one place. */
@@ -37,6 +57,8 @@ export function normalize(parsed: ParsedYaml, absPath: string, sha256: string): 
     return { value: r.value, written: r.written };
   };
   const top = confidenceOf(data, { value: DEFAULTS.confidence, written: DEFAULTS.confidenceWritten });
+  const topRate = data.min_response_rate !== undefined ? share(data.min_response_rate) : undefined;
+  const topSmallest = data.smallest_difference !== undefined ? points(data.smallest_difference) : undefined;
 
   const sourcesRaw = data.sources as Record<string, Rec>;
   const sources: SourceSpec[] = Object.entries(sourcesRaw).map(([id, s]) => {
@@ -58,6 +80,9 @@ export function normalize(parsed: ParsedYaml, absPath: string, sha256: string): 
     if (typeof s.agree_percent === 'string') spec.agreePercent = s.agree_percent;
     if (typeof s.population === 'string') spec.population = s.population;
     if (Array.isArray(s.questions)) spec.questions = [...(s.questions as string[])];
+    if (typeof s.period === 'string') spec.period = s.period;
+    if (Array.isArray(s.numeric)) spec.numeric = [...(s.numeric as string[])];
+    if (typeof s.header_row === 'number') spec.headerRow = s.header_row;
     return spec;
   });
 
@@ -74,34 +99,12 @@ export function normalize(parsed: ParsedYaml, absPath: string, sha256: string): 
       sided: ((c.test as string | undefined) ?? DEFAULTS.sided) as Claim['sided'],
       minRespondents: (c.min_respondents as number | undefined) ?? (data.min_respondents as number | undefined) ?? DEFAULTS.minRespondents,
       place: placeAt(['claims', i], 'value'),
-    };
-    if (c.kind === 'compare') {
-      const claim: CompareClaim = {
-        ...base,
-        kind: 'compare',
-        focus: copyFilter(c.focus as Filter),
-        against: copyFilter(c.against as Filter),
-        expect: c.expect as CompareClaim['expect'],
-      };
-      if (typeof c.focus_label === 'string') claim.focusLabel = c.focus_label;
-      if (typeof c.against_label === 'string') claim.againstLabel = c.against_label;
-      return claim;
-    }
-    const claim: AssociationClaim = {
-      ...base,
-      kind: 'association',
-      units: c.units as string,
-      x: copyFilter(c.x as Filter),
-      y: copyFilter(c.y as Filter),
-      xMeasure: { type: 'agree' },
-      yMeasure: { type: 'agree' },
-      controls: [],
-      weighted: false,
-      expect: c.expect as AssociationClaim['expect'],
-    };
-    if (typeof c.x_label === 'string') claim.xLabel = c.x_label;
-    if (typeof c.y_label === 'string') claim.yLabel = c.y_label;
-    return claim;
+    } as Base;
+    if (typeof c.min_response_rate !== 'undefined') base.minResponseRate = share(c.min_response_rate);
+    else if (topRate !== undefined) base.minResponseRate = topRate;
+    if (typeof c.smallest_difference !== 'undefined') base.smallestDifference = points(c.smallest_difference);
+    else if (topSmallest !== undefined) base.smallestDifference = topSmallest;
+    return claimOfKind(c, base);
   });
 
   const out: ClaimsFile = {
@@ -116,13 +119,131 @@ export function normalize(parsed: ParsedYaml, absPath: string, sha256: string): 
     sources,
     claims,
   };
+  if (topRate !== undefined) out.minResponseRate = topRate;
+  if (topSmallest !== undefined) out.smallestDifference = topSmallest;
   if (typeof data.description === 'string') out.description = data.description.trim();
   if (data.data_date !== undefined) out.dataDate = String(data.data_date);
   return out;
 }
 
+function copyValue(v: FilterValue): FilterValue {
+  if (Array.isArray(v)) return [...v];
+  if (typeof v === 'object') return { not: Array.isArray(v.not) ? [...v.not] : v.not };
+  return v;
+}
+
 function copyFilter(f: Filter | undefined): Filter {
   const out: Filter = {};
-  for (const [k, v] of Object.entries(f ?? {})) out[k] = Array.isArray(v) ? [...v] : v;
+  for (const [k, v] of Object.entries(f ?? {})) out[k] = copyValue(v);
   return out;
+}
+
+function share(raw: unknown): number {
+  const r = readShare(raw);
+  if (!r.ok) throw new Error(`share ${r.written} passed validation but cannot be read`);
+  return r.value;
+}
+
+function points(raw: unknown): number {
+  const r = readPoints(raw);
+  if (!r.ok) throw new Error(`points ${r.written} passed validation but cannot be read`);
+  return r.value;
+}
+
+/** "agree" | "mean" | { column } -> Measure. */
+function measureOf(raw: unknown, fallback: Measure): Measure {
+  if (raw === 'agree') return { type: 'agree' };
+  if (raw === 'mean') return { type: 'mean' };
+  if (raw !== null && typeof raw === 'object' && typeof (raw as Rec).column === 'string') return { type: 'column', column: (raw as Rec).column as string };
+  return fallback;
+}
+
+type Base = Omit<CompareClaim, 'kind' | 'focus' | 'against' | 'expect' | 'focusLabel' | 'againstLabel'>;
+
+/** Labels written as snake_case keys, copied when present. */
+function labels<T extends object>(claim: T, c: Rec, keys: Record<string, string>): T {
+  for (const [from, to] of Object.entries(keys)) if (typeof c[from] === 'string') (claim as Rec)[to] = c[from];
+  return claim;
+}
+
+const PAIR_LABELS = { focus_label: 'focusLabel', against_label: 'againstLabel' };
+
+function claimOfKind(c: Rec, base: Base): Claim {
+  switch (c.kind as ClaimKind) {
+    case 'compare':
+      return labels<CompareClaim>(
+        { ...base, kind: 'compare', focus: copyFilter(c.focus as Filter), against: copyFilter(c.against as Filter), expect: c.expect as CompareExpect },
+        c,
+        PAIR_LABELS,
+      );
+    case 'association': {
+      const controls = ((c.controls as Rec[] | undefined) ?? []).map((ctl) => ({
+        label: ctl.label as string,
+        filter: copyFilter(ctl.where as Filter | undefined),
+        measure: typeof ctl.column === 'string' ? ({ type: 'column', column: ctl.column } as Measure) : measureOf(ctl.measure, { type: 'agree' }),
+      }));
+      return labels<AssociationClaim>(
+        {
+          ...base,
+          kind: 'association',
+          units: c.units as string,
+          x: copyFilter(c.x as Filter),
+          y: copyFilter(c.y as Filter),
+          xMeasure: measureOf(c.x_measure, { type: 'agree' }),
+          yMeasure: measureOf(c.y_measure, { type: 'agree' }),
+          controls,
+          weighted: c.weighted === true,
+          expect: c.expect as AssociationExpect,
+        },
+        c,
+        { x_label: 'xLabel', y_label: 'yLabel' },
+      );
+    }
+    case 'change':
+      return { ...base, kind: 'change', from: c.from as FilterScalar, to: (c.to as FilterScalar | undefined) ?? 'latest', expect: c.expect as CompareExpect };
+    case 'trend':
+      return {
+        ...base,
+        kind: 'trend',
+        periods: Array.isArray(c.periods) ? [...(c.periods as FilterScalar[])] : { last: c.last as number },
+        expect: c.expect as TrendExpect,
+      };
+    case 'target': {
+      const v = readShare(c.value, true);
+      if (!v.ok) throw new Error(`value ${v.written} passed validation but cannot be read`);
+      return labels<TargetClaim>(
+        { ...base, kind: 'target', select: copyFilter(c.select as Filter), value: v.value, valueWritten: v.written, expect: c.expect as CompareExpect },
+        c,
+        { select_label: 'selectLabel', value_label: 'valueLabel' },
+      );
+    }
+    case 'crosstab':
+      return { ...base, kind: 'crosstab', rows: c.rows as string, columns: (c.columns as string | undefined) ?? 'agreement', expect: 'related' };
+    case 'means':
+      return labels<MeansClaim>(
+        {
+          ...base,
+          kind: 'means',
+          focus: copyFilter(c.focus as Filter),
+          against: copyFilter(c.against as Filter),
+          measure: measureOf(c.measure, { type: 'mean' }),
+          test: ((c.method as string | undefined) ?? 'welch') as MeansClaim['test'],
+          expect: c.expect as CompareExpect,
+        },
+        c,
+        PAIR_LABELS,
+      );
+    case 'equivalence':
+      return labels<EquivalenceClaim>(
+        { ...base, kind: 'equivalence', focus: copyFilter(c.focus as Filter), against: copyFilter(c.against as Filter), margin: points(c.margin) },
+        c,
+        PAIR_LABELS,
+      );
+    case 'estimate':
+      return labels<EstimateClaim>(
+        { ...base, kind: 'estimate', select: copyFilter(c.select as Filter), measure: measureOf(c.measure, { type: 'agree' }) },
+        c,
+        { select_label: 'selectLabel' },
+      );
+  }
 }

@@ -7,6 +7,7 @@ import { readdirSync, statSync } from 'node:fs';
 import { basename, dirname, extname, resolve } from 'node:path';
 import type { Problem } from '../errors.js';
 import { CONFIDENCE_FORMS, readConfidence } from './confidence.js';
+import { POINTS_FORMS, readPoints, readShare, SHARE_FORMS, periodsBack } from './amounts.js';
 import { closest } from '../suggest.js';
 import { describeOwner } from './validate.js';
 import { locate, type ParsedYaml } from './yaml.js';
@@ -44,6 +45,24 @@ export function crossFieldProblems(parsed: ParsedYaml, file: string, claimsDir: 
     });
   };
   checkConfidence(['confidence']);
+
+  /** Shares (0.8, 80, "80%") and points (5, "5 points") written at `path`, range-checked with their own message. */
+  const checkAmount = (owner: Rec, path: Array<string | number>, how: 'share' | 'share0' | 'points', what: string): void => {
+    const key = String(path[path.length - 1]);
+    if (!(key in owner)) return;
+    const r = how === 'points' ? readPoints(owner[key]) : readShare(owner[key], how === 'share0');
+    if (r.ok) return;
+    problems.push({
+      file,
+      ...at(path),
+      field: key,
+      found: r.written,
+      problem: `${what} ${r.written} ${r.reason}`,
+      fix: how === 'points' ? `Write it as ${POINTS_FORMS}, e.g. ${key}: 5 points, or ${key}: 0.5 points for half a point` : `Write it as ${SHARE_FORMS}`,
+    });
+  };
+  checkAmount(data, ['min_response_rate'], 'share', 'the minimum response rate');
+  checkAmount(data, ['smallest_difference'], 'points', 'the smallest difference that matters,');
 
   // Sources: file extension, existence, sheet only for workbooks, codes not both agreeing and not applicable.
   const sources = isRec(data.sources) ? data.sources : {};
@@ -138,21 +157,160 @@ export function crossFieldProblems(parsed: ParsedYaml, file: string, claimsDir: 
         fix: `Add source: followed by one of ${sourceIds.join(', ')}`,
       });
     }
-    if (c.test === 'one-sided' && (c.expect === 'different' || c.expect === 'any')) {
+    if (c.test === 'one-sided' && (c.expect === 'different' || c.expect === 'any' || c.kind === 'crosstab')) {
+      const directions: Record<string, string> = { association: 'positive or negative', trend: 'rising or falling' };
       problems.push({
         file,
         ...at(['claims', i, 'test']),
         field: 'test',
         found: 'one-sided',
-        problem: `${describeOwner(data, ['claims', i])} asks for a one-sided test but expects "${c.expect}", which has no direction`,
+        problem:
+          c.kind === 'crosstab'
+            ? `${describeOwner(data, ['claims', i])} asks for a one-sided test, but a crosstab claim (related or not) has no direction`
+            : `${describeOwner(data, ['claims', i])} asks for a one-sided test but expects "${String(c.expect)}", which has no direction`,
         fix:
-          c.kind === 'association'
-            ? 'Set expect to positive or negative, or use test: two-sided'
-            : 'Set expect to lower or higher, or use test: two-sided',
+          c.kind === 'crosstab'
+            ? 'Delete the test line (crosstab claims are always two-sided)'
+            : `Set expect to ${directions[String(c.kind)] ?? 'lower or higher'}, or use test: two-sided`,
       });
+    }
+    const claimPath = ['claims', i] as Array<string | number>;
+    checkAmount(c, [...claimPath, 'min_response_rate'], 'share', 'the minimum response rate');
+    checkAmount(c, [...claimPath, 'smallest_difference'], 'points', 'the smallest difference that matters,');
+    if (c.kind === 'target') checkAmount(c, [...claimPath, 'value'], 'share0', 'the value');
+    if (c.kind === 'equivalence') checkAmount(c, [...claimPath, 'margin'], 'points', 'the margin');
+
+    if (c.kind === 'trend' && ('periods' in c) === ('last' in c)) {
+      problems.push({
+        file,
+        ...at(claimPath),
+        field: 'periods',
+        problem: 'periods' in c
+          ? `${describeOwner(data, claimPath)} gives both periods and last`
+          : `${describeOwner(data, claimPath)} says neither which periods to follow (periods) nor how many of the latest (last)`,
+        fix: 'periods' in c ? 'Keep one of them: periods: [2024, 2025, 2026] or last: 3' : 'Add periods: [2024, 2025, 2026] (oldest first), or last: 3',
+      });
+    }
+    if (c.kind === 'association' && Array.isArray(c.controls)) {
+      c.controls.forEach((ctl, j) => {
+        if (!isRec(ctl) || ('where' in ctl) !== ('column' in ctl)) {
+          if (!isRec(ctl)) return;
+          problems.push({
+            file,
+            ...at([...claimPath, 'controls', j]),
+            field: 'controls',
+            problem: 'where' in ctl
+              ? `control ${j + 1} of ${describeOwner(data, claimPath)} gives both where and column`
+              : `control ${j + 1} of ${describeOwner(data, claimPath)} says neither what to measure (where) nor which column (column)`,
+            fix: 'Write each control as { label: ..., where: { question: Q03 } } or { label: ..., column: NAME }',
+          });
+        }
+      });
+    }
+
+    // What depends on the claim's source: a period column, measure columns.
+    const sourceId = typeof c.source === 'string' ? c.source : sourceIds.length === 1 ? sourceIds[0] : undefined;
+    const src = sourceId !== undefined && isRec(sources[sourceId]) ? (sources[sourceId] as Rec) : undefined;
+    if (src === undefined) return;
+    const hasPeriod = typeof src.period === 'string' && src.period !== '';
+    if (!hasPeriod && (c.kind === 'change' || c.kind === 'trend')) {
+      problems.push({
+        file,
+        ...at([...claimPath, 'kind']),
+        field: 'kind',
+        found: String(c.kind),
+        problem: `${describeOwner(data, claimPath)} compares periods, but source "${sourceId}" does not say which column holds the period`,
+        fix: `Add period: followed by the column name (such as Year) to source "${sourceId}" under sources`,
+      });
+    }
+    if (!hasPeriod) {
+      for (const [path, value] of relativeWords(c, claimPath)) {
+        problems.push({
+          file,
+          ...at(path),
+          field: String(typeof path[path.length - 1] === 'number' ? path[path.length - 2] : path[path.length - 1]),
+          found: String(value),
+          problem: `"${String(value)}" names a period relative to the newest, but source "${sourceId}" does not say which column holds the period`,
+          fix: `Add period: followed by the column name (such as Year) to source "${sourceId}", or write the period itself, e.g. 2026`,
+        });
+      }
+    }
+    for (const [path, m] of measures(c, claimPath)) {
+      if (m === 'mean' && src.shape === 'summary') {
+        problems.push({
+          file,
+          ...at(path),
+          field: String(path[path.length - 1]),
+          found: 'mean',
+          problem: `a mean score needs one row per respondent, but source "${sourceId}" is of shape summary`,
+          fix: `Use a source of shape respondents, or a numeric column of "${sourceId}" with { column: NAME }`,
+        });
+      } else if (isRec(m) && typeof m.column === 'string') {
+        const numeric = Array.isArray(src.numeric) ? (src.numeric as unknown[]).map(String) : [];
+        if (src.shape !== 'summary' || !numeric.includes(m.column)) {
+          const guess = closest(m.column, numeric);
+          problems.push({
+            file,
+            ...at([...path, 'column']),
+            field: 'column',
+            found: m.column,
+            problem: src.shape === 'summary'
+              ? `the column "${m.column}" is not listed under numeric in source "${sourceId}"`
+              : `a numeric column measure needs a source of shape summary, and source "${sourceId}" is of shape respondents`,
+            fix: src.shape !== 'summary'
+              ? 'Use measure: mean for answer scores, or a summary source that lists the column under numeric'
+              : guess !== undefined
+                ? `Did you mean "${guess}"? Or add "${m.column}" to numeric in source "${sourceId}"`
+                : `Add numeric: [${m.column}] to source "${sourceId}"`,
+          });
+        }
+      }
     }
   });
   return problems;
+}
+
+type Path = Array<string | number>;
+
+/** The filters of a claim, with their paths: where, focus, against, select, x, y and each control's where. */
+export function claimFilters(c: Rec, claimPath: Path): Array<[Path, Rec]> {
+  const out: Array<[Path, Rec]> = [];
+  for (const key of ['where', 'focus', 'against', 'select', 'x', 'y']) {
+    if (isRec(c[key])) out.push([[...claimPath, key], c[key] as Rec]);
+  }
+  if (Array.isArray(c.controls)) {
+    c.controls.forEach((ctl, j) => {
+      if (isRec(ctl) && isRec(ctl.where)) out.push([[...claimPath, 'controls', j, 'where'], ctl.where]);
+    });
+  }
+  return out;
+}
+
+/** Every relative period word written in a claim (filters, from, to, periods), with its path. */
+export function relativeWords(c: Rec, claimPath: Path): Array<[Path, string]> {
+  const out: Array<[Path, string]> = [];
+  const visit = (path: Path, v: unknown): void => {
+    if (Array.isArray(v)) v.forEach((x, k) => visit([...path, k], x));
+    else if (isRec(v) && 'not' in v) visit([...path, 'not'], v.not);
+    else if (periodsBack(v) !== undefined) out.push([path, String(v)]);
+  };
+  for (const [path, f] of claimFilters(c, claimPath)) for (const [col, v] of Object.entries(f)) visit([...path, col], v);
+  for (const key of ['from', 'to', 'periods']) if (key in c) visit([...claimPath, key], c[key]);
+  return out;
+}
+
+/** The measures written in a claim (x_measure, y_measure, measure, controls), with their paths. */
+function measures(c: Rec, claimPath: Path): Array<[Path, unknown]> {
+  const out: Array<[Path, unknown]> = [];
+  for (const key of ['x_measure', 'y_measure', 'measure']) if (key in c) out.push([[...claimPath, key], c[key]]);
+  if (Array.isArray(c.controls)) {
+    c.controls.forEach((ctl, j) => {
+      if (!isRec(ctl)) return;
+      if (typeof ctl.column === 'string') out.push([[...claimPath, 'controls', j], { column: ctl.column }]);
+      if ('measure' in ctl) out.push([[...claimPath, 'controls', j, 'measure'], ctl.measure]);
+    });
+  }
+  return out;
 }
 
 /** The data file must exist and be a file; suggest a near-miss name in the same folder. */

@@ -29,7 +29,17 @@ const EXAMPLE: Record<string, string> = {
   units: 'units: department naming the column whose values are the units',
   x: 'x: { question: Q12 } defining the first measure',
   y: 'y: { question: Q27 } defining the second measure',
+  from: 'from: previous (or a value of the period column, such as 2025)',
+  select: 'select: { provider: Tarnmoor College } naming the selection measured',
+  value: 'value: 80% (the target or benchmark, also written 0.8 or 80)',
+  rows: 'rows: campus naming the column whose values are the rows of the table',
+  margin: 'margin: 5 points (how close the two rates must be)',
+  label: 'label: followed by the name of the control in the pack',
+  column: 'column: followed by the name of a numeric column',
 };
+
+/** Keys whose values are read with their own messages by the cross-field rules (amounts written several ways). */
+const READ_BY_RULES = new Set(['confidence', 'value', 'margin', 'smallest_difference', 'min_response_rate']);
 
 function typeWords(t: unknown): string {
   const one = (s: string): string =>
@@ -147,8 +157,8 @@ export function schemaProblems(parsed: ParsedYaml, file: string): Problem[] {
     if (e.keyword === 'if' || isBranchError(e)) continue;
     const path = pointerToPath(e.instancePath);
     const last = path[path.length - 1];
-    // Confidence is read and range-checked with its own message by the cross-field rules.
-    if (last === 'confidence' && (path.length === 1 || (path.length === 3 && path[0] === 'claims'))) continue;
+    // Confidence and other amounts are read and range-checked with their own messages by the cross-field rules.
+    if (typeof last === 'string' && READ_BY_RULES.has(last) && (path.length === 1 || (path.length === 3 && path[0] === 'claims'))) continue;
     const p = toProblem(e, path, parsed, file, data);
     if (!p) continue;
     const key = `${p.line}:${p.column}:${p.problem}`;
@@ -198,6 +208,11 @@ function toProblem(e: ErrorObject, path: Segment[], parsed: ParsedYaml, file: st
       const belongs = ownerOfKey(schema, String(field));
       const p = base(at.key ?? valuePlace);
       p.field = field;
+      if (isClaim && (field === 'expect' || field === 'test')) {
+        p.problem = `"${field}" does not apply to ${article(current)} ${current} claim, which tests no direction, in ${describeOwner(data, owner)}`;
+        p.fix = `Remove ${field}`;
+        return p;
+      }
       p.problem = `"${field}" does not apply when ${selector} is ${current}${belongs ? ` (it belongs with ${belongs})` : ''}, in ${describeOwner(data, owner)}`;
       p.fix = belongs ? `Remove ${field}, or change the line to ${belongs} if that is what you meant` : `Remove ${field}`;
       return p;
@@ -225,7 +240,16 @@ function toProblem(e: ErrorObject, path: Segment[], parsed: ParsedYaml, file: st
       return p;
     }
     case 'anyOf': {
-      // The only anyOf is a filter value.
+      if (e.schemaPath.includes('/measure/')) {
+        const p = base(valuePlace);
+        p.field = field;
+        p.found = foundRaw(value);
+        p.problem = `"${field}" in ${describeOwner(data, path.slice(0, -1))} is not a measure warrant knows`;
+        const guess = typeof value === 'string' ? closest(value, ['agree', 'mean']) : undefined;
+        p.fix = `Write agree, mean, or { column: NAME } naming a numeric column of the source${guess !== undefined ? ` (did you mean ${guess}?)` : ''}`;
+        return p;
+      }
+      // Otherwise a filter value (or the list under not:).
       const p = base(valuePlace);
       p.field = field;
       p.found = foundRaw(value);
@@ -233,7 +257,7 @@ function toProblem(e: ErrorObject, path: Segment[], parsed: ParsedYaml, file: st
       p.fix =
         value === null
           ? `Write the value after "${field}:", or a list such as [2025, 2026]`
-          : 'Write text, a number, or a list of them such as [2025, 2026]; put true/false or dates in quotes';
+          : 'Write text, a number, a list of them such as [2025, 2026], or { not: value }; put true/false or dates in quotes';
       return p;
     }
     case 'type': {
