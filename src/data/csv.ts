@@ -102,7 +102,12 @@ function openFailure(e: unknown, file: string): InputError | undefined {
  * matches the row number a spreadsheet program shows for the same file. A record with a quoted line break counts as
  * one row. Throws InputError for a missing file or a quote that is never closed.
  */
-export async function* readCsvRows(path: string, options: ReadOptions = {}): AsyncGenerator<SheetRow> {
+export interface CsvOptions extends ReadOptions {
+  /** Called once with the delimiter found, before the first row is yielded. */
+  onDelimiter?: (delimiter: Delimiter) => void;
+}
+
+export async function* readCsvRows(path: string, options: CsvOptions = {}): AsyncGenerator<SheetRow> {
   const file = options.displayPath ?? path;
   const stream = createReadStream(path, {
     encoding: 'utf8',
@@ -146,6 +151,7 @@ export async function* readCsvRows(path: string, options: ReadOptions = {}): Asy
       if (parser === undefined) {
         const found = sniff(pending, pending.length >= PEEK_LIMIT);
         if (found === undefined) continue;
+        options.onDelimiter?.(found.delimiter);
         parser = new Papa.Parser(found);
       }
       const result = parser.parse(pending, 0, true) as Papa.ParseResult<string[]>;
@@ -154,7 +160,11 @@ export async function* readCsvRows(path: string, options: ReadOptions = {}): Asy
       yield* emit(result.data);
     }
     if (pending !== '') {
-      parser ??= new Papa.Parser(sniff(pending, true)!);
+      if (parser === undefined) {
+        const found = sniff(pending, true)!;
+        options.onDelimiter?.(found.delimiter);
+        parser = new Papa.Parser(found);
+      }
       const result = parser.parse(pending, 0, false) as Papa.ParseResult<string[]>;
       checkErrors(result.errors, Number.POSITIVE_INFINITY);
       yield* emit(result.data);

@@ -5,17 +5,32 @@
  *
  * Problems in data rows are collected (up to MAX_PROBLEMS) and reported together in one InputError; problems with
  * the file or its header stop the read at once.
+ *
+ * Decisions on doubtful data, so that a reader of the pack gets the same answer as a reader of this file:
+ * - A summary row with 0 respondents is allowed and contributes nothing (its group exists, with no answers); its
+ *   agreeing count must then be 0 too.
+ * - In a CSV file whose delimiter is ';' a comma inside a number is a decimal comma ("72,4" is 72.4), as in the
+ *   locales that write such files; elsewhere "1,204" is read with a thousands separator. Counts must be whole.
+ * - A percent column is read on one scale: 72% and 72 both mean seventy-two percent; a column whose values are all
+ *   between 0 and 1 (some not whole) is read as fractions and the pack says so. A column that mixes fractions such as
+ *   0.72 with percentages such as 72% or 72 is an error naming a row of each, since either reading would be a guess.
+ * - Numeric columns (SourceSpec.numeric) are read as numbers; a blank cell leaves that row out of that column's mean,
+ *   and any other text is an error naming the row and value.
+ * - An empty header cell between named ones is an error: it is almost always a merged header cell, which a file
+ *   reader sees as empty.
  */
 import { InputError } from '../errors.js';
 import type { Problem } from '../errors.js';
 import type { SourceSpec } from '../claims/types.js';
 import type { Cell, Cube } from './types.js';
 import { readCsvRows } from './csv.js';
+import type { Delimiter } from './csv.js';
 import { openXlsxSheet } from './xlsx.js';
 import { sha256File } from './hash.js';
 import { isBlankRow } from './rows.js';
 import type { SheetRow } from './rows.js';
 import { fixFor } from '../suggest.js';
+import { columnLetters } from './xlsx.js';
 
 /** How many row problems are gathered before reading stops. */
 export const MAX_PROBLEMS = 25;
@@ -45,13 +60,31 @@ class Problems {
 /** A number written in decimal (optionally with an exponent); hexadecimal, "Infinity" and the like are not numbers here. */
 const DECIMAL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 
+/** How numbers are written in this file: with a decimal comma (semicolon-delimited CSV) or a decimal point. */
+interface NumberStyle {
+  decimalComma: boolean;
+}
+
 /**
- * Parse a count: a whole number, not negative. Accepts thousands separators written as "1,234".
- * Returns undefined (after recording a problem) when the text is not a count.
+ * A decimal number as written in the file, or NaN: a decimal comma ("72,4") where the file uses one, otherwise
+ * thousands separators ("1,204.5") are allowed.
  */
-function parseCount(text: string, row: number, field: string, problems: Problems): number | undefined {
-  const cleaned = /^\d{1,3}(,\d{3})+$/.test(text) ? text.replace(/,/g, '') : text;
-  const x = DECIMAL.test(cleaned) ? Number(cleaned) : NaN;
+function parseDecimal(text: string, style: NumberStyle): number {
+  let cleaned = text;
+  if (style.decimalComma) {
+    if (/^[+-]?\d*,\d+$/.test(text)) cleaned = text.replace(',', '.');
+  } else if (/^[+-]?\d{1,3}(,\d{3})+(\.\d*)?$/.test(text)) {
+    cleaned = text.replace(/,/g, '');
+  }
+  return DECIMAL.test(cleaned) ? Number(cleaned) : NaN;
+}
+
+/**
+ * Parse a count: a whole number, not negative. Accepts thousands separators written as "1,234" (decimal commas in a
+ * semicolon-delimited file). Returns undefined (after recording a problem) when the text is not a count.
+ */
+function parseCount(text: string, row: number, field: string, problems: Problems, style: NumberStyle): number | undefined {
+  const x = parseDecimal(text, style);
   if (!Number.isFinite(x)) {
     problems.add({ row, field, found: text, problem: 'A count is not a number', fix: 'Write the number of people as digits, e.g. 42; remove notes or markers from the cell' });
     return undefined;
@@ -70,13 +103,15 @@ function parseCount(text: string, row: number, field: string, problems: Problems
 interface PercentValue {
   value: number;
   sign: boolean;
+  row: number;
+  text: string;
 }
 
 /** Parse a percentage: "72%", "72", "72.4" (0-100), or a fraction in [0, 1] (decided for the whole column later). */
-function parsePercent(text: string, row: number, field: string, problems: Problems): PercentValue | undefined {
+function parsePercent(text: string, row: number, field: string, problems: Problems, style: NumberStyle): PercentValue | undefined {
   const sign = text.endsWith('%');
   const body = sign ? text.slice(0, -1).trim() : text;
-  const x = DECIMAL.test(body) ? Number(body) : NaN;
+  const x = parseDecimal(body, style);
   if (!Number.isFinite(x)) {
     problems.add({ row, field, found: text, problem: 'A percentage is not a number', fix: 'Write the percent agreeing as a number such as 72, 72.4 or 72%' });
     return undefined;
@@ -85,7 +120,24 @@ function parsePercent(text: string, row: number, field: string, problems: Proble
     problems.add({ row, field, found: text, problem: 'A percentage is outside 0 to 100', fix: 'Write the percent agreeing as a number from 0 to 100' });
     return undefined;
   }
-  return { value: x, sign };
+  return { value: x, sign, row, text };
+}
+
+/** Parse a value of a numeric column; blank is undefined without a problem. */
+function parseNumeric(text: string, row: number, field: string, problems: Problems, style: NumberStyle): number | undefined {
+  if (text === '') return undefined;
+  const x = parseDecimal(text, style);
+  if (!Number.isFinite(x)) {
+    problems.add({
+      row,
+      field,
+      found: text,
+      problem: 'A value in a numeric column is not a number',
+      fix: `Write a number such as 4.2${style.decimalComma ? ' or 4,2' : ''}, or leave the cell blank where there is no value; remove notes, units and markers from the cell`,
+    });
+    return undefined;
+  }
+  return x;
 }
 
 /** Header row and the rows after it. */
@@ -125,6 +177,7 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
   let sheet: string | undefined;
   let rows: AsyncGenerator<SheetRow>;
   let close = (): void => {};
+  const style: NumberStyle = { decimalComma: false };
   const readOptions = { displayPath: file, ...(options.chunkSize !== undefined ? { chunkSize: options.chunkSize } : {}) };
   if (source.format === 'xlsx') {
     const opened = await openXlsxSheet(source.path, { ...readOptions, ...(source.sheet !== undefined ? { sheet: source.sheet } : {}) });
@@ -132,7 +185,12 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
     rows = opened.rows;
     close = opened.close;
   } else {
-    rows = readCsvRows(source.path, readOptions);
+    rows = readCsvRows(source.path, {
+      ...readOptions,
+      onDelimiter: (d: Delimiter) => {
+        style.decimalComma = d === ';';
+      },
+    });
   }
   const where: Where = sheet !== undefined ? { file, sheet } : { file };
   try {
@@ -148,6 +206,21 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
       seen.set(n, i);
     });
     const known = names.filter((n) => n !== '');
+    const firstNamed = names.findIndex((n) => n !== '');
+    let lastNamed = names.length - 1;
+    while (lastNamed >= 0 && names[lastNamed] === '') lastNamed -= 1;
+    for (let i = firstNamed + 1; i < lastNamed; i++) {
+      if (names[i] !== '') continue;
+      const cell = sheet !== undefined ? `cell ${columnLetters(i)}${header.row}` : `column ${i + 1}`;
+      throw new InputError({
+        ...where,
+        row: header.row,
+        field: cell,
+        found: '',
+        problem: `The header row has an empty cell between the columns "${names[i - 1] === '' ? names.slice(0, i).filter((n) => n !== '').pop() : names[i - 1]}" and "${names.slice(i + 1).find((n) => n !== '')}"; merged header cells read as empty`,
+        fix: 'Unmerge the header cells and give every column its own name in one header row (or name the row that has them with header_row)',
+      });
+    }
     const column = (name: string, role: string): number => {
       const i = seen.get(name.trim());
       if (i === undefined) {
@@ -160,7 +233,7 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
     const common = { sourceId: source.id, file: source.file, ...(sheet !== undefined ? { sheet } : {}) };
     const cube =
       source.shape === 'summary'
-        ? await summaryCube(source, needed, body, header.row, names, column, where)
+        ? await summaryCube(source, needed, body, header.row, names, column, where, style)
         : await respondentsCube(source, needed, body, header.row, names, column, where);
     return { ...common, sha256: await shaPromise, ...cube };
   } finally {
@@ -194,6 +267,7 @@ async function summaryCube(
   names: string[],
   column: ColumnOf,
   where: Where,
+  style: NumberStyle,
 ): Promise<CubeBody> {
   if (source.respondents === undefined) {
     throw new InputError({ ...where, field: 'respondents', problem: `Source "${source.id}" does not name the column with the number who answered`, fix: 'Add "respondents: <column name>" to the source in the claims file' });
@@ -205,7 +279,9 @@ async function summaryCube(
   const agreeCol = source.agree !== undefined ? column(source.agree, 'agree') : undefined;
   const pctCol = agreeCol === undefined && source.agreePercent !== undefined ? column(source.agreePercent, 'agree_percent') : undefined;
   const popCol = source.population !== undefined ? column(source.population, 'population') : undefined;
-  const measures = new Set([nCol, agreeCol, pctCol, popCol].filter((i): i is number => i !== undefined));
+  const numericNames = [...new Set(source.numeric ?? [])];
+  const numericIdx = numericNames.map((c) => column(c, 'numeric'));
+  const measures = new Set([nCol, agreeCol, pctCol, popCol, ...numericIdx].filter((i): i is number => i !== undefined));
   const dimIdx: number[] = [];
   names.forEach((n, i) => {
     if (n !== '' && !measures.has(i)) dimIdx.push(i);
@@ -213,7 +289,7 @@ async function summaryCube(
   const dimensions = dimIdx.map((i) => names[i]!);
   for (const d of needed) {
     if (!dimensions.includes(d)) {
-      const isMeasure = [source.respondents, source.agree, source.agreePercent, source.population].includes(d);
+      const isMeasure = [source.respondents, source.agree, source.agreePercent, source.population, ...numericNames].includes(d);
       throw new InputError({
         ...where,
         row: headerRow,
@@ -249,24 +325,30 @@ async function summaryCube(
     const blank = (name: string) => problems.add({ row: r.row, field: name, found: '', problem: 'A count is blank in a row that has other counts', fix: 'Fill in the missing number, or delete the row' });
     let ok = true;
     const nText = text(nCol);
-    const n = nText === '' ? (blank(nName), undefined) : parseCount(nText, r.row, nName, problems);
+    const n = nText === '' ? (blank(nName), undefined) : parseCount(nText, r.row, nName, problems, style);
     let agree: number | undefined;
     let pct: PercentValue | undefined;
     if (agreeCol !== undefined) {
       const t = text(agreeCol);
-      agree = t === '' ? (blank(agreeName!), undefined) : parseCount(t, r.row, agreeName!, problems);
+      agree = t === '' ? (blank(agreeName!), undefined) : parseCount(t, r.row, agreeName!, problems, style);
       ok &&= agree !== undefined;
     } else {
       const t = text(pctCol);
-      pct = t === '' ? (blank(pctName!), undefined) : parsePercent(t, r.row, pctName!, problems);
+      pct = t === '' ? (blank(pctName!), undefined) : parsePercent(t, r.row, pctName!, problems, style);
       ok &&= pct !== undefined;
     }
     let population: number | undefined;
     if (popCol !== undefined) {
       const t = text(popCol);
-      population = t === '' ? (blank(popName!), undefined) : parseCount(t, r.row, popName!, problems);
+      population = t === '' ? (blank(popName!), undefined) : parseCount(t, r.row, popName!, problems, style);
       ok &&= population !== undefined;
     }
+    const numericValues = numericIdx.map((i) => {
+      const before = problems.list.length;
+      const x = parseNumeric(text(i), r.row, names[i]!, problems, style);
+      if (problems.list.length > before) ok = false;
+      return x;
+    });
     if (n === undefined || !ok) continue;
     if (agree !== undefined && agree > n) {
       problems.add({ row: r.row, field: agreeName!, found: String(agree), problem: `More people agreed than answered (${agree} agreeing, ${n} respondents)`, fix: 'Check the two counts on this row; the agreeing count cannot exceed the number who answered' });
@@ -285,6 +367,14 @@ async function summaryCube(
     }
     const cell: Cell = { dims, n, agree: agree ?? 0, approximate: pct !== undefined, firstRow: r.row };
     if (population !== undefined) cell.population = population;
+    if (numericNames.length > 0) {
+      const numeric: Record<string, { weightedSum: number; weight: number }> = {};
+      numericNames.forEach((name, k) => {
+        const x = numericValues[k];
+        numeric[name] = x === undefined ? { weightedSum: 0, weight: 0 } : { weightedSum: x * n, weight: n };
+      });
+      cell.numeric = numeric;
+    }
     cells.set(key, cell);
     if (pct !== undefined) percents.set(cell, pct);
   }
@@ -294,7 +384,19 @@ async function summaryCube(
   const notes: string[] = [];
   if (pctName !== undefined) {
     const all = [...percents.values()];
-    const fractions = all.length > 0 && all.every((p) => !p.sign && p.value <= 1) && all.some((p) => !Number.isInteger(p.value));
+    const fractionLike = all.find((p) => !p.sign && p.value < 1 && !Number.isInteger(p.value));
+    const percentLike = all.find((p) => p.sign || p.value > 1);
+    if (fractionLike !== undefined && percentLike !== undefined) {
+      throw new InputError({
+        ...where,
+        row: fractionLike.row,
+        field: pctName,
+        found: fractionLike.text,
+        problem: `The percent column mixes fractions with percentages: row ${fractionLike.row} has "${fractionLike.text}" (a fraction of 1?) but row ${percentLike.row} has "${percentLike.text}" (a percentage)`,
+        fix: 'Write every value in the column on one scale: 72% or 72 for seventy-two percent throughout, or 0.72 throughout; a percentage below 1 needs its % sign, e.g. 0.5%',
+      });
+    }
+    const fractions = fractionLike !== undefined;
     if (fractions) {
       notes.push(`The values in "${pctName}" are all between 0 and 1, so they were read as fractions (0.72 means 72%).`);
     }
@@ -313,6 +415,7 @@ async function summaryCube(
     approximate: pctName !== undefined && list.length > 0,
     hasPopulation: popCol !== undefined,
     ...(notes.length > 0 ? { notes } : {}),
+    ...(numericNames.length > 0 ? { numericColumns: numericNames } : {}),
   };
 }
 
@@ -378,11 +481,13 @@ async function respondentsCube(
           dims[d] = dimValues[j]!;
         });
         dims[qColName] = q;
-        cell = { dims, n: 0, agree: 0, approximate: false, firstRow: r.row };
+        cell = { dims, n: 0, agree: 0, approximate: false, firstRow: r.row, codes: {} };
         cells.set(key, cell);
       }
       cell.n += 1;
       if (agreeCodes.has(code)) cell.agree += 1;
+      const codeText = String(code);
+      cell.codes![codeText] = (cell.codes![codeText] ?? 0) + 1;
     }
   }
   problems.throwIfAny();
@@ -390,6 +495,6 @@ async function respondentsCube(
   const list = [...cells.values()];
   const values = distinctValues(dimensionsWanted, list);
   values[qColName] = [...questions];
-  return { rows, dimensions, cells: list, values, approximate: false, hasPopulation: false };
+  return { rows, dimensions, cells: list, values, approximate: false, hasPopulation: false, hasCodes: true };
 }
 

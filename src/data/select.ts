@@ -2,24 +2,36 @@
  * Selections on a cube: which cells a filter matches, and their counts pooled by respondents (sum of agreeing over
  * sum of answering, never an average of percentages).
  *
- * Filter values compare as text after trimming ("2026" equals 2026); a list matches any of its values. A column the
+ * Filter values compare as text after trimming ("2026" equals 2026); a list matches any of its values, and
+ * `{ not: value | list }` matches every value but those. A column the
  * cube does not have, or a value that appears nowhere in its column (almost always a misspelling), is an InputError
  * naming the column or value and listing what the data hold.
  */
 import { InputError } from '../errors.js';
-import type { Filter, FilterValue } from '../claims/types.js';
+import type { Filter, FilterScalar, FilterValue } from '../claims/types.js';
 import type { Cell, Cube, Pooled } from './types.js';
 import { fixFor } from '../suggest.js';
 
-function wantedTexts(value: FilterValue): string[] {
-  return (Array.isArray(value) ? value : [value]).map((v) => String(v).trim());
+function isNot(value: FilterValue): value is { not: FilterScalar | FilterScalar[] } {
+  return typeof value === 'object' && value !== null && !Array.isArray(value);
 }
 
-/** True when the cell's value in every filtered column is (any of) the filter's value(s). */
+/** The values a filter names (for `{ not: ... }`, the values it leaves out), as trimmed text. */
+function wantedTexts(value: FilterValue): string[] {
+  const list = isNot(value) ? value.not : value;
+  return (Array.isArray(list) ? list : [list]).map((v) => String(v).trim());
+}
+
+/**
+ * True when the cell's value in every filtered column is (any of) the filter's value(s), or, for `{ not: ... }`,
+ * none of them. A cell without the column matches no filter on it, `not` included.
+ */
 export function matches(cell: Cell, filter: Filter): boolean {
   for (const [col, value] of Object.entries(filter)) {
     const have = cell.dims[col];
-    if (have === undefined || !wantedTexts(value).includes(have)) return false;
+    if (have === undefined) return false;
+    const listed = wantedTexts(value).includes(have);
+    if (listed === isNot(value)) return false;
   }
   return true;
 }
@@ -32,6 +44,7 @@ export function checkFilter(cube: Cube, filter: Filter): void {
       throw new InputError({ ...where, field: col, found: col, problem: `The data of source "${cube.sourceId}" have no column with this name to select on`, fix: fixFor(col, cube.dimensions, 'columns') });
     }
     const known = cube.values[col] ?? [];
+    // A value named under `not` must exist too: leaving out a misspelt value would silently leave out nothing.
     for (const v of wantedTexts(value)) {
       if (!known.includes(v)) {
         throw new InputError({ ...where, field: col, found: v, problem: `No row of source "${cube.sourceId}" has this value in column "${col}"`, fix: fixFor(v, known, `values of "${col}"`) });
@@ -40,21 +53,44 @@ export function checkFilter(cube: Cube, filter: Filter): void {
   }
 }
 
-function poolCells(cells: Iterable<Cell>, withPopulation: boolean): Pooled {
+/**
+ * Sum the cells' counts. Answer-code counts (respondents sources) and numeric-column sums (summary sources) are
+ * summed too, and are present whenever the cube has them, even for an empty selection, so that a measure can tell
+ * "no answers" from "not a respondent-level source".
+ */
+function poolCells(cube: Cube, cells: Iterable<Cell>): Pooled {
   let n = 0;
   let agree = 0;
   let population = 0;
   let approximate = false;
   let count = 0;
+  const codes: Record<string, number> | undefined = cube.hasCodes === true ? {} : undefined;
+  let numeric: Record<string, { weightedSum: number; weight: number }> | undefined;
+  if (cube.numericColumns !== undefined && cube.numericColumns.length > 0) {
+    numeric = {};
+    for (const col of cube.numericColumns) numeric[col] = { weightedSum: 0, weight: 0 };
+  }
   for (const c of cells) {
     n += c.n;
     agree += c.agree;
     population += c.population ?? 0;
     approximate ||= c.approximate;
     count += 1;
+    if (codes !== undefined && c.codes !== undefined) {
+      for (const [code, k] of Object.entries(c.codes)) codes[code] = (codes[code] ?? 0) + k;
+    }
+    if (numeric !== undefined && c.numeric !== undefined) {
+      for (const [col, v] of Object.entries(c.numeric)) {
+        const sum = (numeric[col] ??= { weightedSum: 0, weight: 0 });
+        sum.weightedSum += v.weightedSum;
+        sum.weight += v.weight;
+      }
+    }
   }
   const pooled: Pooled = { n, agree, approximate, cells: count };
-  if (withPopulation) pooled.population = population;
+  if (cube.hasPopulation) pooled.population = population;
+  if (codes !== undefined) pooled.codes = codes;
+  if (numeric !== undefined) pooled.numeric = numeric;
   return pooled;
 }
 
@@ -62,8 +98,8 @@ function poolCells(cells: Iterable<Cell>, withPopulation: boolean): Pooled {
 export function pool(cube: Cube, filter: Filter): Pooled {
   checkFilter(cube, filter);
   return poolCells(
+    cube,
     cube.cells.filter((c) => matches(c, filter)),
-    cube.hasPopulation,
   );
 }
 
@@ -84,7 +120,7 @@ export function poolByUnit(cube: Cube, filter: Filter, unitColumn: string): Map<
     else list.push(c);
   }
   const out = new Map<string, Pooled>();
-  for (const [u, cells] of groups) if (cells.length > 0) out.set(u, poolCells(cells, cube.hasPopulation));
+  for (const [u, cells] of groups) if (cells.length > 0) out.set(u, poolCells(cube, cells));
   return out;
 }
 
@@ -111,12 +147,12 @@ export function relate(cube: Cube, focus: Filter, against: Filter): Related {
   const a = new Set(cube.cells.filter((c) => matches(c, against)));
   let shared = 0;
   for (const c of f) if (a.has(c)) shared += 1;
-  const pooledF = poolCells(f, cube.hasPopulation);
-  const pooledA = poolCells(a, cube.hasPopulation);
+  const pooledF = poolCells(cube, f);
+  const pooledA = poolCells(cube, a);
   const base = { focus: pooledF, against: pooledA };
   if (shared === 0) return { ...base, relation: 'separate' };
   if (shared === f.size && shared === a.size) return { ...base, relation: 'same' };
-  if (shared === f.size) return { ...base, relation: 'focus-inside', rest: poolCells([...a].filter((c) => !f.has(c)), cube.hasPopulation) };
-  if (shared === a.size) return { ...base, relation: 'against-inside', rest: poolCells([...f].filter((c) => !a.has(c)), cube.hasPopulation) };
+  if (shared === f.size) return { ...base, relation: 'focus-inside', rest: poolCells(cube, [...a].filter((c) => !f.has(c))) };
+  if (shared === a.size) return { ...base, relation: 'against-inside', rest: poolCells(cube, [...f].filter((c) => !a.has(c))) };
   return { ...base, relation: 'overlap' };
 }

@@ -51,6 +51,10 @@ export interface Cube {
   sheet?: string;
   /** Plain-words notes on how the data were read (e.g. a percent column read as fractions), for the pack. */
   notes?: string[];
+  /** summary sources: the numeric columns read (SourceSpec.numeric), each present in every cell's `numeric`. */
+  numericColumns?: string[];
+  /** respondents sources: true, and every cell carries `codes`. */
+  hasCodes?: boolean;
 }
 
 /** Counts pooled over the cells a selection matches (respondent-weighted, never an average of percentages). */
