@@ -8,3 +8,4 @@ export { openXlsxSheet, readXlsxRows, formatNumber, columnIndex, columnLetters }
 export type { XlsxOptions, SheetInfo, OpenedSheet } from './xlsx.js';
 export type { SheetRow, ReadOptions } from './rows.js';
 export { sha256File } from './hash.js';
+export { periodsOf, periodsBack, resolvePeriod, lastPeriods } from './periods.js';

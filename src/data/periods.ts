@@ -1,0 +1,79 @@
+/**
+ * Periods of a source, oldest first, and the relative words a claims file may use for them (`latest`, `previous`,
+ * `latest-N`), resolved from the data so that the same claims file works when next year's rows are added.
+ *
+ * Order: when every period reads as a number (2025, 2026) they are ordered as numbers; otherwise as text with runs of
+ * digits compared as numbers ("2024-25" before "2025-26", "Wave 9" before "Wave 10").
+ */
+import { InputError } from '../errors.js';
+import type { FilterScalar } from '../claims/types.js';
+import type { Cube } from './types.js';
+import { fixFor } from '../suggest.js';
+
+const collator = new Intl.Collator('en', { numeric: true, sensitivity: 'base' });
+
+/** The distinct values of the period column, oldest first. */
+export function periodsOf(cube: Cube, column: string): string[] {
+  const where = { file: cube.file, ...(cube.sheet !== undefined ? { sheet: cube.sheet } : {}) };
+  const values = cube.values[column];
+  if (values === undefined) {
+    throw new InputError({ ...where, field: column, found: column, problem: `The data of source "${cube.sourceId}" have no period column with this name`, fix: fixFor(column, cube.dimensions, 'columns') });
+  }
+  const list = values.filter((v) => v !== '');
+  const numeric = list.every((v) => /^[+-]?\d+(\.\d+)?$/.test(v));
+  return [...list].sort(numeric ? (a, b) => Number(a) - Number(b) : (a, b) => collator.compare(a, b) || (a < b ? -1 : a > b ? 1 : 0));
+}
+
+/** How many periods back a relative word names: latest 0, previous 1, latest-N N; undefined for anything else. */
+export function periodsBack(word: FilterScalar): number | undefined {
+  if (typeof word !== 'string') return undefined;
+  const w = word.trim().toLowerCase();
+  if (w === 'latest') return 0;
+  if (w === 'previous') return 1;
+  const m = /^latest\s*-\s*(\d+)$/.exec(w);
+  return m !== null ? Number(m[1]) : undefined;
+}
+
+/**
+ * The period a value names: a relative word resolved against the data, or the value itself (as text) when it is a
+ * period in the data. Anything else is an InputError listing the periods the data hold.
+ */
+export function resolvePeriod(cube: Cube, column: string, value: FilterScalar): string {
+  const periods = periodsOf(cube, column);
+  const where = { file: cube.file, ...(cube.sheet !== undefined ? { sheet: cube.sheet } : {}) };
+  const back = periodsBack(value);
+  if (back !== undefined) {
+    const i = periods.length - 1 - back;
+    if (i < 0) {
+      throw new InputError({
+        ...where,
+        field: column,
+        found: String(value),
+        problem: `The data have ${periods.length} period${periods.length === 1 ? '' : 's'} in "${column}", so "${String(value)}" names none`,
+        fix: `Use a period the data have: ${periods.map((p) => `"${p}"`).join(', ')}`,
+      });
+    }
+    return periods[i]!;
+  }
+  const text = String(value).trim();
+  if (!periods.includes(text)) {
+    throw new InputError({ ...where, field: column, found: text, problem: `No row of source "${cube.sourceId}" has this period in column "${column}"`, fix: fixFor(text, periods, 'periods') });
+  }
+  return text;
+}
+
+/** The last `count` periods, oldest first; an InputError when the data have fewer. */
+export function lastPeriods(cube: Cube, column: string, count: number): string[] {
+  const periods = periodsOf(cube, column);
+  if (count > periods.length) {
+    const where = { file: cube.file, ...(cube.sheet !== undefined ? { sheet: cube.sheet } : {}) };
+    throw new InputError({
+      ...where,
+      field: column,
+      found: String(count),
+      problem: `The claim asks for the last ${count} periods but the data have ${periods.length} in "${column}"`,
+      fix: `Ask for at most ${periods.length} periods, or add the earlier periods to the data`,
+    });
+  }
+  return periods.slice(periods.length - count);
+}
