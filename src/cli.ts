@@ -4,7 +4,7 @@
  * bug and prints a request to report it (with the stack only under --debug).
  */
 import yargs from 'yargs';
-import { isInputError } from './errors.js';
+import { InputError, isInputError } from './errors.js';
 
 const EXIT_INPUT = 2;
 const EXIT_BUG = 70;
@@ -14,35 +14,87 @@ interface BuildArgs {
   out?: string;
   date?: string;
   templates?: string;
+  since?: string;
+  data?: string[];
   json?: boolean;
   quiet?: boolean;
-  debug?: boolean;
+}
+
+/** `--data id=path`, repeatable, into a map; a malformed pair is an input error. */
+function dataPairs(pairs: string[] | undefined): Record<string, string> | undefined {
+  if (!pairs || pairs.length === 0) return undefined;
+  const out: Record<string, string> = {};
+  for (const pair of pairs) {
+    const at = pair.indexOf('=');
+    if (at <= 0 || at === pair.length - 1) {
+      throw new InputError({ file: 'command line', field: '--data', found: pair, problem: 'a --data value must be a source id and a path joined by =', fix: 'write it like --data results=data/2026/summary.xlsx' });
+    }
+    out[pair.slice(0, at)] = pair.slice(at + 1);
+  }
+  return out;
 }
 
 async function runBuild(args: BuildArgs, argv: string[]): Promise<number> {
   // Loaded here so that --help stays fast: the pipeline pulls in the PDF and chart libraries.
   const { build, displayPath } = await import('./pipeline.js');
-  const { basename, extname, join } = await import('node:path');
-  const outDir = args.out ?? join('out', basename(args.claims, extname(args.claims)));
+  const showProgress = !args.quiet && !args.json && process.stderr.isTTY === true;
+  const data = dataPairs(args.data);
   const result = await build({
     claimsPath: args.claims,
-    outDir,
+    ...(args.out !== undefined ? { outDir: args.out } : {}),
     ...(args.date !== undefined ? { date: args.date } : {}),
     ...(args.templates !== undefined ? { templatesDir: args.templates } : {}),
+    ...(args.since !== undefined ? { since: args.since } : {}),
+    ...(data ? { data } : {}),
+    ...(showProgress ? { progress: (m: string) => process.stderr.write(`\u2026 ${m}\n`) } : {}),
     command: ['warrant', ...argv].join(' '),
   });
-  const counts = new Map<string, number>();
-  for (const d of result.decisions) counts.set(d.verdict, (counts.get(d.verdict) ?? 0) + 1);
+  const counts: Record<string, number> = {};
+  for (const d of result.decisions) counts[d.verdict] = (counts[d.verdict] ?? 0) + 1;
   if (args.json) {
-    process.stdout.write(
-      `${JSON.stringify({ pdf: result.files.pdf, results: result.files.results, verdicts: Object.fromEntries(counts) }, null, 2)}\n`,
-    );
+    const summary = {
+      folder: result.files.folder,
+      pdf: result.files.pdf,
+      results: result.files.results,
+      reused: result.files.reused,
+      fingerprint: result.results.fingerprint,
+      verdicts: counts,
+      claims: result.results.claims.map((c) => ({ id: c.id, verdict: c.verdict, p: c.p, pAdjusted: c.pAdjusted })),
+      changedSince: result.diff ? { pack: result.diff.before.folder, verdicts: result.diff.verdicts } : null,
+    };
+    process.stdout.write(`${JSON.stringify(summary, null, 2)}\n`);
   } else if (!args.quiet) {
-    const summary = [...counts].map(([v, n]) => `${n} ${v.replace(/-/g, ' ')}`).join(', ');
-    process.stdout.write(`Evidence pack written: ${displayPath(result.files.pdf)}\n`);
+    const summary = Object.entries(counts).map(([v, n]) => `${n} ${v.replace(/-/g, ' ')}`).join(', ');
+    const pdf = displayPath(result.files.pdf);
+    process.stdout.write(result.files.reused ? `Unchanged since an earlier build; the pack is ${pdf}\n` : `Evidence pack written: ${pdf}\n`);
     process.stdout.write(`Results: ${displayPath(result.files.results)}\n`);
     process.stdout.write(`${result.decisions.length} claims: ${summary}\n`);
+    if (result.diff) {
+      const n = result.diff.verdicts.length;
+      process.stdout.write(`Compared with ${result.diff.before.folder}: ${n === 0 ? 'no verdict changed' : `${n} ${n === 1 ? 'verdict' : 'verdicts'} changed`} (see "What changed" in the pack).\n`);
+    }
   }
+  return 0;
+}
+
+interface DiffArgs {
+  old: string;
+  new: string;
+  json?: boolean;
+}
+
+async function runDiff(args: DiffArgs): Promise<number> {
+  const { openPack } = await import('./history/store.js');
+  const { diffPacks } = await import('./history/diff.js');
+  const { diffText } = await import('./history/words.js');
+  const { Templates } = await import('./verdicts/templates.js');
+  const [before, after] = [args.old, args.new].map((p) => {
+    const pack = openPack(p);
+    if (!pack) throw new InputError({ file: p, problem: 'no pack was found there (a pack folder holds results.json)', fix: 'give two pack folders, e.g. out/claims/2026-03-04-1a2b3c4d5e6f, or their results.json files' });
+    return pack;
+  }) as [NonNullable<ReturnType<typeof openPack>>, NonNullable<ReturnType<typeof openPack>>];
+  const d = diffPacks(before.results, after.results, { before: before.name, after: after.name });
+  process.stdout.write(args.json ? `${JSON.stringify(d, null, 2)}\n` : diffText(d, new Templates()));
   return 0;
 }
 
@@ -55,19 +107,33 @@ export async function main(argv: string[]): Promise<number> {
       .usage('$0 <command> [options]\n\nTest the claims you plan to make from survey results, and write a PDF evidence pack that says which hold up.')
       .command(
         'build <claims>',
-        'Test every claim in a claims file against its data and write the evidence pack (pack.pdf and results.json)',
+        'Test every claim in a claims file against its data and write a new evidence pack (pack.pdf, results.json)',
         (y) =>
           y
             .positional('claims', { type: 'string', demandOption: true, describe: 'The claims file (YAML)' })
-            .option('out', { type: 'string', describe: 'Folder for the pack (default: out/<claims file name>)' })
+            .option('out', { type: 'string', describe: 'History folder for this claims file; each build adds a pack folder inside (default: out/<claims file name>)' })
             .option('date', { type: 'string', describe: 'Date shown on the pack, e.g. 2026-06-30 (default: data_date in the claims file)' })
+            .option('data', { type: 'string', array: true, describe: 'Use another file for a source this time: --data <source id>=<path> (repeatable)' })
+            .option('since', { type: 'string', describe: 'Say what changed since this pack (default: the latest pack in the history folder)' })
             .option('templates', { type: 'string', describe: 'Folder of .mustache files that replace built-in wording' })
             .option('json', { type: 'boolean', describe: 'Print a machine-readable summary of the build on stdout' })
-            .option('quiet', { type: 'boolean', describe: 'Print nothing on success' })
-            .example('$0 build claims.yaml', 'Build out/claims/pack.pdf')
-            .example('$0 build demo/claims.yaml --out out/demo', 'Build the demo pack'),
+            .option('quiet', { type: 'boolean', describe: 'Print nothing on success and no progress' })
+            .example('$0 build claims.yaml', 'Build a new pack under out/claims/')
+            .example('$0 build claims.yaml --data results=new/summary.xlsx', 'Rebuild with a corrected spreadsheet for the source "results"'),
         async (args) => {
           code = await runBuild(args as unknown as BuildArgs, argv);
+        },
+      )
+      .command(
+        'diff <old> <new>',
+        'Say what changed between two packs: verdicts and why, estimates that moved, claims and data that changed',
+        (y) =>
+          y
+            .positional('old', { type: 'string', demandOption: true, describe: 'The earlier pack folder (or its results.json)' })
+            .positional('new', { type: 'string', demandOption: true, describe: 'The later pack folder (or its results.json)' })
+            .option('json', { type: 'boolean', describe: 'Print the comparison as JSON' }),
+        async (args) => {
+          code = await runDiff(args as unknown as DiffArgs);
         },
       )
       .option('debug', { type: 'boolean', describe: 'Show internal details (stack traces) when something fails' })

@@ -5,12 +5,13 @@
  *        ──adjust + decide──▶ Decision per claim ──words──▶ PackModel + results.json ──render──▶ pack.pdf
  *
  * Each stage is a plain function of the one before; `build` returns every stage's output so that tests and
- * `--json` can look at any of them. Files are written last, into a temporary folder renamed into place, so a failed
- * build never leaves a half-written pack or harms an earlier one.
+ * `--json` can look at any of them. Files are written last, as a new pack folder in the claims file's history folder
+ * (src/history/store.ts), through a temporary folder renamed into place, so a failed build never leaves a
+ * half-written pack or harms an earlier one. When an earlier pack exists, the new one says what changed.
  */
-import { mkdir, readFile, rename, rm, writeFile } from 'node:fs/promises';
-import { existsSync } from 'node:fs';
-import { basename, dirname, join, relative, resolve } from 'node:path';
+import { readFile } from 'node:fs/promises';
+import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
+import { basename, extname, join, relative, resolve } from 'node:path';
 import { readClaims } from './claims/read.js';
 import type { ClaimsFile } from './claims/types.js';
 import { readCube } from './data/cube.js';
@@ -25,11 +26,16 @@ import { Templates } from './verdicts/templates.js';
 import { claimResult, resultsFile, type ResultsFile } from './results/results.js';
 import type { PackModel } from './render/model.js';
 import { packageRoot } from './paths.js';
+import { InputError } from './errors.js';
+import { packFingerprint, sha256Hex } from './history/fingerprint.js';
+import { listPacks, latestPack, openPack, packFolderName, storePack, today, type StoredPack, type WriteHooks } from './history/store.js';
+import { diffPacks, type PackDiff } from './history/diff.js';
+import { changeSection, editedNotice, folderDay } from './history/words.js';
 
 export interface BuildOptions {
   claimsPath: string;
-  /** Folder the pack is written to (replaced as a whole when the build succeeds). */
-  outDir: string;
+  /** History folder for this claims file; each build adds a pack folder inside (default: out/<claims file name>). */
+  outDir?: string;
   /** Date for the cover and the PDF's metadata; defaults to the claims file's data_date. */
   date?: string;
   /** Folder of .mustache files that replace built-in wording. */
@@ -38,6 +44,16 @@ export interface BuildOptions {
   command?: string;
   /** Working folder against which paths are shown (default: process.cwd()). */
   cwd?: string;
+  /** Compare with this pack (folder, its results.json, or a history folder) instead of the latest one. */
+  since?: string;
+  /** Replace a source's file for this build: source id -> path (relative to cwd), e.g. a corrected spreadsheet. */
+  data?: Record<string, string>;
+  /** Called at each stage, for progress on a terminal. */
+  progress?: (message: string) => void;
+  /** The clock, used only to name the pack folder (tests fix it). */
+  now?: Date;
+  /** Test hooks for writing (simulate an interrupted build). */
+  hooks?: WriteHooks;
 }
 
 export interface BuildResult {
@@ -47,7 +63,10 @@ export interface BuildResult {
   decisions: Decision[];
   results: ResultsFile;
   model: PackModel;
-  files: { pdf: string; results: string };
+  /** The comparison with the previous pack, if there was one. */
+  diff?: PackDiff;
+  /** The pack folder and its files; `reused` when an identical pack existed already. */
+  files: { folder: string; pdf: string; results: string; reused: boolean };
 }
 
 export function displayPath(path: string, cwd = process.cwd()): string {
@@ -92,63 +111,123 @@ export function testClaims(claims: ClaimsFile, cubes: Cube[], claimsDisplay: str
   return { analyses, decisions, tested: testedIdx.length };
 }
 
-/** Write files into a fresh temporary folder beside the target, then swap it into place. */
-async function writeAtomically(outDir: string, files: Array<[string, string | Buffer]>): Promise<void> {
-  const parent = dirname(outDir);
-  await mkdir(parent, { recursive: true });
-  const tmp = join(parent, `.${basename(outDir)}.tmp-${process.pid}`);
-  await rm(tmp, { recursive: true, force: true });
-  await mkdir(tmp, { recursive: true });
-  try {
-    for (const [name, content] of files) await writeFile(join(tmp, name), content);
-    const old = join(parent, `.${basename(outDir)}.old-${process.pid}`);
-    if (existsSync(outDir)) await rename(outDir, old);
-    await rename(tmp, outDir);
-    await rm(old, { recursive: true, force: true });
-  } catch (e) {
-    await rm(tmp, { recursive: true, force: true });
-    throw e;
+/** Point sources at other files for this build (`--data id=path`), checking each exists. */
+function overrideSources(claims: ClaimsFile, data: Record<string, string>, cwd: string): ClaimsFile {
+  const known = claims.sources.map((x) => x.id);
+  const sources = claims.sources.map((source) => {
+    const given = data[source.id];
+    if (given === undefined) return source;
+    const path = resolve(cwd, given);
+    if (!existsSync(path) || !statSync(path).isFile()) {
+      throw new InputError({ file: given, field: `--data ${source.id}`, problem: 'the data file given on the command line does not exist or is not a file', fix: 'check the path; it is read relative to the folder you run warrant in' });
+    }
+    const ext = extname(path).toLowerCase();
+    const format = ext === '.csv' ? 'csv' : ext === '.xlsx' ? 'xlsx' : undefined;
+    if (!format) {
+      throw new InputError({ file: given, field: `--data ${source.id}`, found: ext, problem: 'warrant reads .csv and .xlsx data files only', fix: 'save the data as .xlsx or .csv' });
+    }
+    return { ...source, path, file: displayPath(path, cwd), format } as typeof source;
+  });
+  for (const id of Object.keys(data)) {
+    if (!known.includes(id)) {
+      throw new InputError({ file: 'command line', field: `--data ${id}`, found: id, problem: 'no source has this id in the claims file', fix: `use one of the source ids: ${known.join(', ')}` });
+    }
   }
+  return { ...claims, sources };
+}
+
+/** Digest of a templates folder's .mustache files, so reworded packs get their own fingerprint. */
+function templatesDigest(dir: string | undefined): string | null {
+  if (!dir) return null;
+  const names = readdirSync(dir).filter((f) => f.endsWith('.mustache')).sort();
+  return sha256Hex(names.map((n) => `${n}\n${readFileSync(join(dir, n), 'utf8')}`).join('\n'));
+}
+
+/** Claims edited since an earlier pack showed their results: id -> the day of the latest such pack. */
+function editedSince(history: StoredPack[], results: ResultsFile, exclude: string): Map<string, string> {
+  const edited = new Map<string, string>();
+  for (const pack of history) {
+    if (pack.name === exclude) continue;
+    for (const old of pack.results.claims) {
+      const now = results.claims.find((c) => c.id === old.id);
+      if (now && old.fingerprint && now.fingerprint !== old.fingerprint) edited.set(old.id, folderDay(pack.name) ?? pack.results.date);
+    }
+  }
+  return edited;
 }
 
 export async function build(options: BuildOptions): Promise<BuildResult> {
   const cwd = options.cwd ?? process.cwd();
+  const say = options.progress ?? (() => {});
   const claimsPath = resolve(cwd, options.claimsPath);
   const claimsDisplay = displayPath(claimsPath, cwd);
-  const templates = new Templates(options.templatesDir ? resolve(cwd, options.templatesDir) : undefined);
+  const templatesDir = options.templatesDir ? resolve(cwd, options.templatesDir) : undefined;
+  const templates = new Templates(templatesDir);
   const version = await toolVersion();
+  const root = resolve(cwd, options.outDir ?? join('out', basename(claimsPath, extname(claimsPath))));
 
   // 1. claims
-  const claims = await readClaims(claimsPath, claimsDisplay);
+  say('Reading the claims file');
+  let claims = await readClaims(claimsPath, claimsDisplay);
+  if (options.data) claims = overrideSources(claims, options.data, cwd);
   // 2. data
+  say('Reading the data');
   const cubes = await loadData(claims, cwd);
   // 3-4. statistics and verdicts
+  say(`Testing ${claims.claims.length} claims`);
   const { analyses, decisions, tested } = testClaims(claims, cubes, claimsDisplay);
   // 5. words
   const date = options.date ?? claims.dataDate ?? 'undated';
+  const fingerprint = packFingerprint({
+    claims: claims.sha256,
+    data: cubes.map((c) => `${c.sourceId}:${c.sha256}`),
+    version,
+    options: { date, templates: templatesDigest(templatesDir) },
+  });
   const ctx = {
     templates,
     claimsTested: tested,
     adjustName: ADJUST_NAMES[claims.adjust],
     adjusted: claims.adjust !== 'none' && tested > 1,
     minRespondents: claims.minRespondents,
-    periodColumns: periodColumns(cubes),
+    periodColumns: periodColumns(claims, cubes),
   };
   const composed = analyses.map((a, i) => composeClaim(a, decisions[i] as Decision, ctx));
   const results = resultsFile({
     version,
+    fingerprint,
     claims,
     claimsDisplay,
     date,
     cubes,
     results: analyses.map((a, i) => claimResult(a, decisions[i] as Decision, (composed[i] as (typeof composed)[number]).section)),
   });
+
+  // 6. history: what changed since the previous pack, and claims edited after their results were seen
+  const name = packFolderName(today(options.now), fingerprint);
+  const previous = options.since !== undefined ? openPack(resolve(cwd, options.since)) : latestPack(root);
+  if (options.since !== undefined && !previous) {
+    throw new InputError({ file: options.since, field: '--since', problem: 'no pack was found there (a pack folder holds results.json)', fix: 'give a pack folder, its results.json, or a history folder with a latest pack' });
+  }
+  const diff = previous && previous.name !== name ? diffPacks(previous.results, results, { before: previous.name, after: name }) : undefined;
+  const edited = editedSince(listPacks(root), results, name);
+  const sections = composed.map((c) => {
+    const notices: string[] = [];
+    const day = edited.get(c.section.id);
+    if (day !== undefined) notices.push(editedNotice(day));
+    const change = diff?.verdicts.find((v) => v.id === c.section.id);
+    if (change && diff) {
+      const since = folderDay(diff.before.folder) ?? diff.before.date;
+      notices.push(`Verdict changed since the pack of ${since}: it was "${templates.render(`verdict.${change.before}`, {})}" (${change.reasons.join(', ')}).`);
+    }
+    return notices.length > 0 ? { ...c.section, notices } : c.section;
+  });
   const model = composePack({
     claims,
     claimsDisplay,
     cubes,
     analyses,
-    sections: composed.map((c) => c.section),
+    sections,
     summary: composed.map((c) => c.summary),
     claimsTested: tested,
     date,
@@ -156,21 +235,43 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
     command: options.command ?? `warrant build ${claimsDisplay}`,
     templates,
   });
-  // 6. render (loaded here, not at start-up: pdfkit and vega are slow to import)
+  if (diff) model.changes = changeSection(diff, templates);
+
+  // 7. render (loaded here, not at start-up: pdfkit and vega are slow to import)
+  say(`Drawing the pack (${analyses.length} claims)`);
   const { renderPdf } = await import('./render/pdf.js');
   const pdf = await renderPdf(model, { createdAt: pdfDate(date) });
-  // 7. write
-  const outDir = resolve(cwd, options.outDir);
-  await writeAtomically(outDir, [
-    ['pack.pdf', pdf],
-    ['results.json', `${JSON.stringify(results, null, 2)}\n`],
-  ]);
-  return { claims, cubes, analyses, decisions, results, model, files: { pdf: join(outDir, 'pack.pdf'), results: join(outDir, 'results.json') } };
+  // 8. write
+  say('Writing the pack');
+  const stored = await storePack(
+    root,
+    name,
+    [
+      ['pack.pdf', pdf],
+      ['results.json', `${JSON.stringify(results, null, 2)}\n`],
+    ],
+    options.hooks ?? {},
+  );
+  return {
+    claims,
+    cubes,
+    analyses,
+    decisions,
+    results,
+    model,
+    ...(diff ? { diff } : {}),
+    files: { folder: stored.path, pdf: join(stored.path, 'pack.pdf'), results: join(stored.path, 'results.json'), reused: stored.reused },
+  };
 }
 
-/** Columns that hold survey periods, recognised by name, so that year-on-year comparisons carry the cohort caution. */
-function periodColumns(cubes: Cube[]): string[] {
-  return [...new Set(cubes.flatMap((c) => c.dimensions.filter((d) => /^(year|period|wave|session|academic[ _-]?year)$/i.test(d))))];
+/**
+ * Columns that hold survey periods, so that comparisons between periods carry the caution that different people
+ * answered: each source's declared `period` column, or a column named like one (Year, Period, Wave...).
+ */
+function periodColumns(claims: ClaimsFile, cubes: Cube[]): string[] {
+  const declared = claims.sources.flatMap((s) => (s.period ? [s.period] : []));
+  const named = cubes.flatMap((c) => c.dimensions.filter((d) => /^(year|period|wave|session|academic[ _-]?year)$/i.test(d)));
+  return [...new Set([...declared, ...named])];
 }
 
 /** The PDF's creation date: the data date when it is a date, else a fixed day, so that builds are repeatable. */

@@ -8,6 +8,7 @@ import type { Cube } from '../data/types.js';
 import type { ClaimSection } from '../render/model.js';
 import type { Interval, TestResult } from '../stats/result.js';
 import type { Decision } from '../verdicts/decide.js';
+import { claimFingerprint } from '../history/fingerprint.js';
 
 export const RESULTS_FORMAT = 1;
 
@@ -25,6 +26,10 @@ export interface ClaimResult {
   id: string;
   statement: string;
   kind: string;
+  /** The data source the claim was tested on. */
+  source: string;
+  /** Digest of what the claim commits to (words, selections, direction, confidence, thresholds); see src/history. */
+  fingerprint: string;
   method: string | null;
   methods: string[];
   hypotheses: { null: string; alternative: string };
@@ -53,6 +58,8 @@ export interface ClaimResult {
 export interface ResultsFile {
   format: number;
   tool: { name: 'warrant'; version: string };
+  /** Digest of the claims file, data files, tool version and output options: names the pack's folder. */
+  fingerprint: string;
   title: string;
   organisation: string;
   date: string;
@@ -86,44 +93,44 @@ function testFields(test: TestResult | undefined) {
 
 export function claimResult(a: Analysis, decision: Decision, section: ClaimSection): ClaimResult {
   const tested = a.status === 'tested';
-  const base = {
+  // Fields not every kind has are read by name, so a new claim kind appears here without changes to this file:
+  // `expect` (direction), `detectable` (power), `focus`/`against` or `selections` (rates), `points` (units),
+  // `difference` (the interval of interest for two-rate kinds), `relation` (compared with the rest of a group).
+  const claim = a.claim as unknown as Record<string, unknown>;
+  const extra = a as unknown as Record<string, unknown>;
+  const rates: RateSummary[] = [];
+  if (extra.focus && extra.against) rates.push(extra.focus as RateSummary, extra.against as RateSummary);
+  else if (Array.isArray(extra.selections)) rates.push(...(extra.selections as RateSummary[]));
+  const points = Array.isArray(extra.points) ? (extra.points as ClaimResult['units']) : [];
+  const difference = extra.difference as { interval?: Interval } | undefined;
+  return {
     id: a.claim.id,
     statement: a.claim.statement,
     kind: a.kind,
+    source: a.claim.source,
+    fingerprint: claimFingerprint(a.claim),
     ...testFields(a.test),
     methods: a.methods,
     hypotheses: section.hypotheses,
     confidence: a.claim.confidence,
     sided: a.claim.sided,
-    expect: a.claim.expect,
+    expect: typeof claim.expect === 'string' ? claim.expect : 'none',
     verdict: decision.verdict,
     verdictText: section.verdictText,
     p: decision.p ?? null,
     pAdjusted: decision.pAdjusted ?? null,
-    detectable: tested ? a.detectable ?? null : null,
+    detectable: tested && typeof extra.detectable === 'number' ? extra.detectable : null,
     cautions: section.cautions,
-  };
-  if (a.kind === 'compare') {
-    return {
-      ...base,
-      // For a comparison the interval of interest is the difference's (Newcombe), not the test's.
-      interval: a.difference?.interval ?? null,
-      selections: tested && a.focus && a.against ? [selection(a.focus), selection(a.against)] : [],
-      units: [],
-      comparedWithRest: a.relation !== 'separate',
-    };
-  }
-  return {
-    ...base,
-    interval: a.test?.interval ?? null,
-    selections: [],
-    units: tested ? a.points.map((p) => ({ ...p })) : [],
-    comparedWithRest: false,
+    interval: difference?.interval ?? a.test?.interval ?? null,
+    selections: tested ? rates.filter((r) => typeof r.rate === 'number').map(selection) : [],
+    units: tested ? points.map((p) => ({ unit: p.unit, x: p.x, y: p.y, nx: p.nx, ny: p.ny })) : [],
+    comparedWithRest: extra.relation !== undefined && extra.relation !== 'separate',
   };
 }
 
 export function resultsFile(input: {
   version: string;
+  fingerprint: string;
   claims: ClaimsFile;
   claimsDisplay: string;
   date: string;
@@ -134,6 +141,7 @@ export function resultsFile(input: {
   return {
     format: RESULTS_FORMAT,
     tool: { name: 'warrant', version: input.version },
+    fingerprint: input.fingerprint,
     title: claims.title,
     organisation: claims.organisation,
     date: input.date,

@@ -3,7 +3,7 @@
  * pdfinfo (independent of pdfkit), and results.json checked against its shipped schema.
  */
 import { execFileSync, spawnSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, rmSync, writeFileSync, existsSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -91,7 +91,7 @@ describe('command line', () => {
     const out = join(work, 'cli');
     const ok = spawnSync(process.execPath, [bin, 'build', join(root, 'demo/claims.yaml'), '--out', out, '--quiet'], { encoding: 'utf8', cwd: root });
     expect(ok.status).toBe(0);
-    const before = readFileSync(join(out, 'pack.pdf'));
+    const before = readFileSync(join(out, 'latest', 'pack.pdf'));
     const bad = join(work, 'bad.yaml');
     writeFileSync(bad, readFileSync(join(root, 'demo/claims.yaml'), 'utf8').replace(/^confidence: .*$/m, 'confidence: 1.5'));
     const run = spawnSync(process.execPath, [bin, 'build', bad, '--out', out], { encoding: 'utf8', cwd: root });
@@ -99,7 +99,7 @@ describe('command line', () => {
     expect(run.stderr).toContain('bad.yaml:');
     expect(run.stderr).toContain('confidence');
     expect(run.stderr).not.toMatch(/\n\s+at /);
-    expect(readFileSync(join(out, 'pack.pdf')).equals(before)).toBe(true);
-    expect(existsSync(join(work, '.cli.tmp-' + run.pid))).toBe(false);
+    expect(readFileSync(join(out, 'latest', 'pack.pdf')).equals(before)).toBe(true);
+    expect(readdirSync(out).filter((n) => n.startsWith('.'))).toEqual([]);
   });
 });
