@@ -193,8 +193,7 @@ export function crossFieldProblems(parsed: ParsedYaml, file: string, claimsDir: 
     }
     if (c.kind === 'association' && Array.isArray(c.controls)) {
       c.controls.forEach((ctl, j) => {
-        if (!isRec(ctl) || ('where' in ctl) !== ('column' in ctl)) {
-          if (!isRec(ctl)) return;
+        if (isRec(ctl) && ('where' in ctl) === ('column' in ctl)) {
           problems.push({
             file,
             ...at([...claimPath, 'controls', j]),

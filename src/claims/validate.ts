@@ -158,7 +158,7 @@ export function schemaProblems(parsed: ParsedYaml, file: string): Problem[] {
     const path = pointerToPath(e.instancePath);
     const last = path[path.length - 1];
     // Confidence and other amounts are read and range-checked with their own messages by the cross-field rules.
-    if (typeof last === 'string' && READ_BY_RULES.has(last) && (path.length === 1 || (path.length === 3 && path[0] === 'claims'))) continue;
+    if ((e.keyword === 'type' || e.keyword === 'pattern') && typeof last === 'string' && READ_BY_RULES.has(last) && (path.length === 1 || (path.length === 3 && path[0] === 'claims'))) continue;
     const p = toProblem(e, path, parsed, file, data);
     if (!p) continue;
     const key = `${p.line}:${p.column}:${p.problem}`;
