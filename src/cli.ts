@@ -37,6 +37,7 @@ function dataPairs(pairs: string[] | undefined): Record<string, string> | undefi
 async function runBuild(args: BuildArgs, argv: string[]): Promise<number> {
   // Loaded here so that --help stays fast: the pipeline pulls in the PDF and chart libraries.
   const { build, displayPath } = await import('./pipeline.js');
+  const { hooksFromEnv } = await import('./history/store.js');
   const showProgress = !args.quiet && !args.json && process.stderr.isTTY === true;
   const data = dataPairs(args.data);
   const result = await build({
@@ -48,6 +49,7 @@ async function runBuild(args: BuildArgs, argv: string[]): Promise<number> {
     ...(data ? { data } : {}),
     ...(showProgress ? { progress: (m: string) => process.stderr.write(`\u2026 ${m}\n`) } : {}),
     command: ['warrant', ...argv].join(' '),
+    hooks: hooksFromEnv(),
   });
   const counts: Record<string, number> = {};
   for (const d of result.decisions) counts[d.verdict] = (counts[d.verdict] ?? 0) + 1;

@@ -91,8 +91,20 @@ export async function sweepTemporary(root: string): Promise<void> {
 }
 
 export interface WriteHooks {
-  /** Test hook: throw after this many files have been written, as if the build were interrupted. */
+  /** Test hook: throw after this many files have been written, as if writing failed part-way. */
   failAfterFiles?: number;
+  /** Test hook: kill the process outright (SIGKILL) after this many files, as if the machine stopped. */
+  killAfterFiles?: number;
+}
+
+/** Test hooks from the environment (WARRANT_TEST_FAIL_AFTER_FILES, WARRANT_TEST_KILL_AFTER_FILES); none normally. */
+export function hooksFromEnv(env: NodeJS.ProcessEnv = process.env): WriteHooks {
+  const hooks: WriteHooks = {};
+  const fail = Number(env.WARRANT_TEST_FAIL_AFTER_FILES);
+  const kill = Number(env.WARRANT_TEST_KILL_AFTER_FILES);
+  if (env.WARRANT_TEST_FAIL_AFTER_FILES !== undefined && Number.isInteger(fail)) hooks.failAfterFiles = fail;
+  if (env.WARRANT_TEST_KILL_AFTER_FILES !== undefined && Number.isInteger(kill)) hooks.killAfterFiles = kill;
+  return hooks;
 }
 
 /**
@@ -114,6 +126,7 @@ export async function storePack(root: string, name: string, files: Array<[string
         if (hooks.failAfterFiles !== undefined && written >= hooks.failAfterFiles) {
           throw new Error(`build interrupted on purpose after ${written} files (test hook)`);
         }
+        if (hooks.killAfterFiles !== undefined && written >= hooks.killAfterFiles) process.kill(process.pid, 'SIGKILL');
         const file = join(tmp, rel);
         await mkdir(join(file, '..'), { recursive: true });
         await writeFile(file, content);
