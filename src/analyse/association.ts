@@ -1,20 +1,31 @@
 /**
  * Claim kind "association": two measures across units (one point per department, institution...).
  *
- * Each unit's measure is its pooled agreement rate on the selection (respondent-weighted within the unit). Units
- * where either measure has fewer respondents than the minimum are left out and named. Pearson's r with its t test
- * and Fisher-z interval; the least-squares line for the chart; the smallest |r| the number of units could detect with
- * 80% power, for claims that are not supported.
+ * Each unit's measure is its pooled agreement rate on the selection (respondent-weighted within the unit), its mean
+ * answer score (from the answer-code counts), or the respondent-weighted mean of a numeric column. Units where a
+ * measure (or a control) has fewer respondents than the minimum are left out and named.
+ *
+ * Test: Pearson's r with its t test and Fisher-z interval; with controls, the partial correlation of the residuals
+ * after a straight-line fit on the controls (t on n − 2 − k degrees of freedom; Fisher (1924), Metron 3, 329–332),
+ * which removes only the controls' straight-line effect. Optionally units are weighted by their respondents (the
+ * smaller of the two measures' counts) in the correlation; the number of units stays the sample size. Spearman's rho
+ * over the same units is reported as a check that rests on neither straight lines nor a few extreme units. The
+ * least-squares line for the chart; the smallest |r| the number of units could detect with 80% power, for claims that
+ * are not supported.
  */
-import type { AssociationClaim } from '../claims/types.js';
-import type { Cube } from '../data/types.js';
-import { poolByUnit } from '../data/select.js';
-import type { Alternative } from '../stats/result.js';
+import type { AssociationClaim, Measure } from '../claims/types.js';
+import type { Cube, Pooled } from '../data/types.js';
+import { InputError } from '../errors.js';
+import type { Alternative, TestResult } from '../stats/result.js';
 import { pearson } from '../stats/pearson.js';
+import { partialCorrelation } from '../stats/partial-correlation.js';
+import { spearman } from '../stats/spearman.js';
 import { simpleLinearFit } from '../stats/least-squares.js';
 import { minDetectableCorrelation } from '../stats/power-correlation.js';
-import type { AnalysisSettings, AssociationAnalysis, UnitPoint } from './types.js';
+import type { CompareContext } from './compare.js';
+import type { AssociationAnalysis, UnitPoint } from './types.js';
 import { sign } from './labels.js';
+import { measureValue, poolUnits } from './measures.js';
 import { shortfall } from './thresholds.js';
 
 /** Fewest units for which r, its t test and the Fisher-z interval (n - 3 > 0) can all be computed. */
@@ -26,21 +37,56 @@ function alternativeFor(claim: AssociationClaim, opposite = false): Alternative 
   return positive ? 'greater' : 'less';
 }
 
-export function analyseAssociation(claim: AssociationClaim, cube: Cube, _settings: AnalysisSettings): AssociationAnalysis {
-  const xs = poolByUnit(cube, { ...claim.where, ...claim.x }, claim.units);
-  const ys = poolByUnit(cube, { ...claim.where, ...claim.y }, claim.units);
+/** Respondents behind a measure for suppression: the weight of a numeric column, else those who answered. */
+function respondents(p: Pooled, m: Measure): number {
+  if (m.type === 'column') return p.numeric?.[m.column]?.weight ?? 0;
+  if (m.type === 'mean') return Object.values(p.codes ?? {}).reduce((s, v) => s + v, 0);
+  return p.n;
+}
+
+export function analyseAssociation(claim: AssociationClaim, cube: Cube, ctx: CompareContext): AssociationAnalysis {
+  const controls = claim.controls ?? [];
+  const xMeasure: Measure = claim.xMeasure ?? { type: 'agree' };
+  const yMeasure: Measure = claim.yMeasure ?? { type: 'agree' };
+  if (claim.weighted && controls.length > 0) {
+    throw new InputError({
+      file: ctx.claimsFile,
+      line: claim.place.line,
+      column: claim.place.column,
+      field: `claims.${claim.id}.weighted`,
+      problem: `claim "${claim.id}" asks for both controls and weighting by respondents; a weighted partial correlation is not available`,
+      fix: 'remove weighted: true (every unit then counts once), or remove the controls',
+    });
+  }
+  const xs = poolUnits(cube, { ...claim.where, ...claim.x }, claim.units);
+  const ys = poolUnits(cube, { ...claim.where, ...claim.y }, claim.units);
+  const zs = controls.map((c) => poolUnits(cube, { ...claim.where, ...c.filter }, claim.units));
   const expectSign = claim.expect === 'positive' ? 1 : claim.expect === 'negative' ? -1 : 0;
   const points: UnitPoint[] = [];
   const suppressedUnits: string[] = [];
   const units = [...new Set([...xs.keys(), ...ys.keys()])].sort((a, b) => a.localeCompare(b, 'en'));
+  const mctx = (field: string) => ({ claimsFile: ctx.claimsFile, claimId: claim.id, field, place: claim.place });
   for (const unit of units) {
     const px = xs.get(unit);
     const py = ys.get(unit);
-    if (!px || !py || shortfall(claim, [{ label: unit, pooled: px }, { label: unit, pooled: py }]) !== undefined) {
+    const pz = zs.map((m) => m.get(unit));
+    const parts: Array<[Pooled | undefined, Measure]> = [[px, xMeasure], [py, yMeasure], ...pz.map((p, j): [Pooled | undefined, Measure] => [p, (controls[j] as (typeof controls)[number]).measure])];
+    const short = parts.some(
+      ([p, m]) => !p || respondents(p, m) <= 0 || shortfall(claim, [{ label: unit, pooled: { ...p, n: respondents(p, m) } }]) !== undefined,
+    );
+    if (short || !px || !py) {
       suppressedUnits.push(unit);
       continue;
     }
-    points.push({ unit, x: px.agree / px.n, y: py.agree / py.n, nx: px.n, ny: py.n });
+    const point: UnitPoint = {
+      unit,
+      x: measureValue(px, xMeasure, mctx('x')),
+      y: measureValue(py, yMeasure, mctx('y')),
+      nx: respondents(px, xMeasure),
+      ny: respondents(py, yMeasure),
+    };
+    if (controls.length > 0) point.controls = pz.map((p, j) => measureValue(p as Pooled, (controls[j] as (typeof controls)[number]).measure, mctx(`controls[${j}]`)));
+    points.push(point);
   }
   const base = {
     kind: 'association' as const,
@@ -49,24 +95,38 @@ export function analyseAssociation(claim: AssociationClaim, cube: Cube, _setting
     suppressedUnits,
     expectSign: expectSign as 1 | -1 | 0,
     methods: [] as string[],
+    ...(controls.length > 0 ? { controlled: controls.map((c) => c.label) } : {}),
+    ...(claim.weighted ? { weighted: true } : {}),
   };
-  if (points.length < MIN_UNITS) {
+  const needed = MIN_UNITS + controls.length;
+  if (points.length < needed) {
     return {
       ...base,
       points: [],
       status: 'too-little-data',
-      shortfall: `only ${points.length} ${points.length === 1 ? 'unit has' : 'units have'} enough respondents on both measures (at least ${claim.minRespondents}), and at least ${MIN_UNITS} are needed`,
+      shortfall: `only ${points.length} ${points.length === 1 ? 'unit has' : 'units have'} enough respondents on every measure (at least ${claim.minRespondents}), and at least ${needed} are needed`,
       observedSign: 0,
     };
   }
   const x = points.map((p) => p.x);
   const y = points.map((p) => p.y);
+  const weights = claim.weighted ? points.map((p) => Math.min(p.nx, p.ny)) : undefined;
+  const z = controls.map((_, j) => points.map((p) => (p.controls as number[])[j] as number));
+  const run = (alternative: Alternative): TestResult =>
+    controls.length > 0
+      ? partialCorrelation(x, y, z, { alternative, level: claim.confidence })
+      : pearson(x, y, { alternative, level: claim.confidence, ...(weights ? { weights } : {}) });
   const alternative = alternativeFor(claim);
-  const test = pearson(x, y, { alternative, level: claim.confidence });
-  const pOpposite =
-    alternative === 'two-sided' ? undefined : pearson(x, y, { alternative: alternativeFor(claim, true), level: claim.confidence }).p;
+  const test = run(alternative);
+  const pOpposite = alternative === 'two-sided' ? undefined : run(alternativeFor(claim, true)).p;
   const line = simpleLinearFit(x, y);
   const sided = alternative === 'two-sided' ? 'two-sided' : 'one-sided';
+  let rho: TestResult | undefined;
+  try {
+    rho = spearman(x, y, { alternative });
+  } catch {
+    rho = undefined; // ranks all tied on one side: the check is left out, the main test stands
+  }
   return {
     ...base,
     status: 'tested',
@@ -74,11 +134,12 @@ export function analyseAssociation(claim: AssociationClaim, cube: Cube, _setting
     ...(pOpposite !== undefined ? { pOpposite } : {}),
     observedSign: sign(test.estimate.value),
     fit: { intercept: line.intercept, slope: line.slope, rSquared: line.rSquared },
-    detectable: minDetectableCorrelation(points.length, 1 - claim.confidence, 0.8, sided),
+    detectable: minDetectableCorrelation(points.length - controls.length, 1 - claim.confidence, 0.8, sided),
     totals: {
       x: points.reduce((s, p) => s + p.nx, 0),
       y: points.reduce((s, p) => s + p.ny, 0),
     },
-    methods: ['pearson', 'least-squares', 'power-correlation'],
+    ...(rho ? { spearman: rho } : {}),
+    methods: [controls.length > 0 ? 'partial-pearson' : 'pearson', 'least-squares', 'power-correlation', ...(rho ? ['spearman'] : [])],
   };
 }

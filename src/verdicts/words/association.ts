@@ -1,5 +1,6 @@
 /** Words for the "association" kind: two measures across units. */
 import type { AssociationAnalysis } from '../../analyse/types.js';
+import type { Measure } from '../../claims/types.js';
 import * as fmt from '../../format/numbers.js';
 import { filterLabel } from '../../analyse/labels.js';
 import type { Chart, NumberRow } from '../../render/model.js';
@@ -16,7 +17,8 @@ export function composeAssociation(a: AssociationAnalysis, decision: Decision, c
   const yLabel = claim.yLabel ?? filterLabel(claim.y);
   const unitName = claim.units.toLowerCase();
   const unitsName = plural(claim.units);
-  const labelsOnly = { xLabel, yLabel, unitsName, expectWord, oneSided };
+  const controlled = claim.controls && claim.controls.length > 0 ? listWords(claim.controls.map((c) => c.label)) : '';
+  const labelsOnly = { xLabel, yLabel, unitsName, expectWord, oneSided, controlled };
   const hypotheses = { null: t.render('association.null', labelsOnly), alternative: t.render('association.alternative', labelsOnly) };
   if (a.status === 'too-little-data' || !a.test || !a.fit) {
     return tooLittle(a, decision, ctx, `${xLabel} against ${yLabel} across ${unitsName}.`, hypotheses);
@@ -26,6 +28,11 @@ export function composeAssociation(a: AssociationAnalysis, decision: Decision, c
   const view: View = {
     ...labelsOnly,
     unitName,
+    UnitsName: unitsName.charAt(0).toUpperCase() + unitsName.slice(1),
+    rName: controlled ? 'partial r' : 'r',
+    controlCount: claim.controls?.length ?? 0,
+    controlPronoun: (claim.controls?.length ?? 0) > 1 ? 'their' : 'its',
+    weighted: a.weighted === true,
     unitCount: a.points.length,
     scope: scopeText(claim.where),
     xTotal: fmt.count(a.totals?.x ?? 0),
@@ -40,14 +47,28 @@ export function composeAssociation(a: AssociationAnalysis, decision: Decision, c
     minRespondents: ctx.minRespondents,
     ...pView(decision, ctx),
   };
+  const bothRates = (claim.xMeasure?.type ?? 'agree') === 'agree' && (claim.yMeasure?.type ?? 'agree') === 'agree';
   const numbers: NumberRow[] = [
     { label: 'Units', value: `${a.points.length} ${unitsName}` },
-    { label: 'Correlation (Pearson r)', value: `${view.r} (interval ${view.rLower} to ${view.rUpper})` },
-    { label: 'Least-squares line', value: `${yLabel} = ${fmt.plain(a.fit.intercept * 100, 1)} + ${fmt.plain(a.fit.slope, 2)} × ${xLabel} (in %); R² = ${fmt.coefficient(a.fit.rSquared)}` },
+    {
+      label: controlled ? `Partial correlation (controlling for ${controlled})` : a.weighted ? 'Correlation (Pearson r, weighted by respondents)' : 'Correlation (Pearson r)',
+      value: `${view.r} (interval ${view.rLower} to ${view.rUpper})`,
+    },
+    ...(a.spearman
+      ? [{ label: "Spearman's rho (check on ranks)", value: t.render('association.spearman-line', { rho: fmt.coefficient(a.spearman.estimate.value), pPhrase: fmt.pPhrase(a.spearman.p) }) }]
+      : []),
+    {
+      label: 'Least-squares line',
+      value: bothRates
+        ? `${yLabel} = ${fmt.plain(a.fit.intercept * 100, 1)} + ${fmt.plain(a.fit.slope, 2)} × ${xLabel} (in %); R² = ${fmt.coefficient(a.fit.rSquared)}`
+        : `${yLabel} = ${fmt.plain(a.fit.intercept, 3)} + ${fmt.plain(a.fit.slope, 3)} × ${xLabel}; R² = ${fmt.coefficient(a.fit.rSquared)}`,
+    },
     ...commonRows(a, decision, ctx),
     { label: 'Smallest correlation detectable (80% power)', value: `about ${view.detectable}` },
   ];
   const cautions = [t.render('caution.causation', view), t.render('caution.ecological', view)];
+  if (controlled) cautions.push(t.render('association.caution-controls', view));
+  if (a.weighted) cautions.push(t.render('association.caution-weighted', view));
   if (a.points.length < 10) cautions.push(t.render('caution.few-units', view));
   if (a.suppressedUnits.length > 0) {
     cautions.push(t.render('caution.suppressed-units', { ...view, count: a.suppressedUnits.length, names: a.suppressedUnits.join(', ') }));
@@ -57,13 +78,13 @@ export function composeAssociation(a: AssociationAnalysis, decision: Decision, c
     data: {
       kind: 'scatter',
       points: a.points.map((p) => ({ label: p.unit, x: p.x, y: p.y, n: Math.min(p.nx, p.ny) })),
-      xTitle: `${xLabel} (% agreeing)`,
-      yTitle: `${yLabel} (% agreeing)`,
+      xTitle: `${xLabel} (${measureWords(claim.xMeasure)})`,
+      yTitle: `${yLabel} (${measureWords(claim.yMeasure)})`,
       fit: { intercept: a.fit.intercept, slope: a.fit.slope },
-      note: `r = ${view.r}`,
-      percent: true,
+      note: `${view.rName} = ${view.r}`,
+      percent: bothRates,
     },
-    alt: `Scatter chart of ${a.points.length} ${unitsName}: ${xLabel} across, ${yLabel} up, with the least-squares line; r = ${view.r} (interval ${view.rLower} to ${view.rUpper}).`,
+    alt: `Scatter chart of ${a.points.length} ${unitsName}: ${xLabel} across, ${yLabel} up, with the least-squares line; ${view.rName} = ${view.r} (interval ${view.rLower} to ${view.rUpper}).`,
   };
   return {
     section: {
@@ -79,3 +100,15 @@ export function composeAssociation(a: AssociationAnalysis, decision: Decision, c
   };
 }
 
+
+/** "A", "A and B", "A, B and C". */
+function listWords(items: string[]): string {
+  return items.length <= 1 ? (items[0] ?? '') : `${items.slice(0, -1).join(', ')} and ${items[items.length - 1] as string}`;
+}
+
+/** What an axis measures, for its title. */
+function measureWords(m: Measure | undefined): string {
+  if (m === undefined || m.type === 'agree') return '% agreeing';
+  if (m.type === 'mean') return 'mean score';
+  return m.column;
+}

@@ -1,0 +1,118 @@
+/**
+ * Claim kind "crosstab": whether two categorical variables are related, e.g. campus by agreeing / not agreeing, or
+ * campus by mode of study.
+ *
+ * Table rows are the values of `rows` within the claim's `where`; columns are agreeing / not agreeing (from each
+ * row's pooled counts) or the values of another column (each cell's count is the respondents there). Rows with
+ * fewer respondents than the minimum are left out and named, without their counts.
+ *
+ * Test: Pearson's chi-square test of independence without continuity correction (Yates only when asked, and only
+ * for a 2 × 2 table); Fisher's exact test (2 × 2, or r × c by the network algorithm) when any expected count is
+ * below 5 (Cochran (1954), Biometrics 10, 417–451), falling back to chi-square with a caution when the r × c table
+ * is too large to enumerate. Effect size: Cramér's V. Cells whose adjusted standardized residual lies beyond ±1.96
+ * (Agresti (2013), Categorical Data Analysis, 3rd ed., §2.4.5) are named as the ones that drive the result.
+ * The claim expects a relation, so the verdict is supported (related) or not supported; there is no "other way".
+ */
+import type { CrosstabClaim } from '../claims/types.js';
+import type { Cube } from '../data/types.js';
+import { chiSquareIndependence } from '../stats/chi-square-independence.js';
+import { fisherExact2x2 } from '../stats/fisher-exact-2x2.js';
+import { FisherTooLargeError, fisherExactRxc } from '../stats/fisher-exact-rxc.js';
+import type { TestResult } from '../stats/result.js';
+import type { CompareContext } from './compare.js';
+import { cellsByValue, poolWithMeasures } from './measures.js';
+import { shortfall } from './thresholds.js';
+import type { CrosstabAnalysis } from './types.js';
+
+/** Adjusted residuals beyond this are named (two-sided 5% point of the standard normal; common practice). */
+export const RESIDUAL_CUTOFF = 1.96;
+
+export interface CrosstabOptions {
+  /** Yates' continuity correction for a 2 × 2 table (default false). */
+  yates?: boolean;
+}
+
+export function analyseCrosstab(claim: CrosstabClaim, cube: Cube, _ctx: CompareContext, options: CrosstabOptions = {}): CrosstabAnalysis {
+  const byRow = cellsByValue(cube, claim.where, claim.rows);
+  const agreement = claim.columns === 'agreement';
+  const columnLabels = agreement ? ['agreeing', 'not agreeing'] : [...(cube.values[claim.columns] ?? [])];
+  if (!agreement) cellsByValue(cube, claim.where, claim.columns); // checks the column exists
+  const rowLabels: string[] = [];
+  const counts: number[][] = [];
+  const suppressedRows: string[] = [];
+  for (const [row, cells] of byRow) {
+    const pooled = poolWithMeasures(cells, cube.hasPopulation);
+    if (pooled.n <= 0 || shortfall(claim, [{ label: row, pooled }]) !== undefined) {
+      suppressedRows.push(row);
+      continue;
+    }
+    rowLabels.push(row);
+    if (agreement) {
+      const agree = Math.round(pooled.agree);
+      counts.push([agree, Math.round(pooled.n) - agree]);
+    } else {
+      counts.push(columnLabels.map((col) => Math.round(cells.filter((c) => c.dims[claim.columns] === col).reduce((s, c) => s + c.n, 0))));
+    }
+  }
+  // Columns nobody fell into add nothing to either test; leave them out so residuals line up with labels.
+  const keep = columnLabels.map((_, j) => counts.some((r) => (r[j] as number) > 0));
+  const cols = columnLabels.filter((_, j) => keep[j]);
+  const table = counts.map((r) => r.filter((_, j) => keep[j]));
+  const base = {
+    kind: 'crosstab' as const,
+    claim,
+    rowLabels,
+    columnLabels: cols,
+    counts: table,
+    suppressedRows,
+    notable: [] as CrosstabAnalysis['notable'],
+    expectSign: 0 as const,
+    methods: [] as string[],
+  };
+  if (rowLabels.length < 2 || cols.length < 2) {
+    const why =
+      rowLabels.length < 2
+        ? `only ${rowLabels.length} of the ${claim.rows.toLowerCase()} values ${rowLabels.length === 1 ? 'has' : 'have'} at least ${claim.minRespondents} respondents, and at least 2 are needed`
+        : `every respondent falls in the same column (${cols[0] ?? 'none'}), so there is nothing to relate`;
+    return { ...base, rowLabels: [], counts: [], columnLabels: [], status: 'too-little-data', shortfall: why, observedSign: 0 };
+  }
+  const chi = chiSquareIndependence(table, { yates: options.yates ?? false });
+  let test: TestResult = chi;
+  let method = chi.method;
+  let fisherTooLarge = false;
+  if (chi.minExpected < 5) {
+    const is2x2 = table.length === 2 && cols.length === 2;
+    try {
+      if (is2x2) {
+        const [[a, b], [c, d]] = table as [[number, number], [number, number]];
+        test = fisherExact2x2(a, b, c, d, { alternative: 'two-sided', level: claim.confidence });
+      } else {
+        test = fisherExactRxc(table);
+      }
+      method = test.method;
+    } catch (e) {
+      if (!(e instanceof FisherTooLargeError)) throw e;
+      fisherTooLarge = true;
+    }
+  }
+  const notable: CrosstabAnalysis['notable'] = [];
+  chi.adjustedResiduals.forEach((r, i) =>
+    r.forEach((res, j) => {
+      // With agreeing / not agreeing the two cells of a row mirror each other: name the agreeing one only.
+      if (agreement && j > 0) return;
+      if (Math.abs(res) > RESIDUAL_CUTOFF) notable.push({ row: rowLabels[i] as string, column: cols[j] as string, residual: res });
+    }),
+  );
+  notable.sort((a, b) => Math.abs(b.residual) - Math.abs(a.residual));
+  return {
+    ...base,
+    status: 'tested',
+    test,
+    observedSign: chi.cramersV > 0 ? 1 : 0,
+    cramersV: chi.cramersV,
+    minExpected: chi.minExpected,
+    notable,
+    ...(fisherTooLarge ? { fisherTooLarge } : {}),
+    methods: method === chi.method ? [chi.method] : [method, chi.method],
+  };
+}

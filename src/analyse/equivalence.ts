@@ -1,0 +1,102 @@
+/**
+ * Claim kind "equivalence": "no real difference" between two selections' agreement rates, within a stated margin.
+ *
+ * A test that fails to find a difference is not evidence of no difference; equivalence needs its own test. Two
+ * one-sided tests (TOST; Schuirmann (1987), J. Pharmacokinetics and Biopharmaceutics 15, 657–680; Wellek (2010),
+ * Testing Statistical Hypotheses of Equivalence and Noninferiority, ch. 6) each reject at alpha = 1 − confidence
+ * exactly when the (1 − 2 alpha) Wald interval for the difference lies inside (−margin, +margin). The claim's p-value
+ * is the larger of the two one-sided p-values, and it is the one adjusted for many claims.
+ *
+ * Verdicts (src/verdicts/decide.ts): supported when both one-sided tests reject; "points the other way" when the
+ * rates are clearly further apart than the margin (Newcombe's hybrid score interval at the claim's confidence lies
+ * entirely beyond +margin or −margin); otherwise not supported, because the interval reaches beyond the margin.
+ * The smallest difference that matters does not apply: the margin plays that part.
+ */
+import type { EquivalenceClaim } from '../claims/types.js';
+import type { Cube, Pooled } from '../data/types.js';
+import { relate } from '../data/select.js';
+import { InputError } from '../errors.js';
+import { newcombe } from '../stats/newcombe.js';
+import { tostTwoProportions } from '../stats/tost-two-proportions.js';
+import { wilson } from '../stats/wilson.js';
+import type { CompareContext } from './compare.js';
+import { filterLabel, sign } from './labels.js';
+import { shortfall } from './thresholds.js';
+import type { EquivalenceAnalysis, RateSummary } from './types.js';
+
+function rateSummary(label: string, pooled: Pooled, confidence: number): RateSummary {
+  const est = wilson(pooled.agree, pooled.n, confidence);
+  return { label, n: pooled.n, agree: pooled.agree, rate: est.p, interval: est.interval, approximate: pooled.approximate };
+}
+
+export function analyseEquivalence(claim: EquivalenceClaim, cube: Cube, ctx: CompareContext): EquivalenceAnalysis {
+  const place = { file: ctx.claimsFile, line: claim.place.line, column: claim.place.column };
+  if (!(claim.margin > 0 && claim.margin < 1)) {
+    throw new InputError({
+      ...place,
+      field: `claims.${claim.id}.margin`,
+      found: String(claim.margin),
+      problem: `claim "${claim.id}" needs a margin between 0 and 100 points`,
+      fix: 'write the largest difference that would still count as "no real difference", e.g. margin: 5 points',
+    });
+  }
+  const related = relate(cube, { ...claim.where, ...claim.focus }, { ...claim.where, ...claim.against });
+  if (related.relation === 'overlap' || related.relation === 'same') {
+    throw new InputError({
+      ...place,
+      field: `claims.${claim.id}.against`,
+      problem:
+        related.relation === 'same'
+          ? `claim "${claim.id}" compares a selection with itself: focus and against match the same rows`
+          : `claim "${claim.id}" compares two selections that share some rows but neither contains the other, so the same people would be counted on both sides`,
+      fix: 'make the two selections separate, or make one contain the other (a unit against its region)',
+    });
+  }
+  let focusPooled = related.focus;
+  let againstPooled = related.against;
+  let focusLabel = claim.focusLabel ?? filterLabel(claim.focus);
+  let againstLabel = claim.againstLabel ?? filterLabel(claim.against);
+  if (related.relation === 'focus-inside' && related.rest) {
+    againstPooled = related.rest;
+    againstLabel = `the rest of ${againstLabel}`;
+  } else if (related.relation === 'against-inside' && related.rest) {
+    focusPooled = related.rest;
+    focusLabel = `the rest of ${focusLabel}`;
+  }
+  const base = { kind: 'equivalence' as const, claim, relation: related.relation, expectSign: 0 as const, methods: [] as string[] };
+  const why = shortfall(claim, [
+    { label: focusLabel, pooled: focusPooled },
+    { label: againstLabel, pooled: againstPooled },
+  ]);
+  if (why !== undefined) return { ...base, status: 'too-little-data', shortfall: why, observedSign: 0 };
+  const x1 = Math.round(focusPooled.agree);
+  const x2 = Math.round(againstPooled.agree);
+  const n1 = focusPooled.n;
+  const n2 = againstPooled.n;
+  if ((x1 === 0 || x1 === n1) && (x2 === 0 || x2 === n2)) {
+    return {
+      ...base,
+      status: 'too-little-data',
+      shortfall: `everyone in ${focusLabel} and in ${againstLabel} answered alike, so the spread the test needs is missing`,
+      observedSign: 0,
+    };
+  }
+  const alpha = Number((1 - claim.confidence).toFixed(12));
+  const test = tostTwoProportions(x1, n1, x2, n2, claim.margin, { alpha });
+  const focus = rateSummary(focusLabel, { ...focusPooled, agree: x1 }, claim.confidence);
+  const against = rateSummary(againstLabel, { ...againstPooled, agree: x2 }, claim.confidence);
+  const diff = focus.rate - against.rate;
+  const interval = newcombe(x1, n1, x2, n2, claim.confidence);
+  return {
+    ...base,
+    status: 'tested',
+    test,
+    observedSign: sign(diff),
+    focus,
+    against,
+    difference: { value: diff, interval },
+    ...(test.interval ? { equivalenceInterval: test.interval } : {}),
+    beyondMargin: interval.lower > claim.margin || interval.upper < -claim.margin,
+    methods: ['tost-two-proportions', 'wilson', 'newcombe-hybrid'],
+  };
+}

@@ -1,0 +1,75 @@
+/** Words for the "equivalence" kind: two rates within a margin of each other. */
+import type { EquivalenceAnalysis } from '../../analyse/types.js';
+import { filterLabel } from '../../analyse/labels.js';
+import * as fmt from '../../format/numbers.js';
+import type { Chart, NumberRow } from '../../render/model.js';
+import type { Decision } from '../decide.js';
+import type { View } from '../templates.js';
+import { commonRows, pView, rateView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
+
+export function composeEquivalence(a: EquivalenceAnalysis, decision: Decision, ctx: ComposeContext): Composed {
+  const t = ctx.templates;
+  const claim = a.claim;
+  const margin = fmt.pointsSize(claim.margin);
+  const focusLabel = a.focus?.label ?? claim.focusLabel ?? filterLabel(claim.focus);
+  const againstLabel = a.against?.label ?? claim.againstLabel ?? filterLabel(claim.against);
+  const labelsOnly = { focus: { label: focusLabel }, against: { label: againstLabel }, margin };
+  const hypotheses = { null: t.render('equivalence.null', labelsOnly), alternative: t.render('equivalence.alternative', labelsOnly) };
+  if (a.status === 'too-little-data' || !a.focus || !a.against || !a.difference || !a.test || !a.equivalenceInterval) {
+    return tooLittle(a, decision, ctx, `${focusLabel} against ${againstLabel}, within ±${margin} points${scopeText(claim.where) ? `, for ${scopeText(claim.where)}` : ''}.`, hypotheses);
+  }
+  const d = a.difference;
+  const e = a.equivalenceInterval;
+  const alpha = 1 - claim.confidence;
+  const view: View = {
+    focus: rateView(a.focus),
+    against: rateView(a.against),
+    scope: scopeText(claim.where),
+    margin,
+    level: fmt.level(claim.confidence),
+    tostLevel: fmt.level(e.level),
+    alpha: fmt.level(alpha),
+    diff: fmt.points(d.value, { sign: true }),
+    diffLower: fmt.points(d.interval.lower, { sign: true }),
+    diffUpper: fmt.points(d.interval.upper, { sign: true }),
+    tostLower: fmt.points(e.lower, { sign: true }),
+    tostUpper: fmt.points(e.upper, { sign: true }),
+    adjustName: ctx.adjustName,
+    ...pView(decision, ctx),
+  };
+  const numbers: NumberRow[] = [
+    { label: a.focus.label, value: `${fmt.percent(a.focus.rate)} agreed of ${fmt.count(a.focus.n)} (interval ${fmt.percent(a.focus.interval.lower)} to ${fmt.percent(a.focus.interval.upper)})` },
+    { label: a.against.label, value: `${fmt.percent(a.against.rate)} agreed of ${fmt.count(a.against.n)} (interval ${fmt.percent(a.against.interval.lower)} to ${fmt.percent(a.against.interval.upper)})` },
+    { label: 'Difference', value: `${view.diff} points (${view.level} interval ${view.diffLower} to ${view.diffUpper})` },
+    { label: 'Margin', value: `±${margin} points` },
+    { label: `Interval set against the margin (${view.tostLevel})`, value: `${view.tostLower} to ${view.tostUpper} points` },
+    ...commonRows(a, decision, ctx),
+  ];
+  const cautions: string[] = [];
+  if (a.relation !== 'separate') {
+    const inner = a.relation === 'focus-inside' ? claim.focusLabel ?? filterLabel(claim.focus) : claim.againstLabel ?? filterLabel(claim.against);
+    const outer = a.relation === 'focus-inside' ? claim.againstLabel ?? filterLabel(claim.against) : claim.focusLabel ?? filterLabel(claim.focus);
+    const restN = a.relation === 'focus-inside' ? a.against.n : a.focus.n;
+    cautions.push(t.render('caution.rest-of-group', { inner, outer, restN: fmt.count(restN) }));
+  }
+  for (const r of [a.focus, a.against]) {
+    if (r.n < 50) cautions.push(t.render('caution.small-sample', { n: fmt.count(r.n), label: r.label, onePerson: fmt.pointsSize(1 / r.n) }));
+  }
+  if (a.focus.approximate || a.against.approximate) cautions.push(t.render('caution.rounded', {}));
+  const chart: Chart = {
+    data: { kind: 'difference', value: d.value, lower: e.lower, upper: e.upper, margin: claim.margin, axisTitle: `Difference, ${a.focus.label} minus ${a.against.label} (points)` },
+    alt: `Chart of the difference of ${view.diff} points with its ${view.tostLevel} interval (${view.tostLower} to ${view.tostUpper}) against a band of ±${margin} points.`,
+  };
+  return {
+    section: {
+      compared: t.render('equivalence.compared', view),
+      hypotheses,
+      numbers,
+      chart,
+      verdictText: t.render(`equivalence.${decision.verdict}`, view),
+      cautions,
+      methodLine: t.render('equivalence.method', view),
+    },
+    key: t.render('equivalence.key', view),
+  };
+}

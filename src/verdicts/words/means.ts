@@ -1,0 +1,99 @@
+/** Words for the "means" kind: two selections' mean scores. */
+import type { MeanSummary, MeansAnalysis } from '../../analyse/types.js';
+import { filterLabel } from '../../analyse/labels.js';
+import * as fmt from '../../format/numbers.js';
+import type { Chart, NumberRow } from '../../render/model.js';
+import type { Decision } from '../decide.js';
+import type { View } from '../templates.js';
+import { commonRows, pView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
+
+/** A mean score or a difference in scale points: two decimals, proper minus sign. */
+export function scalePoints(value: number, options: { sign?: boolean } = {}): string {
+  const text = fmt.coefficient(value, 2);
+  return options.sign && value > 0 && Number(text) !== 0 ? `+${text}` : text;
+}
+
+function meanView(m: MeanSummary) {
+  return { label: m.label, n: fmt.count(m.n), mean: scalePoints(m.mean), lower: scalePoints(m.interval.lower), upper: scalePoints(m.interval.upper) };
+}
+
+const TEST_NAMES: Record<string, string> = {
+  welch: "Welch's t test",
+  student: "Student's t test (equal spreads assumed)",
+  rank: 'Mann–Whitney rank-sum test (normal approximation, corrected for ties and continuity)',
+};
+
+export function composeMeans(a: MeansAnalysis, decision: Decision, ctx: ComposeContext): Composed {
+  const t = ctx.templates;
+  const claim = a.claim;
+  const expectWord = claim.expect === 'lower' ? 'lower' : claim.expect === 'higher' ? 'higher' : '';
+  const oneSided = a.test ? a.test.alternative !== 'two-sided' : claim.sided === 'one-sided' && claim.expect !== 'different';
+  const focusLabel = a.focus?.label ?? claim.focusLabel ?? filterLabel(claim.focus);
+  const againstLabel = a.against?.label ?? claim.againstLabel ?? filterLabel(claim.against);
+  const labelsOnly = { focus: { label: focusLabel }, against: { label: againstLabel }, expectWord, oneSided };
+  const hypotheses = { null: t.render('means.null', labelsOnly), alternative: t.render('means.alternative', labelsOnly) };
+  if (a.status === 'too-little-data' || !a.focus || !a.against || !a.difference || !a.test) {
+    return tooLittle(a, decision, ctx, `${focusLabel} against ${againstLabel}, mean scores${scopeText(claim.where) ? `, for ${scopeText(claim.where)}` : ''}.`, hypotheses);
+  }
+  const d = a.difference;
+  const view: View = {
+    focus: meanView(a.focus),
+    against: meanView(a.against),
+    scope: scopeText(claim.where),
+    expectWord,
+    oneSided,
+    rank: claim.test === 'rank',
+    level: fmt.level(claim.confidence),
+    diff: scalePoints(d.value, { sign: true }),
+    diffLower: scalePoints(d.interval.lower, { sign: true }),
+    diffUpper: scalePoints(d.interval.upper, { sign: true }),
+    gap: scalePoints(Math.abs(d.value)),
+    diffWord: d.value < 0 ? 'lower' : 'higher',
+    testName: TEST_NAMES[claim.test] ?? claim.test,
+    adjustName: ctx.adjustName,
+    ...pView(decision, ctx),
+  };
+  const scale = a.scale ? ` on a scale of ${a.scale[0]} to ${a.scale[1]}` : '';
+  const numbers: NumberRow[] = [
+    { label: a.focus.label, value: `mean ${scalePoints(a.focus.mean)}${scale} of ${fmt.count(a.focus.n)} (interval ${scalePoints(a.focus.interval.lower)} to ${scalePoints(a.focus.interval.upper)}; SD ${scalePoints(a.focus.sd)})` },
+    { label: a.against.label, value: `mean ${scalePoints(a.against.mean)}${scale} of ${fmt.count(a.against.n)} (interval ${scalePoints(a.against.interval.lower)} to ${scalePoints(a.against.interval.upper)}; SD ${scalePoints(a.against.sd)})` },
+    { label: 'Difference in means', value: `${view.diff} scale points (interval ${view.diffLower} to ${view.diffUpper})` },
+    ...commonRows(a, decision, ctx),
+    ...(a.superiority !== undefined
+      ? [{ label: 'Chance a respondent in the first group answers higher', value: `${fmt.percent(a.superiority)} (ties count half)` }]
+      : []),
+  ];
+  const cautions: string[] = [];
+  if (a.relation !== 'separate') {
+    const inner = a.relation === 'focus-inside' ? claim.focusLabel ?? filterLabel(claim.focus) : claim.againstLabel ?? filterLabel(claim.against);
+    const outer = a.relation === 'focus-inside' ? claim.againstLabel ?? filterLabel(claim.against) : claim.focusLabel ?? filterLabel(claim.focus);
+    const restN = a.relation === 'focus-inside' ? a.against.n : a.focus.n;
+    cautions.push(t.render('caution.rest-of-group', { inner, outer, restN: fmt.count(restN) }));
+  }
+  if (claim.test !== 'rank') cautions.push(t.render('means.caution-scale', {}));
+  for (const m of [a.focus, a.against]) {
+    if (m.n < 30) cautions.push(t.render('means.caution-small', meanView(m)));
+  }
+  if (ctx.adjusted) cautions.push(t.render('caution.not-adjusted-interval', view));
+  const chart: Chart = {
+    data: {
+      kind: 'means',
+      bars: [a.focus, a.against].map((m) => ({ label: m.label, mean: m.mean, lower: m.interval.lower, upper: m.interval.upper, n: m.n })),
+      axisTitle: 'Mean score',
+      domain: a.scale ?? [Math.floor(Math.min(a.focus.interval.lower, a.against.interval.lower)), Math.ceil(Math.max(a.focus.interval.upper, a.against.interval.upper))],
+    },
+    alt: `Chart of mean scores with ${fmt.level(claim.confidence)} intervals: ${a.focus.label} ${scalePoints(a.focus.mean)} (${scalePoints(a.focus.interval.lower)} to ${scalePoints(a.focus.interval.upper)}), ${a.against.label} ${scalePoints(a.against.mean)} (${scalePoints(a.against.interval.lower)} to ${scalePoints(a.against.interval.upper)}).`,
+  };
+  return {
+    section: {
+      compared: t.render('means.compared', view),
+      hypotheses,
+      numbers,
+      chart,
+      verdictText: t.render(`means.${decision.verdict}`, view),
+      cautions,
+      methodLine: t.render('means.method', view),
+    },
+    key: t.render('means.key', view),
+  };
+}
