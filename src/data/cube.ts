@@ -31,6 +31,7 @@ import { isBlankRow } from './rows.js';
 import type { SheetRow } from './rows.js';
 import { fixFor } from '../suggest.js';
 import { columnLetters } from './xlsx.js';
+import { kindMismatch, sniffKind } from './kind.js';
 
 /** How many row problems are gathered before reading stops. */
 export const MAX_PROBLEMS = 25;
@@ -174,6 +175,11 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
     (h) => h,
     () => '',
   );
+  const mismatch = kindMismatch(await sniffKind(source.path), source.format, file);
+  if (mismatch !== undefined) {
+    await shaPromise;
+    throw mismatch;
+  }
   let sheet: string | undefined;
   let rows: AsyncGenerator<SheetRow>;
   let close = (): void => {};

@@ -12,7 +12,10 @@
  * A formula cell is read from its cached value `v`; formulas are never evaluated, and a formula with no cached value
  * is an error naming the cell. Numbers are written as JavaScript's shortest text after rounding to 15 significant
  * digits, the precision a spreadsheet program displays (so a stored 0.30000000000000004 reads "0.3", as the user sees
- * it). Styles are not read, so a date formatted cell reads as its serial number.
+ * it). The styles part is read for its number formats only: a number cell whose format shows a date or time reads
+ * as an ISO 8601 date ("2026-01-15"), date and time, or time, as the user sees a date rather than its serial number.
+ *
+ * The sheet part itself, the only large one, is read by a focused scanner (sheet-scan.ts) rather than saxes.
  */
 import yauzl from 'yauzl';
 import type { Entry, ZipFile } from 'yauzl';
@@ -20,6 +23,7 @@ import { SaxesParser } from 'saxes';
 import type { SaxesTagPlain } from 'saxes';
 import { InputError } from '../errors.js';
 import type { ReadOptions, SheetRow } from './rows.js';
+import { SheetScanner, isBuiltInDateFormat, isDateFormatCode } from './sheet-scan.js';
 
 export interface XlsxOptions extends ReadOptions {
   /** Worksheet name; default the first visible sheet. */
@@ -253,10 +257,15 @@ export async function openXlsxSheet(path: string, options: XlsxOptions = {}): Pr
     if (workbookEntry === undefined) throw notWorkbook(workbookPart);
     const workbookRels = await relations(workbookPart);
 
+    let date1904 = false;
     const sheetTags = await collect(
       parsePart(zip, workbookEntry, options.chunkSize, (p) => {
         const out: Array<{ name: string; hidden: boolean; rid: string }> = [];
         p.on('opentag', (tag) => {
+          if (localName(tag.name) === 'workbookPr') {
+            const v = attr(tag as SaxesTagPlain, 'date1904');
+            date1904 = v === '1' || v === 'true';
+          }
           if (localName(tag.name) !== 'sheet') return;
           const t = tag as SaxesTagPlain;
           out.push({ name: attr(t, 'name') ?? '', hidden: (attr(t, 'state') ?? 'visible') !== 'visible', rid: attr(t, 'id', true) ?? '' });
@@ -302,9 +311,24 @@ export async function openXlsxSheet(path: string, options: XlsxOptions = {}): Pr
     const stringsEntry = entries.get(stringsPart ?? 'xl/sharedStrings.xml');
     const shared = stringsEntry === undefined ? [] : await collect(parsePart(zip, stringsEntry, options.chunkSize, sharedStringsHandler, damaged(stringsPart ?? 'xl/sharedStrings.xml')));
 
-    const rows = sheetRows(zip, sheetEntry, options.chunkSize, shared, file, chosen.name, damaged(chosen.part), close);
+    // Styles: which cell formats show dates (the workbook relationship of type styles, usually xl/styles.xml).
+    let stylesPart: string | undefined;
+    for (const r of workbookRels.values()) if (r.type.endsWith('/styles')) stylesPart = r.target;
+    const stylesEntry = entries.get(stylesPart ?? 'xl/styles.xml');
+    const dateStyles = stylesEntry === undefined ? [] : (await collect(parsePart(zip, stylesEntry, options.chunkSize, stylesHandler, damaged(stylesPart ?? 'xl/styles.xml'))))[0] ?? [];
+
+    const rows = sheetRows(zip, sheetEntry, options.chunkSize, { file, sheet: chosen.name, shared, dateStyles, date1904, damaged: damaged(chosen.part) }, close);
     handedOver = true;
     return { sheet: chosen.name, sheets, rows, close };
+  } catch (e) {
+    if (e instanceof InputError) throw e;
+    // A zip-level failure (bad central directory, checksum, truncated data) while reading the small parts.
+    throw new InputError({
+      file,
+      problem: 'The workbook is damaged: a part of it cannot be unpacked',
+      found: e instanceof Error ? e.message : String(e),
+      fix: 'Open the workbook in a spreadsheet program and save it again as .xlsx',
+    });
   } finally {
     if (!handedOver) close();
   }
@@ -349,141 +373,70 @@ function sharedStringsHandler(p: SaxesParser): () => string[] {
   return () => out.splice(0);
 }
 
+/**
+ * `cellXfs` of the styles part (ECMA-376 Part 1, §18.8.10): for each cell format, in order, whether its number format
+ * (built in, or one of `numFmts`) shows a date or time. Yields one array, once the part is read.
+ */
+function stylesHandler(p: SaxesParser): () => boolean[][] {
+  const custom = new Map<number, string>();
+  const formats: number[] = [];
+  let inCellXfs = false;
+  let done = false;
+  p.on('opentag', (tag) => {
+    const t = tag as SaxesTagPlain;
+    const n = localName(tag.name);
+    if (n === 'numFmt') {
+      const id = Number(attr(t, 'numFmtId'));
+      if (Number.isInteger(id)) custom.set(id, attr(t, 'formatCode') ?? '');
+    } else if (n === 'cellXfs') inCellXfs = true;
+    else if (n === 'xf' && inCellXfs) formats.push(Number(attr(t, 'numFmtId') ?? '0'));
+  });
+  p.on('closetag', (tag) => {
+    const n = localName(tag.name);
+    if (n === 'cellXfs') inCellXfs = false;
+    else if (n === 'styleSheet') done = true;
+  });
+  return () => {
+    if (!done) return [];
+    done = false;
+    return [formats.map((id) => (custom.has(id) ? isDateFormatCode(custom.get(id)!) : isBuiltInDateFormat(id)))];
+  };
+}
+
 async function* sheetRows(
   zip: ZipFile,
   entry: Entry,
   chunkSize: number | undefined,
-  shared: string[],
-  file: string,
-  sheet: string,
-  damaged: (message: string) => InputError,
+  ctx: ConstructorParameters<typeof SheetScanner>[0],
   close: () => void,
 ): AsyncGenerator<SheetRow> {
   try {
-    yield* parsePart<SheetRow>(
-      zip,
-      entry,
-      chunkSize,
-      (p) => {
-        const out: SheetRow[] = [];
-        let rowNumber = 0;
-        let values: string[] = [];
-        let col = -1;
-        let ref = '';
-        let type = 'n';
-        let hasFormula = false;
-        let hasValue = false;
-        let v = '';
-        let inline = '';
-        let collect: 'v' | 't' | null = null;
-        let phonetic = 0;
-        let inInline = false;
-        const fail = (problem: string, found: string, fix: string): never => {
-          throw new InputError({ file, sheet, row: rowNumber, field: `cell ${ref}`, found, problem, fix });
-        };
-        p.on('opentag', (tag) => {
-          const t = tag as SaxesTagPlain;
-          switch (localName(tag.name)) {
-            case 'row': {
-              const r = attr(t, 'r');
-              rowNumber = r !== undefined && /^\d+$/.test(r) ? Number(r) : rowNumber + 1;
-              values = [];
-              col = -1;
-              break;
-            }
-            case 'c': {
-              const r = attr(t, 'r');
-              const m = r === undefined ? null : /^([A-Za-z]{1,3})(\d+)$/.exec(r);
-              col = m !== null ? columnIndex(m[1]!) : col + 1;
-              ref = `${columnLetters(col)}${rowNumber}`;
-              type = attr(t, 't') ?? 'n';
-              hasFormula = false;
-              hasValue = false;
-              v = '';
-              inline = '';
-              break;
-            }
-            case 'f':
-              hasFormula = true;
-              break;
-            case 'v':
-              hasValue = true;
-              collect = 'v';
-              break;
-            case 'is':
-              inInline = true;
-              break;
-            case 'rPh':
-              phonetic += 1;
-              break;
-            case 't':
-              if (inInline && phonetic === 0) collect = 't';
-              break;
-          }
-        });
-        const onText = (s: string) => {
-          if (collect === 'v') v += s;
-          else if (collect === 't') inline += s;
-        };
-        p.on('text', onText);
-        p.on('cdata', onText);
-        p.on('closetag', (tag) => {
-          switch (localName(tag.name)) {
-            case 'v':
-            case 't':
-              collect = null;
-              break;
-            case 'is':
-              inInline = false;
-              break;
-            case 'rPh':
-              phonetic -= 1;
-              break;
-            case 'c': {
-              if (hasFormula && !hasValue) {
-                fail(
-                  'A formula cell has no saved result, and warrant does not calculate formulas',
-                  'a formula with no cached value',
-                  'Open the workbook in a spreadsheet program, let it calculate, and save it; or paste the values in place of the formulas',
-                );
-              }
-              let text: string;
-              switch (type) {
-                case 's': {
-                  const i = Number(v.trim());
-                  const s = Number.isInteger(i) ? shared[i] : undefined;
-                  if (s === undefined) {
-                    fail('The cell refers to a shared string that the workbook does not have', v, 'Open the workbook in a spreadsheet program and save it again as .xlsx');
-                  }
-                  text = s!;
-                  break;
-                }
-                case 'inlineStr':
-                  text = hasValue ? v : inline;
-                  break;
-                case 'b':
-                  text = v.trim() === '1' ? 'TRUE' : v.trim() === '0' ? 'FALSE' : v;
-                  break;
-                case 'n':
-                  text = formatNumber(v);
-                  break;
-                default: // str, e, d
-                  text = v;
-              }
-              while (values.length < col) values.push('');
-              values[col] = text;
-              break;
-            }
-            case 'row':
-              out.push({ row: rowNumber, values });
-              values = [];
-              break;
-          }
-        });
-        return () => out.splice(0);
-      },
-      damaged,
-    );
+    const stream = await openEntry(zip, entry);
+    try {
+      const decoder = new TextDecoder('utf-8');
+      const scanner = new SheetScanner(ctx);
+      for await (const raw of stream as AsyncIterable<Buffer>) {
+        const step = chunkSize !== undefined && chunkSize > 0 ? chunkSize : raw.length;
+        for (let at = 0; at < raw.length; at += step) {
+          const rows = scanner.feed(decoder.decode(raw.subarray(at, at + step), { stream: true }));
+          for (const r of rows) yield r;
+        }
+      }
+      for (const r of scanner.feed(decoder.decode())) yield r;
+      for (const r of scanner.finish()) yield r;
+    } catch (e) {
+      if (e instanceof InputError) throw e;
+      // A zip-level failure (bad checksum, truncated data) from the inflating stream.
+      throw new InputError({
+        file: ctx.file,
+        sheet: ctx.sheet,
+        problem: 'The workbook is damaged: the sheet cannot be unpacked',
+        found: e instanceof Error ? e.message : String(e),
+        fix: 'Open the workbook in a spreadsheet program and save it again as .xlsx',
+      });
+    } finally {
+      stream.destroy();
+    }
   } finally {
     close();
   }

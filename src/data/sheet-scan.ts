@@ -1,0 +1,385 @@
+/**
+ * The hot path of the XLSX reader: a hand-written scanner for a worksheet part's XML (ECMA-376 Part 1, §18.3.1
+ * `sheetData`, `row`, `c`, `v`, `f`, `is`), fed decoded text piece by piece. A general SAX parser builds an attribute
+ * object and fires events for every tag and text run; at a million rows of a dozen cells that is most of the reading
+ * time, so the sheet itself is scanned here with indexOf and only what a cell needs is taken (its reference, type
+ * and style, and the text of `v` or of the `t` runs of an inline string). The small parts of the workbook (workbook,
+ * relationships, styles, shared strings) are still read with saxes.
+ *
+ * XML handled (W3C XML 1.0 §2.4 character data, §2.5 comments, §2.6 processing instructions, §2.7 CDATA sections,
+ * §3.1 tags and attributes, §4.1 character and predefined entity references): comments, processing instructions and
+ * CDATA sections are recognised anywhere; a document type declaration or an entity other than the five predefined
+ * ones and numeric references is damage. Anything the scanner cannot make sense of (a tag never closed, an element
+ * left open at the end, a bad reference) raises `damaged`, never a wrong value.
+ */
+import { InputError } from '../errors.js';
+import type { SheetRow } from './rows.js';
+import { columnIndex, columnLetters, formatNumber } from './xlsx.js';
+
+export interface ScanContext {
+  file: string;
+  sheet: string;
+  shared: string[];
+  /** For each cell style index (the `s` attribute), true when its number format shows a date or time. */
+  dateStyles: boolean[];
+  /** True for the 1904 date system (workbookPr date1904). */
+  date1904: boolean;
+  damaged: (message: string) => InputError;
+}
+
+const LT = 60; // <
+const GT = 62; // >
+const SLASH = 47; // /
+const BANG = 33; // !
+const QUESTION = 63; // ?
+const DQUOTE = 34;
+const SQUOTE = 39;
+
+const ENTITIES: Record<string, string> = { amp: '&', lt: '<', gt: '>', quot: '"', apos: "'" };
+
+/** Replace the predefined entities and character references in text; anything else is damage. */
+export function decodeEntities(text: string, damaged: (message: string) => InputError): string {
+  if (text.indexOf('&') < 0) return text;
+  return text.replace(/&([^;&\s]{0,12});?/g, (whole, name: string) => {
+    if (!whole.endsWith(';')) throw damaged(`an "&" that does not start a reference: ${JSON.stringify(whole)}`);
+    const named = ENTITIES[name];
+    if (named !== undefined) return named;
+    const m = /^#(?:x([0-9a-fA-F]{1,6})|([0-9]{1,7}))$/.exec(name);
+    const code = m === null ? NaN : m[1] !== undefined ? parseInt(m[1], 16) : Number(m[2]);
+    if (!(code >= 1 && code <= 0x10ffff) || (code >= 0xd800 && code <= 0xdfff)) throw damaged(`an unknown or bad reference "&${name};"`);
+    return String.fromCodePoint(code);
+  });
+}
+
+/** Local name of a tag (prefix dropped), from the text between '<' (or '</') and the end of the name. */
+function tagName(s: string, from: number, end: number): string {
+  let j = from;
+  while (j < end) {
+    const ch = s.charCodeAt(j);
+    if (ch === 32 || ch === 9 || ch === 10 || ch === 13 || ch === SLASH) break;
+    j++;
+  }
+  const name = s.slice(from, j);
+  const colon = name.indexOf(':');
+  return colon < 0 ? name : name.slice(colon + 1);
+}
+
+/** The attributes r, t and s of a tag (unprefixed only), read in one pass. */
+interface CellAttributes {
+  r: string | undefined;
+  t: string | undefined;
+  s: string | undefined;
+}
+
+function readAttributes(s: string, from: number, end: number, out: CellAttributes, damaged: ScanContext['damaged']): void {
+  out.r = undefined;
+  out.t = undefined;
+  out.s = undefined;
+  let j = from;
+  for (;;) {
+    while (j < end) {
+      const ch = s.charCodeAt(j);
+      if (ch !== 32 && ch !== 9 && ch !== 10 && ch !== 13) break;
+      j++;
+    }
+    if (j >= end || s.charCodeAt(j) === SLASH) return;
+    const eq = s.indexOf('=', j);
+    if (eq < 0 || eq >= end) throw damaged('an attribute without a value');
+    const name = s.slice(j, eq).trim();
+    let q = eq + 1;
+    while (q < end && s.charCodeAt(q) !== DQUOTE && s.charCodeAt(q) !== SQUOTE) {
+      const ch = s.charCodeAt(q);
+      if (ch !== 32 && ch !== 9 && ch !== 10 && ch !== 13) throw damaged('an attribute value without quotes');
+      q++;
+    }
+    if (q >= end) throw damaged('an attribute value without quotes');
+    const close = s.indexOf(s[q]!, q + 1);
+    if (close < 0 || close >= end) throw damaged('an attribute value never closed');
+    if (name === 'r' || name === 't' || name === 's') out[name] = decodeEntities(s.slice(q + 1, close), damaged);
+    j = close + 1;
+  }
+}
+
+const MS_PER_DAY = 86_400_000;
+
+/**
+ * A date serial number as ISO 8601 text: date, date and time, or time alone (serials below 1). The 1900 date system
+ * counts 1900-01-01 as day 1 and keeps the fictitious 1900-02-29 as day 60 (ECMA-376 Part 1, §18.17.4.1); the 1904
+ * system counts 1904-01-01 as day 0. Times are rounded to the second.
+ */
+export function serialToIso(serial: number, date1904: boolean): string {
+  if (!Number.isFinite(serial) || serial < 0) return formatNumber(String(serial));
+  let days = Math.floor(serial);
+  let seconds = Math.round((serial - days) * 86400);
+  if (seconds === 86400) {
+    days += 1;
+    seconds = 0;
+  }
+  const two = (n: number) => String(n).padStart(2, '0');
+  const time = `${two(Math.floor(seconds / 3600))}:${two(Math.floor((seconds % 3600) / 60))}:${two(seconds % 60)}`;
+  if (days === 0 && !date1904) return time;
+  let date: string;
+  if (!date1904 && days === 60) date = '1900-02-29';
+  else {
+    const epoch = date1904 ? Date.UTC(1904, 0, 1) : days < 60 ? Date.UTC(1899, 11, 31) : Date.UTC(1899, 11, 30);
+    date = new Date(epoch + days * MS_PER_DAY).toISOString().slice(0, 10);
+  }
+  return seconds === 0 ? date : `${date} ${time}`;
+}
+
+/**
+ * Scanner state for one worksheet. `feed` takes the next piece of decoded XML and returns the rows completed by it;
+ * `finish` checks that the part ended cleanly and returns any last rows.
+ */
+export class SheetScanner {
+  private pending = '';
+  private out: SheetRow[] = [];
+  private rowNumber = 0;
+  private inRow = false;
+  private values: string[] = [];
+  private col = -1;
+  private inCell = false;
+  private type = 'n';
+  private style = -1;
+  private hasFormula = false;
+  private hasValue = false;
+  private v = '';
+  private inline = '';
+  private collect: 0 | 1 | 2 = 0; // 0 none, 1 v, 2 inline t
+  private inInline = false;
+  private phonetic = 0;
+  private readonly attrs: CellAttributes = { r: undefined, t: undefined, s: undefined };
+
+  constructor(private readonly ctx: ScanContext) {}
+
+  feed(text: string): SheetRow[] {
+    this.pending = this.pending.length === 0 ? text : this.pending + text;
+    this.scan(false);
+    return this.out.splice(0);
+  }
+
+  finish(): SheetRow[] {
+    this.scan(true);
+    if (this.pending.trim() !== '') throw this.ctx.damaged('the part ends in the middle of a tag');
+    if (this.inRow || this.inCell) throw this.ctx.damaged(`the part ends inside ${this.inCell ? 'a cell' : 'a row'}`);
+    return this.out.splice(0);
+  }
+
+  private scan(final: boolean): void {
+    const s = this.pending;
+    const n = s.length;
+    const damaged = this.ctx.damaged;
+    let i = 0;
+    while (i < n) {
+      if (s.charCodeAt(i) !== LT) {
+        let j = s.indexOf('<', i);
+        if (j < 0) {
+          if (!final) break;
+          j = n;
+        }
+        if (this.collect !== 0) this.text(decodeEntities(s.slice(i, j), damaged));
+        i = j;
+        continue;
+      }
+      const c1 = i + 1 < n ? s.charCodeAt(i + 1) : -1;
+      if (c1 === -1) break;
+      if (c1 === BANG) {
+        if (s.startsWith('<!--', i)) {
+          const e = s.indexOf('-->', i + 4);
+          if (e < 0) break;
+          i = e + 3;
+          continue;
+        }
+        if (s.startsWith('<![CDATA[', i)) {
+          const e = s.indexOf(']]>', i + 9);
+          if (e < 0) break;
+          if (this.collect !== 0) this.text(s.slice(i + 9, e));
+          i = e + 3;
+          continue;
+        }
+        if (n - i < 9 && !final) break;
+        throw damaged('a document type or other declaration inside the sheet');
+      }
+      if (c1 === QUESTION) {
+        const e = s.indexOf('?>', i + 2);
+        if (e < 0) break;
+        i = e + 2;
+        continue;
+      }
+      // A tag: find its '>' outside quoted attribute values.
+      let e = i + 1;
+      let quote = 0;
+      for (; e < n; e++) {
+        const ch = s.charCodeAt(e);
+        if (quote !== 0) {
+          if (ch === quote) quote = 0;
+        } else if (ch === DQUOTE || ch === SQUOTE) quote = ch;
+        else if (ch === GT) break;
+        else if (ch === LT) throw damaged('a "<" inside a tag');
+      }
+      if (e >= n) break;
+      if (c1 === SLASH) this.close(tagName(s, i + 2, e));
+      else {
+        const selfClosing = s.charCodeAt(e - 1) === SLASH;
+        const name = tagName(s, i + 1, selfClosing ? e - 1 : e);
+        if (name === '') throw damaged('a tag with no name');
+        this.open(name, s, i + 1 + name.length, selfClosing ? e - 1 : e);
+        if (selfClosing) this.close(name);
+      }
+      i = e + 1;
+    }
+    this.pending = i >= n ? '' : s.slice(i);
+  }
+
+  private text(t: string): void {
+    if (this.collect === 1) this.v += t;
+    else this.inline += t;
+  }
+
+  private open(name: string, s: string, attrFrom: number, attrEnd: number): void {
+    switch (name) {
+      case 'row': {
+        if (this.inRow) throw this.ctx.damaged('a row inside a row');
+        readAttributes(s, attrFrom, attrEnd, this.attrs, this.ctx.damaged);
+        const r = this.attrs.r;
+        this.rowNumber = r !== undefined && /^\d{1,9}$/.test(r) ? Number(r) : this.rowNumber + 1;
+        this.inRow = true;
+        this.values = [];
+        this.col = -1;
+        break;
+      }
+      case 'c': {
+        if (!this.inRow || this.inCell) throw this.ctx.damaged('a cell outside a row');
+        readAttributes(s, attrFrom, attrEnd, this.attrs, this.ctx.damaged);
+        const r = this.attrs.r;
+        const m = r === undefined ? null : /^([A-Za-z]{1,3})(\d+)$/.exec(r);
+        this.col = m !== null ? columnIndex(m[1]!) : this.col + 1;
+        if (this.col > 16383) throw this.ctx.damaged(`a cell beyond the last column (${r ?? ''})`);
+        this.type = this.attrs.t ?? 'n';
+        this.style = this.attrs.s !== undefined && /^\d{1,6}$/.test(this.attrs.s) ? Number(this.attrs.s) : -1;
+        this.hasFormula = false;
+        this.hasValue = false;
+        this.v = '';
+        this.inline = '';
+        this.inCell = true;
+        break;
+      }
+      case 'f':
+        this.hasFormula = true;
+        break;
+      case 'v':
+        if (this.inCell) {
+          this.hasValue = true;
+          this.collect = 1;
+        }
+        break;
+      case 'is':
+        this.inInline = true;
+        break;
+      case 'rPh':
+        this.phonetic += 1;
+        break;
+      case 't':
+        if (this.inInline && this.phonetic === 0) this.collect = 2;
+        break;
+    }
+  }
+
+  private fail(problem: string, found: string, fix: string): never {
+    const ref = `${columnLetters(this.col)}${this.rowNumber}`;
+    throw new InputError({ file: this.ctx.file, sheet: this.ctx.sheet, row: this.rowNumber, field: `cell ${ref}`, found, problem, fix });
+  }
+
+  private close(name: string): void {
+    switch (name) {
+      case 'v':
+      case 't':
+        this.collect = 0;
+        break;
+      case 'is':
+        this.inInline = false;
+        break;
+      case 'rPh':
+        this.phonetic = Math.max(0, this.phonetic - 1);
+        break;
+      case 'c': {
+        if (!this.inCell) throw this.ctx.damaged('a cell closed that was never opened');
+        this.inCell = false;
+        this.collect = 0;
+        if (this.hasFormula && !this.hasValue) {
+          this.fail(
+            'A formula cell has no saved result, and warrant does not calculate formulas',
+            'a formula with no cached value',
+            'Open the workbook in a spreadsheet program, let it calculate, and save it; or paste the values in place of the formulas',
+          );
+        }
+        let text: string;
+        switch (this.type) {
+          case 's': {
+            const t = this.v.trim();
+            const k = /^\d{1,9}$/.test(t) ? Number(t) : -1;
+            const found = k >= 0 ? this.ctx.shared[k] : undefined;
+            if (found === undefined) {
+              this.fail('The cell refers to a shared string that the workbook does not have', this.v, 'Open the workbook in a spreadsheet program and save it again as .xlsx');
+            }
+            text = found!;
+            break;
+          }
+          case 'inlineStr':
+            text = this.hasValue ? this.v : this.inline;
+            break;
+          case 'b': {
+            const t = this.v.trim();
+            text = t === '1' ? 'TRUE' : t === '0' ? 'FALSE' : this.v;
+            break;
+          }
+          case 'n':
+            text =
+              this.style >= 0 && this.ctx.dateStyles[this.style] === true && this.v.trim() !== '' && Number.isFinite(Number(this.v))
+                ? serialToIso(Number(this.v), this.ctx.date1904)
+                : formatNumber(this.v);
+            break;
+          default: // str, e, d
+            text = this.v;
+        }
+        const values = this.values;
+        while (values.length < this.col) values.push('');
+        values[this.col] = text;
+        break;
+      }
+      case 'row':
+        if (!this.inRow) throw this.ctx.damaged('a row closed that was never opened');
+        if (this.inCell) throw this.ctx.damaged('a row closed inside a cell');
+        this.inRow = false;
+        this.out.push({ row: this.rowNumber, values: this.values });
+        this.values = [];
+        break;
+    }
+  }
+}
+
+/**
+ * Number format ids built into the format (ECMA-376 Part 1, §18.8.30 numFmt) that show dates or times: 14-22 and
+ * 45-47, and the East Asian date formats 27-36 and 50-58.
+ */
+export function isBuiltInDateFormat(id: number): boolean {
+  return (id >= 14 && id <= 22) || (id >= 27 && id <= 36) || (id >= 45 && id <= 47) || (id >= 50 && id <= 58);
+}
+
+/**
+ * True when a custom number format code shows a date or time: it has d, m, y, h or s outside quoted text, escaped
+ * characters and bracketed sections (colours, conditions, locales), other than in the elapsed-time forms. Common
+ * practice for format codes (ECMA-376 Part 1, §18.8.31 numFmts).
+ */
+export function isDateFormatCode(code: string): boolean {
+  const section = code.split(';')[0] ?? '';
+  const bare = section
+    .replace(/"[^"]*"/g, '')
+    .replace(/\\./g, '')
+    .replace(/_./g, '')
+    .replace(/\*./g, '')
+    .replace(/\[(h+|m+|s+)\]/gi, 'h')
+    .replace(/\[[^\]]*\]/g, '');
+  if (/general/i.test(bare)) return false;
+  return /[dmyhs]/i.test(bare);
+}
