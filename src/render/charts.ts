@@ -253,7 +253,8 @@ function scatterSpec(data: Extract<ChartData, { kind: 'scatter' }>, height: numb
       mark: { type: 'point', filled: true, size: 40, color: PALETTE.primary, opacity: 0.8 },
       encoding: {
         x: { field: 'x', type: 'quantitative', title: data.xTitle, scale: xScale, axis: { format: fmt, grid: true } },
-        y: { field: 'y', type: 'quantitative', title: data.yTitle, scale: yScale, axis: { format: fmt, grid: true } },
+        // The vertical axis is named in the chart's title, set horizontally: a long rotated title would be cut off.
+        y: { field: 'y', type: 'quantitative', title: null, scale: yScale, axis: { format: fmt, grid: true } },
       },
     },
   ];
@@ -281,10 +282,9 @@ function scatterSpec(data: Extract<ChartData, { kind: 'scatter' }>, height: numb
     });
   }
   return {
-    // The note (e.g. "r = 0.41") sits above the plot as its title, where it can never cover a point.
-    ...(data.note
-      ? { title: { text: data.note, anchor: 'start', fontSize: 10, fontWeight: 'bold', color: PALETTE.ink, offset: 6 } }
-      : {}),
+    // The note (e.g. "r = 0.41") sits above the plot as its title, where it can never cover a point; the vertical
+    // axis's name follows it as a subtitle, read across like every other text.
+    title: verticalTitle(data.yTitle, data.note),
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
     width: CHART_WIDTH,
     height,
@@ -293,6 +293,18 @@ function scatterSpec(data: Extract<ChartData, { kind: 'scatter' }>, height: numb
     config: baseConfig(),
     layer: layers,
   };
+}
+
+/**
+ * A chart title naming the vertical axis, set horizontally above the plot at its left, under an optional
+ * bold note. Used instead of a rotated axis title, which a long name would overrun.
+ */
+function verticalTitle(axisTitle: string, note?: string): Record<string, unknown> {
+  const axis = axisTitle;
+  const common = { anchor: 'start', color: PALETTE.ink, offset: 8, subtitleColor: PALETTE.ink, subtitleFontSize: AXIS_TITLE_SIZE };
+  return note
+    ? { ...common, text: note, fontSize: 10, fontWeight: 'bold', subtitle: axis, subtitlePadding: 3 }
+    : { ...common, text: axis, fontSize: AXIS_TITLE_SIZE, fontWeight: 'normal' };
 }
 
 function periodsSpec(data: Extract<ChartData, { kind: 'periods' }>, height: number): Record<string, unknown> {
@@ -324,7 +336,7 @@ function periodsSpec(data: Extract<ChartData, { kind: 'periods' }>, height: numb
       mark: { type: 'area', color: PALETTE.light, opacity: 0.45 },
       encoding: {
         x,
-        y: { field: 'lower', type: 'quantitative', scale: yScale, title: data.axisTitle, axis: { format: '.0%', grid: true } },
+        y: { field: 'lower', type: 'quantitative', scale: yScale, title: null, axis: { format: '.0%', grid: true } },
         y2: { field: 'upper' },
       },
     },
@@ -341,6 +353,7 @@ function periodsSpec(data: Extract<ChartData, { kind: 'periods' }>, height: numb
   }
   return {
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
+    title: verticalTitle(data.axisTitle),
     width: CHART_WIDTH,
     height,
     autosize: { type: 'fit', contains: 'padding' },

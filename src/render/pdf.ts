@@ -29,7 +29,7 @@ export const FIXED_EPOCH = new Date(Date.UTC(2000, 0, 1, 0, 0, 0));
 
 // ---- Page geometry (points; A4 is 595.28 x 841.89) ----
 const PAGE = { width: 595.28, height: 841.89 };
-const MARGIN = { top: 66, bottom: 62, left: 66, right: 66 };
+const MARGIN = { top: 58, bottom: 56, left: 66, right: 66 };
 const CONTENT_WIDTH = PAGE.width - MARGIN.left - MARGIN.right;
 const CONTENT_BOTTOM = PAGE.height - MARGIN.bottom;
 /** Slack kept under every block so that rounding in line heights can never push text past the margin. */
@@ -42,15 +42,21 @@ const COLOR = {
   accent: '#1f4e8c',
   rule: '#cfd5dc',
   shade: '#f1f4f8',
+  /** Notices: an amber rule and a warm shade, with dark ink for the label (contrast above 7:1 on the shade). */
+  notice: '#c4620f',
+  noticeShade: '#fbf1e6',
+  noticeInk: '#7a3a05',
 } as const;
 const SIZE = { title: 24, h2: 16, h3: 13, sub: 10.5, body: 10.5, table: 9.5, small: 8.5, furniture: 8 } as const;
 const LINE_GAP = 2.2;
 const PARA_GAP = 8;
+/** The verdict badge: bold word beside a verdict mark in an outlined box. */
+const BADGE = { size: 11, padX: 9, height: 22 } as const;
 /** Space between two claims that share a page (a rule is drawn in it). */
 const CLAIM_GAP = 24;
 
 /** Verdict marks: a shape for each verdict, so the verdict never rests on colour alone. */
-const MARK_DESCRIPTION: Record<VerdictKind, string> = {
+export const MARK_DESCRIPTION: Record<VerdictKind, string> = {
   supported: 'filled circle',
   'not-supported': 'hollow circle',
   opposite: 'downward triangle',
@@ -229,10 +235,11 @@ class Layout {
   }
 
   /** A bulleted list (L > LI > Lbl + LBody); the bullet glyph is drawn as a small vector dot. */
-  bullets(items: string[]): Block {
+  bullets(items: string[], opts: { size?: number } = {}): Block {
+    const size = opts.size ?? SIZE.body;
     const indent = 14;
     const width = CONTENT_WIDTH - indent;
-    const itemHeights = (): number[] => items.map((t) => this.textHeight(t, 'regular', SIZE.body, width) + 3);
+    const itemHeights = (): number[] => items.map((t) => this.textHeight(t, 'regular', size, width) + 3);
     return {
       after: 9,
       height: () => itemHeights().reduce((a, b) => a + b, 0) + 6,
@@ -248,11 +255,11 @@ class Layout {
           const li = this.doc.struct('LI');
           list.add(li);
           this.artifact(() => {
-            this.doc.circle(MARGIN.left + 4, top + SIZE.body * 0.72, 1.9).fill(COLOR.accent);
+            this.doc.circle(MARGIN.left + 4, top + size * 0.72, 1.9).fill(COLOR.accent);
           });
           li.add(
             this.doc.struct('LBody', {}, () => {
-              this.setFont('regular', SIZE.body);
+              this.setFont('regular', size);
               this.doc.text(text, MARGIN.left + indent, top, { width, lineGap: LINE_GAP });
             }),
           );
@@ -289,43 +296,51 @@ class Layout {
 
   /** The verdict badge of a claim: outlined box with the mark and the verdict word. */
   badge(kind: VerdictKind, label: string): Block {
-    const size = 11;
-    const padX = 9;
-    const height = 22;
     return {
-      height: () => height + 12,
-      minHeight: () => height + 12,
+      height: () => BADGE.height + 12,
+      minHeight: () => BADGE.height + 12,
       draw: (parent) => {
         const top = this.y;
-        this.doc.font(FONT_NAME.bold).fontSize(size);
-        const w = Math.min(CONTENT_WIDTH, this.doc.widthOfString(label) + 2 * padX + 16);
-        this.artifact(() => {
-          this.doc.lineWidth(1).roundedRect(MARGIN.left, top, w, height, 3).stroke(COLOR.accent);
-          this.drawMark(kind, MARGIN.left + padX + 4, top + height / 2, 4.2);
-        });
-        parent.add(
-          this.doc.struct('P', {}, () => {
-            this.setFont('bold', size, COLOR.accent);
-            this.doc.text(label, MARGIN.left + padX + 14, top + (height - size * 1.36) / 2, {
-              width: w - padX - 14,
-              lineBreak: false,
-            });
-          }),
-        );
-        this.y = top + height + 12;
+        this.drawBadge(kind, label, MARGIN.left, top, parent);
+        this.y = top + BADGE.height + 12;
       },
     };
+  }
+
+  badgeWidth(label: string): number {
+    this.doc.font(FONT_NAME.bold).fontSize(BADGE.size);
+    return Math.min(CONTENT_WIDTH, this.doc.widthOfString(label) + 2 * BADGE.padX + 16);
+  }
+
+  /** Draw a verdict badge with its top-left corner at (x, top); the word is a P under `parent`. */
+  drawBadge(kind: VerdictKind, label: string, x: number, top: number, parent: Struct): void {
+    const { size, padX, height } = BADGE;
+    const w = this.badgeWidth(label);
+    this.artifact(() => {
+      this.doc.lineWidth(1).roundedRect(x, top, w, height, 3).stroke(COLOR.accent);
+      this.drawMark(kind, x + padX + 4, top + height / 2, 4.2);
+    });
+    parent.add(
+      this.doc.struct('P', {}, () => {
+        this.setFont('bold', size, COLOR.accent);
+        this.doc.text(label, x + padX + 14, top + (height - size * 1.36) / 2, { width: w - padX - 14, lineBreak: false });
+      }),
+    );
   }
 
   /**
    * A table with a header row repeated on each page it continues on. Rows never split across pages and cell text
    * always wraps inside its column.
    */
-  table(columns: Column[], rows: Cell[][], opts: { header?: boolean; size?: number; spaceAfter?: number } = {}): Block {
+  table(
+    columns: Column[],
+    rows: Cell[][],
+    opts: { header?: boolean; size?: number; spaceAfter?: number; padY?: number } = {},
+  ): Block {
     const showHeader = opts.header ?? true;
     const size = opts.size ?? SIZE.table;
     const padX = 5;
-    const padY = 3.6;
+    const padY = opts.padY ?? 3.6;
     const after = opts.spaceAfter ?? 12;
     const total = columns.reduce((a, c) => a + c.width, 0);
     const scale = CONTENT_WIDTH / total;
@@ -436,6 +451,197 @@ class Layout {
     };
   }
 
+  /**
+   * Notices beside a claim (e.g. the claim was edited after its results were seen): a shaded box with a rule at its
+   * left edge and a small "Note" label, so it stands out without relying on colour.
+   */
+  notices(items: string[]): Block {
+    const pad = 8;
+    const rule = 4;
+    const width = CONTENT_WIDTH - 2 * pad - rule;
+    const labelH = SIZE.small * 1.4 + 2;
+    const itemHeights = (): number[] => items.map((t) => this.textHeight(t, 'regular', SIZE.body, width));
+    const h = (): number => labelH + itemHeights().reduce((a, b) => a + b + 4, 0) - 4 + 2 * pad - LINE_GAP;
+    return {
+      after: 12,
+      height: () => h() + 12,
+      minHeight: () => h() + 12,
+      draw: (parent) => {
+        const top = this.y;
+        const height = h();
+        this.artifact(() => {
+          this.doc.rect(MARGIN.left, top, CONTENT_WIDTH, height).fill(COLOR.noticeShade);
+          this.doc.rect(MARGIN.left, top, rule, height).fill(COLOR.notice);
+        });
+        const box = this.doc.struct('Div');
+        parent.add(box);
+        const x = MARGIN.left + rule + pad;
+        box.add(
+          this.doc.struct('P', {}, () => {
+            this.setFont('bold', SIZE.small, COLOR.noticeInk);
+            this.doc.text(items.length > 1 ? 'NOTES' : 'NOTE', x, top + pad, { width, characterSpacing: 0.8, lineBreak: false });
+          }),
+        );
+        let y = top + pad + labelH;
+        const heights = itemHeights();
+        items.forEach((text, i) => {
+          box.add(
+            this.doc.struct('P', {}, () => {
+              this.setFont('regular', SIZE.body);
+              this.doc.text(text, x, y, { width, lineGap: LINE_GAP });
+            }),
+          );
+          y += heights[i]! + 4;
+        });
+        box.end();
+        this.y = top + height + 12;
+      },
+    };
+  }
+
+  /**
+   * The numbers of a claim, set compactly: two label/value pairs side by side when both values are short, one pair
+   * across the width otherwise. Labels are row headers (TH), values data cells (TD); rows never split over pages.
+   */
+  numberPairs(rows: Array<{ label: string; value: string }>, opts: { spaceAfter?: number; pair?: boolean } = {}): Block {
+    const size = SIZE.table;
+    const padX = 5;
+    const padY = 2.8;
+    const gap = 1.2;
+    const after = opts.spaceAfter ?? 4;
+    const half = CONTENT_WIDTH / 2;
+    const labelW = 140;
+    const shortValueW = half - labelW;
+    const fullValueW = CONTENT_WIDTH - labelW;
+    const fitsShort = (r: { label: string; value: string }): boolean => {
+      this.doc.font(FONT_NAME.regular).fontSize(size);
+      return (
+        this.doc.widthOfString(r.value) <= shortValueW - 2 * padX &&
+        this.textHeight(r.label, 'regular', size, labelW - 2 * padX, gap) <= this.textHeight('A\nA', 'regular', size, 100, gap) + 0.5
+      );
+    };
+    type Line = Array<{ label: string; value: string; valueW: number }>;
+    const lines: Line[] = [];
+    for (let i = 0; i < rows.length; i++) {
+      const a = rows[i]!;
+      const b = rows[i + 1];
+      if (b && opts.pair !== false && fitsShort(a) && fitsShort(b)) {
+        lines.push([
+          { ...a, valueW: shortValueW },
+          { ...b, valueW: shortValueW },
+        ]);
+        i++;
+      } else {
+        lines.push([{ ...a, valueW: fullValueW }]);
+      }
+    }
+    const lineHeight = (line: Line): number =>
+      Math.max(
+        ...line.flatMap((c) => [
+          this.textHeight(c.label, 'regular', size, labelW - 2 * padX, gap),
+          this.textHeight(c.value, 'regular', size, c.valueW - 2 * padX, gap),
+        ]),
+      ) +
+      2 * padY -
+      gap;
+    return {
+      after,
+      height: () => lines.reduce((a, l) => a + lineHeight(l), 0) + after,
+      minHeight: () => (lines[0] ? lineHeight(lines[0]) : 0) + after,
+      draw: (parent) => {
+        const tableEl = this.doc.struct('Table');
+        parent.add(tableEl);
+        for (const line of lines) {
+          const h = lineHeight(line);
+          if (h > this.remaining() && !this.atTop()) this.newPage();
+          const top = this.y;
+          const tr = this.doc.struct('TR');
+          tableEl.add(tr);
+          let x = MARGIN.left;
+          for (const cell of line) {
+            const lx = x;
+            tr.add(
+              this.doc.struct('TH', {}, () => {
+                this.setFont('regular', size, COLOR.muted);
+                this.doc.text(cell.label, lx + padX, top + padY, { width: labelW - 2 * padX, lineGap: gap });
+              }),
+            );
+            const vx = x + labelW;
+            tr.add(
+              this.doc.struct('TD', {}, () => {
+                this.setFont('regular', size, COLOR.ink);
+                this.doc.text(cell.value, vx + padX, top + padY, { width: cell.valueW - 2 * padX, lineGap: gap });
+              }),
+            );
+            x += labelW + cell.valueW;
+          }
+          tr.end();
+          this.artifact(() => {
+            this.doc.lineWidth(0.5).moveTo(MARGIN.left, top + h).lineTo(MARGIN.left + CONTENT_WIDTH, top + h).stroke(COLOR.rule);
+            if (line.length > 1) {
+              this.doc.lineWidth(0.5).moveTo(MARGIN.left + half, top + 3).lineTo(MARGIN.left + half, top + h - 3).stroke(COLOR.rule);
+            }
+          });
+          this.y = top + h;
+        }
+        tableEl.end();
+        this.y += after;
+      },
+    };
+  }
+
+  /** A line of verdict marks with counts ("● Supported: 3"), wrapping when it is wider than the page. */
+  tally(items: Array<{ kind: VerdictKind; label: string; count: number }>): Block {
+    const size = SIZE.table;
+    const markRoom = 13;
+    const gapX = 14;
+    const lineH = size * 1.5;
+    const texts = items.map((it) => `${it.label}: ${it.count}`);
+    const layout = (): Array<{ x: number; row: number }> => {
+      this.doc.font(FONT_NAME.bold).fontSize(size);
+      let x = 0;
+      let row = 0;
+      return texts.map((t) => {
+        const w = markRoom + this.doc.widthOfString(t);
+        if (x > 0 && x + w > CONTENT_WIDTH) {
+          x = 0;
+          row++;
+        }
+        const at = { x, row };
+        x += w + gapX;
+        return at;
+      });
+    };
+    const h = (): number => ((layout().at(-1)?.row ?? 0) + 1) * lineH;
+    return {
+      after: 12,
+      height: () => h() + 12,
+      minHeight: () => h() + 12,
+      draw: (parent) => {
+        const top = this.y;
+        const places = layout();
+        this.artifact(() => {
+          items.forEach((it, i) => {
+            const p = places[i]!;
+            this.drawMark(it.kind, MARGIN.left + p.x + 4.5, top + p.row * lineH + size * 0.7, 4);
+          });
+        });
+        parent.add(
+          this.doc.struct('P', {}, () => {
+            texts.forEach((t, i) => {
+              const p = places[i]!;
+              this.setFont('bold', size, COLOR.ink);
+              this.doc.text(t, MARGIN.left + p.x + markRoom, top + p.row * lineH, {
+                lineBreak: false,
+              });
+            });
+          }),
+        );
+        this.y = top + h() + 12;
+      },
+    };
+  }
+
   /** A chart drawn as vectors from SVG, tagged as a Figure with its alt text and bounding box. */
   figure(svg: string, alt: string): Block {
     const { width, height } = svgSize(svg);
@@ -505,10 +711,14 @@ function claimBlocks(
   bookmarks: () => PDFKit.OutlineItem,
 ): Block[] {
   const blocks: Block[] = [];
-  // Heading: "Claim C1" label above the statement in the user's words, one H2 element.
-  const label = `Claim ${claim.id}`;
+  // Heading: the "Claim C1" label with the verdict badge at the right of the same line, then the statement in the
+  // user's words. The label and statement form one H2; the verdict word follows it in reading order.
+  const label = `Claim ${claim.id}`.toUpperCase();
+  const badgeW = (): number => L.badgeWidth(claim.verdictLabel);
+  const labelWidth = (): number => CONTENT_WIDTH - badgeW() - 12;
+  const labelH = (): number => Math.max(BADGE.height, L.textHeight(label, 'bold', SIZE.small, labelWidth(), 1));
   const statementHeight = (): number => L.textHeight(claim.statement, 'bold', SIZE.h3, CONTENT_WIDTH, 1.5);
-  const headH = (): number => SIZE.small * 1.4 + 3 + statementHeight() + 10;
+  const headH = (): number => labelH() + 6 + statementHeight() + 12;
   blocks.push({
     keepWithNext: true,
     height: headH,
@@ -516,54 +726,46 @@ function claimBlocks(
     draw: (parent) => {
       const top = L.y;
       bookmarks().addItem(`${claim.id}: ${shorten(claim.statement, 70)}`, { left: PAGE.width, top: top - 12 });
+      // Measure first: measuring changes the current font, so it must not happen between setting a font and drawing.
+      const lw = labelWidth();
+      const labelTop = top + Math.max(0, (BADGE.height - L.textHeight(label, 'bold', SIZE.small, lw, 1)) / 2);
+      const statementTop = top + labelH() + 6;
       parent.add(
         L.doc.struct('H2', {}, () => {
           L.setFont('bold', SIZE.small, COLOR.accent);
-          L.doc.text(label.toUpperCase(), MARGIN.left, top, { width: CONTENT_WIDTH, characterSpacing: 0.8 });
+          L.doc.text(label, MARGIN.left, labelTop, { width: lw, characterSpacing: 0.8, lineGap: 1 });
           L.setFont('bold', SIZE.h3);
-          L.doc.text(claim.statement, MARGIN.left, top + SIZE.small * 1.4 + 3, { width: CONTENT_WIDTH, lineGap: 1.5 });
+          L.doc.text(claim.statement, MARGIN.left, statementTop, { width: CONTENT_WIDTH, lineGap: 1.5 });
         }),
       );
+      L.drawBadge(claim.verdict, claim.verdictLabel, MARGIN.left + CONTENT_WIDTH - badgeW(), top, parent);
       L.y = top + headH();
     },
   });
-  // Lead with the answer: the verdict badge and paragraph come first, then what was compared, then the numbers.
-  blocks.push(L.badge(claim.verdict, claim.verdictLabel));
+  // Lead with the answer: the verdict and its paragraph come first, then what was compared, then the numbers.
+  if (claim.notices && claim.notices.length > 0) blocks.push(L.notices(claim.notices));
   blocks.push(L.panel(claim.verdictText));
   blocks.push(L.heading('H3', 'What was compared and tested'));
   blocks.push(
-    L.table(
+    L.numberPairs(
       [
-        { header: '', width: 130, face: 'bold' },
-        { header: '', width: 337 },
+        { label: 'Compared', value: claim.compared },
+        { label: 'Null hypothesis', value: claim.hypotheses.null },
+        { label: 'Alternative hypothesis', value: claim.hypotheses.alternative },
       ],
-      [
-        [{ text: 'Compared' }, { text: claim.compared }],
-        [{ text: 'Null hypothesis' }, { text: claim.hypotheses.null }],
-        [{ text: 'Alternative hypothesis' }, { text: claim.hypotheses.alternative }],
-      ],
-      { header: false, size: SIZE.body - 0.5 },
+      { spaceAfter: 10, pair: false },
     ),
   );
   if (claim.numbers.length > 0) {
     blocks.push(L.heading('H3', 'The numbers'));
-    blocks.push(
-      L.table(
-        [
-          { header: 'Quantity', width: 190 },
-          { header: 'Value', width: 277 },
-        ],
-        claim.numbers.map((r) => [{ text: r.label }, { text: r.value }]),
-        { header: false, spaceAfter: 4 },
-      ),
-    );
+    blocks.push(L.numberPairs(claim.numbers, { spaceAfter: 4 }));
   }
   // The method line reads as a note under the numbers it produced.
   blocks.push(L.paragraph(claim.methodLine, { face: 'italic', size: SIZE.small, color: COLOR.muted, spaceAfter: 12 }));
   if (claim.chart && svg) blocks.push(L.figure(svg, claim.chart.alt));
   if (claim.cautions.length > 0) {
     blocks.push(L.heading('H3', 'Cautions'));
-    blocks.push(L.bullets(claim.cautions));
+    blocks.push(L.bullets(claim.cautions, { size: SIZE.table }));
   }
   return blocks;
 }
@@ -672,35 +874,61 @@ export async function renderPdf(model: PackModel, options: RenderOptions = {}): 
   const summary = doc.struct('Sect');
   root.add(summary);
   bookmark('Summary');
+  // At a glance: each verdict's mark, word and count, in the order a committee asks (holds up first).
+  const tallyItems = (['supported', 'opposite', 'not-supported', 'too-little-data', 'estimate'] as const).flatMap((k) => {
+    const rows = model.summary.filter((r) => r.verdict === k);
+    return rows.length > 0 ? [{ kind: k, label: rows[0]!.verdictLabel, count: rows.length }] : [];
+  });
   L.flow(
     [
       L.heading('H2', 'Summary'),
-      L.paragraph(model.summaryIntro, { spaceAfter: 14 }),
+      L.paragraph(model.summaryIntro, { size: SIZE.table + 0.5, spaceAfter: 10 }),
+      ...(tallyItems.length > 0 ? [L.tally(tallyItems)] : []),
       L.table(
         [
-          { header: 'Claim', width: 243 },
-          { header: 'Verdict', width: 92 },
-          { header: 'Key figure', width: 132 },
+          { header: 'Claim', width: 210 },
+          { header: 'Verdict', width: 128 },
+          { header: 'Key figure', width: 129 },
         ],
         model.summary.map((r) => [
           { text: r.statement, sub: r.id },
-          { text: r.verdictLabel, mark: r.verdict },
+          { text: r.verdictLabel, mark: r.verdict, face: 'bold' as const },
           { text: r.keyFigure },
         ]),
-      ),
-      L.paragraph(
-        'Marks: ' +
-          (['supported', 'not-supported', 'opposite', 'too-little-data', 'estimate'] as const)
-            .filter((k) => model.summary.some((r) => r.verdict === k))
-            .map((k) => `${MARK_DESCRIPTION[k]} = ${model.summary.find((r) => r.verdict === k)!.verdictLabel}`)
-            .join('; ') +
-          '.',
-        { size: SIZE.small, color: COLOR.muted },
+        { padY: 2.8 },
       ),
     ],
     summary,
   );
   summary.end();
+
+  // ---- What changed since the previous pack: right after the summary, on from it when there is room ----
+  if (model.changes) {
+    const ch = model.changes;
+    const heading = L.heading('H2', ch.heading);
+    const blocks: Block[] = [heading, L.paragraph(ch.intro, { spaceAfter: 10 })];
+    if (ch.verdicts.length > 0) {
+      blocks.push(
+        L.table(
+          [
+            { header: 'Claim', width: 150 },
+            { header: 'Before', width: 80 },
+            { header: 'After', width: 80 },
+            { header: 'Why', width: 157 },
+          ],
+          ch.verdicts.map((v) => [{ text: v.claim }, { text: v.before }, { text: v.after, face: 'bold' as const }, { text: v.why }]),
+        ),
+      );
+    }
+    if (ch.notes.length > 0) blocks.push(L.bullets(ch.notes));
+    if (!L.atTop()) L.y += 22;
+    L.ensure(heading.height() + blocks[1]!.minHeight());
+    const sect = doc.struct('Sect');
+    root.add(sect);
+    bookmark(shorten(ch.heading, 70));
+    L.flow(blocks, sect);
+    sect.end();
+  }
 
   // ---- Claims: each on a new page unless it fits in the space left ----
   let claimsBookmark: PDFKit.OutlineItem | undefined;
@@ -798,13 +1026,13 @@ export async function renderPdf(model: PackModel, options: RenderOptions = {}): 
     doc.markContent('Artifact', { type: 'Pagination' });
     if (i > range.start) {
       doc.font(FONT_NAME.regular).fontSize(SIZE.furniture).fillColor(COLOR.muted);
-      doc.text(shorten(model.title, 95), MARGIN.left, MARGIN.top - 32, { width: CONTENT_WIDTH, lineBreak: false });
-      doc.lineWidth(0.5).moveTo(MARGIN.left, MARGIN.top - 18).lineTo(PAGE.width - MARGIN.right, MARGIN.top - 18).stroke(COLOR.rule);
+      doc.text(shorten(model.title, 95), MARGIN.left, MARGIN.top - 30, { width: CONTENT_WIDTH, lineBreak: false });
+      doc.lineWidth(0.5).moveTo(MARGIN.left, MARGIN.top - 16).lineTo(PAGE.width - MARGIN.right, MARGIN.top - 16).stroke(COLOR.rule);
     }
-    doc.lineWidth(0.5).moveTo(MARGIN.left, PAGE.height - 44).lineTo(PAGE.width - MARGIN.right, PAGE.height - 44).stroke(COLOR.rule);
+    doc.lineWidth(0.5).moveTo(MARGIN.left, PAGE.height - 42).lineTo(PAGE.width - MARGIN.right, PAGE.height - 42).stroke(COLOR.rule);
     doc.font(FONT_NAME.regular).fontSize(SIZE.furniture).fillColor(COLOR.muted);
-    doc.text(shorten(model.organisation, 70), MARGIN.left, PAGE.height - 37, { width: CONTENT_WIDTH / 2, lineBreak: false });
-    doc.text(`Page ${i - range.start + 1} of ${range.count}`, MARGIN.left + CONTENT_WIDTH / 2, PAGE.height - 37, {
+    doc.text(shorten(model.organisation, 70), MARGIN.left, PAGE.height - 35, { width: CONTENT_WIDTH / 2, lineBreak: false });
+    doc.text(`Page ${i - range.start + 1} of ${range.count}`, MARGIN.left + CONTENT_WIDTH / 2, PAGE.height - 35, {
       width: CONTENT_WIDTH / 2,
       align: 'right',
       lineBreak: false,
