@@ -8,7 +8,7 @@ import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { renderPdf } from '../../src/render/pdf.js';
-import { sampleModel, VERDICT_TEXTS, LONG_STATEMENT } from './sample-model.js';
+import { sampleModel, VERDICT_TEXTS, LONG_STATEMENT, CHANGES, NOTICE_TEXTS } from './sample-model.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'warrant-render-'));
 let pdf: Buffer;
@@ -40,9 +40,9 @@ describe('renderPdf on the sample model', () => {
     expect(info).toMatch(/^Tagged:\s+yes$/m);
     expect(info).toMatch(/^Page size:\s+595\.28 x 841\.89 pts \(A4\)$/m);
     const pages = Number(/^Pages:\s+(\d+)$/m.exec(info)?.[1]);
-    // Cover, summary, at least one page per two claims (five claims), and at least one closing page.
-    expect(pages).toBeGreaterThanOrEqual(6);
-    expect(pages).toBeLessThanOrEqual(14);
+    // Cover, summary, at least one page per two claims (nine claims), and at least one closing page.
+    expect(pages).toBeGreaterThanOrEqual(8);
+    expect(pages).toBeLessThanOrEqual(18);
   });
 
   it('pdftotext finds every verdict paragraph, whole and with accents intact', () => {
@@ -80,7 +80,7 @@ describe('renderPdf on the sample model', () => {
     for (const tag of ['Document', 'H1', 'H2', 'H3', 'P', 'Table', 'TR', 'TH', 'TD', 'L', 'LI', 'LBody', 'Figure']) {
       expect(tree).toMatch(new RegExp(`^\\s*${tag}\\b`, 'm'));
     }
-    expect((tree.match(/^\s*Figure\b/gm) ?? []).length).toBe(3);
+    expect((tree.match(/^\s*Figure\b/gm) ?? []).length).toBe(sampleModel.claims.filter((c) => c.chart).length);
     const withText = run('pdfinfo', ['-struct-text', pdfPath]);
     const firstClaim = withText.indexOf('CLAIM C1');
     const lastClaim = withText.indexOf('CLAIM C5');
@@ -103,9 +103,18 @@ describe('renderPdf on the sample model', () => {
     const qdf = run('qpdf', ['--json', '--json-key=outlines', pdfPath]);
     const outlines = JSON.parse(qdf).outlines as Array<{ title: string; kids: Array<{ title: string }> }>;
     const titles = outlines.map((o) => o.title);
-    expect(titles).toEqual(['Cover', 'Summary', 'Claims', 'General cautions', 'Method notes', 'Glossary', 'Reproducibility']);
-    const claims = outlines.find((o) => o.title === 'Claims')!.kids.map((k) => k.title.slice(0, 3));
-    expect(claims).toEqual(['C1:', 'C2:', 'C3:', 'C4:', 'C5:']);
+    expect(titles).toEqual([
+      'Cover',
+      'Summary',
+      CHANGES.heading,
+      'Claims',
+      'General cautions',
+      'Method notes',
+      'Glossary',
+      'Reproducibility',
+    ]);
+    const claims = outlines.find((o) => o.title === 'Claims')!.kids.map((k) => k.title.split(':')[0]);
+    expect(claims).toEqual(sampleModel.claims.map((c) => c.id));
   });
 
   it('is byte-identical when rendered twice, and the date option is the only date written', async () => {
@@ -116,6 +125,56 @@ describe('renderPdf on the sample model', () => {
     const datedPath = join(dir, 'dated.pdf');
     writeFileSync(datedPath, dated);
     expect(run('pdfinfo', ['-isodates', datedPath])).toMatch(/^CreationDate:\s+2024-06-03T12:00:00/m);
+  });
+
+  it('reads in order: the title first, then the summary, then what changed, then the claims', () => {
+    // pdfinfo -struct-text prints the structure tree with each element's text, in the tree's (reading) order.
+    const tree = run('pdfinfo', ['-struct-text', pdfPath]);
+    const firstText = /"([^"]+)"/.exec(tree.slice(tree.indexOf('H1')))?.[1];
+    expect(tree.indexOf('H1')).toBeLessThan(tree.indexOf('"Summary"'));
+    expect(firstText).toBe(sampleModel.title);
+    const before = tree.slice(0, tree.indexOf('H1'));
+    expect(before).not.toMatch(/"[^"]*(Summary|CLAIM)[^"]*"/);
+    const summary = tree.indexOf('"Summary"');
+    const changes = tree.indexOf(`"${CHANGES.heading}"`);
+    expect(changes).toBeGreaterThan(summary);
+    expect(tree.indexOf('CLAIM C1')).toBeGreaterThan(changes);
+    // Every verdict change is in a table row, claim, before, after and why in that order.
+    for (const v of CHANGES.verdicts) {
+      const at = tree.indexOf(`"${v.claim}"`);
+      expect(at).toBeGreaterThan(changes);
+      expect(tree.indexOf(`"${v.before}"`, at)).toBeGreaterThan(at);
+      expect(tree.indexOf(`"${v.why}"`, at)).toBeGreaterThan(tree.indexOf(`"${v.after}"`, at));
+    }
+    for (const note of CHANGES.notes) expect(tree).toContain(`"${note}"`);
+  });
+
+  it('draws a claim notice under its verdict and before the verdict paragraph', () => {
+    const tree = run('pdfinfo', ['-struct-text', pdfPath]);
+    const claim = tree.indexOf('CLAIM C2');
+    const notice = tree.indexOf(`"${NOTICE_TEXTS.C2}"`);
+    expect(notice).toBeGreaterThan(tree.indexOf('"Not supported"', claim));
+    expect(notice).toBeLessThan(tree.indexOf(VERDICT_TEXTS.C2.slice(0, 40), claim));
+    expect(tree.slice(claim, notice)).toContain('"NOTE"');
+    // Only the claim that has a notice shows one.
+    expect((tree.match(/"NOTES?"/g) ?? []).length).toBe(1);
+  });
+
+  it('shows the verdict tally on the summary page, each verdict word with its count', () => {
+    const page = run('pdftotext', ['-enc', 'UTF-8', '-f', '2', '-l', '2', pdfPath, '-']).replace(/\s+/g, ' ');
+    for (const label of new Set(sampleModel.summary.map((r) => r.verdictLabel))) {
+      const n = sampleModel.summary.filter((r) => r.verdictLabel === label).length;
+      expect(page).toContain(`${label}: ${n}`);
+    }
+  });
+
+  it('sets no text below 8 pt (word boxes from pdftotext -bbox)', () => {
+    // pdftotext -bbox gives each word's box from the font's ascent to its descent; Noto Sans has ascent 1069 and
+    // descent -293 per 1000 units (read from the font file with fontkit), so a box is 1.362 times the font size.
+    const html = run('pdftotext', ['-bbox', pdfPath, '-']);
+    const heights = [...html.matchAll(/yMin="([\d.]+)" xMax="[\d.]+" yMax="([\d.]+)"/g)].map((m) => Number(m[2]) - Number(m[1]));
+    expect(heights.length).toBeGreaterThan(500);
+    expect(Math.min(...heights)).toBeGreaterThanOrEqual(8 * 1.362 - 0.01);
   });
 
   it('qpdf finds no structural damage', () => {

@@ -23,6 +23,142 @@ export const VERDICT_TEXTS = {
     'higher overall ratings (r = 0.41, interval 0.02 to 0.69).',
 } as const;
 
+export const NOTICE_TEXTS = {
+  C2:
+    'This claim was edited after the pack of 3 March 2024 showed its results: its direction changed from "differs" ' +
+    'to "fell". A claim reworded after its results were seen is weaker evidence.',
+} as const;
+
+export const CHANGES: NonNullable<PackModel['changes']> = {
+  heading: 'What changed since 3 March 2024',
+  intro:
+    'Compared with the pack built on 3 March 2024 from the same claims file. Two verdicts changed; the regional ' +
+    'summary file was replaced by a corrected release.',
+  verdicts: [
+    { claim: 'C2: Satisfaction at Ysgol Brynŷs fell since last year.', before: 'Supported', after: 'Not supported', why: 'Changed claim and new data' },
+    { claim: 'C4: Naïve Arts students agree more often than the college as a whole.', before: 'Not supported', after: 'Too little data', why: 'New data: 7 respondents, below the minimum of 10' },
+  ],
+  notes: [
+    'The data file regional (data/regional-summary-2024.xlsx) has a new fingerprint: 3f9a1c2b7d4e, was 09be72aa31c4.',
+    'C1: the rate at Coleg Gŵyr moved from 66% to 61%, beyond its earlier interval (63% to 69%).',
+  ],
+};
+
+/** Claims whose charts are of the other kinds (periods, stacked, means, difference), so every kind is drawn in a PDF. */
+const EXTRA_CLAIMS: PackModel['claims'] = [
+  {
+    id: 'C6',
+    statement: 'Satisfaction at Llŷn campus has been falling over the last four years.',
+    verdict: 'supported',
+    verdictLabel: 'Supported',
+    compared: 'Overall satisfaction at Llŷn campus in 2021 to 2024 (1,010 respondents in all).',
+    hypotheses: { null: 'The rate does not change from year to year.', alternative: 'The rate falls from year to year.' },
+    numbers: [
+      { label: '2021', value: '74% of 240' },
+      { label: '2024', value: '63% of 265' },
+      { label: 'Change per year', value: '−3.6 points (−6.1 to −1.1)' },
+      { label: 'p-value', value: '0.003' },
+    ],
+    chart: {
+      data: {
+        kind: 'periods',
+        axisTitle: 'Satisfied (%)',
+        points: [
+          { period: '2021', rate: 0.74, lower: 0.68, upper: 0.79, n: 240 },
+          { period: '2022', rate: 0.7, lower: 0.64, upper: 0.75, n: 250 },
+          { period: '2023', rate: 0.67, lower: 0.61, upper: 0.72, n: 255 },
+          { period: '2024', rate: 0.63, lower: 0.57, upper: 0.69, n: 265 },
+        ],
+        fit: [0.737, 0.701, 0.665, 0.629],
+      },
+      alt: 'Line chart of satisfaction at Llŷn campus by year: 74% in 2021 falling to 63% in 2024, with a fitted falling line.',
+    },
+    verdictText: 'Supported. Satisfaction at Llŷn campus fell by about 3.6 points a year from 2021 to 2024.',
+    cautions: ['Each year is a different cohort of students.'],
+    methodLine: 'Cochran–Armitage test for trend; Wilson intervals per year.',
+  },
+  {
+    id: 'C7',
+    statement: 'Answers on workload differ between Llŷn campus and the Łódź exchange.',
+    verdict: 'not-supported',
+    verdictLabel: 'Not supported',
+    compared: 'Agree, neutral and disagree answers at Llŷn campus (100) and the Łódź exchange (52).',
+    hypotheses: { null: 'The mix of answers is the same at both.', alternative: 'The mix of answers differs.' },
+    numbers: [
+      { label: 'Chi-square', value: '3.1 on 2 df' },
+      { label: 'p-value', value: '0.21' },
+    ],
+    chart: {
+      data: {
+        kind: 'stacked',
+        axisTitle: 'Share of respondents (%)',
+        rows: [
+          { label: 'Llŷn campus', parts: [{ label: 'Agree', count: 60 }, { label: 'Neutral', count: 25 }, { label: 'Disagree', count: 15 }] },
+          { label: 'Łódź exchange', parts: [{ label: 'Agree', count: 30 }, { label: 'Neutral', count: 10 }, { label: 'Disagree', count: 12 }] },
+        ],
+      },
+      alt: 'Stacked bars: Llŷn campus 60% agree, 25% neutral, 15% disagree; Łódź exchange 58% agree, 19% neutral, 23% disagree.',
+    },
+    verdictText: 'Not supported. The mix of answers at the two is within what chance alone produces.',
+    cautions: [],
+    methodLine: 'Chi-square test of independence.',
+  },
+  {
+    id: 'C8',
+    statement: 'Ynys Môn students rate teaching higher on average than Naïve Arts students.',
+    verdict: 'estimate',
+    verdictLabel: 'Estimate only',
+    compared: 'Mean teaching rating (1 to 5) at Ynys Môn (120) and Naïve Arts (45).',
+    hypotheses: { null: 'No hypothesis is tested.', alternative: 'No hypothesis is tested.' },
+    numbers: [
+      { label: 'Ynys Môn', value: '3.90 (3.70 to 4.10)' },
+      { label: 'Naïve Arts', value: '3.40 (3.10 to 3.70)' },
+    ],
+    chart: {
+      data: {
+        kind: 'means',
+        axisTitle: 'Mean rating (1–5)',
+        domain: [1, 5],
+        bars: [
+          { label: 'Ynys Môn', mean: 3.9, lower: 3.7, upper: 4.1, n: 120 },
+          { label: 'Naïve Arts', mean: 3.4, lower: 3.1, upper: 3.7, n: 45 },
+        ],
+      },
+      alt: 'Dot chart of mean ratings: Ynys Môn 3.90 (3.70 to 4.10), Naïve Arts 3.40 (3.10 to 3.70).',
+    },
+    verdictText: 'An estimate: Ynys Môn averages 3.90 and Naïve Arts 3.40 on the five-point scale.',
+    cautions: [],
+    methodLine: 'Means with Student t intervals.',
+  },
+  {
+    id: 'C9',
+    statement: 'Agreement at Coleg Gŵyr is the same as at Ysgol Brynŷs, within 3 points.',
+    verdict: 'supported',
+    verdictLabel: 'Supported',
+    compared: 'Agreement at Coleg Gŵyr (840) and Ysgol Brynŷs (910).',
+    hypotheses: { null: 'The rates differ by 3 points or more.', alternative: 'The rates differ by less than 3 points.' },
+    numbers: [
+      { label: 'Difference', value: '+0.4 points (−1.5 to +2.1)' },
+      { label: 'p-value (larger of two one-sided)', value: '0.004' },
+    ],
+    chart: {
+      data: { kind: 'difference', axisTitle: 'Difference (points)', value: 0.004, lower: -0.015, upper: 0.021, margin: 0.03 },
+      alt: 'Difference of +0.4 points with interval −1.5 to +2.1, inside the equivalence band of ±3 points.',
+    },
+    verdictText: 'Supported. The interval for the difference lies inside ±3 points.',
+    cautions: [],
+    methodLine: 'Two one-sided tests for equivalence of two rates.',
+  },
+];
+
+const EXTRA_SUMMARY: PackModel['summary'] = EXTRA_CLAIMS.map((c) => ({
+  id: c.id,
+  statement: c.statement,
+  verdict: c.verdict,
+  verdictLabel: c.verdictLabel,
+  keyFigure: c.numbers[0]!.value,
+}));
+
 export const sampleModel: PackModel = {
   title: 'Student voice claims 2024: Coleg Gŵyr and partners',
   organisation: 'Coleg Gŵyr Quality Office',
@@ -52,6 +188,7 @@ export const sampleModel: PackModel = {
     'Each row gives a claim as written before the results were seen, whether the data support it, and the figure ' +
     'that decides it. A claim that is not supported is not shown to be false: read its section for what the data ' +
     'can and cannot rule out.',
+  changes: CHANGES,
   summary: [
     {
       id: 'C1',
@@ -88,6 +225,7 @@ export const sampleModel: PackModel = {
       verdictLabel: 'Supported',
       keyFigure: 'r = 0.41 (0.02 to 0.69), 24 departments',
     },
+    ...EXTRA_SUMMARY,
   ],
   claims: [
     {
@@ -163,6 +301,7 @@ export const sampleModel: PackModel = {
         'These samples could only reliably detect a change of about 20 points or more.',
       ],
       methodLine: 'Two-proportion z test (pooled), one-sided; Newcombe interval for the change.',
+      notices: [NOTICE_TEXTS.C2],
     },
     {
       id: 'C3',
@@ -238,6 +377,7 @@ export const sampleModel: PackModel = {
       ],
       methodLine: 'Pearson correlation with Fisher z interval; t test of zero correlation, one-sided.',
     },
+    ...EXTRA_CLAIMS,
   ],
   methods: [
     {
