@@ -5,7 +5,7 @@
 import { extname, resolve } from 'node:path';
 import { readConfidence } from './confidence.js';
 import { DATA_EXTENSIONS, DEFAULT_AGREE_CODES } from './rules.js';
-import { readPoints, readShare } from './amounts.js';
+import { readPoints, readShare, type AmountReading } from './amounts.js';
 import type {
   AssociationClaim,
   AssociationExpect,
@@ -42,7 +42,11 @@ export const DEFAULTS = {
 
 type Rec = Record<string, unknown>;
 
-export function normalize(parsed: ParsedYaml, absPath: string, sha256: string): ClaimsFile {
+/**
+ * @param lenient for `warrant check` only: amounts that cannot be read (already reported as problems) fall back to
+ *   their defaults instead of throwing, so that the rest of the file can still be checked against the data
+ */
+export function normalize(parsed: ParsedYaml, absPath: string, sha256: string, lenient = false): ClaimsFile {
   const data = parsed.data as Rec;
   const claimsDir = resolve(absPath, '..');
   const placeAt = (path: Array<string | number>, prefer: 'key' | 'value'): Place => {
@@ -53,10 +57,13 @@ export function normalize(parsed: ParsedYaml, absPath: string, sha256: string): 
   const confidenceOf = (raw: Rec, fallback: { value: number; written: string }): { value: number; written: string } => {
     if (!('confidence' in raw)) return fallback;
     const r = readConfidence(raw.confidence);
+    if (!r.ok && lenient) return fallback;
     if (!r.ok) throw new Error(`confidence ${r.written} passed validation but cannot be read`);
     return { value: r.value, written: r.written };
   };
   const top = confidenceOf(data, { value: DEFAULTS.confidence, written: DEFAULTS.confidenceWritten });
+  const share = (raw: unknown): number | undefined => amount(readShare(raw), lenient);
+  const points = (raw: unknown): number | undefined => amount(readPoints(raw), lenient);
   const topRate = data.min_response_rate !== undefined ? share(data.min_response_rate) : undefined;
   const topSmallest = data.smallest_difference !== undefined ? points(data.smallest_difference) : undefined;
 
@@ -100,11 +107,11 @@ export function normalize(parsed: ParsedYaml, absPath: string, sha256: string): 
       minRespondents: (c.min_respondents as number | undefined) ?? (data.min_respondents as number | undefined) ?? DEFAULTS.minRespondents,
       place: placeAt(['claims', i], 'value'),
     } as Base;
-    if (typeof c.min_response_rate !== 'undefined') base.minResponseRate = share(c.min_response_rate);
-    else if (topRate !== undefined) base.minResponseRate = topRate;
-    if (typeof c.smallest_difference !== 'undefined') base.smallestDifference = points(c.smallest_difference);
-    else if (topSmallest !== undefined) base.smallestDifference = topSmallest;
-    return claimOfKind(c, base);
+    const rate = c.min_response_rate !== undefined ? share(c.min_response_rate) : topRate;
+    if (rate !== undefined) base.minResponseRate = rate;
+    const smallest = c.smallest_difference !== undefined ? points(c.smallest_difference) : topSmallest;
+    if (smallest !== undefined) base.smallestDifference = smallest;
+    return claimOfKind(c, base, lenient);
   });
 
   const out: ClaimsFile = {
@@ -138,16 +145,11 @@ function copyFilter(f: Filter | undefined): Filter {
   return out;
 }
 
-function share(raw: unknown): number {
-  const r = readShare(raw);
-  if (!r.ok) throw new Error(`share ${r.written} passed validation but cannot be read`);
-  return r.value;
-}
-
-function points(raw: unknown): number {
-  const r = readPoints(raw);
-  if (!r.ok) throw new Error(`points ${r.written} passed validation but cannot be read`);
-  return r.value;
+/** A read amount's value; one that cannot be read was reported by the rules (undefined when lenient). */
+function amount(r: AmountReading, lenient: boolean): number | undefined {
+  if (r.ok) return r.value;
+  if (lenient) return undefined;
+  throw new Error(`${r.written} passed validation but cannot be read`);
 }
 
 /** "agree" | "mean" | { column } -> Measure. */
@@ -168,7 +170,7 @@ function labels<T extends object>(claim: T, c: Rec, keys: Record<string, string>
 
 const PAIR_LABELS = { focus_label: 'focusLabel', against_label: 'againstLabel' };
 
-function claimOfKind(c: Rec, base: Base): Claim {
+function claimOfKind(c: Rec, base: Base, lenient: boolean): Claim {
   switch (c.kind as ClaimKind) {
     case 'compare':
       return labels<CompareClaim>(
@@ -210,9 +212,9 @@ function claimOfKind(c: Rec, base: Base): Claim {
       };
     case 'target': {
       const v = readShare(c.value, true);
-      if (!v.ok) throw new Error(`value ${v.written} passed validation but cannot be read`);
+      const value = amount(v, lenient) ?? 0;
       return labels<TargetClaim>(
-        { ...base, kind: 'target', select: copyFilter(c.select as Filter), value: v.value, valueWritten: v.written, expect: c.expect as CompareExpect },
+        { ...base, kind: 'target', select: copyFilter(c.select as Filter), value, valueWritten: v.written, expect: c.expect as CompareExpect },
         c,
         { select_label: 'selectLabel', value_label: 'valueLabel' },
       );
@@ -235,7 +237,7 @@ function claimOfKind(c: Rec, base: Base): Claim {
       );
     case 'equivalence':
       return labels<EquivalenceClaim>(
-        { ...base, kind: 'equivalence', focus: copyFilter(c.focus as Filter), against: copyFilter(c.against as Filter), margin: points(c.margin) },
+        { ...base, kind: 'equivalence', focus: copyFilter(c.focus as Filter), against: copyFilter(c.against as Filter), margin: amount(readPoints(c.margin), lenient) ?? 0 },
         c,
         PAIR_LABELS,
       );

@@ -17,7 +17,7 @@ import { normalize } from './normalize.js';
 import { crossFieldProblems } from './rules.js';
 import type { ClaimsFile } from './types.js';
 import { schemaProblems } from './validate.js';
-import { parseYaml } from './yaml.js';
+import { parseYaml, type ParsedYaml } from './yaml.js';
 
 /** Claims files are a few kilobytes; anything over this is not a claims file. */
 export const MAX_CLAIMS_BYTES = 1024 * 1024;
@@ -70,6 +70,12 @@ function decodeUtf8(bytes: Buffer, file: string): string {
  * @throws InputError listing every problem found, each with line:column and a fix
  */
 export async function readClaims(path: string, displayPath?: string): Promise<ClaimsFile> {
+  const t = await claimsText(path, displayPath);
+  return parseClaimsText(t.text, t);
+}
+
+/** The bytes of a claims file, checked and decoded. */
+async function claimsText(path: string, displayPath?: string): Promise<{ absPath: string; file: string; sha256: string; text: string }> {
   const absPath = resolve(path);
   const file = displayPath ?? displayPathFor(absPath);
   let info;
@@ -100,7 +106,40 @@ export async function readClaims(path: string, displayPath?: string): Promise<Cl
   const bytes = await readFile(absPath);
   if (bytes.length > MAX_CLAIMS_BYTES) throw tooBig(bytes.length);
   const sha256 = createHash('sha256').update(bytes).digest('hex');
-  return parseClaimsText(decodeUtf8(bytes, file), { absPath, file, sha256 });
+  return { absPath, file, sha256, text: decodeUtf8(bytes, file) };
+}
+
+/** What `warrant check` needs: every problem in the file, and the normalized claims whenever they can be built. */
+export interface LenientRead {
+  file: string;
+  problems: Problem[];
+  /** Present unless the file could not be read, is not YAML, or breaks the schema. */
+  claims?: ClaimsFile;
+  parsed?: ParsedYaml;
+}
+
+/**
+ * Read a claims file without stopping at its problems: when only cross-field rules fail (a confidence of 1.5, a
+ * duplicated id), the claims are still normalized, with unreadable amounts replaced by their defaults, so that the
+ * data can be checked in the same pass.
+ */
+export async function readClaimsLeniently(path: string, displayPath?: string): Promise<LenientRead> {
+  let t;
+  try {
+    t = await claimsText(path, displayPath);
+  } catch (e) {
+    if (e instanceof InputError) return { file: displayPath ?? displayPathFor(resolve(path)), problems: e.problems };
+    throw e;
+  }
+  const outcome = parseYaml(t.text, t.file);
+  if (!outcome.ok) return { file: t.file, problems: inFileOrder(outcome.problems) };
+  const parsed = outcome.parsed;
+  const problems = schemaProblems(parsed, t.file);
+  if (parsed.data === null || typeof parsed.data !== 'object' || Array.isArray(parsed.data)) return { file: t.file, problems };
+  const schemaClean = problems.length === 0;
+  problems.push(...crossFieldProblems(parsed, t.file, dirname(t.absPath)));
+  if (!schemaClean) return { file: t.file, problems: inFileOrder(problems), parsed };
+  return { file: t.file, problems: inFileOrder(problems), parsed, claims: normalize(parsed, t.absPath, t.sha256, true) };
 }
 
 /** The checks after reading the bytes: exposed for tests and for callers that already hold the text. */
