@@ -25,7 +25,7 @@ import { minDetectableCorrelation } from '../stats/power-correlation.js';
 import type { CompareContext } from './compare.js';
 import type { AssociationAnalysis, UnitPoint } from './types.js';
 import { sign } from './labels.js';
-import { measureValue, poolUnits } from './measures.js';
+import { measureValue, poolUnits, requireMeasure } from './measures.js';
 import { shortfall } from './thresholds.js';
 
 /** Fewest units for which r, its t test and the Fisher-z interval (n - 3 > 0) can all be computed. */
@@ -66,6 +66,9 @@ export function analyseAssociation(claim: AssociationClaim, cube: Cube, ctx: Com
   const suppressedUnits: string[] = [];
   const units = [...new Set([...xs.keys(), ...ys.keys()])].sort((a, b) => a.localeCompare(b, 'en'));
   const mctx = (field: string) => ({ claimsFile: ctx.claimsFile, claimId: claim.id, field, place: claim.place });
+  requireMeasure(cube, xMeasure, mctx('xMeasure'));
+  requireMeasure(cube, yMeasure, mctx('yMeasure'));
+  controls.forEach((c, j) => requireMeasure(cube, c.measure, mctx(`controls[${j}].measure`)));
   for (const unit of units) {
     const px = xs.get(unit);
     const py = ys.get(unit);

@@ -2,6 +2,9 @@ import type { Claim, Filter } from '../claims/types.js';
 import type { Cube } from '../data/types.js';
 import { analyseAssociation } from './association.js';
 import { analyseCompare, type CompareContext } from './compare.js';
+import { analyseCrosstab } from './crosstab.js';
+import { analyseEquivalence } from './equivalence.js';
+import { analyseMeans } from './means.js';
 import type { Analysis } from './types.js';
 
 /** Test one claim on its source's cube. Adding a claim kind means adding a case here and a file beside this one. */
@@ -11,6 +14,12 @@ export function analyse(claim: Claim, cube: Cube, ctx: CompareContext): Analysis
       return analyseCompare(claim, cube, ctx);
     case 'association':
       return analyseAssociation(claim, cube, ctx);
+    case 'crosstab':
+      return analyseCrosstab(claim, cube, ctx);
+    case 'means':
+      return analyseMeans(claim, cube, ctx);
+    case 'equivalence':
+      return analyseEquivalence(claim, cube, ctx);
     default:
       throw new Error(`internal: claims of kind "${claim.kind}" cannot be analysed yet`);
   }

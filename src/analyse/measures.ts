@@ -131,3 +131,13 @@ export function measureValue(pooled: Pooled, measure: Measure, ctx: MeasureConte
   if (!(col.weight > 0)) throw new Error(`internal: column "${measure.column}" has no respondents to weight for claim "${ctx.claimId}"`);
   return col.weightedSum / col.weight;
 }
+
+/**
+ * Throw the InputError measureValue would throw when no cell of the cube can give the measure at all (no answer
+ * codes for a mean score, no such numeric column), so that a misnamed measure is not mistaken for too little data.
+ */
+export function requireMeasure(cube: Cube, measure: Measure, ctx: MeasureContext): void {
+  if (measure.type === 'agree') return;
+  const has = cube.cells.some((c) => (measure.type === 'mean' ? c.codes !== undefined : c.numeric?.[measure.column] !== undefined));
+  if (!has) measureValue({ n: 1, agree: 0, approximate: false, cells: 0 }, measure, ctx);
+}

@@ -2,7 +2,7 @@
  * What testing one claim produces, before any words are chosen. One interface per claim kind; the verdict is derived
  * afterwards (src/verdicts/decide.ts) from the adjusted p-value, the claim's direction and its confidence level.
  */
-import type { AssociationClaim, Claim, CompareClaim } from '../claims/types.js';
+import type { AssociationClaim, Claim, CompareClaim, CrosstabClaim, EquivalenceClaim, MeansClaim } from '../claims/types.js';
 import type { Interval, TestResult } from '../stats/result.js';
 
 /** One selection's pooled agreement rate with its interval. */
@@ -36,6 +36,12 @@ interface AnalysisBase {
   observedSign: Direction;
   /** Method machine names used (the test, the intervals), for the method notes. */
   methods: string[];
+  /**
+   * The estimate and the smallest difference that matters, in the same units, when the claim sets one
+   * (claim.smallestDifference). 'points' are proportion units (0.05 = 5 points); 'scale points' are answer-scale
+   * units (for mean scores the fraction is read as a share of the scale's range: 0.05 on a 1-5 scale is 0.2).
+   */
+  threshold?: { effect: number; smallest: number; unit: 'points' | 'scale points' };
 }
 
 export interface CompareAnalysis extends AnalysisBase {
@@ -62,6 +68,8 @@ export interface UnitPoint {
   y: number;
   nx: number;
   ny: number;
+  /** Values of the claim's control measures for this unit, in the claim's order. */
+  controls?: number[];
 }
 
 export interface AssociationAnalysis extends AnalysisBase {
@@ -75,9 +83,73 @@ export interface AssociationAnalysis extends AnalysisBase {
   detectable?: number;
   /** Total respondents behind each measure. */
   totals?: { x: number; y: number };
+  /** Spearman's rho over the same units, as a check that does not rest on straight lines or outliers. */
+  spearman?: TestResult;
+  /** Labels of the controls when the test is a partial correlation. */
+  controlled?: string[];
+  /** True when units were weighted by their respondents. */
+  weighted?: boolean;
 }
 
-export type Analysis = CompareAnalysis | AssociationAnalysis;
+/** Claim kind "crosstab": a table of counts, rows by columns. */
+export interface CrosstabAnalysis extends AnalysisBase {
+  kind: 'crosstab';
+  claim: CrosstabClaim;
+  rowLabels: string[];
+  columnLabels: string[];
+  /** Counts, rowLabels × columnLabels (only rows with enough respondents). */
+  counts: number[][];
+  /** Rows left out for too few respondents (names only, never counts). */
+  suppressedRows: string[];
+  cramersV?: number;
+  /** Smallest expected count under independence. */
+  minExpected?: number;
+  /** Cells whose adjusted standardized residual lies beyond ±1.96, largest first. */
+  notable: Array<{ row: string; column: string; residual: number }>;
+  /** True when Fisher's exact test was called for but the table was too large, so chi-square was used. */
+  fisherTooLarge?: boolean;
+}
+
+/** One selection's mean score with its t interval. */
+export interface MeanSummary {
+  label: string;
+  n: number;
+  mean: number;
+  sd: number;
+  interval: Interval;
+}
+
+/** Claim kind "means": two selections' mean scores. */
+export interface MeansAnalysis extends AnalysisBase {
+  kind: 'means';
+  claim: MeansClaim;
+  focus?: MeanSummary;
+  against?: MeanSummary;
+  relation: 'separate' | 'focus-inside' | 'against-inside';
+  /** Difference focus - against in scale points, with the t interval (Welch or Student). */
+  difference?: { value: number; interval: Interval };
+  /** Lowest and highest answer code in the source. */
+  scale?: [number, number];
+  /** Rank test only: probability that a focus answer exceeds an against answer (ties count half). */
+  superiority?: number;
+}
+
+/** Claim kind "equivalence": two rates within a margin of each other. */
+export interface EquivalenceAnalysis extends AnalysisBase {
+  kind: 'equivalence';
+  claim: EquivalenceClaim;
+  focus?: RateSummary;
+  against?: RateSummary;
+  relation: 'separate' | 'focus-inside' | 'against-inside';
+  /** Difference focus - against with the Newcombe interval at the claim's confidence. */
+  difference?: { value: number; interval: Interval };
+  /** The TOST (Wald) interval at 1 - 2 alpha; equivalence holds when it lies inside ± margin. */
+  equivalenceInterval?: Interval;
+  /** True when the Newcombe interval lies entirely beyond + margin or - margin: clearly different. */
+  beyondMargin?: boolean;
+}
+
+export type Analysis = CompareAnalysis | AssociationAnalysis | CrosstabAnalysis | MeansAnalysis | EquivalenceAnalysis;
 
 /** Pack-wide settings a claim's analysis needs. */
 export interface AnalysisSettings {

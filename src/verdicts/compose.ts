@@ -8,6 +8,10 @@ import type { Decision } from './decide.js';
 import type { ComposeContext, Composed } from './words/common.js';
 import { composeAssociation } from './words/association.js';
 import { composeCompare } from './words/compare.js';
+import { composeCrosstab } from './words/crosstab.js';
+import { composeEquivalence } from './words/equivalence.js';
+import { composeMeans, scalePoints } from './words/means.js';
+import * as fmt from '../format/numbers.js';
 
 export type { ComposeContext } from './words/common.js';
 
@@ -17,11 +21,25 @@ function composeKind(a: Analysis, decision: Decision, ctx: ComposeContext): Comp
       return composeCompare(a, decision, ctx);
     case 'association':
       return composeAssociation(a, decision, ctx);
+    case 'crosstab':
+      return composeCrosstab(a, decision, ctx);
+    case 'means':
+      return composeMeans(a, decision, ctx);
+    case 'equivalence':
+      return composeEquivalence(a, decision, ctx);
   }
 }
 
 export function composeClaim(a: Analysis, decision: Decision, ctx: ComposeContext): { section: ClaimSection; summary: SummaryRow } {
   const built = composeKind(a, decision, ctx);
+  const small = decision.belowThreshold;
+  if (small) {
+    // Real and in the claimed direction, but smaller than the smallest difference that matters: its own sentence
+    // (templates/<kind>.below-threshold), followed by the kind's usual numbers.
+    const size = small.unit === 'points' ? fmt.pointsSize : (v: number) => scalePoints(Math.abs(v));
+    const smallestWritten = fmt.percent(a.claim.smallestDifference ?? 0);
+    built.section.verdictText = ctx.templates.render(`${a.kind}.below-threshold`, { effect: size(small.effect), smallest: size(small.smallest), smallestWritten });
+  }
   const verdictLabel = ctx.templates.render(`verdict.${decision.verdict}`, {});
   const head = { id: a.claim.id, statement: a.claim.statement, verdict: decision.verdict, verdictLabel };
   return { section: { ...head, ...built.section }, summary: { ...head, keyFigure: built.key } };

@@ -8,6 +8,12 @@
  * - opposite: statistically significant, but the other way from the claim. For a one-sided claim this uses the
  *   one-sided p-value in the opposite direction, adjusted by the same factor as the claim's own.
  * - not-supported: everything else. This is not evidence that the claim is false.
+ * - Smallest difference that matters: a result that would be supported but whose estimate is smaller than the
+ *   claim's smallestDifference is not-supported, with `belowThreshold` set so the words can say "real but small".
+ *   It applies to differences of rates (compare, change: proportion units) and of mean scores (scale points, see
+ *   src/analyse/means.ts); equivalence uses its margin instead.
+ * - equivalence: supported when both one-sided tests reject (the TOST p-value, adjusted, below alpha); opposite when
+ *   the rates are clearly further apart than the margin (analysis.beyondMargin); otherwise not-supported.
  */
 import type { Analysis } from '../analyse/types.js';
 import type { VerdictKind } from '../render/model.js';
@@ -20,6 +26,23 @@ export interface Decision {
   pAdjusted?: number;
   /** 1 - confidence. */
   alpha: number;
+  /** Set when the result is real and in the claimed direction but smaller than the smallest difference that matters. */
+  belowThreshold?: { effect: number; smallest: number; unit: 'points' | 'scale points' };
+}
+
+/** The estimate and the smallest difference that matters, in the same units, for the kinds the threshold applies to. */
+function thresholdOf(a: Analysis): Decision['belowThreshold'] {
+  if (a.threshold) return a.threshold;
+  const smallest = a.claim.smallestDifference;
+  if (smallest === undefined || a.kind === 'equivalence' || a.kind === 'means') return undefined;
+  const d = (a as { difference?: { value: number } }).difference;
+  return d !== undefined && (a.kind === 'compare' || (a.kind as string) === 'change') ? { effect: d.value, smallest, unit: 'points' } : undefined;
+}
+
+function supportedUnlessSmall(a: Analysis, base: Omit<Decision, 'verdict'>): Decision {
+  const t = thresholdOf(a);
+  if (t !== undefined && Math.abs(t.effect) < t.smallest) return { verdict: 'not-supported', ...base, belowThreshold: t };
+  return { verdict: 'supported', ...base };
 }
 
 export function decide(analysis: Analysis, pAdjusted: number | undefined): Decision {
@@ -32,12 +55,16 @@ export function decide(analysis: Analysis, pAdjusted: number | undefined): Decis
   const base = { p, pAdjusted, alpha };
   const expect = analysis.expectSign;
   const observed = analysis.observedSign;
+  if (analysis.kind === 'equivalence') {
+    if (pAdjusted < alpha) return { verdict: 'supported', ...base };
+    return { verdict: analysis.beyondMargin ? 'opposite' : 'not-supported', ...base };
+  }
   if (analysis.test.alternative === 'two-sided') {
     if (pAdjusted >= alpha || observed === 0) return { verdict: 'not-supported', ...base };
-    if (expect === 0 || observed === expect) return { verdict: 'supported', ...base };
+    if (expect === 0 || observed === expect) return supportedUnlessSmall(analysis, base);
     return { verdict: 'opposite', ...base };
   }
-  if (pAdjusted < alpha) return { verdict: 'supported', ...base };
+  if (pAdjusted < alpha) return supportedUnlessSmall(analysis, base);
   if (analysis.pOpposite !== undefined && p > 0) {
     // The same multiplicity factor that turned p into pAdjusted, applied to the other direction's p-value.
     const factor = pAdjusted / p;
