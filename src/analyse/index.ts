@@ -2,6 +2,10 @@ import type { Claim, Filter } from '../claims/types.js';
 import type { Cube } from '../data/types.js';
 import { analyseAssociation } from './association.js';
 import { analyseCompare, type CompareContext } from './compare.js';
+import { analyseChange } from './change.js';
+import { analyseEstimate } from './estimate.js';
+import { analyseTarget } from './target.js';
+import { analyseTrend } from './trend.js';
 import { analyseCrosstab } from './crosstab.js';
 import { analyseEquivalence } from './equivalence.js';
 import { analyseMeans } from './means.js';
@@ -20,8 +24,16 @@ export function analyse(claim: Claim, cube: Cube, ctx: CompareContext): Analysis
       return analyseMeans(claim, cube, ctx);
     case 'equivalence':
       return analyseEquivalence(claim, cube, ctx);
+    case 'change':
+      return analyseChange(claim, cube, ctx);
+    case 'trend':
+      return analyseTrend(claim, cube, ctx);
+    case 'target':
+      return analyseTarget(claim, cube, ctx);
+    case 'estimate':
+      return analyseEstimate(claim, cube, ctx);
     default:
-      throw new Error(`internal: claims of kind "${claim.kind}" cannot be analysed yet`);
+      throw new Error(`internal: claims of kind "${(claim as Claim).kind}" cannot be analysed yet`);
   }
 }
 

@@ -4,6 +4,7 @@
  */
 import type { AssociationClaim, Claim, CompareClaim, CrosstabClaim, EquivalenceClaim, MeansClaim } from '../claims/types.js';
 import type { Interval, TestResult } from '../stats/result.js';
+import type { ChangeClaim, EstimateClaim, TargetClaim, TrendClaim } from '../claims/types.js';
 
 /** One selection's pooled agreement rate with its interval. */
 export interface RateSummary {
@@ -149,11 +150,77 @@ export interface EquivalenceAnalysis extends AnalysisBase {
   beyondMargin?: boolean;
 }
 
-export type Analysis = CompareAnalysis | AssociationAnalysis | CrosstabAnalysis | MeansAnalysis | EquivalenceAnalysis;
+/** Claim kind "change": the same selection in an earlier and a later period. */
+export interface ChangeAnalysis extends AnalysisBase {
+  kind: 'change';
+  claim: ChangeClaim;
+  /** The source's period column. */
+  periodColumn: string;
+  /** The two periods compared, as the data write them (relative words resolved). */
+  periods: { from: string; to: string };
+  /** The later period's rate (the claim's `to`). */
+  later?: RateSummary;
+  /** The earlier period's rate (the claim's `from`). */
+  earlier?: RateSummary;
+  /** Change later - earlier, with the Newcombe interval. */
+  difference?: { value: number; interval: Interval };
+  cohensH?: number;
+  /** Smallest change (proportion units) detectable with 80% power at these sample sizes. */
+  detectable?: number;
+  responseRate?: number;
+}
+
+/** Claim kind "trend": the agreement rate over three or more ordered periods. */
+export interface TrendAnalysis extends AnalysisBase {
+  kind: 'trend';
+  claim: TrendClaim;
+  /** The source's period column. */
+  periodColumn: string;
+  /** The periods, oldest first (relative words resolved). */
+  periods: string[];
+  /** One rate per period, same order, labelled with the period. */
+  rates?: RateSummary[];
+  /** Fitted change in the rate per period (slope of the Cochran–Armitage line, scores 0..k-1). */
+  slope?: number;
+  /** Fitted rate per period, same order. */
+  fitted?: number[];
+  /** Smallest steady change per period detectable with 80% power. */
+  detectable?: number;
+  responseRate?: number;
+}
+
+/** Claim kind "target": a selection's rate against a fixed value. */
+export interface TargetAnalysis extends AnalysisBase {
+  kind: 'target';
+  claim: TargetClaim;
+  rate?: RateSummary;
+  /** Rate - target, with the rate's Wilson interval shifted by the target. */
+  difference?: { value: number; interval: Interval };
+  /** Smallest gap from the target (proportion units) detectable with 80% power, in the claimed direction. */
+  detectable?: number;
+  responseRate?: number;
+}
+
+/** Claim kind "estimate": one selection's rate or mean score with its margin of error; no test. */
+export interface EstimateAnalysis extends AnalysisBase {
+  kind: 'estimate';
+  claim: EstimateClaim;
+  /** measure agree: the rate with its Wilson interval. */
+  rate?: RateSummary;
+  /** measure mean: the mean score with its t interval. */
+  mean?: { label: string; n: number; mean: number; sd: number; interval: Interval };
+  /** measure column: the respondent-weighted mean of a numeric column (no interval: the data hold no spread). */
+  value?: { label: string; column: string; value: number; n: number };
+  responseRate?: number;
+}
+
+export type Analysis = CompareAnalysis | AssociationAnalysis | CrosstabAnalysis | MeansAnalysis | EquivalenceAnalysis | ChangeAnalysis | TrendAnalysis | TargetAnalysis | EstimateAnalysis;
 
 /** Pack-wide settings a claim's analysis needs. */
 export interface AnalysisSettings {
   minRespondents: number;
+  /** Period column per source id, where the claims file names one (for change, trend and relative periods). */
+  periodColumns?: Record<string, string>;
 }
 
 export type AnalysisFor<C extends Claim> = C extends CompareClaim ? CompareAnalysis : AssociationAnalysis;

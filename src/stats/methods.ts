@@ -143,6 +143,21 @@ export const METHODS: Record<string, MethodInfo> = {
     text: 'An exact test of independence for a table with more than two rows or columns, used when expected counts are small.',
     source: 'Mehta, C. R. and Patel, N. R. (1983). A network algorithm for performing Fisher’s exact test in r × c contingency tables. Journal of the American Statistical Association 78, 427–434.',
   },
+  'power-trend': {
+    name: 'Smallest detectable trend',
+    text: 'The smallest steady change per period that the trend test would find 80% of the time with these numbers of respondents, from the normal approximation to the trend statistic with its spread under no trend.',
+    source: 'Armitage, P. (1955). Tests for linear trends in proportions and frequencies. Biometrics 11, 375–386.',
+  },
+  'power-one-proportion': {
+    name: 'Smallest detectable gap from a fixed value',
+    text: 'The smallest gap between a rate and a fixed value (a target or benchmark) that the test against that value would find 80% of the time with this many respondents.',
+    source: 'Lachin, J. M. (1981). Introduction to sample size determination and power analysis for clinical trials. Controlled Clinical Trials 2, 93–113.',
+  },
+  't-interval-mean': {
+    name: 't interval for a mean score',
+    text: 'An interval for a mean answer score: the mean plus or minus a t quantile times the standard error. It treats the answer codes as evenly spaced numbers and relies on the mean of many answers being close to normally distributed.',
+    source: 'Student (1908). The probable error of a mean. Biometrika 6, 1–25.',
+  },
   'cochran-armitage-trend': {
     name: 'Cochran–Armitage test for trend',
     text: 'Tests whether a rate rises or falls steadily across ordered periods, with the fitted change per period. It looks for a straight-line trend and can miss a rise followed by a fall.',

@@ -8,6 +8,10 @@ import type { Decision } from './decide.js';
 import type { ComposeContext, Composed } from './words/common.js';
 import { composeAssociation } from './words/association.js';
 import { composeCompare } from './words/compare.js';
+import { composeChange } from './words/change.js';
+import { composeEstimate } from './words/estimate.js';
+import { composeTarget } from './words/target.js';
+import { composeTrend } from './words/trend.js';
 import { composeCrosstab } from './words/crosstab.js';
 import { composeEquivalence } from './words/equivalence.js';
 import { composeMeans, scalePoints } from './words/means.js';
@@ -27,6 +31,14 @@ function composeKind(a: Analysis, decision: Decision, ctx: ComposeContext): Comp
       return composeMeans(a, decision, ctx);
     case 'equivalence':
       return composeEquivalence(a, decision, ctx);
+    case 'change':
+      return composeChange(a, decision, ctx);
+    case 'trend':
+      return composeTrend(a, decision, ctx);
+    case 'target':
+      return composeTarget(a, decision, ctx);
+    case 'estimate':
+      return composeEstimate(a, decision, ctx);
   }
 }
 

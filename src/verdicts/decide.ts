@@ -48,6 +48,8 @@ function supportedUnlessSmall(a: Analysis, base: Omit<Decision, 'verdict'>): Dec
 export function decide(analysis: Analysis, pAdjusted: number | undefined): Decision {
   // Rounded so that 1 - 0.95 is 0.05 exactly, not 0.050000000000000044: p = 0.05 is not below alpha.
   const alpha = Number((1 - analysis.claim.confidence).toFixed(12));
+  // An estimate tests no hypothesis: its verdict is 'estimate' whenever there were enough respondents.
+  if (analysis.kind === 'estimate' && analysis.status === 'tested') return { verdict: 'estimate', alpha };
   if (analysis.status === 'too-little-data' || !analysis.test || pAdjusted === undefined) {
     return { verdict: 'too-little-data', alpha };
   }

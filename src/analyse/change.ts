@@ -1,0 +1,92 @@
+/**
+ * Claim kind "change": the same selection's agreement rate in an earlier and a later period ("this fell since last
+ * year"). The later period (`to`) plays the part of the focus and the earlier one (`from`) the comparison, so a
+ * claim that the rate fell expects the later rate to be lower.
+ *
+ * The two periods are answered by different people (cohorts), so the two rates are treated as independent samples:
+ * pooled two-proportion z test, or Fisher's exact test when an expected count is below 5 (Agresti 2013, Categorical
+ * Data Analysis, 3rd ed., §3.1 and §3.5); Wilson intervals per period; Newcombe's hybrid score interval for the
+ * change (Newcombe 1998, Statistics in Medicine 17, 873–890, method 10). Building blocks shared with "compare" are in
+ * rates.ts.
+ */
+import type { ChangeClaim, Claim } from '../claims/types.js';
+import type { Cube } from '../data/types.js';
+import { pool } from '../data/select.js';
+import { InputError } from '../errors.js';
+import type { CompareContext } from './compare.js';
+import { filterLabel, sign } from './labels.js';
+import { periodColumnOf, resolvePeriods } from './periods.js';
+import { compareRates, expectSignOf, rateSummary } from './rates.js';
+import { shortfall } from './thresholds.js';
+import type { ChangeAnalysis } from './types.js';
+
+/** The period column for a claim, or an InputError saying the source must name one. */
+export function requirePeriodColumn(claim: Pick<Claim, 'id' | 'source' | 'place' | 'kind'>, cube: Cube, ctx: CompareContext): string {
+  const column = periodColumnOf(cube, ctx.periodColumns?.[claim.source]);
+  if (column === undefined) {
+    throw new InputError({
+      file: ctx.claimsFile,
+      line: claim.place.line,
+      column: claim.place.column,
+      field: `claims.${claim.id}.kind`,
+      found: claim.kind,
+      problem: `claim "${claim.id}" compares periods, but source "${claim.source}" has no period column`,
+      fix: `add \`period: <column>\` to source "${claim.source}" naming the column that holds the survey periods (columns: ${cube.dimensions.join(', ')})`,
+    });
+  }
+  return column;
+}
+
+export function analyseChange(written: ChangeClaim, cube: Cube, ctx: CompareContext): ChangeAnalysis {
+  const column = requirePeriodColumn(written, cube, ctx);
+  const claim = resolvePeriods(written, cube, column, ctx.claimsFile).claim as ChangeClaim;
+  const from = String(claim.from).trim();
+  const to = String(claim.to).trim();
+  if (from === to) {
+    throw new InputError({
+      file: ctx.claimsFile,
+      line: claim.place.line,
+      column: claim.place.column,
+      field: `claims.${claim.id}.from`,
+      found: String(written.from),
+      problem: `claim "${claim.id}" compares period ${to} with itself`,
+      fix: 'give `from` an earlier period than `to` (e.g. `from: previous`, `to: latest`)',
+    });
+  }
+  const scope = Object.entries(claim.where).filter(([k]) => k !== column);
+  const scopeLabel = scope.length > 0 ? `${filterLabel(Object.fromEntries(scope))}, ` : '';
+  const laterPooled = pool(cube, { ...claim.where, [column]: to });
+  const earlierPooled = pool(cube, { ...claim.where, [column]: from });
+  const base = {
+    kind: 'change' as const,
+    claim,
+    periodColumn: column,
+    periods: { from, to },
+    expectSign: expectSignOf(claim.expect),
+    methods: [] as string[],
+  };
+  const laterLabel = `${scopeLabel}${to}`;
+  const earlierLabel = `${scopeLabel}${from}`;
+  const why = shortfall(claim, [
+    { label: to, pooled: laterPooled },
+    { label: from, pooled: earlierPooled },
+  ]);
+  if (why !== undefined) return { ...base, status: 'too-little-data', shortfall: why, observedSign: 0 };
+  const later = rateSummary(laterLabel, laterPooled, claim.confidence);
+  const earlier = rateSummary(earlierLabel, earlierPooled, claim.confidence);
+  const r = compareRates(later, earlier, claim.expect, claim.sided, claim.confidence);
+  return {
+    ...base,
+    status: 'tested',
+    later,
+    earlier,
+    test: r.test,
+    ...(r.pOpposite !== undefined ? { pOpposite: r.pOpposite } : {}),
+    observedSign: sign(r.difference.value),
+    difference: r.difference,
+    cohensH: r.cohensH,
+    ...(r.detectable !== undefined ? { detectable: r.detectable } : {}),
+    ...(r.responseRate !== undefined ? { responseRate: r.responseRate } : {}),
+    methods: r.methods,
+  };
+}

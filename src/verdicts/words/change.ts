@@ -1,0 +1,81 @@
+/** Words for the "change" kind: one selection's agreement rate in an earlier and a later period. */
+import type { ChangeAnalysis } from '../../analyse/types.js';
+import * as fmt from '../../format/numbers.js';
+import type { Chart, NumberRow } from '../../render/model.js';
+import type { Decision } from '../decide.js';
+import type { View } from '../templates.js';
+import { commonRows, pView, rateView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
+
+/** Where-filters other than the period column, as a phrase ("Tarnmoor, Q09"). */
+export function scopeOf(a: { claim: { where: ChangeAnalysis['claim']['where'] }; periodColumn: string }): string {
+  return scopeText(Object.fromEntries(Object.entries(a.claim.where).filter(([k]) => k !== a.periodColumn)));
+}
+
+export function composeChange(a: ChangeAnalysis, decision: Decision, ctx: ComposeContext): Composed {
+  const t = ctx.templates;
+  const claim = a.claim;
+  const expectVerb = claim.expect === 'lower' ? 'fell' : claim.expect === 'higher' ? 'rose' : '';
+  const oneSided = a.test ? a.test.alternative !== 'two-sided' : claim.sided === 'one-sided' && claim.expect !== 'different';
+  const scope = scopeOf(a);
+  const periods = { fromPeriod: a.periods.from, toPeriod: a.periods.to, scope, expectVerb, oneSided };
+  const hypotheses = { null: t.render('change.null', periods), alternative: t.render('change.alternative', periods) };
+  if (a.status === 'too-little-data' || !a.later || !a.earlier || !a.difference || !a.test) {
+    const compared = `${a.periods.to} against ${a.periods.from}${scope ? `, for ${scope}` : ''}.`;
+    return tooLittle(a, decision, ctx, compared, hypotheses);
+  }
+  const d = a.difference;
+  const view: View = {
+    ...periods,
+    later: rateView(a.later),
+    earlier: rateView(a.earlier),
+    level: fmt.level(claim.confidence),
+    change: fmt.points(d.value, { sign: true }),
+    changeLower: fmt.points(d.interval.lower, { sign: true }),
+    changeUpper: fmt.points(d.interval.upper, { sign: true }),
+    size: fmt.pointsSize(d.value),
+    sizeLower: fmt.pointsSize(a.observedSign < 0 ? d.interval.upper : d.interval.lower),
+    sizeUpper: fmt.pointsSize(a.observedSign < 0 ? d.interval.lower : d.interval.upper),
+    observedVerb: d.value < 0 ? 'fell' : 'rose',
+    detectable: a.detectable !== undefined ? fmt.pointsSize(a.detectable) : '',
+    testName: a.methods.includes('fisher-exact-2x2') ? "Fisher's exact test" : 'Pooled two-proportion z test',
+    fpc: a.methods.includes('wilson-fpc'),
+    adjustName: ctx.adjustName,
+    ...pView(decision, ctx),
+  };
+  const numbers: NumberRow[] = [
+    { label: a.periods.to, value: `${fmt.percent(a.later.rate)} agreed of ${fmt.count(a.later.n)} (interval ${fmt.percent(a.later.interval.lower)} to ${fmt.percent(a.later.interval.upper)})` },
+    { label: a.periods.from, value: `${fmt.percent(a.earlier.rate)} agreed of ${fmt.count(a.earlier.n)} (interval ${fmt.percent(a.earlier.interval.lower)} to ${fmt.percent(a.earlier.interval.upper)})` },
+    { label: 'Change', value: `${view.change} points (interval ${view.changeLower} to ${view.changeUpper})` },
+    ...commonRows(a, decision, ctx),
+    { label: "Effect size (Cohen's h)", value: fmt.coefficient(a.cohensH ?? NaN) },
+    { label: 'Smallest change detectable (80% power)', value: view.detectable ? `about ${view.detectable} points` : 'none within reach of these samples' },
+  ];
+  const cautions: string[] = [t.render('caution.cohorts', {})];
+  for (const r of [a.later, a.earlier]) {
+    if (r.n < 50) cautions.push(t.render('caution.small-sample', { n: fmt.count(r.n), label: r.label, onePerson: fmt.pointsSize(1 / r.n) }));
+  }
+  if (a.responseRate !== undefined && a.responseRate < 0.5) cautions.push(t.render('caution.response-rate', { rate: fmt.percent(a.responseRate) }));
+  if (a.later.approximate || a.earlier.approximate) cautions.push(t.render('caution.rounded', {}));
+  if (a.methods.includes('fisher-exact-2x2')) cautions.push(t.render('caution.fisher', {}));
+  if (ctx.adjusted) cautions.push(t.render('caution.not-adjusted-interval', view));
+  const chart: Chart = {
+    data: {
+      kind: 'rates',
+      axisTitle: 'Agreeing (%)',
+      bars: [a.earlier, a.later].map((r, i) => ({ label: i === 0 ? a.periods.from : a.periods.to, rate: r.rate, lower: r.interval.lower, upper: r.interval.upper, n: r.n })),
+    },
+    alt: `Chart of agreement rates with ${fmt.level(claim.confidence)} intervals${scope ? ` for ${scope}` : ''}: ${a.periods.from} ${fmt.percent(a.earlier.rate)} (${fmt.percent(a.earlier.interval.lower)} to ${fmt.percent(a.earlier.interval.upper)}), ${a.periods.to} ${fmt.percent(a.later.rate)} (${fmt.percent(a.later.interval.lower)} to ${fmt.percent(a.later.interval.upper)}).`,
+  };
+  return {
+    section: {
+      compared: t.render('change.compared', view),
+      hypotheses,
+      numbers,
+      chart,
+      verdictText: t.render(`change.${decision.verdict}`, view),
+      cautions,
+      methodLine: t.render('change.method', view),
+    },
+    key: t.render('change.key', view),
+  };
+}

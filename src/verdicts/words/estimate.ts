@@ -1,0 +1,77 @@
+/** Words for the "estimate" kind: one selection's rate or mean score with its margin of error; no test. */
+import type { EstimateAnalysis } from '../../analyse/types.js';
+import { filterLabel } from '../../analyse/labels.js';
+import * as fmt from '../../format/numbers.js';
+import type { Chart, NumberRow } from '../../render/model.js';
+import type { Decision } from '../decide.js';
+import type { View } from '../templates.js';
+import { tooLittle, type ComposeContext, type Composed } from './common.js';
+
+/** A mean score, two decimals. */
+function score(v: number): string {
+  return fmt.plain(v, 2);
+}
+
+export function composeEstimate(a: EstimateAnalysis, decision: Decision, ctx: ComposeContext): Composed {
+  const t = ctx.templates;
+  const claim = a.claim;
+  const label = a.rate?.label ?? a.mean?.label ?? a.value?.label ?? claim.selectLabel ?? filterLabel({ ...claim.where, ...claim.select });
+  const hypotheses = { null: 'None: this claim reports an estimate and tests no hypothesis.', alternative: 'None.' };
+  if (a.status === 'too-little-data' || (!a.rate && !a.mean && !a.value)) {
+    return tooLittle(a, decision, ctx, `${label}.`, hypotheses);
+  }
+  const level = fmt.level(claim.confidence);
+  const understood = claim.confidenceWritten === 'default' ? ' (the default)' : claim.confidenceWritten.replace(/\s+/g, '') === level ? '' : ` (written as ${claim.confidenceWritten})`;
+  let view: View;
+  let numbers: NumberRow[];
+  let chart: Chart | undefined;
+  const cautions: string[] = [];
+  if (a.rate) {
+    const r = a.rate;
+    const margin = Math.max(r.rate - r.interval.lower, r.interval.upper - r.rate);
+    view = { label, measureRate: true, n: fmt.count(r.n), value: fmt.percent(r.rate), lower: fmt.percent(r.interval.lower), upper: fmt.percent(r.interval.upper), margin: fmt.pointsSize(margin), level, fpc: r.population !== undefined, population: r.population !== undefined ? fmt.count(r.population) : '' };
+    numbers = [
+      { label: 'Agreement rate', value: `${view.value} of ${view.n} respondents` },
+      { label: `${level} interval`, value: `${view.lower} to ${view.upper} (up to ${view.margin} points either side)` },
+      ...(r.population !== undefined ? [{ label: 'Eligible', value: `${fmt.count(r.population)} (${fmt.percent(r.n / r.population)} answered)` }] : []),
+      { label: 'Confidence level', value: `${level}${understood}` },
+    ];
+    chart = {
+      data: { kind: 'rates', axisTitle: 'Agreeing (%)', bars: [{ label: r.label, rate: r.rate, lower: r.interval.lower, upper: r.interval.upper, n: r.n }] },
+      alt: `Chart of the agreement rate in ${r.label}: ${view.value} with a ${level} interval of ${view.lower} to ${view.upper}.`,
+    };
+    if (r.n < 50) cautions.push(t.render('caution.small-sample', { n: fmt.count(r.n), label: r.label, onePerson: fmt.pointsSize(1 / r.n) }));
+    if (a.responseRate !== undefined && a.responseRate < 0.5) cautions.push(t.render('caution.response-rate', { rate: fmt.percent(a.responseRate) }));
+    if (r.approximate) cautions.push(t.render('caution.rounded', {}));
+  } else if (a.mean) {
+    const m = a.mean;
+    view = { label, measureMean: true, n: fmt.count(m.n), value: score(m.mean), lower: score(m.interval.lower), upper: score(m.interval.upper), margin: score((m.interval.upper - m.interval.lower) / 2), sd: score(m.sd), level };
+    numbers = [
+      { label: 'Mean score', value: `${view.value} from ${view.n} answers` },
+      { label: `${level} interval`, value: `${view.lower} to ${view.upper} (${view.margin} either side)` },
+      { label: 'Standard deviation', value: String(view.sd) },
+      { label: 'Confidence level', value: `${level}${understood}` },
+    ];
+    if (m.n < 50) cautions.push(t.render('estimate.caution-small-mean', view));
+    cautions.push(t.render('estimate.caution-scale', view));
+  } else {
+    const v = a.value as NonNullable<EstimateAnalysis['value']>;
+    view = { label, measureColumn: true, column: v.column, n: fmt.count(v.n), value: fmt.plain(v.value, 3), level };
+    numbers = [
+      { label: v.column, value: `${view.value} (weighted by ${view.n} respondents)` },
+      { label: 'Interval', value: 'not available: the data give one figure per row and no spread' },
+    ];
+  }
+  return {
+    section: {
+      compared: t.render('estimate.compared', view),
+      hypotheses,
+      numbers,
+      ...(chart ? { chart } : {}),
+      verdictText: t.render('estimate.estimate', view),
+      cautions,
+      methodLine: t.render('estimate.method', view),
+    },
+    key: t.render('estimate.key', view),
+  };
+}

@@ -1,0 +1,81 @@
+/** Words for the "target" kind: one selection's agreement rate against a fixed value. */
+import type { TargetAnalysis } from '../../analyse/types.js';
+import { filterLabel } from '../../analyse/labels.js';
+import * as fmt from '../../format/numbers.js';
+import type { Chart, NumberRow } from '../../render/model.js';
+import type { Decision } from '../decide.js';
+import type { View } from '../templates.js';
+import { commonRows, pView, rateView, tooLittle, type ComposeContext, type Composed } from './common.js';
+
+/** True when the fixed value's label says it is a benchmark from elsewhere rather than a target set locally. */
+function isBenchmark(label: string | undefined): boolean {
+  return label !== undefined && /benchmark|national|sector|average|published|comparator/i.test(label);
+}
+
+export function composeTarget(a: TargetAnalysis, decision: Decision, ctx: ComposeContext): Composed {
+  const t = ctx.templates;
+  const claim = a.claim;
+  const expectWord = claim.expect === 'lower' ? 'below' : claim.expect === 'higher' ? 'above' : '';
+  const oneSided = a.test ? a.test.alternative !== 'two-sided' : claim.sided === 'one-sided' && claim.expect !== 'different';
+  const label = a.rate?.label ?? claim.selectLabel ?? filterLabel({ ...claim.where, ...claim.select });
+  const target = fmt.percent(claim.value);
+  const valueLabel = claim.valueLabel ?? `the value of ${target}`;
+  const head = { label, target, valueLabel, expectWord, oneSided };
+  const hypotheses = { null: t.render('target.null', head), alternative: t.render('target.alternative', head) };
+  if (a.status === 'too-little-data' || !a.rate || !a.difference || !a.test) {
+    return tooLittle(a, decision, ctx, `${label} against ${valueLabel}.`, hypotheses);
+  }
+  const d = a.difference;
+  const exact = a.methods.includes('binomial-exact');
+  const view: View = {
+    ...head,
+    rate: rateView(a.rate),
+    level: fmt.level(claim.confidence),
+    gap: fmt.points(d.value, { sign: true }),
+    gapLower: fmt.points(d.interval.lower, { sign: true }),
+    gapUpper: fmt.points(d.interval.upper, { sign: true }),
+    size: fmt.pointsSize(d.value),
+    sizeLower: fmt.pointsSize(a.observedSign < 0 ? d.interval.upper : d.interval.lower),
+    sizeUpper: fmt.pointsSize(a.observedSign < 0 ? d.interval.lower : d.interval.upper),
+    observedWord: d.value < 0 ? 'below' : 'above',
+    detectable: a.detectable !== undefined ? fmt.pointsSize(a.detectable) : '',
+    testName: exact ? 'Exact binomial test against the fixed value' : 'Score test against the fixed value',
+    fpc: a.methods.includes('wilson-fpc'),
+    adjustName: ctx.adjustName,
+    ...pView(decision, ctx),
+  };
+  const numbers: NumberRow[] = [
+    { label: a.rate.label, value: `${fmt.percent(a.rate.rate)} agreed of ${fmt.count(a.rate.n)} (interval ${fmt.percent(a.rate.interval.lower)} to ${fmt.percent(a.rate.interval.upper)})` },
+    { label: claim.valueLabel ?? 'Fixed value', value: claim.valueWritten && claim.valueWritten !== target ? `${target} (written as ${claim.valueWritten})` : target },
+    { label: 'Gap to the value', value: `${view.gap} points (interval ${view.gapLower} to ${view.gapUpper})` },
+    ...commonRows(a, decision, ctx),
+    { label: 'Smallest gap detectable (80% power)', value: view.detectable ? `about ${view.detectable} points` : 'none within reach of this sample' },
+  ];
+  const cautions: string[] = [t.render(isBenchmark(claim.valueLabel) ? 'target.caution-benchmark' : 'target.caution-target', view)];
+  if (a.rate.n < 50) cautions.push(t.render('caution.small-sample', { n: fmt.count(a.rate.n), label: a.rate.label, onePerson: fmt.pointsSize(1 / a.rate.n) }));
+  if (a.responseRate !== undefined && a.responseRate < 0.5) cautions.push(t.render('caution.response-rate', { rate: fmt.percent(a.responseRate) }));
+  if (a.rate.approximate) cautions.push(t.render('caution.rounded', {}));
+  if (exact) cautions.push(t.render('target.caution-exact', view));
+  if (ctx.adjusted) cautions.push(t.render('caution.not-adjusted-interval', view));
+  const chart: Chart = {
+    data: {
+      kind: 'rates',
+      axisTitle: 'Agreeing (%)',
+      bars: [{ label: a.rate.label, rate: a.rate.rate, lower: a.rate.interval.lower, upper: a.rate.interval.upper, n: a.rate.n }],
+      reference: { value: claim.value, label: claim.valueLabel ?? target },
+    },
+    alt: `Chart of the agreement rate in ${a.rate.label}, ${fmt.percent(a.rate.rate)} with a ${fmt.level(claim.confidence)} interval of ${fmt.percent(a.rate.interval.lower)} to ${fmt.percent(a.rate.interval.upper)}, against a line at ${target} for ${valueLabel}.`,
+  };
+  return {
+    section: {
+      compared: t.render('target.compared', view),
+      hypotheses,
+      numbers,
+      chart,
+      verdictText: t.render(`target.${decision.verdict}`, view),
+      cautions,
+      methodLine: t.render('target.method', view),
+    },
+    key: t.render('target.key', view),
+  };
+}

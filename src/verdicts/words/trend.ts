@@ -1,0 +1,81 @@
+/** Words for the "trend" kind: an agreement rate over three or more ordered periods. */
+import type { TrendAnalysis } from '../../analyse/types.js';
+import * as fmt from '../../format/numbers.js';
+import type { Chart, NumberRow } from '../../render/model.js';
+import type { Decision } from '../decide.js';
+import type { View } from '../templates.js';
+import { scopeOf } from './change.js';
+import { commonRows, pView, tooLittle, type ComposeContext, type Composed } from './common.js';
+
+export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeContext): Composed {
+  const t = ctx.templates;
+  const claim = a.claim;
+  const expectWord = claim.expect === 'rising' ? 'rising' : claim.expect === 'falling' ? 'falling' : '';
+  const oneSided = a.test ? a.test.alternative !== 'two-sided' : claim.sided === 'one-sided' && claim.expect !== 'any';
+  const scope = scopeOf(a);
+  const first = a.periods[0] ?? '';
+  const last = a.periods[a.periods.length - 1] ?? '';
+  const head = { scope, first, last, periodCount: a.periods.length, periodList: a.periods.join(', '), expectWord, oneSided };
+  const hypotheses = { null: t.render('trend.null', head), alternative: t.render('trend.alternative', head) };
+  if (a.status === 'too-little-data' || !a.rates || a.slope === undefined || !a.fitted || !a.test) {
+    return tooLittle(a, decision, ctx, `${a.periods.join(', ')}${scope ? `, for ${scope}` : ''}.`, hypotheses);
+  }
+  const rates = a.rates;
+  const totalN = rates.reduce((s, r) => s + r.n, 0);
+  const fittedFirst = a.fitted[0] as number;
+  const fittedLast = a.fitted[a.fitted.length - 1] as number;
+  const view: View = {
+    ...head,
+    level: fmt.level(claim.confidence),
+    totalN: fmt.count(totalN),
+    minN: fmt.count(Math.min(...rates.map((r) => r.n))),
+    maxN: fmt.count(Math.max(...rates.map((r) => r.n))),
+    firstRate: fmt.percent((rates[0] as (typeof rates)[number]).rate),
+    lastRate: fmt.percent((rates[rates.length - 1] as (typeof rates)[number]).rate),
+    slope: fmt.points(a.slope, { sign: true }),
+    slopeSize: fmt.pointsSize(a.slope),
+    fittedFirst: fmt.percent(fittedFirst),
+    fittedLast: fmt.percent(fittedLast),
+    fittedChange: fmt.points(fittedLast - fittedFirst, { sign: true }),
+    observedWord: a.slope < 0 ? 'fell' : 'rose',
+    detectable: a.detectable !== undefined ? fmt.pointsSize(a.detectable) : '',
+    fpc: a.methods.includes('wilson-fpc'),
+    adjustName: ctx.adjustName,
+    ...pView(decision, ctx),
+  };
+  const numbers: NumberRow[] = [
+    ...rates.map((r) => ({ label: r.label, value: `${fmt.percent(r.rate)} agreed of ${fmt.count(r.n)} (interval ${fmt.percent(r.interval.lower)} to ${fmt.percent(r.interval.upper)})` })),
+    { label: 'Fitted change per period', value: `${view.slope} points` },
+    { label: `Fitted rate, ${first} to ${last}`, value: `${view.fittedFirst} to ${view.fittedLast} (${view.fittedChange} points)` },
+    ...commonRows(a, decision, ctx),
+    { label: 'Smallest steady change detectable (80% power)', value: `about ${view.detectable} points per period` },
+  ];
+  const cautions: string[] = [t.render('trend.caution-cohorts', {}), t.render('trend.caution-straight-line', { periodCount: a.periods.length })];
+  for (const r of rates) {
+    if (r.n < 50) cautions.push(t.render('caution.small-sample', { n: fmt.count(r.n), label: r.label, onePerson: fmt.pointsSize(1 / r.n) }));
+  }
+  if (a.responseRate !== undefined && a.responseRate < 0.5) cautions.push(t.render('caution.response-rate', { rate: fmt.percent(a.responseRate) }));
+  if (rates.some((r) => r.approximate)) cautions.push(t.render('caution.rounded', {}));
+  if (ctx.adjusted) cautions.push(t.render('caution.not-adjusted-interval', view));
+  const chart: Chart = {
+    data: {
+      kind: 'periods',
+      axisTitle: 'Agreeing (%)',
+      points: rates.map((r) => ({ period: r.label, rate: r.rate, lower: r.interval.lower, upper: r.interval.upper, n: r.n })),
+      fit: a.fitted.slice(),
+    },
+    alt: `Chart of the agreement rate in each period with ${fmt.level(claim.confidence)} intervals${scope ? ` for ${scope}` : ''}: ${rates.map((r) => `${r.label} ${fmt.percent(r.rate)}`).join(', ')}; the fitted straight line goes from ${view.fittedFirst} to ${view.fittedLast}.`,
+  };
+  return {
+    section: {
+      compared: t.render('trend.compared', view),
+      hypotheses,
+      numbers,
+      chart,
+      verdictText: t.render(`trend.${decision.verdict}`, view),
+      cautions,
+      methodLine: t.render('trend.method', view),
+    },
+    key: t.render('trend.key', view),
+  };
+}
