@@ -1,0 +1,302 @@
+/**
+ * `warrant init data.xlsx|data.csv [--sheet NAME] [--out claims.yaml] [--force]`: look at a data file and write a
+ * starter claims file: the schema header line, a source block with the measures guessed from the column names and
+ * values, a list of the columns and their values, and one commented example of every kind of claim, written with
+ * the file's own column names and values so that uncommenting an example gives a claim `warrant check` accepts.
+ */
+import { existsSync } from 'node:fs';
+import { writeFile } from 'node:fs/promises';
+import { basename, dirname, extname, relative, resolve, sep } from 'node:path';
+import type { Argv } from 'yargs';
+import { DATA_EXTENSIONS } from '../claims/rules.js';
+import { LIST_LIMIT, scanTable, type ColumnScan, type TableScan } from '../claims/scan.js';
+import { claimsSchemaPath } from '../claims/schema.js';
+import { displayPathFor } from '../claims/read.js';
+import { InputError } from '../errors.js';
+
+export interface InitOptions {
+  /** The data file (.csv or .xlsx). */
+  data: string;
+  /** Worksheet of an .xlsx file (default: the first visible sheet). */
+  sheet?: string;
+  /** The claims file to write (default: claims.yaml beside the data file). */
+  out?: string;
+  /** Overwrite an existing file. */
+  force?: boolean;
+  write?: (text: string) => void;
+}
+
+/** What was guessed about the file. */
+export interface Guess {
+  shape: 'summary' | 'respondents';
+  respondents?: string;
+  agree?: string;
+  agreePercent?: string;
+  population?: string;
+  period?: string;
+  questions: string[];
+  notApplicable: number[];
+  numeric: string[];
+  /** Columns to select on, most useful first. */
+  dimensions: ColumnScan[];
+}
+
+const RESPONDENTS = /respon|^n$|^base$|answered|^count$|replies/i;
+const PERCENT = /%|percent|pct/i;
+const AGREE = /agree|positive|satisf/i;
+const POPULATION = /eligible|population|cohort|invited|headcount/i;
+const PERIOD = /^(year|period|wave|cycle|round|survey ?year|academic ?year)$/i;
+const ID = /^(id|.*[ _-]id|respondent|key)$/i;
+
+/** Integer answer codes: at least three of 1-5 and nothing else but a few not-applicable codes (0, 6, 9, 99). */
+function answerCodes(c: ColumnScan): { na: number[] } | undefined {
+  if (!c.integer || c.more || c.distinct > 8) return undefined;
+  const codes = c.values.map(Number);
+  const inScale = codes.filter((x) => x >= 1 && x <= 5);
+  const others = codes.filter((x) => x < 1 || x > 5);
+  if (inScale.length < 3 || others.some((x) => ![0, 6, 9, 99].includes(x))) return undefined;
+  return { na: others.sort((a, b) => a - b) };
+}
+
+/** Guess measures and dimensions from the scanned columns. */
+export function guessMeasures(scan: TableScan): Guess {
+  const cols = scan.columns;
+  const find = (re: RegExp, ok: (c: ColumnScan) => boolean, not: Array<string | undefined> = []): string | undefined =>
+    cols.find((c) => re.test(c.name) && ok(c) && !not.includes(c.name))?.name;
+  const questions: string[] = [];
+  const na = new Set<number>();
+  for (const c of cols) {
+    const codes = answerCodes(c);
+    if (codes && !PERIOD.test(c.name) && !RESPONDENTS.test(c.name)) {
+      questions.push(c.name);
+      codes.na.forEach((x) => na.add(x));
+    }
+  }
+  const respondents = find(RESPONDENTS, (c) => c.integer);
+  const shape = questions.length > 0 && respondents === undefined ? 'respondents' : 'summary';
+  const guess: Guess = { shape, questions: shape === 'respondents' ? questions : [], notApplicable: shape === 'respondents' ? [...na] : [], numeric: [], dimensions: [] };
+  const used = new Set<string>();
+  if (shape === 'summary') {
+    guess.respondents = respondents;
+    const percent = find(PERCENT, (c) => c.filled > 0, [respondents]);
+    const agree = find(AGREE, (c) => c.integer && !PERCENT.test(c.name), [respondents]);
+    if (agree !== undefined) guess.agree = agree;
+    else if (percent !== undefined) guess.agreePercent = percent;
+    guess.population = find(POPULATION, (c) => c.integer, [respondents, agree]);
+    for (const n of [guess.respondents, guess.agree, guess.agreePercent, guess.population]) if (n !== undefined) used.add(n);
+  } else {
+    questions.forEach((q) => used.add(q));
+  }
+  guess.period = find(PERIOD, (c) => c.filled > 0 && !c.more && c.distinct <= LIST_LIMIT);
+  if (guess.period !== undefined) used.add(guess.period);
+  for (const c of cols) {
+    if (used.has(c.name) || c.filled === 0) continue;
+    const categorical = !c.more && c.distinct >= 2 && c.distinct <= LIST_LIMIT && !ID.test(c.name);
+    if (categorical && !(c.numeric && !c.integer)) guess.dimensions.push(c);
+    else if (shape === 'summary' && c.numeric) guess.numeric.push(c.name);
+  }
+  for (const k of ['respondents', 'agree', 'agreePercent', 'population', 'period'] as const) if (guess[k] === undefined) delete guess[k];
+  return guess;
+}
+
+/** A YAML scalar written so that it reads back as the same text (quoted when plain text would not). */
+export function yamlScalar(v: string): string {
+  const plain = /^[A-Za-z0-9][A-Za-z0-9 ._/()'-]*$/.test(v) && !/^(true|false|yes|no|on|off|null|~)$/i.test(v) && !/\s$/.test(v) && !/: | #/.test(v);
+  return plain ? v : JSON.stringify(v);
+}
+
+/** A flow mapping { col: value }. */
+function flow(pairs: Array<[string, string | string[] | { not: string }]>): string {
+  const one = (v: string | string[] | { not: string }): string =>
+    Array.isArray(v) ? `[${v.map(yamlScalar).join(', ')}]` : typeof v === 'object' ? `{ not: ${yamlScalar(v.not)} }` : yamlScalar(v);
+  return `{ ${pairs.map(([k, v]) => `${yamlScalar(k)}: ${one(v)}`).join(', ')} }`;
+}
+
+/** The starter claims file's text. */
+export function starterText(scan: TableScan, guess: Guess, dataFile: string, schemaRef: string, sheet?: string): string {
+  const L: string[] = [];
+  const dims = guess.dimensions;
+  const qCol = guess.shape === 'respondents' ? { name: 'question', values: guess.questions } : (() => {
+    const q = dims.find((d) => /question|item|^q$/i.test(d.name));
+    return q ? { name: q.name, values: q.values } : undefined;
+  })();
+  const units = dims.find((d) => d !== undefined && d.name !== qCol?.name && d.distinct >= 3) ?? dims.find((d) => d.name !== qCol?.name);
+  const other = dims.find((d) => d !== units && d.name !== qCol?.name);
+  const unitName = units?.name ?? 'COLUMN';
+  const u1 = units?.values[0] ?? 'VALUE';
+  const u2 = units?.values[1] ?? 'VALUE';
+  const where: Array<[string, string | string[] | { not: string }]> = [];
+  if (qCol && qCol.values[0] !== undefined) where.push([qCol.name, qCol.values[0]]);
+  const whereLine = where.length > 0 ? `    where: ${flow(where)}` : undefined;
+  const whereWithLatest = guess.period !== undefined ? `    where: ${flow([...where, [guess.period, 'latest']])}` : whereLine;
+  const measureLine = guess.shape === 'respondents' ? '    measure: mean' : guess.numeric[0] !== undefined ? `    measure: { column: ${yamlScalar(guess.numeric[0])} }` : undefined;
+
+  L.push(`# yaml-language-server: $schema=${schemaRef}`);
+  L.push('# A starter claims file. Write each claim before looking at the results, then run: warrant check <this file>');
+  L.push(`title: Claims about ${yamlScalar(basename(dataFile, extname(dataFile))).replace(/^"|"$/g, '')}`);
+  L.push('organisation: Your organisation');
+  L.push('confidence: 95%');
+  L.push('');
+  L.push('sources:');
+  L.push('  data:');
+  L.push(`    file: ${yamlScalar(dataFile)}`);
+  if (sheet !== undefined) L.push(`    sheet: ${yamlScalar(sheet)}`);
+  L.push(`    shape: ${guess.shape}`);
+  if (guess.shape === 'summary') {
+    L.push(`    respondents: ${guess.respondents !== undefined ? yamlScalar(guess.respondents) : 'COLUMN   # the column with the number who answered: no column looked like it'}`);
+    if (guess.agree !== undefined) L.push(`    agree: ${yamlScalar(guess.agree)}`);
+    else if (guess.agreePercent !== undefined) L.push(`    agree_percent: ${yamlScalar(guess.agreePercent)}`);
+    else L.push('    agree: COLUMN   # the column with the number who agreed: no column looked like it');
+    if (guess.population !== undefined) L.push(`    population: ${yamlScalar(guess.population)}`);
+    if (guess.numeric.length > 0) L.push(`    numeric: [${guess.numeric.map(yamlScalar).join(', ')}]`);
+  } else {
+    L.push(`    questions: [${guess.questions.map(yamlScalar).join(', ')}]`);
+    L.push('    agree_codes: [4, 5]');
+    if (guess.notApplicable.length > 0) L.push(`    not_applicable: [${guess.notApplicable.join(', ')}]`);
+  }
+  if (guess.period !== undefined) L.push(`    period: ${yamlScalar(guess.period)}`);
+  if (scan.headerRow !== 1) L.push(`    header_row: ${scan.headerRow}`);
+  L.push('');
+  L.push(`# Columns found in ${dataFile}${scan.sheet !== undefined ? `, sheet "${scan.sheet}"` : ''} (${scan.rows} data rows):`);
+  for (const c of scan.columns) {
+    const role =
+      c.name === guess.respondents ? 'respondents' : c.name === guess.agree ? 'agreeing' : c.name === guess.agreePercent ? 'percent agreeing' : c.name === guess.population ? 'eligible' : c.name === guess.period ? 'period' : guess.questions.includes(c.name) ? 'answers coded 1-5' : guess.numeric.includes(c.name) ? 'numeric' : undefined;
+    const counts = role !== undefined && role !== 'period' && role !== 'answers coded 1-5';
+    const values = c.more ? `more than ${c.distinct} distinct values` : c.distinct > LIST_LIMIT || counts ? `${c.distinct} distinct values` : c.values.join(', ');
+    L.push(`#   ${c.name}${role ? ` (${role})` : ''}: ${values}`);
+  }
+  L.push('');
+  L.push('claims:');
+  L.push('  # Remove the "# " before the lines of an example to use it, then change its words to your claim.');
+  const example = (title: string, lines: Array<string | undefined>): void => {
+    L.push('');
+    L.push(`  # ${title}`);
+    for (const line of lines) if (line !== undefined) L.push(`  # ${line.slice(2)}`);
+  };
+  const pair = [
+    `    focus: ${flow([[unitName, u1]])}`,
+    `    against: ${flow([[unitName, { not: u1 }]])}`,
+  ];
+  example('compare: one selection\'s agreement rate against another\'s', [
+    '  - id: compare-example',
+    `    claim: ${u1} agrees less than the others.`,
+    '    kind: compare',
+    whereWithLatest,
+    ...pair,
+    '    expect: lower',
+  ]);
+  const q1 = qCol?.values[0];
+  const q2 = qCol?.values[1];
+  example('association: whether two measures go together across units', [
+    '  - id: association-example',
+    `    claim: Where agreement on ${q1 ?? 'one question'} is higher, agreement on ${q2 ?? 'another'} is higher too.`,
+    '    kind: association',
+    `    units: ${yamlScalar(unitName)}`,
+    qCol && q1 !== undefined ? `    x: ${flow([[qCol.name, q1]])}` : `    x: ${flow([[other?.name ?? unitName, other?.values[0] ?? u1]])}`,
+    qCol && q2 !== undefined ? `    y: ${flow([[qCol.name, q2]])}` : `    y: ${flow([[other?.name ?? unitName, other?.values[1] ?? u2]])}`,
+    '    expect: positive',
+  ]);
+  const periodNote = guess.period === undefined ? ' (needs a period column: add period: COLUMN to the source)' : '';
+  example(`change: the same selection in two periods${periodNote}`, [
+    '  - id: change-example',
+    `    claim: Agreement at ${u1} fell since the previous survey.`,
+    '    kind: change',
+    `    where: ${flow([...where, [unitName, u1]])}`,
+    '    from: previous',
+    '    expect: lower',
+  ]);
+  example(`trend: a rise or fall over three or more periods${periodNote}`, [
+    '  - id: trend-example',
+    `    claim: Agreement at ${u1} has risen over the last three surveys.`,
+    '    kind: trend',
+    `    where: ${flow([...where, [unitName, u1]])}`,
+    '    last: 3',
+    '    expect: rising',
+  ]);
+  example('target: a selection against a fixed value such as a target or benchmark', [
+    '  - id: target-example',
+    `    claim: ${u1} meets the 80% target.`,
+    '    kind: target',
+    whereWithLatest,
+    `    select: ${flow([[unitName, u1]])}`,
+    '    value: 80%',
+    '    value_label: the 80% target',
+    '    expect: higher',
+  ]);
+  example('crosstab: whether agreement (or another column) differs across the values of a column', [
+    '  - id: crosstab-example',
+    `    claim: Agreement differs across ${unitName}.`,
+    '    kind: crosstab',
+    whereLine,
+    `    rows: ${yamlScalar(unitName)}`,
+    other !== undefined && guess.shape === 'respondents' ? `    columns: ${yamlScalar(other.name)}` : '    columns: agreement',
+  ]);
+  example(`means: mean scores of two selections${measureLine === undefined ? ' (needs answers coded 1-5, or a numeric column listed under numeric)' : ''}`, [
+    '  - id: means-example',
+    `    claim: ${u1} scores lower than the others.`,
+    '    kind: means',
+    whereLine,
+    ...pair,
+    measureLine ?? '    measure: { column: COLUMN }',
+    '    expect: lower',
+  ]);
+  example('equivalence: two selections within a stated margin of each other', [
+    '  - id: equivalence-example',
+    `    claim: ${u1} and ${u2} agree to within 5 points.`,
+    '    kind: equivalence',
+    whereLine,
+    `    focus: ${flow([[unitName, u1]])}`,
+    `    against: ${flow([[unitName, u2]])}`,
+    '    margin: 5 points',
+  ]);
+  example('estimate: a plain figure with its margin of error', [
+    '  - id: estimate-example',
+    `    claim: About three in four at ${u1} agree.`,
+    '    kind: estimate',
+    whereLine,
+    `    select: ${flow([[unitName, u1]])}`,
+  ]);
+  return L.join('\n') + '\n';
+}
+
+/** Write the starter claims file; returns the exit code. */
+export async function init(opts: InitOptions): Promise<number> {
+  const write = opts.write ?? ((t: string) => void process.stdout.write(t));
+  const dataPath = resolve(opts.data);
+  const format = DATA_EXTENSIONS[extname(dataPath).toLowerCase()];
+  if (format === undefined) {
+    throw new InputError({ file: opts.data, problem: 'warrant reads .csv and .xlsx files, and this is neither', fix: 'Save the data as .csv or .xlsx and give that file' });
+  }
+  if (format === 'csv' && opts.sheet !== undefined) {
+    throw new InputError({ file: opts.data, field: 'sheet', found: opts.sheet, problem: 'a .csv file has no sheets', fix: 'Leave out --sheet, or give the .xlsx workbook' });
+  }
+  const outPath = resolve(opts.out ?? resolve(dirname(dataPath), 'claims.yaml'));
+  const outDisplay = displayPathFor(outPath);
+  if (existsSync(outPath) && !opts.force) {
+    throw new InputError({ file: outDisplay, problem: 'this file already exists, and warrant init does not overwrite it', fix: 'Choose another name with --out, or add --force to replace it' });
+  }
+  const scan = await scanTable(dataPath, format, { displayPath: displayPathFor(dataPath), ...(opts.sheet !== undefined ? { sheet: opts.sheet } : {}) });
+  const guess = guessMeasures(scan);
+  const outDir = dirname(outPath);
+  const rel = (p: string): string => {
+    const r = relative(outDir, p).split(sep).join('/');
+    return r === '' ? '.' : r;
+  };
+  const text = starterText(scan, guess, rel(dataPath), rel(claimsSchemaPath()), format === 'xlsx' ? scan.sheet : undefined);
+  await writeFile(outPath, text, 'utf8');
+  write(`${outDisplay}: written with ${scan.columns.length} columns (${guess.shape} data) and an example of every kind of claim; uncomment one and run warrant check ${outDisplay}\n`);
+  return 0;
+}
+
+export const command = 'init <data>';
+export const describe = 'Write a starter claims file for a data file (.csv or .xlsx), listing its columns and values, with an example of every kind of claim';
+
+/** The yargs definition: `.command(command, describe, builder, async (a) => { code = await init(a) })`. */
+export function builder<T>(y: Argv<T>) {
+  return y
+    .positional('data', { type: 'string', demandOption: true, describe: 'The data file (.csv or .xlsx)' })
+    .option('sheet', { type: 'string', describe: 'Worksheet of an .xlsx file (default: the first visible sheet)' })
+    .option('out', { type: 'string', describe: 'The claims file to write (default: claims.yaml beside the data file)' })
+    .option('force', { type: 'boolean', describe: 'Replace the claims file if it exists' })
+    .example('$0 init data/results.xlsx --out claims.yaml', 'Write claims.yaml with examples using the columns of results.xlsx');
+}
