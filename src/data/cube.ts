@@ -23,7 +23,7 @@ import { InputError } from '../errors.js';
 import type { Problem } from '../errors.js';
 import type { SourceSpec } from '../claims/types.js';
 import type { Cell, Cube } from './types.js';
-import { readCsvRows } from './csv.js';
+import { readCsvBatches } from './csv.js';
 import type { Delimiter } from './csv.js';
 import { openXlsxSheet } from './xlsx.js';
 import { sha256File } from './hash.js';
@@ -142,8 +142,30 @@ function parseNumeric(text: string, row: number, field: string, problems: Proble
 }
 
 /** Header row and the rows after it. */
+/** Rows one at a time (to find the header), then the rest in batches. */
+class BatchReader {
+  private left: SheetRow[] = [];
+  constructor(private readonly batches: AsyncGenerator<SheetRow[]>) {}
+  async next(): Promise<IteratorResult<SheetRow, undefined>> {
+    while (this.left.length === 0) {
+      const b = await this.batches.next();
+      if (b.done === true) return { done: true, value: undefined };
+      this.left = b.value;
+    }
+    return { done: false, value: this.left.shift()! };
+  }
+  async *rest(): AsyncGenerator<SheetRow[]> {
+    if (this.left.length > 0) yield this.left.splice(0);
+    for (;;) {
+      const b = await this.batches.next();
+      if (b.done === true) return;
+      yield b.value;
+    }
+  }
+}
+
 async function findHeader(
-  rows: AsyncIterator<SheetRow>,
+  rows: BatchReader,
   headerRow: number | undefined,
   where: Where,
 ): Promise<SheetRow> {
@@ -181,17 +203,17 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
     throw mismatch;
   }
   let sheet: string | undefined;
-  let rows: AsyncGenerator<SheetRow>;
+  let rows: AsyncGenerator<SheetRow[]>;
   let close = (): void => {};
   const style: NumberStyle = { decimalComma: false };
   const readOptions = { displayPath: file, ...(options.chunkSize !== undefined ? { chunkSize: options.chunkSize } : {}) };
   if (source.format === 'xlsx') {
     const opened = await openXlsxSheet(source.path, { ...readOptions, ...(source.sheet !== undefined ? { sheet: source.sheet } : {}) });
     sheet = opened.sheet;
-    rows = opened.rows;
+    rows = opened.batches;
     close = opened.close;
   } else {
-    rows = readCsvRows(source.path, {
+    rows = readCsvBatches(source.path, {
       ...readOptions,
       onDelimiter: (d: Delimiter) => {
         style.decimalComma = d === ';';
@@ -200,7 +222,8 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
   }
   const where: Where = sheet !== undefined ? { file, sheet } : { file };
   try {
-    const header = await findHeader(rows, source.headerRow, where);
+    const reader = new BatchReader(rows);
+    const header = await findHeader(reader, source.headerRow, where);
     const names = header.values.map((v) => v.trim());
     const seen = new Map<string, number>();
     names.forEach((n, i) => {
@@ -235,7 +258,7 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
       }
       return i;
     };
-    const body = { [Symbol.asyncIterator]: () => rows };
+    const body = { [Symbol.asyncIterator]: () => reader.rest() };
     const common = { sourceId: source.id, file: source.file, ...(sheet !== undefined ? { sheet } : {}) };
     const cube =
       source.shape === 'summary'
@@ -268,7 +291,7 @@ function noDataRows(where: Where, headerRow: number): InputError {
 async function summaryCube(
   source: CubeSource,
   needed: string[],
-  body: AsyncIterable<SheetRow>,
+  body: AsyncIterable<SheetRow[]>,
   headerRow: number,
   names: string[],
   column: ColumnOf,
@@ -315,7 +338,7 @@ async function summaryCube(
   const cells = new Map<string, Cell>();
   const percents = new Map<Cell, PercentValue>();
   let rows = 0;
-  for await (const r of body) {
+  for await (const batch of body) for (const r of batch) {
     if (isBlankRow(r.values)) continue;
     rows += 1;
     const text = (i: number | undefined) => (i === undefined ? '' : (r.values[i] ?? '').trim());
@@ -425,10 +448,20 @@ async function summaryCube(
   };
 }
 
+/** One combination of dimension values: a cell per question, and its answer-code counts indexed by code. */
+interface Leaf {
+  cells: Array<Cell | undefined>;
+  tallies: Array<number[] | undefined>;
+}
+
+function newLeaf(questions: number): Leaf {
+  return { cells: new Array<Cell | undefined>(questions).fill(undefined), tallies: new Array<number[] | undefined>(questions).fill(undefined) };
+}
+
 async function respondentsCube(
   source: CubeSource,
   needed: string[],
-  body: AsyncIterable<SheetRow>,
+  body: AsyncIterable<SheetRow[]>,
   headerRow: number,
   names: string[],
   column: ColumnOf,
@@ -459,46 +492,103 @@ async function respondentsCube(
   const maxCode = Math.max(5, ...source.agreeCodes);
 
   const problems = new Problems(where);
-  const cells = new Map<string, Cell>();
+  // A tree of Maps, one level per dimension, ending in a cell per question (created on the first answer): each row
+  // costs one lookup per dimension and no new key string. Code counts are kept in arrays and written out at the end.
+  const root = new Map<string, unknown>();
+  const cells: Cell[] = [];
+  const tallies: number[][] = [];
+  const nq = qIdx.length;
+  const nd = dimIdx.length;
+  const codeTexts = Array.from({ length: maxCode + 1 }, (_, c) => String(c));
+  const isAgree = codeTexts.map((_, c) => agreeCodes.has(c));
+  const isNa = (c: number) => na.has(c);
+  const dimValues: string[] = new Array<string>(nd).fill('');
   let rows = 0;
-  for await (const r of body) {
-    if (isBlankRow(r.values)) continue;
+  for await (const batch of body) for (const r of batch) {
+    const rv = r.values;
+    if (isBlankRow(rv)) continue;
     rows += 1;
-    const dimValues = dimIdx.map((i) => (r.values[i] ?? '').trim());
-    for (let k = 0; k < qIdx.length; k++) {
-      const raw = (r.values[qIdx[k]!] ?? '').trim();
-      if (raw === '') continue;
-      const q = questions[k]!;
-      const code = /^[+-]?\d+(\.0+)?$/.test(raw) ? Number(raw) : NaN;
+    let group: Leaf | undefined;
+    for (let k = 0; k < nq; k++) {
+      const raw0 = rv[qIdx[k]!];
+      if (raw0 === undefined || raw0 === '') continue;
+      let code: number;
+      let raw = raw0;
+      const c0 = raw0.charCodeAt(0);
+      if (raw0.length === 1 && c0 >= 48 && c0 <= 57) code = c0 - 48;
+      else {
+        raw = raw0.trim();
+        if (raw === '') continue;
+        code = /^[+-]?\d+(\.0+)?$/.test(raw) ? Number(raw) : NaN;
+      }
       if (Number.isNaN(code)) {
         problems.add({ row: r.row, field: names[qIdx[k]!]!, found: raw, problem: 'An answer is not a whole-number code', fix: `Code answers as whole numbers (1 to ${maxCode}); list any code meaning "not applicable" under not_applicable in the source` });
         continue;
       }
-      if (na.has(code)) continue;
+      if (isNa(code)) continue;
       if (code < 1 || code > maxCode) {
         problems.add({ row: r.row, field: names[qIdx[k]!]!, found: raw, problem: `An answer code is outside 1 to ${maxCode}`, fix: 'Correct the answer, or list the code under not_applicable in the source if it means "not applicable"' });
         continue;
       }
-      const key = JSON.stringify([...dimValues, q]);
-      let cell = cells.get(key);
+      if (group === undefined) {
+        let node: Map<string, unknown> = root;
+        for (let j = 0; j < nd; j++) {
+          const v0 = rv[dimIdx[j]!] ?? '';
+          const v = v0.length > 0 && (v0.charCodeAt(0) <= 32 || v0.charCodeAt(v0.length - 1) <= 32) ? v0.trim() : v0;
+          dimValues[j] = v;
+          if (j === nd - 1) {
+            let leaf = node.get(v) as Leaf | undefined;
+            if (leaf === undefined) {
+              leaf = newLeaf(nq);
+              node.set(v, leaf);
+            }
+            group = leaf;
+          } else {
+            let next = node.get(v) as Map<string, unknown> | undefined;
+            if (next === undefined) {
+              next = new Map<string, unknown>();
+              node.set(v, next);
+            }
+            node = next;
+          }
+        }
+        if (nd === 0) {
+          let leaf = root.get('') as Leaf | undefined;
+          if (leaf === undefined) {
+            leaf = newLeaf(nq);
+            root.set('', leaf);
+          }
+          group = leaf;
+        }
+      }
+      let cell = group!.cells[k];
       if (cell === undefined) {
         const dims: Record<string, string> = {};
         dimensionsWanted.forEach((d, j) => {
           dims[d] = dimValues[j]!;
         });
-        dims[qColName] = q;
+        dims[qColName] = questions[k]!;
         cell = { dims, n: 0, agree: 0, approximate: false, firstRow: r.row, codes: {} };
-        cells.set(key, cell);
+        group!.cells[k] = cell;
+        group!.tallies[k] = new Array<number>(maxCode + 1).fill(0);
+        cells.push(cell);
+        tallies.push(group!.tallies[k]!);
       }
       cell.n += 1;
-      if (agreeCodes.has(code)) cell.agree += 1;
-      const codeText = String(code);
-      cell.codes![codeText] = (cell.codes![codeText] ?? 0) + 1;
+      if (isAgree[code] === true) cell.agree += 1;
+      group!.tallies[k]![code]! += 1;
     }
   }
+  cells.forEach((cell, i) => {
+    const codes: Record<string, number> = {};
+    tallies[i]!.forEach((k, c) => {
+      if (k > 0) codes[codeTexts[c]!] = k;
+    });
+    cell.codes = codes;
+  });
   problems.throwIfAny();
   if (rows === 0) throw noDataRows(where, headerRow);
-  const list = [...cells.values()];
+  const list = cells;
   const values = distinctValues(dimensionsWanted, list);
   values[qColName] = [...questions];
   return { rows, dimensions, cells: list, values, approximate: false, hasPopulation: false, hasCodes: true };

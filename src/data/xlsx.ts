@@ -42,6 +42,8 @@ export interface OpenedSheet {
   sheet: string;
   sheets: SheetInfo[];
   rows: AsyncGenerator<SheetRow>;
+  /** The same rows, those completed by each piece of the sheet together (use one of `rows` and `batches`, not both). */
+  batches: AsyncGenerator<SheetRow[]>;
   /** Close the workbook without reading the rows (reading them to the end, or stopping early, closes it too). */
   close(): void;
 }
@@ -317,9 +319,12 @@ export async function openXlsxSheet(path: string, options: XlsxOptions = {}): Pr
     const stylesEntry = entries.get(stylesPart ?? 'xl/styles.xml');
     const dateStyles = stylesEntry === undefined ? [] : (await collect(parsePart(zip, stylesEntry, options.chunkSize, stylesHandler, damaged(stylesPart ?? 'xl/styles.xml'))))[0] ?? [];
 
-    const rows = sheetRows(zip, sheetEntry, options.chunkSize, { file, sheet: chosen.name, shared, dateStyles, date1904, damaged: damaged(chosen.part) }, close);
+    const batches = sheetRows(zip, sheetEntry, options.chunkSize, { file, sheet: chosen.name, shared, dateStyles, date1904, damaged: damaged(chosen.part) }, close);
+    const rows = (async function* () {
+      for await (const batch of batches) yield* batch;
+    })();
     handedOver = true;
-    return { sheet: chosen.name, sheets, rows, close };
+    return { sheet: chosen.name, sheets, rows, batches, close };
   } catch (e) {
     if (e instanceof InputError) throw e;
     // A zip-level failure (bad central directory, checksum, truncated data) while reading the small parts.
@@ -409,7 +414,7 @@ async function* sheetRows(
   chunkSize: number | undefined,
   ctx: ConstructorParameters<typeof SheetScanner>[0],
   close: () => void,
-): AsyncGenerator<SheetRow> {
+): AsyncGenerator<SheetRow[]> {
   try {
     const stream = await openEntry(zip, entry);
     try {
@@ -419,11 +424,11 @@ async function* sheetRows(
         const step = chunkSize !== undefined && chunkSize > 0 ? chunkSize : raw.length;
         for (let at = 0; at < raw.length; at += step) {
           const rows = scanner.feed(decoder.decode(raw.subarray(at, at + step), { stream: true }));
-          for (const r of rows) yield r;
+          if (rows.length > 0) yield rows;
         }
       }
-      for (const r of scanner.feed(decoder.decode())) yield r;
-      for (const r of scanner.finish()) yield r;
+      const tail = [...scanner.feed(decoder.decode()), ...scanner.finish()];
+      if (tail.length > 0) yield tail;
     } catch (e) {
       if (e instanceof InputError) throw e;
       // A zip-level failure (bad checksum, truncated data) from the inflating stream.
