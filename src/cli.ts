@@ -138,8 +138,36 @@ export async function main(argv: string[]): Promise<number> {
           code = await runDiff(args as unknown as DiffArgs);
         },
       )
+      .command(
+        'check <claims>',
+        'Check a claims file against the schema and against its data, and list every problem with its line and column',
+        (y) =>
+          y
+            .positional('claims', { type: 'string', demandOption: true, describe: 'The claims file (YAML)' })
+            .option('json', { type: 'boolean', describe: 'Print the problems as JSON' })
+            .example('$0 check claims.yaml', 'List every problem in claims.yaml and its data, or say all is good'),
+        async (args) => {
+          const { check } = await import('./commands/check.js');
+          code = await check(args as unknown as { claims: string; json?: boolean });
+        },
+      )
+      .command(
+        'init <data>',
+        'Write a starter claims file for a data file (.csv or .xlsx): its columns and values, and an example of every kind of claim',
+        (y) =>
+          y
+            .positional('data', { type: 'string', demandOption: true, describe: 'The data file (.csv or .xlsx)' })
+            .option('sheet', { type: 'string', describe: 'Worksheet of an .xlsx file (default: the first visible sheet)' })
+            .option('out', { type: 'string', describe: 'The claims file to write (default: claims.yaml beside the data file)' })
+            .option('force', { type: 'boolean', describe: 'Replace the claims file if it exists' })
+            .example('$0 init data/results.xlsx --out claims.yaml', 'Write claims.yaml with examples using the columns of results.xlsx'),
+        async (args) => {
+          const { init } = await import('./commands/init.js');
+          code = await init(args as unknown as { data: string; sheet?: string; out?: string; force?: boolean });
+        },
+      )
       .option('debug', { type: 'boolean', describe: 'Show internal details (stack traces) when something fails' })
-      .demandCommand(1, 'Name a command: warrant build <claims.yaml>')
+      .demandCommand(1, 'Name a command: warrant build <claims.yaml>, warrant check <claims.yaml>, warrant init <data file> or warrant diff <old> <new>')
       .strict()
       .help()
       .alias('h', 'help')

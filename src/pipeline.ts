@@ -241,14 +241,20 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
   say(`Drawing the pack (${analyses.length} claims)`);
   const { renderPdf } = await import('./render/pdf.js');
   const pdf = await renderPdf(model, { createdAt: pdfDate(date) });
+  const { writeResultsXlsx } = await import('./results/xlsx.js');
+  const { chartFiles } = await import('./results/charts-out.js');
+  const xlsx = await writeResultsXlsx(results);
+  const charts = await chartFiles(model);
   // 8. write
   say('Writing the pack');
   const stored = await storePack(
     root,
     name,
     [
-      ['pack.pdf', pdf],
       ['results.json', `${JSON.stringify(results, null, 2)}\n`],
+      ['results.xlsx', xlsx],
+      ...charts,
+      ['pack.pdf', pdf],
     ],
     options.hooks ?? {},
   );

@@ -9,7 +9,6 @@
  */
 import { statSync } from 'node:fs';
 import { resolve } from 'node:path';
-import type { Argv } from 'yargs';
 import { columnsUsed } from '../analyse/index.js';
 import { displayPathFor, inFileOrder, readClaimsLeniently } from '../claims/read.js';
 import { orderPeriods, periodsBack, resolvePeriod } from '../claims/periods.js';
@@ -348,15 +347,4 @@ export async function check(opts: CheckOptions): Promise<number> {
     write(`${report.problems.map(formatProblem).join('\n\n')}\n\n${report.problems.length} problem${report.problems.length === 1 ? '' : 's'} found in ${report.file}.\n`);
   }
   return ok ? 0 : 2;
-}
-
-export const command = 'check <claims>';
-export const describe = 'Check a claims file against the schema and against its data, and list every problem with its line and column';
-
-/** The yargs definition: `.command(command, describe, builder, async (a) => { code = await check(a) })`. */
-export function builder<T>(y: Argv<T>) {
-  return y
-    .positional('claims', { type: 'string', demandOption: true, describe: 'The claims file (YAML)' })
-    .option('json', { type: 'boolean', describe: 'Print the problems as JSON' })
-    .example('$0 check claims.yaml', 'List every problem in claims.yaml and its data, or say all is good');
 }

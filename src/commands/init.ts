@@ -7,7 +7,6 @@
 import { existsSync } from 'node:fs';
 import { writeFile } from 'node:fs/promises';
 import { basename, dirname, extname, relative, resolve, sep } from 'node:path';
-import type { Argv } from 'yargs';
 import { DATA_EXTENSIONS } from '../claims/rules.js';
 import { LIST_LIMIT, scanTable, type ColumnScan, type TableScan } from '../claims/scan.js';
 import { claimsSchemaPath } from '../claims/schema.js';
@@ -286,17 +285,4 @@ export async function init(opts: InitOptions): Promise<number> {
   await writeFile(outPath, text, 'utf8');
   write(`${outDisplay}: written with ${scan.columns.length} columns (${guess.shape} data) and an example of every kind of claim; uncomment one and run warrant check ${outDisplay}\n`);
   return 0;
-}
-
-export const command = 'init <data>';
-export const describe = 'Write a starter claims file for a data file (.csv or .xlsx), listing its columns and values, with an example of every kind of claim';
-
-/** The yargs definition: `.command(command, describe, builder, async (a) => { code = await init(a) })`. */
-export function builder<T>(y: Argv<T>) {
-  return y
-    .positional('data', { type: 'string', demandOption: true, describe: 'The data file (.csv or .xlsx)' })
-    .option('sheet', { type: 'string', describe: 'Worksheet of an .xlsx file (default: the first visible sheet)' })
-    .option('out', { type: 'string', describe: 'The claims file to write (default: claims.yaml beside the data file)' })
-    .option('force', { type: 'boolean', describe: 'Replace the claims file if it exists' })
-    .example('$0 init data/results.xlsx --out claims.yaml', 'Write claims.yaml with examples using the columns of results.xlsx');
 }
