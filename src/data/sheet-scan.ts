@@ -14,7 +14,7 @@
  */
 import { InputError } from '../errors.js';
 import type { SheetRow } from './rows.js';
-import { columnIndex, columnLetters, formatNumber } from './xlsx.js';
+import { columnLetters, formatNumber } from './xlsx.js';
 
 export interface ScanContext {
   file: string;
@@ -98,6 +98,24 @@ function readAttributes(s: string, from: number, end: number, out: CellAttribute
     if (name === 'r' || name === 't' || name === 's') out[name] = decodeEntities(s.slice(q + 1, close), damaged);
     j = close + 1;
   }
+}
+
+/** The 0-based column of a cell reference such as "AB12" (letters then digits); `otherwise` when it is not one. */
+function columnOf(ref: string, otherwise: number): number {
+  let col = 0;
+  let i = 0;
+  for (; i < ref.length && i < 4; i++) {
+    let ch = ref.charCodeAt(i);
+    if (ch >= 97 && ch <= 122) ch -= 32;
+    if (ch < 65 || ch > 90) break;
+    col = col * 26 + (ch - 64);
+  }
+  if (i === 0 || i > 3 || i === ref.length) return otherwise;
+  for (let j = i; j < ref.length; j++) {
+    const ch = ref.charCodeAt(j);
+    if (ch < 48 || ch > 57) return otherwise;
+  }
+  return col - 1;
 }
 
 const MS_PER_DAY = 86_400_000;
@@ -252,8 +270,7 @@ export class SheetScanner {
         if (!this.inRow || this.inCell) throw this.ctx.damaged('a cell outside a row');
         readAttributes(s, attrFrom, attrEnd, this.attrs, this.ctx.damaged);
         const r = this.attrs.r;
-        const m = r === undefined ? null : /^([A-Za-z]{1,3})(\d+)$/.exec(r);
-        this.col = m !== null ? columnIndex(m[1]!) : this.col + 1;
+        this.col = r === undefined ? this.col + 1 : columnOf(r, this.col + 1);
         if (this.col > 16383) throw this.ctx.damaged(`a cell beyond the last column (${r ?? ''})`);
         this.type = this.attrs.t ?? 'n';
         this.style = this.attrs.s !== undefined && /^\d{1,6}$/.test(this.attrs.s) ? Number(this.attrs.s) : -1;

@@ -70,6 +70,19 @@ export function columnLetters(index: number): string {
 
 /** A stored number as the text a reader expects: 15 significant digits, then JavaScript's shortest form. */
 export function formatNumber(stored: string): string {
+  // Fast path: a plain whole number of at most 15 digits without leading zeros is already in its shortest form.
+  const len = stored.length;
+  if (len > 0 && len <= 15) {
+    let i = stored.charCodeAt(0) === 45 ? 1 : 0;
+    const first = stored.charCodeAt(i);
+    if (i < len && first >= 49 && first <= 57) {
+      for (i += 1; i < len; i++) {
+        const ch = stored.charCodeAt(i);
+        if (ch < 48 || ch > 57) break;
+      }
+      if (i === len) return stored;
+    } else if (len === 1 && first === 48) return stored;
+  }
   const text = stored.trim();
   const x = Number(text);
   if (text === '' || !Number.isFinite(x)) return text;
