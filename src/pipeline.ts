@@ -17,6 +17,7 @@ import type { ClaimsFile } from './claims/types.js';
 import { readCube } from './data/cube.js';
 import type { Cube } from './data/types.js';
 import { analyse, columnsUsed } from './analyse/index.js';
+import { periodColumnOf, resolvePeriods } from './analyse/periods.js';
 import type { Analysis } from './analyse/types.js';
 import { adjustP } from './stats/p-adjust.js';
 import { decide, type Decision } from './verdicts/decide.js';
@@ -96,9 +97,12 @@ export async function loadData(claims: ClaimsFile, cwd: string): Promise<Cube[]>
 export function testClaims(claims: ClaimsFile, cubes: Cube[], claimsDisplay: string): { analyses: Analysis[]; decisions: Decision[]; tested: number } {
   const byId = new Map(cubes.map((c) => [c.sourceId, c]));
   const ctx = { minRespondents: claims.minRespondents, claimsFile: claimsDisplay };
-  const analyses = claims.claims.map((claim) => {
-    const cube = byId.get(claim.source);
-    if (!cube) throw new Error(`internal: no data loaded for source "${claim.source}"`);
+  const analyses = claims.claims.map((written) => {
+    const cube = byId.get(written.source);
+    if (!cube) throw new Error(`internal: no data loaded for source "${written.source}"`);
+    // Relative periods (latest, previous, latest-N) become the periods these data hold, so the pack names them.
+    const periodColumn = periodColumnOf(cube, claims.sources.find((s) => s.id === written.source)?.period);
+    const { claim } = resolvePeriods(written, cube, periodColumn, claimsDisplay);
     return analyse(claim, cube, ctx);
   });
   const testedIdx = analyses.flatMap((a, i) => (a.status === 'tested' && a.test ? [i] : []));
@@ -200,7 +204,7 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
     claimsDisplay,
     date,
     cubes,
-    results: analyses.map((a, i) => claimResult(a, decisions[i] as Decision, (composed[i] as (typeof composed)[number]).section)),
+    results: analyses.map((a, i) => claimResult(a, decisions[i] as Decision, (composed[i] as (typeof composed)[number]).section, claims.claims[i])),
   });
 
   // 6. history: what changed since the previous pack, and claims edited after their results were seen

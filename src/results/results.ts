@@ -3,7 +3,7 @@
  * schema/results.schema.json. It holds no clock time, so the same claims and data give the same bytes.
  */
 import type { Analysis, RateSummary } from '../analyse/types.js';
-import type { ClaimsFile } from '../claims/types.js';
+import type { Claim, ClaimsFile } from '../claims/types.js';
 import type { Cube } from '../data/types.js';
 import type { ClaimSection } from '../render/model.js';
 import type { Interval, TestResult } from '../stats/result.js';
@@ -91,7 +91,11 @@ function testFields(test: TestResult | undefined) {
   };
 }
 
-export function claimResult(a: Analysis, decision: Decision, section: ClaimSection): ClaimResult {
+/**
+ * One claim's results. `written` is the claim as the claims file states it (before relative periods such as
+ * `latest` were resolved): its fingerprint must not change just because next year's data have a new latest period.
+ */
+export function claimResult(a: Analysis, decision: Decision, section: ClaimSection, written: Claim = a.claim): ClaimResult {
   const tested = a.status === 'tested';
   // Fields not every kind has are read by name, so a new claim kind appears here without changes to this file:
   // `expect` (direction), `detectable` (power), `focus`/`against` or `selections` (rates), `points` (units),
@@ -108,7 +112,7 @@ export function claimResult(a: Analysis, decision: Decision, section: ClaimSecti
     statement: a.claim.statement,
     kind: a.kind,
     source: a.claim.source,
-    fingerprint: claimFingerprint(a.claim),
+    fingerprint: claimFingerprint(written),
     ...testFields(a.test),
     methods: a.methods,
     hypotheses: section.hypotheses,
