@@ -96,7 +96,8 @@ export async function loadData(claims: ClaimsFile, cwd: string): Promise<Cube[]>
 /** 3-4. Test every claim, adjust the p-values of those tested for many claims, and decide each verdict. */
 export function testClaims(claims: ClaimsFile, cubes: Cube[], claimsDisplay: string): { analyses: Analysis[]; decisions: Decision[]; tested: number } {
   const byId = new Map(cubes.map((c) => [c.sourceId, c]));
-  const ctx = { minRespondents: claims.minRespondents, claimsFile: claimsDisplay };
+  const periodColumns = Object.fromEntries(claims.sources.flatMap((s) => (s.period ? [[s.id, s.period]] : [])));
+  const ctx = { minRespondents: claims.minRespondents, claimsFile: claimsDisplay, periodColumns };
   const analyses = claims.claims.map((written) => {
     const cube = byId.get(written.source);
     if (!cube) throw new Error(`internal: no data loaded for source "${written.source}"`);
