@@ -59,6 +59,14 @@ function tagName(s: string, from: number, end: number): string {
     if (ch === 32 || ch === 9 || ch === 10 || ch === 13 || ch === SLASH) break;
     j++;
   }
+  // The sheet's own unprefixed names without a new string: c, v, f, t and row.
+  if (j - from === 1) {
+    const ch = s.charCodeAt(from);
+    if (ch === 99) return 'c';
+    if (ch === 118) return 'v';
+    if (ch === 102) return 'f';
+    if (ch === 116) return 't';
+  } else if (j - from === 3 && s.charCodeAt(from) === 114 && s.charCodeAt(from + 1) === 111 && s.charCodeAt(from + 2) === 119) return 'row';
   const name = s.slice(from, j);
   const colon = name.indexOf(':');
   return colon < 0 ? name : name.slice(colon + 1);
@@ -75,7 +83,13 @@ function readAttributes(s: string, from: number, end: number, out: CellAttribute
   out.r = undefined;
   out.t = undefined;
   out.s = undefined;
+  // Past the tag's name (which may carry a prefix).
   let j = from;
+  while (j < end) {
+    const ch = s.charCodeAt(j);
+    if (ch === 32 || ch === 9 || ch === 10 || ch === 13 || ch === SLASH) break;
+    j++;
+  }
   for (;;) {
     while (j < end) {
       const ch = s.charCodeAt(j);
@@ -85,7 +99,11 @@ function readAttributes(s: string, from: number, end: number, out: CellAttribute
     if (j >= end || s.charCodeAt(j) === SLASH) return;
     const eq = s.indexOf('=', j);
     if (eq < 0 || eq >= end) throw damaged('an attribute without a value');
-    const name = s.slice(j, eq).trim();
+    // The attribute name, without a slice for the common one-letter names r, t and s.
+    let ne = eq;
+    while (ne > j && s.charCodeAt(ne - 1) <= 32) ne--;
+    const one = ne - j === 1 ? s.charCodeAt(j) : 0;
+    const name = one === 114 ? 'r' : one === 116 ? 't' : one === 115 ? 's' : '';
     let q = eq + 1;
     while (q < end && s.charCodeAt(q) !== DQUOTE && s.charCodeAt(q) !== SQUOTE) {
       const ch = s.charCodeAt(q);
@@ -241,7 +259,7 @@ export class SheetScanner {
         const selfClosing = s.charCodeAt(e - 1) === SLASH;
         const name = tagName(s, i + 1, selfClosing ? e - 1 : e);
         if (name === '') throw damaged('a tag with no name');
-        this.open(name, s, i + 1 + name.length, selfClosing ? e - 1 : e);
+        this.open(name, s, i + 1, selfClosing ? e - 1 : e);
         if (selfClosing) this.close(name);
       }
       i = e + 1;

@@ -171,3 +171,15 @@ describe('CSV reader under fuzzing', () => {
     );
   });
 });
+
+describe('XLSX sheet XML written with a namespace prefix', () => {
+  it('reads the same values as the unprefixed sheet', async () => {
+    const prefixed = SHEET.replace(`<worksheet xmlns="${NS}">`, `<x:worksheet xmlns:x="${NS}">`)
+      .replace('</worksheet>', '</x:worksheet>')
+      .replace(/<(\/?)(sheetData|row|c|v|f|is|t)([ >/])/g, '<$1x:$2$3');
+    expect(prefixed).toContain('<x:c r="A3" s="1"><x:v>45717</x:v></x:c>');
+    const plain = await readCube(source(file('xlsx', zip(parts(SHEET, STRINGS, STYLES)))), ['Group'], 'w.xlsx');
+    const cube = await readCube(source(file('xlsx', zip(parts(prefixed, STRINGS, STYLES)))), ['Group'], 'w.xlsx');
+    expect(cube.cells).toEqual(plain.cells);
+  });
+});
