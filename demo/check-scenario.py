@@ -130,6 +130,30 @@ def matches(rec, flt):
     return True
 
 
+def resolve_periods(claim, records, column):
+    """Replace latest / previous / latest-N with the years in the data (the claims file's relative periods)."""
+    if not column:
+        return claim
+    years = sorted({rec[column] for rec in records}, key=lambda v: float(v))
+
+    def word(v):
+        v = str(v)
+        if v == 'latest':
+            return years[-1]
+        if v == 'previous':
+            return years[-2]
+        m = re.fullmatch(r'latest-(\d+)', v)
+        return years[-1 - int(m.group(1))] if m else v
+
+    out = dict(claim)
+    for key in ('where', 'focus', 'against', 'x', 'y'):
+        if isinstance(out.get(key), dict):
+            out[key] = {k: (word(v) if k == column else v) for k, v in out[key].items()}
+    if out['kind'] == 'change':
+        out.update(period=column, to=word(out.get('to', 'latest')), **{'from': word(out['from'])})
+    return out
+
+
 def pool(records, *filters, exclude=None):
     n = agree = 0
     for rec in records:
@@ -204,7 +228,13 @@ def main():
 
     results = []
     for claim in doc['claims']:
+        if claim['kind'] not in ('compare', 'change', 'association'):
+            # The other kinds are checked against R by the test suite; this script recomputes the two simplest tests.
+            continue
         records = sources[claim['source']]
+        claim = resolve_periods(claim, records, doc['sources'][claim['source']].get('period'))
+        if claim['kind'] == 'change':
+            claim = dict(claim, kind='compare', focus={claim['period']: claim['to']}, against={claim['period']: claim['from']})
         where = claim.get('where', {})
         sided = claim.get('test', 'two-sided')
         r = {'id': claim['id'], 'kind': claim['kind'], 'expect': claim['expect']}

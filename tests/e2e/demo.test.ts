@@ -30,8 +30,13 @@ afterAll(() => rmSync(work, { recursive: true, force: true }));
 describe('demo evidence pack', () => {
   it('reaches every verdict with the demo claims', () => {
     const verdicts = new Set(first.decisions.map((d) => d.verdict));
-    expect([...verdicts].sort()).toEqual(['not-supported', 'opposite', 'supported', 'too-little-data']);
+    expect([...verdicts].sort()).toEqual(['estimate', 'not-supported', 'opposite', 'supported', 'too-little-data']);
     expect(first.claims.claims.length).toBeGreaterThanOrEqual(8);
+  });
+
+  it('uses every kind of claim', () => {
+    const kinds = new Set(first.claims.claims.map((c) => c.kind));
+    expect([...kinds].sort()).toEqual(['association', 'change', 'compare', 'crosstab', 'equivalence', 'estimate', 'means', 'target', 'trend']);
   });
 
   it('prints every claim, its verdict sentence and its hypotheses in the PDF', () => {
@@ -71,8 +76,53 @@ describe('demo evidence pack', () => {
 
   it('gives byte-identical files when built twice from the same inputs', async () => {
     const second = await build({ claimsPath: join(root, 'demo/claims.yaml'), outDir: join(work, 'b'), cwd: root });
-    expect(readFileSync(second.files.pdf).equals(readFileSync(first.files.pdf))).toBe(true);
-    expect(readFileSync(second.files.results, 'utf8')).toBe(readFileSync(first.files.results, 'utf8'));
+    for (const name of ['pack.pdf', 'results.json', 'results.xlsx']) {
+      expect(readFileSync(join(second.files.folder, name)).equals(readFileSync(join(first.files.folder, name)))).toBe(true);
+    }
+  });
+
+  it('writes results.xlsx and a chart file with its spec for every claim that has a chart', () => {
+    const charted = first.model.claims.filter((c) => c.chart).map((c) => c.id);
+    expect(charted.length).toBeGreaterThan(10);
+    for (const id of charted) {
+      expect(readFileSync(join(first.files.folder, 'charts', `${id}.svg`), 'utf8')).toContain('<svg');
+      expect(JSON.parse(readFileSync(join(first.files.folder, 'charts', `${id}.vl.json`), 'utf8')).$schema).toMatch(/vega-lite/);
+    }
+  });
+});
+
+describe('rerun on a new release', () => {
+  it('builds year one, then year two, and says what changed and why', async () => {
+    const out = join(work, 'history');
+    const year1 = await build({
+      claimsPath: join(root, 'demo/claims.yaml'),
+      outDir: out,
+      cwd: root,
+      data: { lanternfield: 'demo/data/2025/summary.xlsx', pulse: 'demo/data/2025/respondents.csv' },
+      date: '2025-03-04',
+    });
+    expect(year1.diff).toBeUndefined();
+    const year2 = await build({ claimsPath: join(root, 'demo/claims.yaml'), outDir: out, cwd: root });
+    const d = year2.diff;
+    expect(d).toBeDefined();
+    // Both data files are new releases; the claims file is the same, so no claim counts as edited.
+    expect(d?.data.map((x) => x.id).sort()).toEqual(['lanternfield', 'pulse']);
+    expect(d?.edited).toEqual([]);
+    // The same claims, run on the 2025 release, give these verdicts; on 2026 these four change (invented data).
+    const changed = Object.fromEntries((d?.verdicts ?? []).map((v) => [v.id, `${v.before} -> ${v.after} (${v.reasons.join(', ')})`]));
+    expect(changed).toEqual({
+      'wellbeing-up-this-year': 'not-supported -> supported (new data)',
+      'library-fell': 'not-supported -> opposite (new data)',
+      'arrangements-by-campus': 'supported -> not-supported (new data)',
+      'campuses-equally-reachable': 'not-supported -> supported (new data)',
+    });
+    const text = fold(execFileSync('pdftotext', ['-enc', 'UTF-8', year2.files.pdf, '-'], { encoding: 'utf8' }));
+    expect(text).toContain(fold(year2.model.changes?.heading ?? 'missing'));
+    expect(text).toContain('Data file data/2026/summary.xlsx (lanternfield) is not the same file as before');
+    // The command line says the same in the terminal.
+    const diff = spawnSync(process.execPath, [join(root, 'bin/warrant.js'), 'diff', year1.files.folder, year2.files.folder], { encoding: 'utf8' });
+    expect(diff.status).toBe(0);
+    expect(diff.stdout).toContain('wellbeing-up-this-year: Not supported -> Supported (new data)');
   });
 });
 
