@@ -501,7 +501,9 @@ async function respondentsCube(
   const nd = dimIdx.length;
   const codeTexts = Array.from({ length: maxCode + 1 }, (_, c) => String(c));
   const isAgree = codeTexts.map((_, c) => agreeCodes.has(c));
-  const isNa = (c: number) => na.has(c);
+  // Not-applicable codes as flags for small codes (the usual case), the Set for any other.
+  const naSmall = Array.from({ length: 16 }, (_, c) => na.has(c));
+  const isNa = (c: number) => (c >= 0 && c < 16 ? naSmall[c] === true : na.has(c));
   const dimValues: string[] = new Array<string>(nd).fill('');
   let rows = 0;
   for await (const batch of body) for (const r of batch) {
