@@ -447,7 +447,7 @@ function differenceSpec(data: Extract<ChartData, { kind: 'difference' }>): Recor
       {
         mark: { type: 'rect', color: PALETTE.light, opacity: 0.35 },
         encoding: {
-          x: { field: 'm0', type: 'quantitative', scale: xScale, title: data.axisTitle, axis: { format: '+~g', grid: true } },
+          x: { field: 'm0', type: 'quantitative', scale: xScale, title: data.axisTitle, axis: { format: '+~f', grid: true } },
           x2: { field: 'm1' },
         },
       },

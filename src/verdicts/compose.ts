@@ -52,7 +52,18 @@ export function composeClaim(a: Analysis, decision: Decision, ctx: ComposeContex
     const smallestWritten = fmt.percent(a.claim.smallestDifference ?? 0);
     built.section.verdictText = ctx.templates.render(`${a.kind}.below-threshold`, { effect: size(small.effect), smallest: size(small.smallest), smallestWritten });
   }
+  // Sentences start with a capital even when a template opens with a label written in lower case.
+  const section = built.section;
+  section.compared = sentence(section.compared);
+  section.hypotheses = { null: sentence(section.hypotheses.null), alternative: sentence(section.hypotheses.alternative) };
+  section.verdictText = sentence(section.verdictText);
+  section.cautions = section.cautions.map(sentence);
   const verdictLabel = ctx.templates.render(`verdict.${decision.verdict}`, {});
   const head = { id: a.claim.id, statement: a.claim.statement, verdict: decision.verdict, verdictLabel };
   return { section: { ...head, ...built.section }, summary: { ...head, keyFigure: built.key } };
+}
+
+/** The text with its first letter in upper case (a sentence may open with a lower-case label from the claims file). */
+export function sentence(text: string): string {
+  return text.length > 0 ? text[0]!.toUpperCase() + text.slice(1) : text;
 }

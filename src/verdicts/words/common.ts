@@ -48,7 +48,12 @@ export function pView(decision: Decision, ctx: ComposeContext) {
 export function commonRows(a: Analysis, decision: Decision, ctx: ComposeContext): NumberRow[] {
   const rows: NumberRow[] = [];
   if (a.test?.statistic) {
-    const df = a.test.df === undefined ? '' : `, ${Array.isArray(a.test.df) ? a.test.df.join(' and ') : fmt.plain(a.test.df, 1)} degrees of freedom`;
+    const df =
+      a.test.df === undefined
+        ? ''
+        : Array.isArray(a.test.df)
+          ? `, ${a.test.df.join(' and ')} degrees of freedom`
+          : `, ${fmt.plain(a.test.df, 1)} ${a.test.df === 1 ? 'degree' : 'degrees'} of freedom`;
     rows.push({ label: 'Test statistic', value: `${a.test.statistic.symbol} = ${fmt.statistic(a.test.statistic.value)}${df}` });
   }
   rows.push({ label: `p-value (${a.test?.alternative === 'two-sided' ? 'two-sided' : 'one-sided'})`, value: fmt.pValue(decision.p ?? NaN) });
