@@ -55,15 +55,16 @@ export function readPoints(raw: unknown): AmountReading {
   return { ok: true, value: percentToFraction(n), written };
 }
 
-/** The words for periods relative to the newest in the data: latest, previous, latest-N. */
-export const RELATIVE_PERIOD = /^(latest|previous|latest-([1-9][0-9]*))$/;
+/** The words for periods relative to the newest in the data: latest, previous, latest-N (any case, spaces allowed around the minus). */
+export const RELATIVE_PERIOD = /^(latest|previous|latest\s*-\s*([1-9][0-9]*))$/i;
 
 /** How many periods before the newest a relative word names (latest 0, previous 1, latest-2 2), or undefined. */
 export function periodsBack(value: unknown): number | undefined {
   if (typeof value !== 'string') return undefined;
   const m = RELATIVE_PERIOD.exec(value.trim());
   if (m === null) return undefined;
-  if (m[1] === 'latest') return 0;
-  if (m[1] === 'previous') return 1;
+  const word = m[1]!.toLowerCase();
+  if (word === 'latest') return 0;
+  if (word === 'previous') return 1;
   return Number(m[2]);
 }

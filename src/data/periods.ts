@@ -9,30 +9,19 @@ import { InputError } from '../errors.js';
 import type { FilterScalar } from '../claims/types.js';
 import type { Cube } from './types.js';
 import { fixFor } from '../suggest.js';
+import { orderPeriods, periodsBack } from '../claims/periods.js';
 
-const collator = new Intl.Collator('en', { numeric: true, sensitivity: 'base' });
-
-/** The distinct values of the period column, oldest first. */
+/** The distinct values of the period column, oldest first (ordering in src/claims/periods.ts). */
 export function periodsOf(cube: Cube, column: string): string[] {
   const where = { file: cube.file, ...(cube.sheet !== undefined ? { sheet: cube.sheet } : {}) };
   const values = cube.values[column];
   if (values === undefined) {
     throw new InputError({ ...where, field: column, found: column, problem: `The data of source "${cube.sourceId}" have no period column with this name`, fix: fixFor(column, cube.dimensions, 'columns') });
   }
-  const list = values.filter((v) => v !== '');
-  const numeric = list.every((v) => /^[+-]?\d+(\.\d+)?$/.test(v));
-  return [...list].sort(numeric ? (a, b) => Number(a) - Number(b) : (a, b) => collator.compare(a, b) || (a < b ? -1 : a > b ? 1 : 0));
+  return orderPeriods(values);
 }
 
-/** How many periods back a relative word names: latest 0, previous 1, latest-N N; undefined for anything else. */
-export function periodsBack(word: FilterScalar): number | undefined {
-  if (typeof word !== 'string') return undefined;
-  const w = word.trim().toLowerCase();
-  if (w === 'latest') return 0;
-  if (w === 'previous') return 1;
-  const m = /^latest\s*-\s*(\d+)$/.exec(w);
-  return m !== null ? Number(m[1]) : undefined;
-}
+export { periodsBack };
 
 /**
  * The period a value names: a relative word resolved against the data, or the value itself (as text) when it is a
