@@ -1,12 +1,22 @@
 /**
- * Reader for the NIST Statistical Reference Datasets (StRD) .dat files in /work/shared/reference/nist-strd
+ * Reader for the NIST Statistical Reference Datasets (StRD) .dat files in ../shared/reference/nist-strd beside the
+ * repository
  * (format described in that folder's README.md): certified values are found by their labels, data rows by the line
  * range the header states.
  */
-import { readFileSync } from 'node:fs';
-import { join } from 'node:path';
+import { existsSync, readFileSync } from 'node:fs';
+import { join, resolve } from 'node:path';
 
-export const STRD_DIR = '/work/shared/reference/nist-strd';
+/**
+ * The StRD folder: shared/ lies beside the repository (in a working copy and in CI alike). A missing folder is an
+ * error, not a skip: these checks must run.
+ */
+export const STRD_DIR = (() => {
+  const candidates = [resolve(__dirname, '../../../shared/reference/nist-strd'), '/work/shared/reference/nist-strd'];
+  const found = candidates.find((dir) => existsSync(dir));
+  if (!found) throw new Error(`NIST StRD files not found; looked in ${candidates.join(' and ')}`);
+  return found;
+})();
 
 export type Difficulty = 'lower' | 'average' | 'higher';
 
