@@ -242,6 +242,14 @@ export class SheetScanner {
         i = e + 2;
         continue;
       }
+      // The common cell, `<c r="B7" t="s" s="3"><v>12</v></c>`, read in one go; anything else takes the general path.
+      if (c1 === 99 && this.inRow && !this.inCell) {
+        const past = this.plainCell(s, i, n);
+        if (past > 0) {
+          i = past;
+          continue;
+        }
+      }
       // A tag: find its '>' outside quoted attribute values.
       let e = i + 1;
       let quote = 0;
@@ -265,6 +273,92 @@ export class SheetScanner {
       i = e + 1;
     }
     this.pending = i >= n ? '' : s.slice(i);
+  }
+
+  /**
+   * A cell written in the plainest form: `<c` then only the unprefixed attributes r, t and s in double quotes with no
+   * references, then `<v>`, a value with no '&' or '<', and `</v></c>`. Such a cell is set up exactly as `open` and
+   * the value as `text` would, and closed through `close`, so both paths give the same text and the same errors.
+   * Returns the index past `</c>`, or 0 when the cell is written any other way or is not complete in `s` yet (the
+   * general path then reads it).
+   */
+  private plainCell(s: string, i: number, n: number): number {
+    let j = i + 2;
+    if (j >= n || s.charCodeAt(j) !== 32) return 0;
+    let col = this.col + 1;
+    let type = 'n';
+    let style = -1;
+    for (;;) {
+      while (j < n && s.charCodeAt(j) === 32) j++;
+      if (j + 4 >= n) return 0;
+      const name = s.charCodeAt(j);
+      if (name === GT) break;
+      if (s.charCodeAt(j + 1) !== 61 || s.charCodeAt(j + 2) !== DQUOTE) return 0; // name="
+      const from = j + 3;
+      const close = s.indexOf('"', from);
+      if (close < 0) return 0;
+      if (name === 114) {
+        // r: column letters then row digits.
+        let k = from;
+        let c = 0;
+        for (; k < close && k - from < 4; k++) {
+          let ch = s.charCodeAt(k);
+          if (ch >= 97 && ch <= 122) ch -= 32;
+          if (ch < 65 || ch > 90) break;
+          c = c * 26 + (ch - 64);
+        }
+        const letters = k - from;
+        if (letters === 0 || letters > 3 || k === close) return 0;
+        for (; k < close; k++) {
+          const ch = s.charCodeAt(k);
+          if (ch < 48 || ch > 57) return 0;
+        }
+        col = c - 1;
+      } else if (name === 116) {
+        // t: the common one-letter types without a new string.
+        if (close - from === 1) {
+          const ch = s.charCodeAt(from);
+          type = ch === 115 ? 's' : ch === 110 ? 'n' : ch === 98 ? 'b' : ch === 101 ? 'e' : ch === 100 ? 'd' : s.slice(from, close);
+        } else {
+          for (let k = from; k < close; k++) if (s.charCodeAt(k) === 38) return 0;
+          type = s.slice(from, close);
+        }
+      } else if (name === 115) {
+        // s: a style index of 1 to 6 digits, as `open` reads it; anything else takes the general path.
+        if (close - from < 1 || close - from > 6) return 0;
+        let x = 0;
+        for (let k = from; k < close; k++) {
+          const ch = s.charCodeAt(k);
+          if (ch < 48 || ch > 57) return 0;
+          x = x * 10 + (ch - 48);
+        }
+        style = x;
+      } else return 0;
+      j = close + 1;
+      const after = s.charCodeAt(j);
+      if (after !== 32 && after !== GT) return 0;
+    }
+    // j is at '>' of the cell tag: then <v>value</v></c>.
+    if (j + 4 >= n || s.charCodeAt(j + 1) !== LT || s.charCodeAt(j + 2) !== 118 || s.charCodeAt(j + 3) !== GT) return 0;
+    const from = j + 4;
+    let k = from;
+    for (; k < n; k++) {
+      const ch = s.charCodeAt(k);
+      if (ch === LT) break;
+      if (ch === 38) return 0;
+    }
+    if (k + 8 > n || !s.startsWith('</v></c>', k)) return 0;
+    if (col > 16383) return 0;
+    this.col = col;
+    this.type = type;
+    this.style = style;
+    this.hasFormula = false;
+    this.hasValue = true;
+    this.inline = '';
+    this.v = s.slice(from, k);
+    this.inCell = true;
+    this.close('c');
+    return k + 8;
   }
 
   private text(t: string): void {
