@@ -20,6 +20,7 @@ import type { Alternative, TestResult } from '../stats/result.js';
 import { pearson } from '../stats/pearson.js';
 import { partialCorrelation } from '../stats/partial-correlation.js';
 import { spearman } from '../stats/spearman.js';
+import { kendall } from '../stats/kendall.js';
 import { simpleLinearFit } from '../stats/least-squares.js';
 import { minDetectableCorrelation } from '../stats/power-correlation.js';
 import type { CompareContext } from './compare.js';
@@ -130,6 +131,12 @@ export function analyseAssociation(claim: AssociationClaim, cube: Cube, ctx: Com
   } catch {
     rho = undefined; // ranks all tied on one side: the check is left out, the main test stands
   }
+  let tau: TestResult | undefined;
+  try {
+    tau = kendall(x, y, { alternative });
+  } catch {
+    tau = undefined; // as for Spearman: every unit tied on one measure
+  }
   return {
     ...base,
     status: 'tested',
@@ -143,6 +150,13 @@ export function analyseAssociation(claim: AssociationClaim, cube: Cube, ctx: Com
       y: points.reduce((s, p) => s + p.ny, 0),
     },
     ...(rho ? { spearman: rho } : {}),
-    methods: [controls.length > 0 ? 'partial-pearson' : 'pearson', 'least-squares', 'power-correlation', ...(rho ? ['spearman'] : [])],
+    ...(tau ? { kendall: tau } : {}),
+    methods: [
+      controls.length > 0 ? 'partial-pearson' : 'pearson',
+      'least-squares',
+      'power-correlation',
+      ...(rho ? ['spearman'] : []),
+      ...(tau ? ['kendall-tau-b'] : []),
+    ],
   };
 }

@@ -14,6 +14,7 @@ import type { Cube } from '../data/types.js';
 import { pool } from '../data/select.js';
 import { InputError } from '../errors.js';
 import { binomialExactTest } from '../stats/binomial-exact.js';
+import { clopperPearsonInterval } from '../stats/clopper-pearson.js';
 import { oneSampleScoreTest } from '../stats/one-sample-score.js';
 import { minDetectableGap } from '../stats/power-one-proportion.js';
 import type { Alternative, TestResult } from '../stats/result.js';
@@ -62,6 +63,8 @@ export function analyseTarget(claim: TargetClaim, cube: Cube, ctx: CompareContex
   const candidates = claim.expect === 'lower' ? [gaps.decrease] : claim.expect === 'higher' ? [gaps.increase] : [gaps.increase, gaps.decrease];
   const found = candidates.filter((d): d is number => d !== null);
   const detectable = found.length > 0 ? Math.max(...found) : undefined;
+  // The exact test's own interval is one-sided for a one-sided claim; the pack shows the two-sided one beside Wilson's.
+  const exactInterval = exact ? clopperPearsonInterval(rate.agree, rate.n, { level: claim.confidence }).interval : undefined;
   return {
     ...base,
     status: 'tested',
@@ -72,8 +75,14 @@ export function analyseTarget(claim: TargetClaim, cube: Cube, ctx: CompareContex
     difference: { value: diff, interval: { ...rate.interval, lower: rate.interval.lower - p0, upper: rate.interval.upper - p0 } },
     ...(detectable !== undefined ? { detectable } : {}),
     ...(rate.population !== undefined ? { responseRate: rate.n / rate.population } : {}),
+    ...(exactInterval !== undefined ? { exactInterval } : {}),
     // The smallest difference that matters applies to the gap from the fixed value (src/verdicts/decide.ts).
     ...(claim.smallestDifference !== undefined ? { threshold: { effect: diff, smallest: claim.smallestDifference, unit: 'points' as const } } : {}),
-    methods: [exact ? 'binomial-exact' : 'one-sample-score', rate.population !== undefined ? 'wilson-fpc' : 'wilson', 'power-one-proportion'],
+    methods: [
+      exact ? 'binomial-exact' : 'one-sample-score',
+      rate.population !== undefined ? 'wilson-fpc' : 'wilson',
+      ...(exact ? ['clopper-pearson'] : []),
+      'power-one-proportion',
+    ],
   };
 }

@@ -86,6 +86,8 @@ export interface AssociationAnalysis extends AnalysisBase {
   totals?: { x: number; y: number };
   /** Spearman's rho over the same units, as a check that does not rest on straight lines or outliers. */
   spearman?: TestResult;
+  /** Kendall's tau-b over the same units, a second check on ranks that counts agreeing and disagreeing pairs. */
+  kendall?: TestResult;
   /** Labels of the controls when the test is a partial correlation. */
   controlled?: string[];
   /** True when units were weighted by their respondents. */
@@ -199,6 +201,8 @@ export interface TargetAnalysis extends AnalysisBase {
   /** Smallest gap from the target (proportion units) detectable with 80% power, in the claimed direction. */
   detectable?: number;
   responseRate?: number;
+  /** With the exact binomial test: the rate's two-sided Clopper–Pearson interval at the claim's confidence. */
+  exactInterval?: Interval;
 }
 
 /** Claim kind "estimate": one selection's rate or mean score with its margin of error; no test. */

@@ -255,7 +255,7 @@ export interface ClaimsFile {
   confidence: number;
   confidenceWritten: string;
   /** Adjustment for many claims. */
-  adjust: 'holm' | 'benjamini-hochberg' | 'none';
+  adjust: 'holm' | 'benjamini-hochberg' | 'none' | 'hochberg' | 'bonferroni' | 'benjamini-yekutieli';
   /** Selections with fewer respondents than this are not tested (common practice: 10). */
   minRespondents: number;
   /** Pack default for the minimum response rate where the number eligible is known (fraction), if any. */

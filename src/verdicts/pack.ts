@@ -14,6 +14,9 @@ export const ADJUST_NAMES: Record<ClaimsFile['adjust'], string> = {
   holm: "Holm's method",
   'benjamini-hochberg': 'the Benjamini–Hochberg method',
   none: 'no adjustment',
+  hochberg: "Hochberg's method",
+  bonferroni: 'the Bonferroni method',
+  'benjamini-yekutieli': 'the Benjamini–Yekutieli method',
 };
 
 export function composePack(input: {

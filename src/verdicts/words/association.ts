@@ -57,6 +57,9 @@ export function composeAssociation(a: AssociationAnalysis, decision: Decision, c
     ...(a.spearman
       ? [{ label: "Spearman's rho (check on ranks)", value: t.render('association.spearman-line', { rho: fmt.coefficient(a.spearman.estimate.value), pPhrase: fmt.pPhrase(a.spearman.p) }) }]
       : []),
+    ...(a.kendall
+      ? [{ label: "Kendall's tau-b (check on pairs of units)", value: t.render('association.kendall-line', { tau: fmt.coefficient(a.kendall.estimate.value), pPhrase: fmt.pPhrase(a.kendall.p) }) }]
+      : []),
     {
       label: 'Least-squares line',
       value: bothRates

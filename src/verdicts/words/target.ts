@@ -48,6 +48,9 @@ export function composeTarget(a: TargetAnalysis, decision: Decision, ctx: Compos
   };
   const numbers: NumberRow[] = [
     { label: a.rate.label, value: `${fmt.percent(a.rate.rate)} agreed of ${fmt.count(a.rate.n)} (interval ${fmt.percent(a.rate.interval.lower)} to ${fmt.percent(a.rate.interval.upper)})` },
+    ...(a.exactInterval
+      ? [{ label: 'Exact interval for the rate (Clopper–Pearson)', value: `${fmt.percent(a.exactInterval.lower)} to ${fmt.percent(a.exactInterval.upper)}${a.rate.population !== undefined ? ', without the finite-population correction' : ''}` }]
+      : []),
     { label: claim.valueLabel ?? 'Fixed value', value: claim.valueWritten && claim.valueWritten !== target ? `${target} (written as ${claim.valueWritten})` : target },
     { label: 'Gap to the value', value: `${view.gap} points (interval ${view.gapLower} to ${view.gapUpper})` },
     ...commonRows(a, decision, ctx),
