@@ -56,7 +56,7 @@ function compare(fit: LeastSquaresFit, ref: LmSummary, what: string): void {
   expectClose(fit.rSquared, ref.r_squared, 'closed', `${what} R squared`);
   expectClose(fit.adjustedRSquared, ref.adj_r_squared, 'closed', `${what} adjusted R squared`);
   expect(fit.dfResidual).toBe(ref.df_residual);
-  ref.residuals.forEach((r, i) => expectClose(fit.residuals[i]!, r, 1e-9, `${what} residual ${i}`));
+  ref.residuals.forEach((r, i) => expectClose(fit.residuals[i]!, r, 'closed', `${what} residual ${i}`));
   ref.fitted.forEach((f, i) => expectClose(fit.fitted[i]!, f, 'closed', `${what} fitted ${i}`));
   if (ref.f !== undefined) {
     expect(fit.fTest).toBeDefined();
