@@ -100,6 +100,25 @@ async function runDiff(args: DiffArgs): Promise<number> {
   return 0;
 }
 
+/** Each command and what it must be given, for a command line that gives too little. */
+const COMMANDS: Record<string, string> = {
+  build: 'the claims file: warrant build <claims.yaml>',
+  check: 'the claims file: warrant check <claims.yaml>',
+  init: 'the data file: warrant init <data.csv or data.xlsx>',
+  diff: 'two pack folders: warrant diff <earlier pack> <later pack>',
+};
+
+/** A mistake in the command line itself (unknown option, missing argument), as one paragraph with its fix. */
+function usageError(msg: string | undefined, argv: string[]): InputError {
+  const command = argv.find((a) => !a.startsWith('-'));
+  const needs = command !== undefined ? COMMANDS[command] : undefined;
+  const help = needs !== undefined ? `warrant ${command} --help` : 'warrant --help';
+  let text = (msg ?? 'the command line could not be read').trim().replace(/\.$/, '');
+  // yargs says "Not enough non-option arguments: got 0, need at least 1"; say what is missing instead.
+  if (needs !== undefined && /^Not enough non-option arguments/.test(text)) text = `warrant ${command} needs ${needs}`;
+  return new InputError({ file: 'command line', problem: text, fix: `Run "${help}" to see the ${help === 'warrant --help' ? 'commands and options' : 'arguments and options'}` });
+}
+
 export async function main(argv: string[]): Promise<number> {
   const debug = argv.includes('--debug');
   let code = 0;
@@ -175,8 +194,8 @@ export async function main(argv: string[]): Promise<number> {
       .wrap(Math.min(110, process.stdout.columns || 100))
       .fail((msg, err) => {
         if (err) throw err;
-        process.stderr.write(`${msg}\nRun "warrant --help" to see the commands and options.\n`);
-        code = EXIT_INPUT;
+        // Thrown, not printed: yargs would otherwise go on to run the command's handler without its arguments.
+        throw usageError(msg, argv);
       })
       .parseAsync();
   } catch (e) {

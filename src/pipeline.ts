@@ -11,7 +11,7 @@
  */
 import { readFile } from 'node:fs/promises';
 import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
-import { basename, extname, join, relative, resolve } from 'node:path';
+import { basename, dirname, extname, join, relative, resolve } from 'node:path';
 import { readClaims } from './claims/read.js';
 import type { ClaimsFile } from './claims/types.js';
 import { readCube } from './data/cube.js';
@@ -123,22 +123,71 @@ function overrideSources(claims: ClaimsFile, data: Record<string, string>, cwd: 
     const given = data[source.id];
     if (given === undefined) return source;
     const path = resolve(cwd, given);
-    if (!existsSync(path) || !statSync(path).isFile()) {
-      throw new InputError({ file: given, field: `--data ${source.id}`, problem: 'the data file given on the command line does not exist or is not a file', fix: 'check the path; it is read relative to the folder you run warrant in' });
+    if (!existsSync(path)) {
+      throw new InputError({ file: given, field: `--data ${source.id}`, problem: `the data file given on the command line was not found (looked for at ${path})`, fix: 'Check the path; it is read relative to the folder you run warrant in' });
+    }
+    if (!statSync(path).isFile()) {
+      throw new InputError({ file: given, field: `--data ${source.id}`, problem: 'the path given on the command line is a folder, not a data file', fix: 'Give the path of the .csv or .xlsx file inside the folder' });
     }
     const ext = extname(path).toLowerCase();
     const format = ext === '.csv' ? 'csv' : ext === '.xlsx' ? 'xlsx' : undefined;
     if (!format) {
-      throw new InputError({ file: given, field: `--data ${source.id}`, found: ext, problem: 'warrant reads .csv and .xlsx data files only', fix: 'save the data as .xlsx or .csv' });
+      throw new InputError({ file: given, field: `--data ${source.id}`, found: ext, problem: 'warrant reads .csv and .xlsx data files only', fix: 'Save the data as .xlsx or .csv' });
     }
     return { ...source, path, file: displayPath(path, cwd), format } as typeof source;
   });
   for (const id of Object.keys(data)) {
     if (!known.includes(id)) {
-      throw new InputError({ file: 'command line', field: `--data ${id}`, found: id, problem: 'no source has this id in the claims file', fix: `use one of the source ids: ${known.join(', ')}` });
+      throw new InputError({ file: 'command line', field: `--data ${id}`, found: id, problem: 'no source has this id in the claims file', fix: `Use one of the source ids: ${known.join(', ')}` });
     }
   }
   return { ...claims, sources };
+}
+
+/** The options that name folders must name folders: checked before any work, so a typo costs nothing. */
+function checkFolders(options: BuildOptions, root: string, templatesDir: string | undefined): void {
+  if (templatesDir !== undefined) {
+    const given = options.templatesDir as string;
+    if (!existsSync(templatesDir)) {
+      throw new InputError({ file: given, field: '--templates', problem: `the templates folder was not found (looked for at ${templatesDir})`, fix: "Pass --templates a folder that holds .mustache files named like those in warrant's templates/ folder" });
+    }
+    if (!statSync(templatesDir).isDirectory()) {
+      throw new InputError({ file: given, field: '--templates', problem: 'this is a file, not a folder of templates', fix: 'Pass --templates the folder that holds the .mustache files' });
+    }
+  }
+  // The history folder, or the nearest part of its path that exists, must be a folder.
+  for (let dir = root; ; dir = dirname(dir)) {
+    if (existsSync(dir)) {
+      if (!statSync(dir).isDirectory()) {
+        throw new InputError({
+          file: options.outDir ?? displayPath(root),
+          field: '--out',
+          problem: dir === root ? 'this is a file, not a history folder for packs' : `${dir} is a file, so the history folder cannot be made inside it`,
+          fix: 'Give --out a folder (new or used before for packs of this claims file)',
+        });
+      }
+      return;
+    }
+    if (dirname(dir) === dir) return;
+  }
+}
+
+/**
+ * A build stopped by a problem in the data: ask the checker (src/commands/check.ts) where the claims file caused it,
+ * so that a misspelt column or value is reported at its line in the claims file, with its claim. The checker's
+ * report replaces the first problem only when it places some problem in the claims file; else the original stands.
+ */
+async function placedInClaims(e: InputError, claimsPath: string, claimsDisplay: string): Promise<InputError> {
+  if (e.problems.some((p) => p.file === claimsDisplay)) return e;
+  const { checkClaimsFile } = await import('./commands/check.js');
+  let report;
+  try {
+    report = await checkClaimsFile(claimsPath, claimsDisplay);
+  } catch {
+    return e;
+  }
+  const inClaims = report.problems.filter((p) => p.file === claimsDisplay && p.line !== undefined);
+  return inClaims.length > 0 ? new InputError(report.problems) : e;
 }
 
 /** Digest of a templates folder's .mustache files, so reworded packs get their own fingerprint. */
@@ -167,9 +216,10 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
   const claimsPath = resolve(cwd, options.claimsPath);
   const claimsDisplay = displayPath(claimsPath, cwd);
   const templatesDir = options.templatesDir ? resolve(cwd, options.templatesDir) : undefined;
+  const root = resolve(cwd, options.outDir ?? join('out', basename(claimsPath, extname(claimsPath))));
+  checkFolders(options, root, templatesDir);
   const templates = new Templates(templatesDir);
   const version = await toolVersion();
-  const root = resolve(cwd, options.outDir ?? join('out', basename(claimsPath, extname(claimsPath))));
 
   // 1. claims
   say('Reading the claims file');
@@ -177,10 +227,29 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
   if (options.data) claims = overrideSources(claims, options.data, cwd);
   // 2. data
   say('Reading the data');
-  const cubes = await loadData(claims, cwd);
+  // A selection the data cannot meet (a misspelt column or value) is the claims file's fault: say where in it. Only a
+  // claims file read as written can be checked again, not one whose sources --data points elsewhere.
+  const selecting = new Set(claims.claims.flatMap(columnsUsed));
+  const relocate = async (e: unknown, always: boolean): Promise<unknown> =>
+    e instanceof InputError && !options.data && (always || e.problems.some((p) => p.field !== undefined && selecting.has(p.field)))
+      ? placedInClaims(e, claimsPath, claimsDisplay)
+      : e;
+  let cubes: Cube[];
+  try {
+    cubes = await loadData(claims, cwd);
+  } catch (e) {
+    throw await relocate(e, false);
+  }
   // 3-4. statistics and verdicts
   say(`Testing ${claims.claims.length} claims`);
-  const { analyses, decisions, tested } = testClaims(claims, cubes, claimsDisplay);
+  let tested: ReturnType<typeof testClaims>;
+  try {
+    tested = testClaims(claims, cubes, claimsDisplay);
+  } catch (e) {
+    throw await relocate(e, true);
+  }
+  const { analyses, decisions } = tested;
+  const claimsTested = tested.tested;
   // 5. words
   const date = options.date ?? claims.dataDate ?? 'undated';
   const fingerprint = packFingerprint({
@@ -191,9 +260,9 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
   });
   const ctx = {
     templates,
-    claimsTested: tested,
+    claimsTested,
     adjustName: ADJUST_NAMES[claims.adjust],
-    adjusted: claims.adjust !== 'none' && tested > 1,
+    adjusted: claims.adjust !== 'none' && claimsTested > 1,
     minRespondents: claims.minRespondents,
     periodColumns: periodColumns(claims, cubes),
   };
@@ -234,7 +303,7 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
     analyses,
     sections,
     summary: composed.map((c) => c.summary),
-    claimsTested: tested,
+    claimsTested,
     date,
     version,
     command: options.command ?? `warrant build ${claimsDisplay}`,

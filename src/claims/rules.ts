@@ -73,7 +73,7 @@ export function crossFieldProblems(parsed: ParsedYaml, file: string, claimsDir: 
     if (typeof src.file === 'string' && src.file !== '') {
       const ext = extname(src.file).toLowerCase();
       const fileAt = at(['sources', id, 'file']);
-      if (DATA_EXTENSIONS[ext] === undefined) {
+      if (DATA_EXTENSIONS[ext] === undefined && !isFolder(resolve(claimsDir, src.file))) {
         problems.push({
           file,
           ...fileAt,
@@ -310,6 +310,15 @@ function measures(c: Rec, claimPath: Path): Array<[Path, unknown]> {
     });
   }
   return out;
+}
+
+/** True when the path names an existing folder (a folder is reported as such, whatever its name ends in). */
+function isFolder(abs: string): boolean {
+  try {
+    return statSync(abs).isDirectory();
+  } catch {
+    return false;
+  }
 }
 
 /** The data file must exist and be a file; suggest a near-miss name in the same folder. */
