@@ -868,6 +868,34 @@ function nistSummary(rows: LreRow[]): NistLine[] {
   });
 }
 
+function reached(): void {
+  const K = readJson<{
+    association: { nx: number[]; ax: number[]; ny: number[]; ay: number[]; kendall: { alternative: string; tau: number; z: number; p: number }[] };
+    clopper_pearson: { x: number; n: number; p0: number; level: number; p: number; lower: number; upper: number }[];
+    adjust: { p: number[]; hochberg: number[]; bonferroni: number[]; BY: number[] };
+  }>('../fixtures/r/reached.json');
+  const R = 'R 4.2 reached.json';
+  const A = K.association;
+  const x = A.ax.map((a, i) => a / A.nx[i]!);
+  const y = A.ay.map((a, i) => a / A.ny[i]!);
+  for (const r of A.kendall) {
+    const res = kendall(x, y, { alternative: rAlt(r.alternative) });
+    add('correlation', R, `Kendall (association units) ${r.alternative} tau`, res.estimate.value, r.tau, 'closed');
+    add('correlation', R, `Kendall (association units) ${r.alternative} z`, res.statistic!.value, r.z, 'closed');
+    add('correlation', R, `Kendall (association units) ${r.alternative} p`, res.p, r.p, 'p');
+  }
+  for (const r of K.clopper_pearson) {
+    const iv = clopperPearsonInterval(r.x, r.n, { level: r.level }).interval;
+    add('intervals', R, `Clopper-Pearson ${r.x}/${r.n} level=${r.level} lower`, iv.lower, r.lower, 'bound');
+    add('intervals', R, `Clopper-Pearson ${r.x}/${r.n} level=${r.level} upper`, iv.upper, r.upper, 'bound');
+    add('proportions', R, `binom.test ${r.x}/${r.n} p0=${r.p0} p`, binomialExactTest(r.x, r.n, r.p0, { level: r.level }).p, r.p, 'p');
+  }
+  for (const [m, ref] of [['hochberg', K.adjust.hochberg], ['bonferroni', K.adjust.bonferroni], ['benjamini-yekutieli', K.adjust.BY]] as const) {
+    const got = adjustP(K.adjust.p, m);
+    ref.forEach((v, i) => add('adjustment', R, `p.adjust claims set ${m}[${i + 1}]`, got[i]!, v, 'closed'));
+  }
+}
+
 describe('accuracy report: every stored reference value, per method family', () => {
   distributions();
   rates();
@@ -875,6 +903,7 @@ describe('accuracy report: every stored reference value, per method family', () 
   tables();
   kindsB();
   correlationFixture();
+  reached();
   const { families, failures } = summarise();
   const lre = nist();
   const nistLines = nistSummary(lre);
