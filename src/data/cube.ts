@@ -27,8 +27,8 @@ import { readCsvBatches } from './csv.js';
 import type { Delimiter } from './csv.js';
 import { openXlsxSheet } from './xlsx.js';
 import { sha256File } from './hash.js';
-import { isBlankRow, rowIsBlank } from './rows.js';
-import type { ColumnSelection, SheetRow } from './rows.js';
+import { isBlankRow } from './rows.js';
+import type { SheetRow } from './rows.js';
 import { fixFor } from '../suggest.js';
 import { columnLetters } from './xlsx.js';
 import { kindMismatch, sniffKind } from './kind.js';
@@ -207,9 +207,7 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
   let rows: AsyncGenerator<SheetRow[]>;
   let close = (): void => {};
   const style: NumberStyle = { decimalComma: false };
-  // Filled in by respondentsCube once it knows the columns it reads: the readers then leave the others out.
-  const select: ColumnSelection = {};
-  const readOptions = { displayPath: file, select, ...(options.chunkSize !== undefined ? { chunkSize: options.chunkSize } : {}) };
+  const readOptions = { displayPath: file, ...(options.chunkSize !== undefined ? { chunkSize: options.chunkSize } : {}) };
   if (source.format === 'xlsx') {
     const opened = await openXlsxSheet(source.path, { ...readOptions, ...(source.sheet !== undefined ? { sheet: source.sheet } : {}) });
     sheet = opened.sheet;
@@ -269,7 +267,7 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
     const cube =
       source.shape === 'summary'
         ? await summaryCube(source, needed, body, header.row, names, column, where, style)
-        : await respondentsCube(source, needed, body, header.row, names, column, where, select);
+        : await respondentsCube(source, needed, body, header.row, names, column, where);
     return { ...common, sha256: await shaPromise, ...cube };
   } finally {
     await rows.return(undefined);
@@ -472,7 +470,6 @@ async function respondentsCube(
   names: string[],
   column: ColumnOf,
   where: Where,
-  select: ColumnSelection,
 ): Promise<CubeBody> {
   const questions = source.questions ?? [];
   if (questions.length === 0) {
@@ -494,9 +491,6 @@ async function respondentsCube(
     return i;
   });
   const dimensions = [...dimensionsWanted, qColName];
-  const keep = new Array<boolean>(names.length).fill(false);
-  for (const i of [...qIdx, ...dimIdx]) keep[i] = true;
-  select.keep = keep;
   const na = new Set(source.notApplicableCodes);
   const agreeCodes = new Set(source.agreeCodes);
   const maxCode = Math.max(5, ...source.agreeCodes);
@@ -518,7 +512,7 @@ async function respondentsCube(
   let rows = 0;
   for await (const batch of body) for (const r of batch) {
     const rv = r.values;
-    if (rowIsBlank(r)) continue;
+    if (isBlankRow(rv)) continue;
     rows += 1;
     let group: Leaf | undefined;
     for (let k = 0; k < nq; k++) {
