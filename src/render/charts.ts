@@ -192,7 +192,8 @@ function dotIntervalSpec(
     },
     {
       // The rates stand in a column at the right of the plot, where no interval or reference line can cross them.
-      mark: { type: 'text', align: 'left', dx: 10, baseline: 'middle', color: PALETTE.ink, fontWeight: 'bold' },
+      // Set well clear of the last grid line, which lies on the plot's right edge.
+      mark: { type: 'text', align: 'left', dx: 18, baseline: 'middle', color: PALETTE.ink, fontWeight: 'bold' },
       encoding: { y, x: { value: 'width' }, text: { field: 'rateText', type: 'nominal' } },
     },
   ];

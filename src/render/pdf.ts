@@ -34,6 +34,10 @@ const CONTENT_WIDTH = PAGE.width - MARGIN.left - MARGIN.right;
 const CONTENT_BOTTOM = PAGE.height - MARGIN.bottom;
 /** Slack kept under every block so that rounding in line heights can never push text past the margin. */
 const SLACK = 2;
+/** Room taken at the top of a page by the line naming the claim that continues there. */
+const CONTINUATION_HEIGHT = 22;
+/** Height available for blocks on an empty page. */
+const PAGE_ROOM = CONTENT_BOTTOM - SLACK - MARGIN.top;
 
 // ---- Typography: one accent colour, body 10.5 pt, headings 16 / 13 pt ----
 const COLOR = {
@@ -52,6 +56,8 @@ const LINE_GAP = 2.2;
 const PARA_GAP = 8;
 /** The verdict badge: bold word beside a verdict mark in an outlined box. */
 const BADGE = { size: 11, padX: 9, height: 22 } as const;
+/** Width of the label column in a claim's tables ("Null hypothesis", "Test statistic"). */
+const NUMBER_LABEL_WIDTH = 124;
 /** Space between two claims that share a page (a rule is drawn in it). */
 const CLAIM_GAP = 24;
 
@@ -93,6 +99,13 @@ interface Block {
 
 class Layout {
   readonly doc: Doc;
+  /** Where blocks start on the current page (below a continuation line, when there is one). */
+  private pageTop = MARGIN.top;
+  /**
+   * While set, a page started inside a claim opens with this small line (e.g. "CLAIM X (CONTINUED)"), drawn as page
+   * furniture: the claim's heading is already in the structure tree.
+   */
+  continuation: string | undefined;
   constructor(doc: Doc) {
     this.doc = doc;
   }
@@ -109,13 +122,23 @@ class Layout {
   }
 
   atTop(): boolean {
-    return this.doc.y <= MARGIN.top + 0.5;
+    return this.doc.y <= this.pageTop + 0.5;
   }
 
   newPage(): void {
     this.doc.addPage();
     this.doc.x = MARGIN.left;
     this.doc.y = MARGIN.top;
+    this.pageTop = MARGIN.top;
+    if (this.continuation) {
+      const text = this.continuation;
+      this.artifact(() => {
+        this.setFont('bold', SIZE.small, COLOR.muted);
+        this.doc.text(text, MARGIN.left, MARGIN.top, { width: CONTENT_WIDTH, characterSpacing: 0.8, lineBreak: false });
+      });
+      this.pageTop = MARGIN.top + CONTINUATION_HEIGHT;
+      this.doc.y = this.pageTop;
+    }
   }
 
   ensure(height: number): void {
@@ -182,7 +205,16 @@ class Layout {
 
   paragraph(
     text: string,
-    opts: { face?: Face; size?: number; color?: string; spaceAfter?: number; indent?: number; tag?: string } = {},
+    opts: {
+      face?: Face;
+      size?: number;
+      color?: string;
+      spaceAfter?: number;
+      indent?: number;
+      tag?: string;
+      /** Keep on the same page as the start of the next block (e.g. a method's text with its source line). */
+      keepWithNext?: boolean;
+    } = {},
   ): Block {
     const face = opts.face ?? 'regular';
     const size = opts.size ?? SIZE.body;
@@ -191,6 +223,7 @@ class Layout {
     const width = CONTENT_WIDTH - indent;
     const h = (): number => this.textHeight(text, face, size, width);
     return {
+      ...(opts.keepWithNext ? { keepWithNext: true } : {}),
       after,
       height: () => h() + after,
       minHeight: () => Math.min(h(), 3 * (size * 1.4)) + after,
@@ -208,14 +241,15 @@ class Layout {
   }
 
   /** The verdict paragraph on a shaded panel with an accent bar at its left edge. */
-  panel(text: string): Block {
-    const pad = 9;
+  panel(text: string, opts: { pad?: number; spaceAfter?: number } = {}): Block {
+    const pad = opts.pad ?? 9;
+    const after = opts.spaceAfter ?? 12;
     const width = CONTENT_WIDTH - 2 * pad - 3;
     const h = (): number => this.textHeight(text, 'regular', SIZE.body, width) + 2 * pad - LINE_GAP;
     return {
-      after: 12,
-      height: () => h() + 12,
-      minHeight: () => h() + 12,
+      after,
+      height: () => h() + after,
+      minHeight: () => h() + after,
       draw: (parent) => {
         const top = this.y;
         const height = h();
@@ -229,12 +263,15 @@ class Layout {
             this.doc.text(text, MARGIN.left + 3 + pad, top + pad, { width, lineGap: LINE_GAP });
           }),
         );
-        this.y = top + height + 12;
+        this.y = top + height + after;
       },
     };
   }
 
-  /** A bulleted list (L > LI > Lbl + LBody); the bullet glyph is drawn as a small vector dot. */
+  /**
+   * A bulleted list (L > LI > Lbl + LBody); the bullet glyph is drawn as a small vector dot. A list of up to three
+   * items is kept whole on one page; a longer one may break after its second item, never leaving one item alone.
+   */
   bullets(items: string[], opts: { size?: number } = {}): Block {
     const size = opts.size ?? SIZE.body;
     const indent = 14;
@@ -243,14 +280,18 @@ class Layout {
     return {
       after: 9,
       height: () => itemHeights().reduce((a, b) => a + b, 0) + 6,
-      minHeight: () => (itemHeights()[0] ?? 0) + 6,
+      minHeight: () =>
+        itemHeights()
+          .slice(0, items.length <= 3 ? items.length : 2)
+          .reduce((a, b) => a + b, 0) + 6,
       draw: (parent) => {
         const list = this.doc.struct('L');
         parent.add(list);
         const heights = itemHeights();
         items.forEach((text, i) => {
           const h = heights[i]!;
-          this.ensure(h - 3);
+          // The last item never starts a page alone: the one before it moves with it.
+          this.ensure(h + (i === items.length - 2 ? heights[i + 1]! : 0) - 3);
           const top = this.y;
           const li = this.doc.struct('LI');
           list.add(li);
@@ -335,7 +376,14 @@ class Layout {
   table(
     columns: Column[],
     rows: Cell[][],
-    opts: { header?: boolean; size?: number; spaceAfter?: number; padY?: number } = {},
+    opts: {
+      header?: boolean;
+      size?: number;
+      spaceAfter?: number;
+      padY?: number;
+      /** Move the whole table to the next page rather than split it, when it fits on one page. */
+      keepTogether?: boolean;
+    } = {},
   ): Block {
     const showHeader = opts.header ?? true;
     const size = opts.size ?? SIZE.table;
@@ -416,7 +464,10 @@ class Layout {
     return {
       after,
       height: () => headerHeight() + rows.reduce((a, r) => a + rowHeight(r), 0) + after,
-      minHeight: () => headerHeight() + (rows[0] ? rowHeight(rows[0]) : 0) + after,
+      minHeight: () => {
+        const whole = headerHeight() + rows.reduce((a, r) => a + rowHeight(r), 0) + after;
+        return opts.keepTogether && whole <= PAGE_ROOM ? whole : headerHeight() + (rows[0] ? rowHeight(rows[0]) : 0) + after;
+      },
       draw: (parent) => {
         const tableEl = this.doc.struct('Table');
         parent.add(tableEl);
@@ -428,9 +479,11 @@ class Layout {
           drawRow(headerCells, top, hh, 'TH', tr);
           this.y = top + hh;
         }
-        for (const row of rows) {
+        rows.forEach((row, i) => {
           const h = rowHeight(row);
-          if (h > this.remaining() && !this.atTop()) {
+          // The last row never starts a page alone: the one before it moves with it.
+          const need = h + (i === rows.length - 2 && rows.length > 2 ? rowHeight(rows[i + 1]!) : 0);
+          if (need > this.remaining() && !this.atTop()) {
             this.newPage();
             if (showHeader) {
               // The repeated header is visual only: the structure tree already has the header row once.
@@ -444,7 +497,7 @@ class Layout {
           tableEl.add(tr);
           drawRow(row, top, h, 'TD', tr);
           this.y = top + h;
-        }
+        });
         tableEl.end();
         this.y += after;
       },
@@ -455,7 +508,8 @@ class Layout {
    * Notices beside a claim (e.g. the claim was edited after its results were seen): a shaded box with a rule at its
    * left edge and a small "Note" label, so it stands out without relying on colour.
    */
-  notices(items: string[]): Block {
+  notices(items: string[], opts: { spaceAfter?: number } = {}): Block {
+    const after = opts.spaceAfter ?? 12;
     const pad = 8;
     const rule = 4;
     const width = CONTENT_WIDTH - 2 * pad - rule;
@@ -463,9 +517,9 @@ class Layout {
     const itemHeights = (): number[] => items.map((t) => this.textHeight(t, 'regular', SIZE.body, width));
     const h = (): number => labelH + itemHeights().reduce((a, b) => a + b + 4, 0) - 4 + 2 * pad - LINE_GAP;
     return {
-      after: 12,
-      height: () => h() + 12,
-      minHeight: () => h() + 12,
+      after,
+      height: () => h() + after,
+      minHeight: () => h() + after,
       draw: (parent) => {
         const top = this.y;
         const height = h();
@@ -494,7 +548,7 @@ class Layout {
           y += heights[i]! + 4;
         });
         box.end();
-        this.y = top + height + 12;
+        this.y = top + height + after;
       },
     };
   }
@@ -503,14 +557,17 @@ class Layout {
    * The numbers of a claim, set compactly: two label/value pairs side by side when both values are short, one pair
    * across the width otherwise. Labels are row headers (TH), values data cells (TD); rows never split over pages.
    */
-  numberPairs(rows: Array<{ label: string; value: string }>, opts: { spaceAfter?: number; pair?: boolean } = {}): Block {
+  numberPairs(
+    rows: Array<{ label: string; value: string }>,
+    opts: { spaceAfter?: number; pair?: boolean; padY?: number } = {},
+  ): Block {
     const size = SIZE.table;
     const padX = 5;
-    const padY = 2.8;
+    const padY = opts.padY ?? 2.8;
     const gap = 1.2;
     const after = opts.spaceAfter ?? 4;
     const half = CONTENT_WIDTH / 2;
-    const labelW = 140;
+    const labelW = NUMBER_LABEL_WIDTH;
     const shortValueW = half - labelW;
     const fullValueW = CONTENT_WIDTH - labelW;
     const fitsShort = (r: { label: string; value: string }): boolean => {
@@ -643,15 +700,16 @@ class Layout {
   }
 
   /** A chart drawn as vectors from SVG, tagged as a Figure with its alt text and bounding box. */
-  figure(svg: string, alt: string): Block {
+  figure(svg: string, alt: string, opts: { spaceAfter?: number } = {}): Block {
     const { width, height } = svgSize(svg);
     const scale = Math.min(1, CONTENT_WIDTH / width);
     const w = width * scale;
     const h = height * scale;
+    const after = opts.spaceAfter ?? 14;
     return {
-      after: 14,
-      height: () => h + 14,
-      minHeight: () => h + 14,
+      after,
+      height: () => h + after,
+      minHeight: () => h + after,
       draw: (parent) => {
         const top = this.y;
         const x = MARGIN.left + (CONTENT_WIDTH - w) / 2;
@@ -669,7 +727,7 @@ class Layout {
             });
           }),
         );
-        this.y = top + h + 14;
+        this.y = top + h + after;
       },
     };
   }
@@ -704,11 +762,33 @@ function shorten(text: string, max: number): string {
   return t.length <= max ? t : `${t.slice(0, max - 1).trimEnd()}\u2026`;
 }
 
+/** Vertical spacing inside a claim's section (points). */
+interface ClaimSpacing {
+  head: number;
+  notice: number;
+  panelPad: number;
+  panel: number;
+  h3: number;
+  compared: number;
+  rowPadY: number;
+  method: number;
+  figure: number;
+}
+
+/** Outer height of a scatter or period chart that starts the second page of a claim too long for one page. */
+const CONTINUED_CHART_HEIGHT = 270;
+
+/** The usual spacing of a claim's section. */
+const SPACING_NORMAL: ClaimSpacing = { head: 12, notice: 12, panelPad: 9, panel: 12, h3: 4, compared: 10, rowPadY: 2.8, method: 12, figure: 14 };
+/** Closer spacing (same type sizes) for a claim that would otherwise run a little onto a second page. */
+const SPACING_TIGHT: ClaimSpacing = { head: 8, notice: 8, panelPad: 7, panel: 9, h3: 3, compared: 6, rowPadY: 1.9, method: 7, figure: 8 };
+
 function claimBlocks(
   L: Layout,
   claim: ClaimSection,
   svg: string | undefined,
   bookmarks: () => PDFKit.OutlineItem,
+  sp: ClaimSpacing = SPACING_NORMAL,
 ): Block[] {
   const blocks: Block[] = [];
   // Heading: the "Claim C1" label with the verdict badge at the right of the same line, then the statement in the
@@ -718,7 +798,7 @@ function claimBlocks(
   const labelWidth = (): number => CONTENT_WIDTH - badgeW() - 12;
   const labelH = (): number => Math.max(BADGE.height, L.textHeight(label, 'bold', SIZE.small, labelWidth(), 1));
   const statementHeight = (): number => L.textHeight(claim.statement, 'bold', SIZE.h3, CONTENT_WIDTH, 1.5);
-  const headH = (): number => labelH() + 6 + statementHeight() + 12;
+  const headH = (): number => labelH() + 6 + statementHeight() + sp.head;
   blocks.push({
     keepWithNext: true,
     height: headH,
@@ -743,9 +823,9 @@ function claimBlocks(
     },
   });
   // Lead with the answer: the verdict and its paragraph come first, then what was compared, then the numbers.
-  if (claim.notices && claim.notices.length > 0) blocks.push(L.notices(claim.notices));
-  blocks.push(L.panel(claim.verdictText));
-  blocks.push(L.heading('H3', 'What was compared and tested'));
+  if (claim.notices && claim.notices.length > 0) blocks.push(L.notices(claim.notices, { spaceAfter: sp.notice }));
+  blocks.push(L.panel(claim.verdictText, { pad: sp.panelPad, spaceAfter: sp.panel }));
+  blocks.push(L.heading('H3', 'What was compared and tested', { spaceAfter: sp.h3 }));
   blocks.push(
     L.numberPairs(
       [
@@ -753,21 +833,53 @@ function claimBlocks(
         { label: 'Null hypothesis', value: claim.hypotheses.null },
         { label: 'Alternative hypothesis', value: claim.hypotheses.alternative },
       ],
-      { spaceAfter: 10, pair: false },
+      { spaceAfter: sp.compared, pair: false, padY: sp.rowPadY },
     ),
   );
   if (claim.numbers.length > 0) {
-    blocks.push(L.heading('H3', 'The numbers'));
-    blocks.push(L.numberPairs(claim.numbers, { spaceAfter: 4 }));
+    blocks.push(L.heading('H3', 'The numbers', { spaceAfter: sp.h3 }));
+    blocks.push(L.numberPairs(claim.numbers, { spaceAfter: 4, padY: sp.rowPadY }));
   }
   // The method line reads as a note under the numbers it produced.
-  blocks.push(L.paragraph(claim.methodLine, { face: 'italic', size: SIZE.small, color: COLOR.muted, spaceAfter: 12 }));
-  if (claim.chart && svg) blocks.push(L.figure(svg, claim.chart.alt));
+  blocks.push(L.paragraph(claim.methodLine, { face: 'italic', size: SIZE.small, color: COLOR.muted, spaceAfter: sp.method }));
+  if (claim.chart && svg) blocks.push(L.figure(svg, claim.chart.alt, { spaceAfter: sp.figure }));
   if (claim.cautions.length > 0) {
-    blocks.push(L.heading('H3', 'Cautions'));
+    blocks.push(L.heading('H3', 'Cautions', { spaceAfter: sp.h3 }));
     blocks.push(L.bullets(claim.cautions, { size: SIZE.table }));
   }
   return blocks;
+}
+
+/**
+ * Lay a claim out to fit one page when it can: first with the usual spacing, then with closer spacing (same type
+ * sizes), then with closer spacing and a shorter chart (never below MIN_CHART_HEIGHT). A claim that fits none of
+ * these keeps its usual spacing and full chart, and breaks between blocks (the chart and cautions move on together).
+ */
+async function fitClaim(
+  L: Layout,
+  claim: ClaimSection,
+  svg: string | undefined,
+  bookmarks: () => PDFKit.OutlineItem,
+): Promise<{ blocks: Block[]; fits: boolean }> {
+  const normal = claimBlocks(L, claim, svg, bookmarks, SPACING_NORMAL);
+  if (blocksHeight(normal) <= PAGE_ROOM) return { blocks: normal, fits: true };
+  const tight = claimBlocks(L, claim, svg, bookmarks, SPACING_TIGHT);
+  const overflow = blocksHeight(tight) - PAGE_ROOM;
+  if (overflow <= 0) return { blocks: tight, fits: true };
+  if (claim.chart && svg) {
+    const target = Math.floor(svgSize(svg).height - overflow - 1);
+    if (target >= MIN_CHART_HEIGHT) {
+      const shorter = await chartSvg(claim.chart.data, { height: target });
+      const blocks = claimBlocks(L, claim, shorter, bookmarks, SPACING_TIGHT);
+      if (blocksHeight(blocks) <= PAGE_ROOM) return { blocks, fits: true };
+    }
+  }
+  // The chart then starts the claim's second page, where a scatter or a period line can have more height.
+  if (claim.chart && svg && (claim.chart.data.kind === 'scatter' || claim.chart.data.kind === 'periods')) {
+    const taller = await chartSvg(claim.chart.data, { height: CONTINUED_CHART_HEIGHT });
+    return { blocks: claimBlocks(L, claim, taller, bookmarks, SPACING_NORMAL), fits: false };
+  }
+  return { blocks: normal, fits: false };
 }
 
 /** Height of a run of blocks, less the blank space after the last one. */
@@ -911,10 +1023,10 @@ export async function renderPdf(model: PackModel, options: RenderOptions = {}): 
       blocks.push(
         L.table(
           [
-            { header: 'Claim', width: 150 },
-            { header: 'Before', width: 80 },
-            { header: 'After', width: 80 },
-            { header: 'Why', width: 157 },
+            { header: 'Claim', width: 196 },
+            { header: 'Before', width: 84 },
+            { header: 'After', width: 114 },
+            { header: 'Why', width: 73 },
           ],
           ch.verdicts.map((v) => [{ text: v.claim }, { text: v.before }, { text: v.after, face: 'bold' as const }, { text: v.why }]),
         ),
@@ -922,7 +1034,10 @@ export async function renderPdf(model: PackModel, options: RenderOptions = {}): 
     }
     if (ch.notes.length > 0) blocks.push(L.bullets(ch.notes));
     if (!L.atTop()) L.y += 22;
-    L.ensure(heading.height() + blocks[1]!.minHeight());
+    // The whole section moves to a new page when that keeps it on one page; else it starts here and runs on.
+    const whole = blocksHeight(blocks);
+    if (whole > L.remaining() && whole <= PAGE_ROOM) L.ensure(whole);
+    else L.ensure(heading.height() + blocks[1]!.minHeight());
     const sect = doc.struct('Sect');
     root.add(sect);
     bookmark(shorten(ch.heading, 70));
@@ -933,17 +1048,7 @@ export async function renderPdf(model: PackModel, options: RenderOptions = {}): 
   // ---- Claims: each on a new page unless it fits in the space left ----
   let claimsBookmark: PDFKit.OutlineItem | undefined;
   for (const claim of model.claims) {
-    let svg = svgs.get(claim.id);
-    let blocks = claimBlocks(L, claim, svg, () => claimsBookmark!);
-    // A claim slightly taller than a page gets a shorter chart (same type size) rather than a page of leftovers.
-    const overflow = blocksHeight(blocks) - (CONTENT_BOTTOM - SLACK - MARGIN.top);
-    if (claim.chart && svg && overflow > 0) {
-      const target = Math.floor(svgSize(svg).height - overflow - 1);
-      if (target >= MIN_CHART_HEIGHT) {
-        svg = await chartSvg(claim.chart.data, { height: target });
-        blocks = claimBlocks(L, claim, svg, () => claimsBookmark!);
-      }
-    }
+    const { blocks } = await fitClaim(L, claim, svgs.get(claim.id), () => claimsBookmark!);
     if (claimsBookmark === undefined || blocksHeight(blocks) + CLAIM_GAP > L.remaining()) {
       L.newPage();
     } else {
@@ -958,7 +1063,9 @@ export async function renderPdf(model: PackModel, options: RenderOptions = {}): 
     claimsBookmark ??= doc.outline.addItem('Claims', { left: PAGE.width, top: L.y - 12, expanded: true });
     const sect = doc.struct('Sect');
     root.add(sect);
+    L.continuation = `Claim ${claim.id} (continued)`.toUpperCase();
     L.flow(blocks, sect);
+    L.continuation = undefined;
     sect.end();
   }
 
@@ -983,7 +1090,7 @@ export async function renderPdf(model: PackModel, options: RenderOptions = {}): 
     'Method notes',
     model.methods.flatMap((m) => [
       L.heading('H3', m.name),
-      L.paragraph(m.text, { spaceAfter: 4 }),
+      L.paragraph(m.text, { spaceAfter: 4, keepWithNext: true }),
       L.paragraph(`Source: ${m.source}`, { face: 'italic', size: SIZE.small, color: COLOR.muted, spaceAfter: 14 }),
     ]),
   );
@@ -1012,6 +1119,7 @@ export async function renderPdf(model: PackModel, options: RenderOptions = {}): 
               { header: 'Value', width: 317 },
             ],
             model.reproducibility.map((r) => [{ text: r.label }, { text: r.value }]),
+            { keepTogether: true },
           ),
         ]
       : [],
