@@ -57,7 +57,7 @@ const PARA_GAP = 8;
 /** The verdict badge: bold word beside a verdict mark in an outlined box. */
 const BADGE = { size: 11, padX: 9, height: 22 } as const;
 /** Width of the label column in a claim's tables ("Null hypothesis", "Test statistic"). */
-const NUMBER_LABEL_WIDTH = 124;
+const NUMBER_LABEL_WIDTH = 130;
 /** Space between two claims that share a page (a rule is drawn in it). */
 const CLAIM_GAP = 24;
 
