@@ -12,10 +12,87 @@
 import { createReadStream } from 'node:fs';
 import Papa from 'papaparse';
 import { InputError } from '../errors.js';
+import { isTrimmedSpace } from './rows.js';
 import type { ReadOptions, SheetRow } from './rows.js';
 
 export type Delimiter = ',' | ';' | '\t';
 type Newline = '\n' | '\r\n' | '\r';
+
+/** Bytes per read from the file. */
+const READ_SIZE = 1 << 16;
+
+/**
+ * The error for a file that is not UTF-8, found by reading it again (only when the decoder has failed) to point at the
+ * first bad byte: its line, and the characters it would be in Windows-1252, the usual encoding of such exports.
+ */
+export async function notUtf8(path: string, file: string): Promise<InputError> {
+  const bad = await firstInvalidUtf8(path);
+  const found = bad === undefined ? undefined : `byte 0x${bad.byte.toString(16).toUpperCase().padStart(2, '0')}${bad.asWindows1252 !== undefined ? ` ("${bad.asWindows1252}" in Windows-1252)` : ''}`;
+  return new InputError({
+    file,
+    // Counted in lines: the row a spreadsheet shows unless a quoted value above it holds a line break.
+    ...(bad !== undefined ? { row: bad.line } : {}),
+    problem: 'The file is not UTF-8 text: it was probably saved in another encoding, such as Windows-1252 or Latin-1',
+    ...(found !== undefined ? { found } : {}),
+    fix: 'Save the file again as "CSV UTF-8" (in a spreadsheet program, or choose UTF-8 as the encoding in a text editor) and point the claims file at that',
+  });
+}
+
+/** Windows-1252 characters for bytes 0x80-0x9F (WHATWG Encoding Standard, index windows-1252); others are Latin-1. */
+const CP1252_HIGH = '€\u0081‚ƒ„…†‡ˆ‰Š‹Œ\u008DŽ\u008F\u0090‘’“”•–—˜™š›œ\u009DžŸ';
+
+/**
+ * The first byte that does not begin or continue a well-formed UTF-8 sequence (Unicode 15, §3.9, Table 3-7: no
+ * overlong forms, no surrogates, nothing above U+10FFFF), with its 1-based line (counting line feeds, or carriage
+ * returns when there is no line feed before it); undefined when the whole file is well formed.
+ */
+export async function firstInvalidUtf8(path: string): Promise<{ line: number; byte: number; asWindows1252: string | undefined } | undefined> {
+  let lf = 0;
+  let cr = 0;
+  const at = (byte: number) => ({ line: (lf > 0 ? lf : cr) + 1, byte, asWindows1252: windows1252(byte) });
+  let need = 0; // continuation bytes still expected
+  let lo = 0x80;
+  let hi = 0xbf;
+  let start = -1; // byte that began the open sequence
+  for await (const chunk of createReadStream(path, { highWaterMark: READ_SIZE }) as AsyncIterable<Buffer>) {
+    for (let i = 0; i < chunk.length; i++) {
+      const b = chunk[i]!;
+      if (need > 0) {
+        if (b >= lo && b <= hi) {
+          need -= 1;
+          lo = 0x80;
+          hi = 0xbf;
+          continue;
+        }
+        return at(start);
+      }
+      if (b < 0x80) {
+        if (b === 10) lf += 1;
+        else if (b === 13) cr += 1;
+        continue;
+      }
+      start = b;
+      if (b >= 0xc2 && b <= 0xdf) need = 1;
+      else if (b >= 0xe0 && b <= 0xef) {
+        need = 2;
+        if (b === 0xe0) lo = 0xa0;
+        if (b === 0xed) hi = 0x9f;
+      } else if (b >= 0xf0 && b <= 0xf4) {
+        need = 3;
+        if (b === 0xf0) lo = 0x90;
+        if (b === 0xf4) hi = 0x8f;
+      } else return at(b);
+    }
+  }
+  return need > 0 ? at(start) : undefined;
+}
+
+function windows1252(b: number): string | undefined {
+  if (b < 0x80 || b > 0xff) return undefined;
+  if (b >= 0xa0) return String.fromCharCode(b);
+  const ch = CP1252_HIGH[b - 0x80]!;
+  return ch.charCodeAt(0) >= 0x80 && ch.charCodeAt(0) <= 0x9f ? undefined : ch;
+}
 
 /** Largest amount of text looked at to find the header line before giving up and guessing from what was read. */
 const PEEK_LIMIT = 1 << 20;
@@ -116,6 +193,91 @@ export function splitPlain(text: string, end: number, newline: string, delimiter
   return out;
 }
 
+/** Distinct texts remembered per column for `splitPlainRows`; past this a column's new texts are not remembered. */
+const INTERN_LIMIT = 4096;
+
+/**
+ * Per kept column, texts already made into strings, by a hash of their characters: a text seen before is handed over
+ * as the same string, so a consumer's Map lookup finds its hash already computed and compares by identity.
+ */
+export type InternTables = Array<Map<number, string> | undefined>;
+
+/**
+ * Rows of text[from, end) with no quotes, as `splitPlain` splits them, numbered from `firstRow` and added to `out`,
+ * in one pass over the characters. With `keep` undefined every field is sliced. Otherwise a field is made into a string only when its
+ * column is kept (others read as ''), kept texts longer than one character are shared through `intern`, and each row's
+ * `blank` says whether all of its fields, kept or not, are blank (as `isBlankRow` would on the whole row).
+ */
+export function splitPlainRows(
+  text: string,
+  from: number,
+  end: number,
+  newline: string,
+  delimiter: string,
+  keep: readonly boolean[] | undefined,
+  firstRow: number,
+  intern: InternTables = [],
+  out: SheetRow[] = [],
+): SheetRow[] {
+  const d = delimiter.charCodeAt(0);
+  const nl0 = newline.charCodeAt(0);
+  const pair = newline.length === 2;
+  let row = firstRow;
+  let at = from;
+  if (keep === undefined) {
+    for (;;) {
+      let next = text.indexOf(newline, at);
+      if (next < 0 || next > end) next = end;
+      out.push({ row, values: text.slice(at, next).split(delimiter) });
+      row += 1;
+      if (next >= end) break;
+      at = next + newline.length;
+    }
+    return out;
+  }
+  const field = (column: number, from: number, to: number, hash: number): string => {
+    if (keep[column] !== true) return '';
+    if (to - from < 2) return text.slice(from, to);
+    let table = intern[column];
+    if (table === undefined) {
+      table = new Map<number, string>();
+      intern[column] = table;
+    }
+    const known = table.get(hash);
+    if (known !== undefined && known.length === to - from && text.startsWith(known, from)) return known;
+    const made = text.slice(from, to);
+    if (known === undefined && table.size < INTERN_LIMIT) table.set(hash, made);
+    return made;
+  };
+  for (;;) {
+    const values: string[] = [];
+    let start = at;
+    let column = 0;
+    let hash = 0;
+    let blank = true;
+    let i = at;
+    for (; i < end; i++) {
+      const c = text.charCodeAt(i);
+      if (c === d) {
+        values.push(field(column, start, i, hash));
+        column += 1;
+        start = i + 1;
+        hash = 0;
+      } else if (c === nl0 && (!pair || text.charCodeAt(i + 1) === 10)) break;
+      else {
+        hash = (Math.imul(hash, 31) + c) | 0;
+        if (blank && !isTrimmedSpace(c)) blank = false;
+      }
+    }
+    values.push(field(column, start, i, hash));
+    out.push({ row, values, blank });
+    row += 1;
+    if (i >= end) break;
+    at = i + newline.length;
+  }
+  return out;
+}
+
 export interface CsvOptions extends ReadOptions {
   /** Called once with the delimiter found, before the first row is yielded. */
   onDelimiter?: (delimiter: Delimiter) => void;
@@ -128,13 +290,22 @@ export async function* readCsvRows(path: string, options: CsvOptions = {}): Asyn
 /** As readCsvRows, the rows of each piece of the file together (one await per piece, not per row). */
 export async function* readCsvBatches(path: string, options: CsvOptions = {}): AsyncGenerator<SheetRow[]> {
   const file = options.displayPath ?? path;
-  const stream = createReadStream(path, {
-    encoding: 'utf8',
-    ...(options.chunkSize !== undefined ? { highWaterMark: Math.max(1, options.chunkSize) } : {}),
-  });
+  const stream = createReadStream(path, { highWaterMark: options.chunkSize !== undefined ? Math.max(1, options.chunkSize) : READ_SIZE });
+  // Raw bytes through one streaming decoder: a character split between two reads is carried over, and bytes that are
+  // not UTF-8 stop the read (the BOM is kept here and dropped below, once).
+  const decoder = new TextDecoder('utf-8', { fatal: true, ignoreBOM: true });
+  const decode = async (bytes: Buffer | undefined): Promise<string> => {
+    try {
+      return bytes === undefined ? decoder.decode() : decoder.decode(bytes, { stream: true });
+    } catch (e) {
+      if (!(e instanceof TypeError)) throw e;
+      throw await notUtf8(path, file);
+    }
+  };
   let parser: Papa.Parser | undefined;
   let dialect: { delimiter: Delimiter; newline: Newline } | undefined;
   let pending = '';
+  const intern: InternTables = [];
   let first = true;
   let row = 0;
 
@@ -163,12 +334,30 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
   }
 
   try {
-    for await (const chunk of stream as AsyncIterable<string>) {
-      let text = chunk;
+    for await (const bytes of stream as AsyncIterable<Buffer>) {
+      let text = await decode(bytes);
       if (first) {
         if (text.length === 0) continue;
         if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
         first = false;
+      }
+      // Fastest path: the unfinished line carried over is finished by this piece's first line, and the rest of the
+      // piece is split where it lies, without joining it to the carried text (a joined string is slower to scan).
+      if (dialect !== undefined && pending.indexOf('"') < 0 && text.indexOf('"') < 0) {
+        const nl = dialect.newline;
+        const firstNl = text.indexOf(nl);
+        const straddles = nl.length === 2 && text.charCodeAt(0) === 10 && pending.charCodeAt(pending.length - 1) === 13;
+        if (firstNl >= 0 && !straddles && pending.indexOf(nl) < 0) {
+          const keep = options.select?.keep;
+          const head = pending + text.slice(0, firstNl);
+          const rows = splitPlainRows(head, 0, head.length, nl, dialect.delimiter, keep, row + 1, intern);
+          const last = text.lastIndexOf(nl);
+          if (last > firstNl) splitPlainRows(text, firstNl + nl.length, last, nl, dialect.delimiter, keep, row + 2, intern, rows);
+          row += rows.length;
+          pending = text.slice(last + nl.length);
+          yield rows;
+          continue;
+        }
       }
       pending += text;
       if (parser === undefined) {
@@ -184,9 +373,10 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
         const nl = dialect!.newline;
         const last = pending.lastIndexOf(nl);
         if (last < 0) continue;
-        const records = splitPlain(pending, last, nl, dialect!.delimiter);
+        const rows = splitPlainRows(pending, 0, last, nl, dialect!.delimiter, options.select?.keep, row + 1, intern);
+        row += rows.length;
         pending = pending.slice(last + nl.length);
-        yield* emit(records);
+        yield rows;
         continue;
       }
       const result = parser.parse(pending, 0, true) as Papa.ParseResult<string[]>;
@@ -194,6 +384,8 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
       pending = pending.slice(result.meta.cursor);
       yield* emit(result.data);
     }
+    const tail = await decode(undefined);
+    if (tail !== '') pending += first && tail.charCodeAt(0) === 0xfeff ? tail.slice(1) : tail;
     if (pending !== '') {
       if (parser === undefined) {
         const found = sniff(pending, true)!;
@@ -202,7 +394,9 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
         dialect = found;
       }
       if (pending.indexOf('"') < 0) {
-        yield* emit([pending.split(dialect!.delimiter)]);
+        const rows = splitPlainRows(pending, 0, pending.length, dialect!.newline, dialect!.delimiter, options.select?.keep, row + 1, intern);
+        row += rows.length;
+        yield rows;
         return;
       }
       const result = parser.parse(pending, 0, false) as Papa.ParseResult<string[]>;

@@ -27,8 +27,8 @@ import { readCsvBatches } from './csv.js';
 import type { Delimiter } from './csv.js';
 import { openXlsxSheet } from './xlsx.js';
 import { sha256File } from './hash.js';
-import { isBlankRow } from './rows.js';
-import type { SheetRow } from './rows.js';
+import { isBlankRow, rowIsBlank } from './rows.js';
+import type { ColumnSelection, SheetRow } from './rows.js';
 import { fixFor } from '../suggest.js';
 import { columnLetters } from './xlsx.js';
 import { kindMismatch, sniffKind } from './kind.js';
@@ -207,7 +207,9 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
   let rows: AsyncGenerator<SheetRow[]>;
   let close = (): void => {};
   const style: NumberStyle = { decimalComma: false };
-  const readOptions = { displayPath: file, ...(options.chunkSize !== undefined ? { chunkSize: options.chunkSize } : {}) };
+  // Filled in by respondentsCube once it knows the columns it reads: the readers then leave the others out.
+  const select: ColumnSelection = {};
+  const readOptions = { displayPath: file, select, ...(options.chunkSize !== undefined ? { chunkSize: options.chunkSize } : {}) };
   if (source.format === 'xlsx') {
     const opened = await openXlsxSheet(source.path, { ...readOptions, ...(source.sheet !== undefined ? { sheet: source.sheet } : {}) });
     sheet = opened.sheet;
@@ -267,7 +269,7 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
     const cube =
       source.shape === 'summary'
         ? await summaryCube(source, needed, body, header.row, names, column, where, style)
-        : await respondentsCube(source, needed, body, header.row, names, column, where);
+        : await respondentsCube(source, needed, body, header.row, names, column, where, select);
     return { ...common, sha256: await shaPromise, ...cube };
   } finally {
     await rows.return(undefined);
@@ -470,6 +472,7 @@ async function respondentsCube(
   names: string[],
   column: ColumnOf,
   where: Where,
+  select: ColumnSelection,
 ): Promise<CubeBody> {
   const questions = source.questions ?? [];
   if (questions.length === 0) {
@@ -491,6 +494,9 @@ async function respondentsCube(
     return i;
   });
   const dimensions = [...dimensionsWanted, qColName];
+  const keep = new Array<boolean>(names.length).fill(false);
+  for (const i of [...qIdx, ...dimIdx]) keep[i] = true;
+  select.keep = keep;
   const na = new Set(source.notApplicableCodes);
   const agreeCodes = new Set(source.agreeCodes);
   const maxCode = Math.max(5, ...source.agreeCodes);
@@ -512,7 +518,7 @@ async function respondentsCube(
   let rows = 0;
   for await (const batch of body) for (const r of batch) {
     const rv = r.values;
-    if (isBlankRow(rv)) continue;
+    if (rowIsBlank(r)) continue;
     rows += 1;
     let group: Leaf | undefined;
     for (let k = 0; k < nq; k++) {

@@ -8,6 +8,21 @@ export interface SheetRow {
   row: number;
   /** Cell texts, left to right; missing cells are empty strings. */
   values: string[];
+  /**
+   * Set by a reader that knows it: true when every cell of the row is blank. A reader told to leave columns out
+   * (`ReadOptions.select`) sets it from the whole row, so that a row with text only in a column left out is still a
+   * row. When absent, use `isBlankRow(values)`.
+   */
+  blank?: boolean;
+}
+
+/**
+ * Which columns a reader should hand over. `keep` is filled in by the consumer once it has read the header row (the
+ * reader looks at it for each later piece of the file): cells of columns not kept read as empty strings and are never
+ * made into strings. Until then, and when `keep` is left undefined, every cell is read.
+ */
+export interface ColumnSelection {
+  keep?: readonly boolean[];
 }
 
 export interface ReadOptions {
@@ -15,9 +30,27 @@ export interface ReadOptions {
   chunkSize?: number;
   /** The file as the user wrote it, for messages. Defaults to the path. */
   displayPath?: string;
+  /** Columns to hand over (see ColumnSelection); all when absent. */
+  select?: ColumnSelection;
 }
 
 /** True when every value is blank (empty or whitespace only). */
 export function isBlankRow(values: readonly string[]): boolean {
   return values.every((v) => v.trim() === '');
+}
+
+/** True when the row is blank: the reader's `blank` when it set one, else from the values. */
+export function rowIsBlank(r: SheetRow): boolean {
+  return r.blank ?? isBlankRow(r.values);
+}
+
+/**
+ * True for the characters String.prototype.trim removes (ECMAScript 2023 §22.1.3.32: WhiteSpace and LineTerminator):
+ * tab, line feed, vertical tab, form feed, carriage return, space, no-break space, the Unicode space separators
+ * (category Zs), line and paragraph separators, and the byte-order mark.
+ */
+export function isTrimmedSpace(c: number): boolean {
+  if (c <= 32) return c === 32 || (c >= 9 && c <= 13);
+  if (c < 0xa0) return false;
+  return c === 0xa0 || c === 0x1680 || (c >= 0x2000 && c <= 0x200a) || c === 0x2028 || c === 0x2029 || c === 0x202f || c === 0x205f || c === 0x3000 || c === 0xfeff;
 }
