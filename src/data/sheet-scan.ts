@@ -342,13 +342,31 @@ export class SheetScanner {
     if (j + 4 >= n || s.charCodeAt(j + 1) !== LT || s.charCodeAt(j + 2) !== 118 || s.charCodeAt(j + 3) !== GT) return 0;
     const from = j + 4;
     let k = from;
+    let digits = true;
+    let whole = 0;
     for (; k < n; k++) {
       const ch = s.charCodeAt(k);
       if (ch === LT) break;
       if (ch === 38) return 0;
+      if (ch >= 48 && ch <= 57) whole = whole * 10 + (ch - 48);
+      else digits = false;
     }
     if (k + 8 > n || !s.startsWith('</v></c>', k)) return 0;
     if (col > 16383) return 0;
+    // The two commonest cells, a shared string and a whole number not shown as a date, straight into the row.
+    const len = k - from;
+    if (digits && len > 0 && len <= 9) {
+      let text: string | undefined;
+      if (type === 's') text = this.ctx.shared[whole];
+      else if (type === 'n' && !(style >= 0 && this.ctx.dateStyles[style] === true) && (s.charCodeAt(from) !== 48 || len === 1)) text = s.slice(from, k);
+      if (text !== undefined) {
+        this.col = col;
+        const values = this.values;
+        while (values.length < col) values.push('');
+        values[col] = text;
+        return k + 8;
+      }
+    }
     this.col = col;
     this.type = type;
     this.style = style;

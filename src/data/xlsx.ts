@@ -20,6 +20,8 @@
 import yauzl from 'yauzl';
 import type { Entry, ZipFile } from 'yauzl';
 import { SaxesParser } from 'saxes';
+import { createInflateRaw } from 'node:zlib';
+import { Transform, pipeline } from 'node:stream';
 import type { SaxesTagPlain } from 'saxes';
 import { InputError } from '../errors.js';
 import type { ReadOptions, SheetRow } from './rows.js';
@@ -146,6 +148,41 @@ function openEntry(zip: ZipFile, entry: Entry): Promise<NodeJS.ReadableStream & 
   return new Promise((resolve, reject) => {
     zip.openReadStream(entry, (err, stream) => (err ? reject(err) : resolve(stream)));
   });
+}
+
+/** Pieces of inflated sheet XML handed to the scanner: larger than zlib's 16 KiB default, fewer steps per sheet. */
+const INFLATE_CHUNK = 1 << 18;
+
+/**
+ * The sheet part's bytes. A deflated part (the usual case) is read raw from the zip and inflated here with larger
+ * pieces than yauzl's own inflater uses; its length is then checked against the size the zip's directory records,
+ * as yauzl would.
+ */
+async function openSheetEntry(zip: ZipFile, entry: Entry): Promise<NodeJS.ReadableStream & { destroy(): void }> {
+  if (entry.compressionMethod !== 8) return openEntry(zip, entry);
+  const raw = await new Promise<NodeJS.ReadableStream & { destroy(): void }>((resolve, reject) => {
+    zip.openReadStream(entry, { decompress: false }, (err, stream) => (err ? reject(err) : resolve(stream)));
+  });
+  const inflate = createInflateRaw({ chunkSize: INFLATE_CHUNK });
+  let size = 0;
+  const expected = entry.uncompressedSize;
+  const checked = new Transform({
+    transform(piece: Buffer, _enc, done) {
+      size += piece.length;
+      if (size > expected) done(new Error(`too many bytes in the stream: more than the expected ${expected}`));
+      else done(null, piece);
+    },
+    flush(done) {
+      done(size === expected ? null : new Error(`not enough bytes in the stream: expected ${expected}, got ${size}`));
+    },
+  });
+  const out = pipeline(raw, inflate, checked, () => {});
+  const destroy = out.destroy.bind(out);
+  out.destroy = (e?: Error) => {
+    raw.destroy();
+    return destroy(e);
+  };
+  return out;
 }
 
 /**
@@ -429,7 +466,7 @@ async function* sheetRows(
   close: () => void,
 ): AsyncGenerator<SheetRow[]> {
   try {
-    const stream = await openEntry(zip, entry);
+    const stream = await openSheetEntry(zip, entry);
     try {
       const decoder = new TextDecoder('utf-8');
       const scanner = new SheetScanner(ctx);
