@@ -31,7 +31,7 @@ import { InputError } from './errors.js';
 import { packFingerprint, sha256Hex } from './history/fingerprint.js';
 import { listPacks, latestPack, openPack, packFolderName, storePack, today, type StoredPack, type WriteHooks } from './history/store.js';
 import { diffPacks, type PackDiff } from './history/diff.js';
-import { changeSection, editedNotice, folderDay } from './history/words.js';
+import { changeSection, editedNotice, folderDay, sinceName } from './history/words.js';
 
 export interface BuildOptions {
   claimsPath: string;
@@ -291,8 +291,7 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
     if (day !== undefined) notices.push(editedNotice(day));
     const change = diff?.verdicts.find((v) => v.id === c.section.id);
     if (change && diff) {
-      const since = folderDay(diff.before.folder) ?? diff.before.date;
-      notices.push(`Verdict changed since the pack of ${since}: it was "${templates.render(`verdict.${change.before}`, {})}" (${change.reasons.join(', ')}).`);
+      notices.push(`Verdict changed since ${sinceName(diff)}: it was "${templates.render(`verdict.${change.before}`, {})}" (${change.reasons.join(', ')}).`);
     }
     return notices.length > 0 ? { ...c.section, notices } : c.section;
   });

@@ -53,11 +53,28 @@ export function changeNotes(d: PackDiff): string[] {
 }
 
 /** The pack's change section. */
+/**
+ * What the earlier pack is called in "What changed since ...": its data date when that differs from this pack's
+ * (a new release), else the day it was built (a corrected file in the same release).
+ */
+export function sinceName(d: PackDiff): string {
+  if (d.before.date !== d.after.date && d.before.date !== 'undated') return longDate(d.before.date);
+  const day = folderDay(d.before.folder);
+  return day !== undefined ? `the pack built on ${day}` : longDate(d.before.date);
+}
+
+function longDate(date: string): string {
+  const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(date);
+  if (!m) return date;
+  return new Date(Date.UTC(Number(m[1]), Number(m[2]) - 1, Number(m[3]))).toLocaleDateString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' });
+}
+
 export function changeSection(d: PackDiff, t: Templates): ChangeSection {
-  const since = folderDay(d.before.folder) ?? d.before.date;
+  const since = sinceName(d);
+  const built = folderDay(d.before.folder);
   const changed = d.verdicts.length;
   const intro =
-    `This pack is compared with the pack built on ${since} from the same claims file (data dated ${d.before.date}). ` +
+    `This pack is compared with the earlier pack of the same claims file${built ? ` built on ${built}` : ''} (data dated ${d.before.date}). ` +
     (changed === 0 ? 'No verdict changed.' : `${changed} ${changed === 1 ? 'verdict' : 'verdicts'} changed.`) +
     ' Different people answer each survey, so a changed verdict may reflect a different group of respondents as much as a real change.';
   return {

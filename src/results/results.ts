@@ -106,7 +106,13 @@ export function claimResult(a: Analysis, decision: Decision, section: ClaimSecti
   if (extra.focus && extra.against) rates.push(extra.focus as RateSummary, extra.against as RateSummary);
   else if (Array.isArray(extra.selections)) rates.push(...(extra.selections as RateSummary[]));
   const points = Array.isArray(extra.points) ? (extra.points as ClaimResult['units']) : [];
-  const difference = extra.difference as { interval?: Interval } | undefined;
+  // Where a kind reports a difference (two rates, a rate against a fixed value), the estimate and the interval in
+  // results.json are both the difference's, so that they always describe the same quantity.
+  const difference = extra.difference as { value?: number; interval?: Interval } | undefined;
+  const estimate =
+    difference && typeof difference.value === 'number' && difference.interval
+      ? { name: a.test?.estimate.name && /difference/i.test(a.test.estimate.name) ? a.test.estimate.name : 'difference from the comparison value', value: difference.value }
+      : a.test?.estimate ?? null;
   return {
     id: a.claim.id,
     statement: a.claim.statement,
@@ -114,6 +120,7 @@ export function claimResult(a: Analysis, decision: Decision, section: ClaimSecti
     source: a.claim.source,
     fingerprint: claimFingerprint(written),
     ...testFields(a.test),
+    estimate,
     methods: a.methods,
     hypotheses: section.hypotheses,
     confidence: a.claim.confidence,

@@ -58,6 +58,7 @@ export function composeClaim(a: Analysis, decision: Decision, ctx: ComposeContex
   section.hypotheses = { null: sentence(section.hypotheses.null), alternative: sentence(section.hypotheses.alternative) };
   section.verdictText = sentence(section.verdictText);
   section.cautions = section.cautions.map(sentence);
+  section.numbers = section.numbers.map((row) => ({ ...row, label: sentence(row.label) }));
   const verdictLabel = ctx.templates.render(`verdict.${decision.verdict}`, {});
   const head = { id: a.claim.id, statement: a.claim.statement, verdict: decision.verdict, verdictLabel };
   return { section: { ...head, ...built.section }, summary: { ...head, keyFigure: built.key } };

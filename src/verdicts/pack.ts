@@ -47,7 +47,8 @@ export function composePack(input: {
   };
   const glossary = templates.renderLines('glossary', view).map((line) => {
     const at = line.indexOf(':');
-    return { term: line.slice(0, at).trim(), text: line.slice(at + 1).trim() };
+    const text = line.slice(at + 1).trim();
+    return { term: line.slice(0, at).trim(), text: text.length > 0 ? text[0]!.toUpperCase() + text.slice(1) : text };
   });
   return {
     title: claims.title,

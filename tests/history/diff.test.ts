@@ -74,10 +74,18 @@ describe('diffPacks', () => {
     expect(d.moved).toEqual([{ id: 'a', name: 'difference in proportions', before: -0.06, after: -0.01, beforeInterval: [-0.09, -0.03] }]);
     const t = new Templates();
     const section = changeSection(d, t);
-    expect(section.heading).toBe('What changed since 4 March 2025');
+    expect(section.heading).toBe('What changed since 3 March 2025');
     expect(section.verdicts[0]).toEqual({ claim: 'Statement a (a)', before: 'Supported', after: 'Not supported', why: 'new data' });
     expect(section.notes.some((n) => n.includes('moved from \u22126.0 points to \u22121.0 points'))).toBe(true);
     expect(diffText(d, t)).toContain('a: Supported -> Not supported (new data)');
+  });
+
+  it('names the earlier pack by its data date, or by its build day when the data date is the same (a corrected file)', () => {
+    const t = new Templates();
+    const newRelease = diffPacks(pack([claim('a')]), pack([claim('a')], { date: '2026-03-03' }), { before: '2025-03-04-aaaaaaaaaaaa' });
+    expect(changeSection(newRelease, t).heading).toBe('What changed since 3 March 2025');
+    const corrected = diffPacks(pack([claim('a')]), pack([claim('a')]), { before: '2025-03-04-aaaaaaaaaaaa' });
+    expect(changeSection(corrected, t).heading).toBe('What changed since the pack built on 4 March 2025');
   });
 
   it('explains a verdict change by an edited claim and by changed thresholds', () => {

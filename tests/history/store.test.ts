@@ -42,7 +42,7 @@ describe('pack history', () => {
     expect(third.files.folder).not.toBe(first.files.folder);
     expect(readdirSync(out).filter((n) => /^\d{4}/.test(n))).toHaveLength(2);
     expect(third.diff?.verdicts).toEqual([]);
-    expect(third.model.changes?.heading).toBe('What changed since 4 March 2026');
+    expect(third.model.changes?.heading).toBe('What changed since 3 March 2026');
     expect(readlinkSync(join(out, 'latest'))).toBe(third.files.folder.split('/').pop());
   });
 

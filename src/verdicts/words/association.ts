@@ -76,7 +76,6 @@ export function composeAssociation(a: AssociationAnalysis, decision: Decision, c
   if (a.suppressedUnits.length > 0) {
     cautions.push(t.render('caution.suppressed-units', { ...view, count: a.suppressedUnits.length, names: a.suppressedUnits.join(', ') }));
   }
-  if (ctx.adjusted) cautions.push(t.render('caution.not-adjusted-interval', view));
   const chart: Chart = {
     data: {
       kind: 'scatter',

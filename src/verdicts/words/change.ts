@@ -57,7 +57,6 @@ export function composeChange(a: ChangeAnalysis, decision: Decision, ctx: Compos
   if (a.responseRate !== undefined && a.responseRate < 0.5) cautions.push(t.render('caution.response-rate', { rate: fmt.percent(a.responseRate) }));
   if (a.later.approximate || a.earlier.approximate) cautions.push(t.render('caution.rounded', {}));
   if (a.methods.includes('fisher-exact-2x2')) cautions.push(t.render('caution.fisher', {}));
-  if (ctx.adjusted) cautions.push(t.render('caution.not-adjusted-interval', view));
   const chart: Chart = {
     data: {
       kind: 'rates',

@@ -63,7 +63,6 @@ export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: Comp
   if (a.responseRate !== undefined && a.responseRate < 0.5) cautions.push(t.render('caution.response-rate', { rate: fmt.percent(a.responseRate) }));
   if (a.focus.approximate || a.against.approximate) cautions.push(t.render('caution.rounded', {}));
   if (a.methods.includes('fisher-exact-2x2')) cautions.push(t.render('caution.fisher', {}));
-  if (ctx.adjusted) cautions.push(t.render('caution.not-adjusted-interval', view));
   const chart: Chart = {
     data: {
       kind: 'rates',

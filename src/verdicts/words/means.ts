@@ -74,7 +74,6 @@ export function composeMeans(a: MeansAnalysis, decision: Decision, ctx: ComposeC
   for (const m of [a.focus, a.against]) {
     if (m.n < 30) cautions.push(t.render('means.caution-small', meanView(m)));
   }
-  if (ctx.adjusted) cautions.push(t.render('caution.not-adjusted-interval', view));
   const chart: Chart = {
     data: {
       kind: 'means',

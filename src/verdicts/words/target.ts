@@ -61,7 +61,6 @@ export function composeTarget(a: TargetAnalysis, decision: Decision, ctx: Compos
   if (a.responseRate !== undefined && a.responseRate < 0.5) cautions.push(t.render('caution.response-rate', { rate: fmt.percent(a.responseRate) }));
   if (a.rate.approximate) cautions.push(t.render('caution.rounded', {}));
   if (exact) cautions.push(t.render('target.caution-exact', view));
-  if (ctx.adjusted) cautions.push(t.render('caution.not-adjusted-interval', view));
   const chart: Chart = {
     data: {
       kind: 'rates',

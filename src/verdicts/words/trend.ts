@@ -56,7 +56,6 @@ export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeC
   }
   if (a.responseRate !== undefined && a.responseRate < 0.5) cautions.push(t.render('caution.response-rate', { rate: fmt.percent(a.responseRate) }));
   if (rates.some((r) => r.approximate)) cautions.push(t.render('caution.rounded', {}));
-  if (ctx.adjusted) cautions.push(t.render('caution.not-adjusted-interval', view));
   const chart: Chart = {
     data: {
       kind: 'periods',
