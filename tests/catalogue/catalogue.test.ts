@@ -444,6 +444,28 @@ const builds: Built[] = [
     ]),
   },
   {
+    what: 'formula cells: their cached results, never evaluated',
+    folder: 'data-formula-cached',
+    // From make-bad.mjs: Hanes has =25*2 cached as 50 and =B2-20 cached as 30; "Łacina" is a formula's cached text.
+    check: (r) => expect(selections(r)).toEqual([
+      ['Hanes', 50, 30],
+      ['Łacina', 20, 5],
+    ]),
+  },
+  {
+    what: 'rich text joined, the hidden first sheet passed over, the first visible of several sheets read',
+    folder: 'data-rich-text-sheets',
+    // From make-bad.mjs: sheet "Results 2026" holds "Ła" + bold "cina" (20, 5) and Hanes (50, 30): 2 rows, where
+    // the hidden sheet "Old" and the sheet "Notes" hold 1 each. (The pack does not name the sheet it read.)
+    check: (r) => {
+      expect(r.sources[0]?.rows).toBe(2);
+      expect(selections(r)).toEqual([
+        ['Hanes', 50, 30],
+        ['Łacina', 20, 5],
+      ]);
+    },
+  },
+  {
     what: 'a hidden sheet chosen by name',
     folder: 'data-hidden-sheet-by-name',
     // Worked by hand: Hanes 50 + 52 answered, 30 + 31 agreed; Łacina 40 + 41 and 20 + 19 (2025 and 2026 pooled).
