@@ -42,14 +42,16 @@ export async function notUtf8(path: string, file: string): Promise<InputError> {
 const CP1252_HIGH = '€\u0081‚ƒ„…†‡ˆ‰Š‹Œ\u008DŽ\u008F\u0090‘’“”•–—˜™š›œ\u009DžŸ';
 
 /**
- * The first byte that does not begin or continue a well-formed UTF-8 sequence (Unicode 15, §3.9, Table 3-7: no
- * overlong forms, no surrogates, nothing above U+10FFFF), with its 1-based line (counting line feeds, or carriage
- * returns when there is no line feed before it); undefined when the whole file is well formed.
+ * The first byte (its offset in the file, and its value) that begins no well-formed UTF-8 sequence, or begins one that
+ * is cut short (Unicode 15, §3.9, Table 3-7: no overlong forms, no surrogates, nothing above U+10FFFF), with its
+ * 1-based line (counting line feeds, or carriage returns when there are none); undefined when the file is well formed.
  */
-export async function firstInvalidUtf8(path: string): Promise<{ line: number; byte: number; asWindows1252: string | undefined } | undefined> {
+export async function firstInvalidUtf8(path: string): Promise<{ offset: number; line: number; byte: number; asWindows1252: string | undefined } | undefined> {
   let lf = 0;
   let cr = 0;
-  const at = (byte: number) => ({ line: (lf > 0 ? lf : cr) + 1, byte, asWindows1252: windows1252(byte) });
+  let base = 0; // offset of the current chunk in the file
+  let startAt = 0; // offset of the byte that began the open sequence
+  const at = (offset: number, byte: number) => ({ offset, line: (lf > 0 ? lf : cr) + 1, byte, asWindows1252: windows1252(byte) });
   let need = 0; // continuation bytes still expected
   let lo = 0x80;
   let hi = 0xbf;
@@ -64,7 +66,7 @@ export async function firstInvalidUtf8(path: string): Promise<{ line: number; by
           hi = 0xbf;
           continue;
         }
-        return at(start);
+        return at(startAt, start);
       }
       if (b < 0x80) {
         if (b === 10) lf += 1;
@@ -72,6 +74,7 @@ export async function firstInvalidUtf8(path: string): Promise<{ line: number; by
         continue;
       }
       start = b;
+      startAt = base + i;
       if (b >= 0xc2 && b <= 0xdf) need = 1;
       else if (b >= 0xe0 && b <= 0xef) {
         need = 2;
@@ -81,10 +84,11 @@ export async function firstInvalidUtf8(path: string): Promise<{ line: number; by
         need = 3;
         if (b === 0xf0) lo = 0x90;
         if (b === 0xf4) hi = 0x8f;
-      } else return at(b);
+      } else return at(base + i, b);
     }
+    base += chunk.length;
   }
-  return need > 0 ? at(start) : undefined;
+  return need > 0 ? at(startAt, start) : undefined;
 }
 
 function windows1252(b: number): string | undefined {
