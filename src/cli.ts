@@ -5,6 +5,7 @@
  */
 import yargs from 'yargs';
 import { InputError, isInputError } from './errors.js';
+import { closest } from './suggest.js';
 
 const EXIT_INPUT = 2;
 const EXIT_BUG = 70;
@@ -109,6 +110,14 @@ const COMMANDS: Record<string, string> = {
 };
 
 /** A mistake in the command line itself (unknown option, missing argument), as one paragraph with its fix. */
+/** The long options of each command, for "did you mean" (keep in step with the declarations in main). */
+const OPTIONS: Record<string, string[]> = {
+  build: ['out', 'date', 'data', 'since', 'templates', 'json', 'quiet', 'debug', 'help'],
+  check: ['json', 'debug', 'help'],
+  init: ['sheet', 'out', 'force', 'debug', 'help'],
+  diff: ['json', 'debug', 'help'],
+};
+
 function usageError(msg: string | undefined, argv: string[]): InputError {
   const command = argv.find((a) => !a.startsWith('-'));
   const needs = command !== undefined ? COMMANDS[command] : undefined;
@@ -116,7 +125,32 @@ function usageError(msg: string | undefined, argv: string[]): InputError {
   let text = (msg ?? 'the command line could not be read').trim().replace(/\.$/, '');
   // yargs says "Not enough non-option arguments: got 0, need at least 1"; say what is missing instead.
   if (needs !== undefined && /^Not enough non-option arguments/.test(text)) text = `warrant ${command} needs ${needs}`;
-  return new InputError({ file: 'command line', problem: text, fix: `Run "${help}" to see the ${help === 'warrant --help' ? 'commands and options' : 'arguments and options'}` });
+  const unknown = /^Unknown arguments?: (.+)$/.exec(text)?.[1]?.split(', ')[0];
+  if (command !== undefined && needs === undefined && unknown === command) {
+    const near = closest(command, Object.keys(COMMANDS));
+    return new InputError({
+      file: 'command line',
+      found: command,
+      problem: 'warrant has no command with this name',
+      fix: `${near !== undefined ? `Did you mean warrant ${near}? ` : ''}The commands are ${Object.keys(COMMANDS).join(', ')}; run "warrant --help" to see what each does`,
+    });
+  }
+  const fix = `Run "${help}" to see the ${help === 'warrant --help' ? 'commands and options' : 'arguments and options'}`;
+  // An unknown option, often a slip for a known one (--templtes, --ouy): name it as typed, and the one meant.
+  const typed = unknown !== undefined ? argv.find((a) => a.replace(/=.*$/, '') === `--${unknown}` || a.replace(/=.*$/, '') === `-${unknown}`) : undefined;
+  if (typed !== undefined && needs !== undefined) {
+    const meant = closest(unknown!, OPTIONS[command!] ?? []);
+    return new InputError({
+      file: 'command line',
+      found: typed.replace(/=.*$/, ''),
+      problem: `warrant ${command} has no option with this name`,
+      fix: meant !== undefined ? `Did you mean --${meant}? ${fix}` : fix,
+    });
+  }
+  if (unknown !== undefined && needs !== undefined) {
+    return new InputError({ file: 'command line', found: unknown, problem: `this argument is more than warrant ${command} takes`, fix: `It takes ${needs}; put quotes around a path with spaces in it, and start each option with --` });
+  }
+  return new InputError({ file: 'command line', problem: text, fix });
 }
 
 export async function main(argv: string[]): Promise<number> {

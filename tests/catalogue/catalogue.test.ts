@@ -352,7 +352,20 @@ const failures: Case[] = [
     what: 'an unknown option',
     folder: 'command-line',
     argv: withBuild('--colour'),
-    message: 'command line: Unknown argument: colour. Fix: Run "warrant build --help" to see the arguments and options.',
+    message: 'command line: warrant build has no option with this name (found "--colour"). Fix: Run "warrant build --help" to see the arguments and options.',
+  },
+  {
+    what: 'a misspelt option, with the one meant',
+    folder: 'command-line',
+    argv: withBuild('--templtes', 'my-words'),
+    message: 'command line: warrant build has no option with this name (found "--templtes"). Fix: Did you mean --templates? Run "warrant build --help" to see the arguments and options.',
+  },
+  {
+    what: 'an argument too many (a path with a space, unquoted)',
+    folder: 'command-line',
+    argv: ['build', 'claims', 'file.yaml', '--out', 'out'],
+    message:
+      'command line: this argument is more than warrant build takes (found "file.yaml"). Fix: It takes the claims file: warrant build <claims.yaml>; put quotes around a path with spaces in it, and start each option with --.',
   },
   {
     what: 'build without a claims file',
@@ -361,10 +374,10 @@ const failures: Case[] = [
     message: 'command line: warrant build needs the claims file: warrant build <claims.yaml>. Fix: Run "warrant build --help" to see the arguments and options.',
   },
   {
-    what: 'an unknown command',
+    what: 'a misspelt command, with the one meant',
     folder: 'command-line',
-    argv: ['frobnicate'],
-    message: 'command line: Unknown argument: frobnicate. Fix: Run "warrant --help" to see the commands and options.',
+    argv: ['biuld', 'claims.yaml'],
+    message: 'command line: warrant has no command with this name (found "biuld"). Fix: Did you mean warrant build? The commands are build, check, init, diff; run "warrant --help" to see what each does.',
   },
   {
     what: 'warrant diff on folders that are not packs',
