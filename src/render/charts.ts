@@ -526,9 +526,20 @@ async function loadLibs(): Promise<{ vega: VegaModule; vl: VegaLiteModule }> {
       // Vega without a canvas guesses 0.8 em per character; measure with the embedded faces instead.
       const metrics = (vega as unknown as { textMetrics: { width: (item: VegaTextItem, text: unknown) => number } })
         .textMetrics;
+      // Widths are asked for again and again (each label at each layout pass, in each chart): remember them.
+      const widths = new Map<string, number>();
       metrics.width = (item: VegaTextItem, text: unknown): number => {
         const s = text == null ? '' : String(text).trim();
-        return textWidth(s, item.fontSize ?? 11, faceFor(item.fontWeight, item.fontStyle));
+        const size = item.fontSize ?? 11;
+        const face = faceFor(item.fontWeight, item.fontStyle);
+        const key = `${String(face)}\u0000${size}\u0000${s}`;
+        let w = widths.get(key);
+        if (w === undefined) {
+          w = textWidth(s, size, face);
+          if (widths.size >= WIDTHS_KEPT) widths.clear();
+          widths.set(key, w);
+        }
+        return w;
       };
       metricsInstalled = true;
     }
@@ -568,8 +579,28 @@ export async function compileChart(
   return { vegaSpec: result.spec, warnings };
 }
 
-/** The chart as an SVG string, rendered headless (no canvas). */
-export async function chartSvg(data: ChartData, options: ChartSizeOptions = {}): Promise<string> {
+/** Text widths remembered before the table is emptied. */
+const WIDTHS_KEPT = 20_000;
+/** SVGs remembered: the pack and the chart files beside it draw each chart with the same data and size. */
+const SVGS_KEPT = 512;
+const svgs = new Map<string, Promise<string>>();
+
+/**
+ * The chart as an SVG string, rendered headless (no canvas). Pure, so a chart already drawn with the same data and
+ * size is handed back from memory rather than compiled and rendered again.
+ */
+export function chartSvg(data: ChartData, options: ChartSizeOptions = {}): Promise<string> {
+  const key = JSON.stringify([data, options]);
+  const known = svgs.get(key);
+  if (known !== undefined) return known;
+  const made = renderChartSvg(data, options);
+  if (svgs.size >= SVGS_KEPT) svgs.delete(svgs.keys().next().value as string);
+  svgs.set(key, made);
+  made.catch(() => svgs.delete(key));
+  return made;
+}
+
+async function renderChartSvg(data: ChartData, options: ChartSizeOptions): Promise<string> {
   const { vega } = await loadLibs();
   const { vegaSpec, warnings } = await compileChart(data, options);
   if (warnings.length > 0) throw new Error(`Chart spec has Vega-Lite warnings: ${warnings.join('; ')}`);
