@@ -222,6 +222,11 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
   const version = await toolVersion();
 
   // 1. claims
+  // An earlier pack named with --since must exist: checked before any work is done.
+  const since = options.since !== undefined ? openPack(resolve(cwd, options.since)) : undefined;
+  if (options.since !== undefined && !since) {
+    throw new InputError({ file: options.since, field: '--since', problem: 'no pack was found there (a pack folder holds results.json)', fix: 'give a pack folder, its results.json, or a history folder with a latest pack' });
+  }
   say('Reading the claims file');
   let claims = await readClaims(claimsPath, claimsDisplay);
   if (options.data) claims = overrideSources(claims, options.data, cwd);
@@ -279,10 +284,7 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
 
   // 6. history: what changed since the previous pack, and claims edited after their results were seen
   const name = packFolderName(today(options.now), fingerprint);
-  const previous = options.since !== undefined ? openPack(resolve(cwd, options.since)) : latestPack(root);
-  if (options.since !== undefined && !previous) {
-    throw new InputError({ file: options.since, field: '--since', problem: 'no pack was found there (a pack folder holds results.json)', fix: 'give a pack folder, its results.json, or a history folder with a latest pack' });
-  }
+  const previous = since ?? latestPack(root);
   const diff = previous && previous.name !== name ? diffPacks(previous.results, results, { before: previous.name, after: name }) : undefined;
   const edited = editedSince(listPacks(root), results, name);
   const sections = composed.map((c) => {
