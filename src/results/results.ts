@@ -65,7 +65,7 @@ export interface ResultsFile {
   date: string;
   claimsFile: { file: string; sha256: string };
   settings: { confidence: number; adjust: string; minRespondents: number };
-  sources: Array<{ id: string; file: string; shape: string; sha256: string; rows: number }>;
+  sources: Array<{ id: string; file: string; sheet?: string; shape: string; sha256: string; rows: number }>;
   claims: ClaimResult[];
 }
 
@@ -160,7 +160,8 @@ export function resultsFile(input: {
     settings: { confidence: claims.confidence, adjust: claims.adjust, minRespondents: claims.minRespondents },
     sources: input.cubes.map((c) => {
       const spec = claims.sources.find((s) => s.id === c.sourceId);
-      return { id: c.sourceId, file: c.file, shape: spec?.shape ?? 'summary', sha256: c.sha256, rows: c.rows };
+      const sheet = spec?.sheet ?? c.sheet;
+      return { id: c.sourceId, file: c.file, ...(sheet ? { sheet } : {}), shape: spec?.shape ?? 'summary', sha256: c.sha256, rows: c.rows };
     }),
     claims: input.results,
   };

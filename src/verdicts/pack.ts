@@ -63,7 +63,8 @@ export function composePack(input: {
     sources: input.cubes.map((c) => {
       const spec = claims.sources.find((s) => s.id === c.sourceId);
       const shape = spec?.shape === 'respondents' ? 'one row per respondent' : 'summary counts per group';
-      return { id: c.sourceId, file: c.file, description: `${shape}${spec?.sheet ? `, sheet "${spec.sheet}"` : ''}`, rows: c.rows, sha256: c.sha256 };
+      const sheet = spec?.sheet ?? c.sheet;
+      return { id: c.sourceId, file: c.file, description: `${shape}${sheet ? `, sheet "${sheet}"` : ''}`, rows: c.rows, sha256: c.sha256 };
     }),
     summaryIntro: templates.render('summary.intro', view),
     summary: input.summary,
