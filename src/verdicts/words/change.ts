@@ -4,7 +4,7 @@ import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, pView, rateView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, differenceView, pView, rateRow, rateView, twoRateTestName, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 /** Where-filters other than the period column, as a phrase ("Tarnmoor, Q09"). */
 export function scopeOf(a: { claim: { where: ChangeAnalysis['claim']['where'] }; periodColumn: string }): string {
@@ -24,27 +24,28 @@ export function composeChange(a: ChangeAnalysis, decision: Decision, ctx: Compos
     return tooLittle(a, decision, ctx, compared, hypotheses);
   }
   const d = a.difference;
+  const dv = differenceView(d, a.observedSign);
   const view: View = {
     ...periods,
     later: rateView(a.later),
     earlier: rateView(a.earlier),
     level: fmt.level(claim.confidence),
-    change: fmt.points(d.value, { sign: true }),
-    changeLower: fmt.points(d.interval.lower, { sign: true }),
-    changeUpper: fmt.points(d.interval.upper, { sign: true }),
-    size: fmt.pointsSize(d.value),
-    sizeLower: fmt.pointsSize(a.observedSign < 0 ? d.interval.upper : d.interval.lower),
-    sizeUpper: fmt.pointsSize(a.observedSign < 0 ? d.interval.lower : d.interval.upper),
+    change: dv.signed,
+    changeLower: dv.signedLower,
+    changeUpper: dv.signedUpper,
+    size: dv.size,
+    sizeLower: dv.sizeLower,
+    sizeUpper: dv.sizeUpper,
     observedVerb: d.value < 0 ? 'fell' : 'rose',
     detectable: a.detectable !== undefined ? fmt.pointsSize(a.detectable) : '',
-    testName: a.methods.includes('fisher-exact-2x2') ? "Fisher's exact test" : 'Pooled two-proportion z test',
+    testName: twoRateTestName(a.methods),
     fpc: a.methods.includes('wilson-fpc'),
     adjustName: ctx.adjustName,
     ...pView(decision, ctx),
   };
   const numbers: NumberRow[] = [
-    { label: a.periods.to, value: `${fmt.percent(a.later.rate)} agreed of ${fmt.count(a.later.n)} (interval ${fmt.percent(a.later.interval.lower)} to ${fmt.percent(a.later.interval.upper)})` },
-    { label: a.periods.from, value: `${fmt.percent(a.earlier.rate)} agreed of ${fmt.count(a.earlier.n)} (interval ${fmt.percent(a.earlier.interval.lower)} to ${fmt.percent(a.earlier.interval.upper)})` },
+    rateRow(a.later, a.periods.to),
+    rateRow(a.earlier, a.periods.from),
     { label: 'Change', value: `${view.change} points (interval ${view.changeLower} to ${view.changeUpper})` },
     ...commonRows(a, decision, ctx),
     { label: "Effect size (Cohen's h)", value: fmt.coefficient(a.cohensH ?? NaN) },

@@ -89,3 +89,27 @@ export function plural(units: string): string {
   return `${lower}s`;
 }
 
+/** A rate's row in the numbers table: "61% agreed of 840 (interval 58% to 64%)". */
+export function rateRow(r: RateSummary, label: string = r.label): NumberRow {
+  return { label, value: `${fmt.percent(r.rate)} agreed of ${fmt.count(r.n)} (interval ${fmt.percent(r.interval.lower)} to ${fmt.percent(r.interval.upper)})` };
+}
+
+/**
+ * A difference in points with its interval, for templates: signed ("−6.2", interval "−9.1" to "−3.3") and as a size
+ * ("6.2", interval "3.3" to "9.1": the bounds swapped for a negative difference so that they read low to high).
+ */
+export function differenceView(d: { value: number; interval: { lower: number; upper: number } }, observedSign: number) {
+  return {
+    signed: fmt.points(d.value, { sign: true }),
+    signedLower: fmt.points(d.interval.lower, { sign: true }),
+    signedUpper: fmt.points(d.interval.upper, { sign: true }),
+    size: fmt.pointsSize(d.value),
+    sizeLower: fmt.pointsSize(observedSign < 0 ? d.interval.upper : d.interval.lower),
+    sizeUpper: fmt.pointsSize(observedSign < 0 ? d.interval.lower : d.interval.upper),
+  };
+}
+
+/** The test used for two rates, in words. */
+export function twoRateTestName(methods: string[]): string {
+  return methods.includes('fisher-exact-2x2') ? "Fisher's exact test" : 'Pooled two-proportion z test';
+}

@@ -5,7 +5,7 @@ import { filterLabel } from '../../analyse/labels.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, pView, rateView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, differenceView, pView, rateRow, rateView, scopeText, tooLittle, twoRateTestName, type ComposeContext, type Composed } from './common.js';
 
 export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
@@ -21,6 +21,7 @@ export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: Comp
     return tooLittle(a, decision, ctx, compared, hypotheses);
   }
   const d = a.difference;
+  const dv = differenceView(d, a.observedSign);
   const view: View = {
     focus: rateView(a.focus),
     against: rateView(a.against),
@@ -28,22 +29,22 @@ export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: Comp
     expectWord,
     oneSided,
     level: fmt.level(claim.confidence),
-    diff: fmt.points(d.value, { sign: true }),
-    diffLower: fmt.points(d.interval.lower, { sign: true }),
-    diffUpper: fmt.points(d.interval.upper, { sign: true }),
-    gap: fmt.pointsSize(d.value),
-    gapLower: fmt.pointsSize(a.observedSign < 0 ? d.interval.upper : d.interval.lower),
-    gapUpper: fmt.pointsSize(a.observedSign < 0 ? d.interval.lower : d.interval.upper),
+    diff: dv.signed,
+    diffLower: dv.signedLower,
+    diffUpper: dv.signedUpper,
+    gap: dv.size,
+    gapLower: dv.sizeLower,
+    gapUpper: dv.sizeUpper,
     diffWord: d.value < 0 ? 'lower' : 'higher',
     detectable: a.detectable !== undefined ? fmt.pointsSize(a.detectable) : '',
-    testName: a.methods.includes('fisher-exact-2x2') ? "Fisher's exact test" : 'Pooled two-proportion z test',
+    testName: twoRateTestName(a.methods),
     fpc: a.methods.includes('wilson-fpc'),
     adjustName: ctx.adjustName,
     ...pView(decision, ctx),
   };
   const numbers: NumberRow[] = [
-    { label: `${a.focus.label}`, value: `${fmt.percent(a.focus.rate)} agreed of ${fmt.count(a.focus.n)} (interval ${fmt.percent(a.focus.interval.lower)} to ${fmt.percent(a.focus.interval.upper)})` },
-    { label: `${a.against.label}`, value: `${fmt.percent(a.against.rate)} agreed of ${fmt.count(a.against.n)} (interval ${fmt.percent(a.against.interval.lower)} to ${fmt.percent(a.against.interval.upper)})` },
+    rateRow(a.focus),
+    rateRow(a.against),
     { label: 'Difference', value: `${view.diff} points (interval ${view.diffLower} to ${view.diffUpper})` },
     ...commonRows(a, decision, ctx),
     { label: "Effect size (Cohen's h)", value: fmt.coefficient(a.cohensH ?? NaN) },

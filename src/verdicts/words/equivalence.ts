@@ -5,7 +5,7 @@ import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, pView, rateView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, pView, rateRow, rateView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 export function composeEquivalence(a: EquivalenceAnalysis, decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
@@ -38,8 +38,8 @@ export function composeEquivalence(a: EquivalenceAnalysis, decision: Decision, c
     ...pView(decision, ctx),
   };
   const numbers: NumberRow[] = [
-    { label: a.focus.label, value: `${fmt.percent(a.focus.rate)} agreed of ${fmt.count(a.focus.n)} (interval ${fmt.percent(a.focus.interval.lower)} to ${fmt.percent(a.focus.interval.upper)})` },
-    { label: a.against.label, value: `${fmt.percent(a.against.rate)} agreed of ${fmt.count(a.against.n)} (interval ${fmt.percent(a.against.interval.lower)} to ${fmt.percent(a.against.interval.upper)})` },
+    rateRow(a.focus),
+    rateRow(a.against),
     { label: 'Difference', value: `${view.diff} points (${view.level} interval ${view.diffLower} to ${view.diffUpper})` },
     { label: 'Margin', value: `±${margin} points` },
     { label: `Interval set against the margin (${view.tostLevel})`, value: `${view.tostLower} to ${view.tostUpper} points` },

@@ -5,7 +5,7 @@ import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, pView, rateView, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, differenceView, pView, rateRow, rateView, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 /** True when the fixed value's label says it is a benchmark from elsewhere rather than a target set locally. */
 function isBenchmark(label: string | undefined): boolean {
@@ -28,17 +28,18 @@ export function composeTarget(a: TargetAnalysis, decision: Decision, ctx: Compos
     return tooLittle(a, decision, ctx, `${label} against ${valueLabel}.`, hypotheses);
   }
   const d = a.difference;
+  const dv = differenceView(d, a.observedSign);
   const exact = a.methods.includes('binomial-exact');
   const view: View = {
     ...head,
     rate: rateView(a.rate),
     level: fmt.level(claim.confidence),
-    gap: fmt.points(d.value, { sign: true }),
-    gapLower: fmt.points(d.interval.lower, { sign: true }),
-    gapUpper: fmt.points(d.interval.upper, { sign: true }),
-    size: fmt.pointsSize(d.value),
-    sizeLower: fmt.pointsSize(a.observedSign < 0 ? d.interval.upper : d.interval.lower),
-    sizeUpper: fmt.pointsSize(a.observedSign < 0 ? d.interval.lower : d.interval.upper),
+    gap: dv.signed,
+    gapLower: dv.signedLower,
+    gapUpper: dv.signedUpper,
+    size: dv.size,
+    sizeLower: dv.sizeLower,
+    sizeUpper: dv.sizeUpper,
     observedWord: d.value < 0 ? 'below' : 'above',
     detectable: a.detectable !== undefined ? fmt.pointsSize(a.detectable) : '',
     testName: exact ? 'Exact binomial test against the fixed value' : 'Score test against the fixed value',
@@ -47,7 +48,7 @@ export function composeTarget(a: TargetAnalysis, decision: Decision, ctx: Compos
     ...pView(decision, ctx),
   };
   const numbers: NumberRow[] = [
-    { label: a.rate.label, value: `${fmt.percent(a.rate.rate)} agreed of ${fmt.count(a.rate.n)} (interval ${fmt.percent(a.rate.interval.lower)} to ${fmt.percent(a.rate.interval.upper)})` },
+    rateRow(a.rate),
     ...(a.exactInterval
       ? [{ label: 'Exact interval for the rate (Clopper–Pearson)', value: `${fmt.percent(a.exactInterval.lower)} to ${fmt.percent(a.exactInterval.upper)}${a.rate.population !== undefined ? ', without the finite-population correction' : ''}` }]
       : []),

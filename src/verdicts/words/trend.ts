@@ -5,7 +5,7 @@ import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
 import { scopeOf } from './change.js';
-import { commonRows, pView, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, pView, rateRow, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
@@ -44,7 +44,7 @@ export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeC
     ...pView(decision, ctx),
   };
   const numbers: NumberRow[] = [
-    ...rates.map((r) => ({ label: r.label, value: `${fmt.percent(r.rate)} agreed of ${fmt.count(r.n)} (interval ${fmt.percent(r.interval.lower)} to ${fmt.percent(r.interval.upper)})` })),
+    ...rates.map((r) => rateRow(r)),
     { label: 'Fitted change per period', value: `${view.slope} points` },
     { label: `Fitted rate, ${first} to ${last}`, value: `${view.fittedFirst} to ${view.fittedLast} (${view.fittedChange} points)` },
     ...commonRows(a, decision, ctx),
