@@ -17,8 +17,8 @@ function mulberry32(seed) {
   };
 }
 
-const DEPARTMENTS = Array.from({ length: 40 }, (_, i) => ['Hanes', 'Cerddoriaeth', 'Łacina', 'Gŵyddoniaeth', 'Naïve Studies', 'Mathemateg', 'Ffiseg', 'Szkoła Łąkowa'][i % 8] + ` ${Math.floor(i / 8) + 1}`);
-const CAMPUSES = ['Central', 'Tŷ Gwyn', 'North', 'Riverside', 'Łąka'];
+export const DEPARTMENTS = Array.from({ length: 40 }, (_, i) => ['Hanes', 'Cerddoriaeth', 'Łacina', 'Gŵyddoniaeth', 'Naïve Studies', 'Mathemateg', 'Ffiseg', 'Szkoła Łąkowa'][i % 8] + ` ${Math.floor(i / 8) + 1}`);
+export const CAMPUSES = ['Central', 'Tŷ Gwyn', 'North', 'Riverside', 'Łąka'];
 const YEARS = ['2024', '2025', '2026'];
 export const HEADER = ['ID', 'Department', 'Campus', 'Year', 'Q01', 'Q02', 'Q03', 'Q04', 'Q05', 'Q06', 'Q07', 'Q08'];
 export const QUESTIONS = HEADER.slice(4);

@@ -10,7 +10,7 @@
  * delimiter, so a title line above the header is passed over), counting delimiters outside quotes. A byte-order mark is dropped.
  */
 import { createReadStream } from 'node:fs';
-import Papa from 'papaparse';
+import type Papa from 'papaparse';
 import { InputError } from '../errors.js';
 import { isTrimmedSpace } from './rows.js';
 import type { ReadOptions, SheetRow } from './rows.js';
@@ -306,7 +306,15 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
       throw await notUtf8(path, file);
     }
   };
+  // papaparse is loaded only when a piece of the file has a quote (the one-pass splitter reads the rest).
+  let papa: typeof Papa | undefined;
   let parser: Papa.Parser | undefined;
+  let dialectSet = false;
+  const quotedParser = async (): Promise<Papa.Parser> => {
+    papa ??= (await import('papaparse')).default;
+    parser ??= new papa.Parser(dialect!);
+    return parser;
+  };
   let dialect: { delimiter: Delimiter; newline: Newline } | undefined;
   let pending = '';
   const intern: InternTables = [];
@@ -364,12 +372,12 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
         }
       }
       pending += text;
-      if (parser === undefined) {
+      if (!dialectSet) {
         const found = sniff(pending, pending.length >= PEEK_LIMIT);
         if (found === undefined) continue;
         options.onDelimiter?.(found.delimiter);
-        parser = new Papa.Parser(found);
         dialect = found;
+        dialectSet = true;
       }
       // Fast path: text with no double quote at all is split on the newline and the delimiter, records exactly as
       // papaparse would return them (tests compare the two); the last, maybe unfinished, line is carried over.
@@ -383,7 +391,7 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
         yield rows;
         continue;
       }
-      const result = parser.parse(pending, 0, true) as Papa.ParseResult<string[]>;
+      const result = (await quotedParser()).parse(pending, 0, true) as Papa.ParseResult<string[]>;
       checkErrors(result.errors, result.data.length);
       pending = pending.slice(result.meta.cursor);
       yield* emit(result.data);
@@ -391,11 +399,11 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
     const tail = await decode(undefined);
     if (tail !== '') pending += first && tail.charCodeAt(0) === 0xfeff ? tail.slice(1) : tail;
     if (pending !== '') {
-      if (parser === undefined) {
+      if (!dialectSet) {
         const found = sniff(pending, true)!;
         options.onDelimiter?.(found.delimiter);
-        parser = new Papa.Parser(found);
         dialect = found;
+        dialectSet = true;
       }
       if (pending.indexOf('"') < 0) {
         const rows = splitPlainRows(pending, 0, pending.length, dialect!.newline, dialect!.delimiter, options.select?.keep, row + 1, intern);
@@ -403,7 +411,7 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
         yield rows;
         return;
       }
-      const result = parser.parse(pending, 0, false) as Papa.ParseResult<string[]>;
+      const result = (await quotedParser()).parse(pending, 0, false) as Papa.ParseResult<string[]>;
       checkErrors(result.errors, Number.POSITIVE_INFINITY);
       yield* emit(result.data);
     }

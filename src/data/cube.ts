@@ -25,12 +25,10 @@ import type { SourceSpec } from '../claims/types.js';
 import type { Cell, Cube } from './types.js';
 import { readCsvBatches } from './csv.js';
 import type { Delimiter } from './csv.js';
-import { openXlsxSheet } from './xlsx.js';
 import { sha256File } from './hash.js';
 import { isBlankRow, rowIsBlank } from './rows.js';
 import type { ColumnSelection, SheetRow } from './rows.js';
 import { fixFor } from '../suggest.js';
-import { columnLetters } from './xlsx.js';
 import { kindMismatch, sniffKind } from './kind.js';
 
 /** How many row problems are gathered before reading stops. */
@@ -203,6 +201,7 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
     throw mismatch;
   }
   let sheet: string | undefined;
+  let columnLetters = (i: number): string => String(i + 1);
   let otherSheets: string[] = [];
   let rows: AsyncGenerator<SheetRow[]>;
   let close = (): void => {};
@@ -211,7 +210,10 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
   const select: ColumnSelection = {};
   const readOptions = { displayPath: file, select, ...(options.chunkSize !== undefined ? { chunkSize: options.chunkSize } : {}) };
   if (source.format === 'xlsx') {
-    const opened = await openXlsxSheet(source.path, { ...readOptions, ...(source.sheet !== undefined ? { sheet: source.sheet } : {}) });
+    // Loaded here, not at start-up: the zip and XML libraries are needed only for workbooks.
+    const xlsx = await import('./xlsx.js');
+    columnLetters = xlsx.columnLetters;
+    const opened = await xlsx.openXlsxSheet(source.path, { ...readOptions, ...(source.sheet !== undefined ? { sheet: source.sheet } : {}) });
     sheet = opened.sheet;
     // Read by default (no sheet named): the other sheets, named when a column is missing, as the data may be there.
     if (source.sheet === undefined) otherSheets = opened.sheets.filter((s) => s.name !== opened.sheet).map((s) => `"${s.name}"${s.hidden ? ' (hidden)' : ''}`);
