@@ -26,7 +26,8 @@ import { minDetectableCorrelation } from '../stats/power-correlation.js';
 import type { CompareContext } from './compare.js';
 import type { AssociationAnalysis, UnitPoint } from './types.js';
 import { sign } from './labels.js';
-import { measureValue, poolUnits, requireMeasure } from './measures.js';
+import { measureValue, requireMeasure } from './measures.js';
+import { poolByUnit } from '../data/select.js';
 import { shortfall } from './thresholds.js';
 
 /** Fewest units for which r, its t test and the Fisher-z interval (n - 3 > 0) can all be computed. */
@@ -59,9 +60,9 @@ export function analyseAssociation(claim: AssociationClaim, cube: Cube, ctx: Com
       fix: 'remove weighted: true (every unit then counts once), or remove the controls',
     });
   }
-  const xs = poolUnits(cube, { ...claim.where, ...claim.x }, claim.units);
-  const ys = poolUnits(cube, { ...claim.where, ...claim.y }, claim.units);
-  const zs = controls.map((c) => poolUnits(cube, { ...claim.where, ...c.filter }, claim.units));
+  const xs = poolByUnit(cube, { ...claim.where, ...claim.x }, claim.units);
+  const ys = poolByUnit(cube, { ...claim.where, ...claim.y }, claim.units);
+  const zs = controls.map((c) => poolByUnit(cube, { ...claim.where, ...c.filter }, claim.units));
   const expectSign = claim.expect === 'positive' ? 1 : claim.expect === 'negative' ? -1 : 0;
   const points: UnitPoint[] = [];
   const suppressedUnits: string[] = [];

@@ -20,7 +20,7 @@ import { fisherExact2x2 } from '../stats/fisher-exact-2x2.js';
 import { FisherTooLargeError, fisherExactRxc } from '../stats/fisher-exact-rxc.js';
 import type { TestResult } from '../stats/result.js';
 import type { CompareContext } from './compare.js';
-import { cellsByValue, poolWithMeasures } from './measures.js';
+import { cellsByUnit, poolCells } from '../data/select.js';
 import { shortfall } from './thresholds.js';
 import type { CrosstabAnalysis } from './types.js';
 
@@ -33,15 +33,15 @@ export interface CrosstabOptions {
 }
 
 export function analyseCrosstab(claim: CrosstabClaim, cube: Cube, _ctx: CompareContext, options: CrosstabOptions = {}): CrosstabAnalysis {
-  const byRow = cellsByValue(cube, claim.where, claim.rows);
+  const byRow = cellsByUnit(cube, claim.where, claim.rows);
   const agreement = claim.columns === 'agreement';
   const columnLabels = agreement ? ['agreeing', 'not agreeing'] : [...(cube.values[claim.columns] ?? [])];
-  if (!agreement) cellsByValue(cube, claim.where, claim.columns); // checks the column exists
+  if (!agreement) cellsByUnit(cube, claim.where, claim.columns); // checks the column exists
   const rowLabels: string[] = [];
   const counts: number[][] = [];
   const suppressedRows: string[] = [];
   for (const [row, cells] of byRow) {
-    const pooled = poolWithMeasures(cells, cube.hasPopulation);
+    const pooled = poolCells(cube, cells);
     if (pooled.n <= 0 || shortfall(claim, [{ label: row, pooled }]) !== undefined) {
       suppressedRows.push(row);
       continue;

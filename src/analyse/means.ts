@@ -16,7 +16,7 @@
  */
 import type { MeansClaim } from '../claims/types.js';
 import type { Cell, Cube, Pooled } from '../data/types.js';
-import { matches, relate } from '../data/select.js';
+import { matches, poolCells, relate } from '../data/select.js';
 import { InputError } from '../errors.js';
 import { tQuantile } from '../stats/distributions/t.js';
 import { mannWhitneyCounts } from '../stats/mann-whitney-counts.js';
@@ -26,7 +26,7 @@ import { summaryFromCounts } from '../stats/summary-counts.js';
 import { welchT } from '../stats/welch-t.js';
 import type { CompareContext } from './compare.js';
 import { filterLabel, sign } from './labels.js';
-import { codeRange, poolWithMeasures } from './measures.js';
+import { codeRange } from './measures.js';
 import { shortfall } from './thresholds.js';
 import type { MeanSummary, MeansAnalysis } from './types.js';
 
@@ -87,8 +87,8 @@ export function analyseMeans(claim: MeansClaim, cube: Cube, ctx: CompareContext)
     focusCells = without(fCells, aCells);
     focusLabel = `the rest of ${focusLabel}`;
   }
-  const fp: Pooled = poolWithMeasures(focusCells, cube.hasPopulation);
-  const ap: Pooled = poolWithMeasures(againstCells, cube.hasPopulation);
+  const fp: Pooled = poolCells(cube, focusCells);
+  const ap: Pooled = poolCells(cube, againstCells);
   const expectSign = claim.expect === 'lower' ? -1 : claim.expect === 'higher' ? 1 : 0;
   const base = { kind: 'means' as const, claim, relation: related.relation, expectSign: expectSign as 1 | -1 | 0, methods: [] as string[] };
   const tooLittle = (why: string): MeansAnalysis => ({ ...base, status: 'too-little-data', shortfall: why, observedSign: 0 });

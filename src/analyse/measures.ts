@@ -1,70 +1,10 @@
 /**
- * Measures of a selection beyond the pooled agreement rate: answer-code counts (for mean scores and ranks) and
- * numeric columns (respondent-weighted means), pooled over the cells a filter matches. Used by the means and
- * association kinds and by crosstab's per-row counts.
+ * Measures of a selection beyond the pooled agreement rate: mean scores from answer-code counts and numeric columns
+ * (respondent-weighted means), from counts pooled by src/data/select.ts. Used by the means and association kinds.
  */
 import type { Filter, Measure } from '../claims/types.js';
-import type { Cell, Cube, Pooled } from '../data/types.js';
-import { checkFilter, matches } from '../data/select.js';
+import type { Cube, Pooled } from '../data/types.js';
 import { InputError } from '../errors.js';
-
-/** Counts, answer codes and numeric sums added up over cells. */
-export function poolWithMeasures(cells: Iterable<Cell>, withPopulation: boolean): Pooled {
-  let n = 0;
-  let agree = 0;
-  let population = 0;
-  let approximate = false;
-  let count = 0;
-  let codes: Record<string, number> | undefined;
-  let numeric: Record<string, { weightedSum: number; weight: number }> | undefined;
-  for (const c of cells) {
-    n += c.n;
-    agree += c.agree;
-    population += c.population ?? 0;
-    approximate ||= c.approximate;
-    count += 1;
-    if (c.codes) {
-      codes ??= {};
-      for (const [k, v] of Object.entries(c.codes)) codes[k] = (codes[k] ?? 0) + v;
-    }
-    if (c.numeric) {
-      numeric ??= {};
-      for (const [k, v] of Object.entries(c.numeric)) {
-        const have = numeric[k] ?? { weightedSum: 0, weight: 0 };
-        numeric[k] = { weightedSum: have.weightedSum + v.weightedSum, weight: have.weight + v.weight };
-      }
-    }
-  }
-  const pooled: Pooled = { n, agree, approximate, cells: count };
-  if (withPopulation) pooled.population = population;
-  if (codes) pooled.codes = codes;
-  if (numeric) pooled.numeric = numeric;
-  return pooled;
-}
-
-/** Cells matched by the filter, grouped by their value of `column`, in the order of the column's values in the data. */
-export function cellsByValue(cube: Cube, filter: Filter, column: string): Map<string, Cell[]> {
-  checkFilter(cube, filter);
-  checkFilter(cube, { [column]: [] });
-  const groups = new Map<string, Cell[]>();
-  for (const v of cube.values[column] ?? []) groups.set(v, []);
-  for (const c of cube.cells) {
-    if (!matches(c, filter)) continue;
-    const v = c.dims[column] ?? '';
-    const list = groups.get(v);
-    if (list === undefined) groups.set(v, [c]);
-    else list.push(c);
-  }
-  for (const [v, list] of groups) if (list.length === 0) groups.delete(v);
-  return groups;
-}
-
-/** Pooled counts per value of `column` (units), with answer codes and numeric sums. */
-export function poolUnits(cube: Cube, filter: Filter, column: string): Map<string, Pooled> {
-  const out = new Map<string, Pooled>();
-  for (const [v, cells] of cellsByValue(cube, filter, column)) out.set(v, poolWithMeasures(cells, cube.hasPopulation));
-  return out;
-}
 
 /** Lowest and highest answer code anywhere in the cube, or undefined when the cube holds no answer codes. */
 export function codeRange(cube: Cube): [number, number] | undefined {

@@ -58,13 +58,18 @@ export function checkFilter(cube: Cube, filter: Filter): void {
  * summed too, and are present whenever the cube has them, even for an empty selection, so that a measure can tell
  * "no answers" from "not a respondent-level source".
  */
-function poolCells(cube: Cube, cells: Iterable<Cell>): Pooled {
+/**
+ * Counts, answer codes and numeric sums added up over the given cells of a cube. Answer codes are present when the
+ * cube says it has them or any cell carries them (so an empty selection of a respondent-level source still says it
+ * has codes); numeric sums likewise, one entry per numeric column.
+ */
+export function poolCells(cube: Cube, cells: Iterable<Cell>): Pooled {
   let n = 0;
   let agree = 0;
   let population = 0;
   let approximate = false;
   let count = 0;
-  const codes: Record<string, number> | undefined = cube.hasCodes === true ? {} : undefined;
+  let codes: Record<string, number> | undefined = cube.hasCodes === true ? {} : undefined;
   let numeric: Record<string, { weightedSum: number; weight: number }> | undefined;
   if (cube.numericColumns !== undefined && cube.numericColumns.length > 0) {
     numeric = {};
@@ -76,10 +81,12 @@ function poolCells(cube: Cube, cells: Iterable<Cell>): Pooled {
     population += c.population ?? 0;
     approximate ||= c.approximate;
     count += 1;
-    if (codes !== undefined && c.codes !== undefined) {
+    if (c.codes !== undefined) {
+      codes ??= {};
       for (const [code, k] of Object.entries(c.codes)) codes[code] = (codes[code] ?? 0) + k;
     }
-    if (numeric !== undefined && c.numeric !== undefined) {
+    if (c.numeric !== undefined) {
+      numeric ??= {};
       for (const [col, v] of Object.entries(c.numeric)) {
         const sum = (numeric[col] ??= { weightedSum: 0, weight: 0 });
         sum.weightedSum += v.weightedSum;
@@ -108,6 +115,13 @@ export function pool(cube: Cube, filter: Filter): Pooled {
  * data. Units with no matching cell are left out.
  */
 export function poolByUnit(cube: Cube, filter: Filter, unitColumn: string): Map<string, Pooled> {
+  const out = new Map<string, Pooled>();
+  for (const [u, cells] of cellsByUnit(cube, filter, unitColumn)) out.set(u, poolCells(cube, cells));
+  return out;
+}
+
+/** The cells the filter matches, grouped by their value of `unitColumn`, in the order of the column's values. */
+export function cellsByUnit(cube: Cube, filter: Filter, unitColumn: string): Map<string, Cell[]> {
   checkFilter(cube, filter);
   checkFilter(cube, { [unitColumn]: [] });
   const groups = new Map<string, Cell[]>();
@@ -119,9 +133,8 @@ export function poolByUnit(cube: Cube, filter: Filter, unitColumn: string): Map<
     if (list === undefined) groups.set(u, [c]);
     else list.push(c);
   }
-  const out = new Map<string, Pooled>();
-  for (const [u, cells] of groups) if (cells.length > 0) out.set(u, poolCells(cube, cells));
-  return out;
+  for (const [u, cells] of groups) if (cells.length === 0) groups.delete(u);
+  return groups;
 }
 
 export type Relation = 'separate' | 'focus-inside' | 'against-inside' | 'overlap' | 'same';
