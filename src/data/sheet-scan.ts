@@ -35,6 +35,14 @@ const QUESTION = 63; // ?
 const DQUOTE = 34;
 const SQUOTE = 39;
 
+/** Whole numbers below this are written from a table of their texts, not made anew for each cell. */
+const SMALL_NUMBERS = 10_000;
+let smallTexts: string[] | undefined;
+function smallNumber(x: number): string {
+  smallTexts ??= Array.from({ length: SMALL_NUMBERS }, (_, i) => String(i));
+  return smallTexts[x]!;
+}
+
 const ENTITIES: Record<string, string> = { amp: '&', lt: '<', gt: '>', quot: '"', apos: "'" };
 
 /** Replace the predefined entities and character references in text; anything else is damage. */
@@ -188,6 +196,143 @@ export class SheetScanner {
 
   constructor(private readonly ctx: ScanContext) {}
 
+  /** True between rows with nothing carried over: `feedBytes` may take over from here. */
+  idle(): boolean {
+    return this.pending.length === 0 && !this.inRow && !this.inCell && this.collect === 0 && !this.inInline && this.phonetic === 0;
+  }
+
+  /**
+   * Read whole rows straight from the sheet's bytes, from `from` while the scanner is idle, as long as each row is
+   * written in the plainest form: `<row` with attributes in double quotes, then only cells as `plainCell` reads them
+   * whose value is a shared string index or a whole number not shown as a date, then `</row>`, with nothing else
+   * between (no spaces, no other element). Bytes are compared as ASCII; any byte outside it, or anything else at all,
+   * stops the fast read at the start of that row. Returns where it stopped (the caller decodes the rest as text and
+   * hands it to `feed`); the rows read are handed out with the next `feed` or `takeRows`.
+   */
+  feedBytes(b: Uint8Array, from: number, end: number): number {
+    let p = from;
+    const shared = this.ctx.shared;
+    const dateStyles = this.ctx.dateStyles;
+    for (;;) {
+      if (p + 6 > end || b[p] !== LT || b[p + 1] !== 114 || b[p + 2] !== 111 || b[p + 3] !== 119) return p;
+      let q = p + 4;
+      let rowNumber = -1;
+      // The row's attributes: only r matters (as `open` reads it); the others are passed over.
+      for (;;) {
+        if (q >= end) return p;
+        const c = b[q]!;
+        if (c === GT) {
+          q += 1;
+          break;
+        }
+        if (c !== 32) return p;
+        q += 1;
+        const nameFrom = q;
+        while (q < end && b[q]! > 32 && b[q] !== 61 && b[q] !== GT && b[q] !== SLASH && b[q]! < 128) q++;
+        if (q + 1 >= end || q === nameFrom || b[q] !== 61 || b[q + 1] !== DQUOTE) return p;
+        const vFrom = q + 2;
+        let v = vFrom;
+        let digits = true;
+        let x = 0;
+        for (; v < end; v++) {
+          const ch = b[v]!;
+          if (ch === DQUOTE) break;
+          if (ch === 38 || ch === LT || ch >= 128) return p;
+          if (ch >= 48 && ch <= 57) x = x * 10 + (ch - 48);
+          else digits = false;
+        }
+        if (v >= end) return p;
+        if (q - nameFrom === 1 && b[nameFrom] === 114) rowNumber = digits && v - vFrom >= 1 && v - vFrom <= 9 ? x : -1;
+        q = v + 1;
+      }
+      // The cells, then '</row>'.
+      const values: string[] = [];
+      let col = -1;
+      for (;;) {
+        if (q + 6 > end || b[q] !== LT) return p;
+        if (b[q + 1] === SLASH) {
+          if (b[q + 2] !== 114 || b[q + 3] !== 111 || b[q + 4] !== 119 || b[q + 5] !== GT) return p;
+          q += 6;
+          break;
+        }
+        if (b[q + 1] !== 99 || b[q + 2] !== 32) return p;
+        let j = q + 3;
+        let next = col + 1;
+        let isShared = false;
+        let style = -1;
+        for (;;) {
+          if (j + 4 >= end) return p;
+          const name = b[j]!;
+          if (name === GT) break;
+          if (b[j + 1] !== 61 || b[j + 2] !== DQUOTE) return p;
+          const vFrom = j + 3;
+          let v = vFrom;
+          while (v < end && b[v] !== DQUOTE) v++;
+          if (v >= end) return p;
+          if (name === 114) {
+            let k = vFrom;
+            let c = 0;
+            for (; k < v && k - vFrom < 4; k++) {
+              let ch = b[k]!;
+              if (ch >= 97 && ch <= 122) ch -= 32;
+              if (ch < 65 || ch > 90) break;
+              c = c * 26 + (ch - 64);
+            }
+            if (k - vFrom === 0 || k - vFrom > 3 || k === v) return p;
+            for (; k < v; k++) if (b[k]! < 48 || b[k]! > 57) return p;
+            next = c - 1;
+          } else if (name === 116) {
+            if (v - vFrom !== 1) return p;
+            if (b[vFrom] === 115) isShared = true;
+            else if (b[vFrom] !== 110) return p;
+          } else if (name === 115) {
+            if (v - vFrom < 1 || v - vFrom > 6) return p;
+            let x = 0;
+            for (let k = vFrom; k < v; k++) {
+              const ch = b[k]!;
+              if (ch < 48 || ch > 57) return p;
+              x = x * 10 + (ch - 48);
+            }
+            style = x;
+          } else return p;
+          j = v + 1;
+          if (b[j] !== 32 && b[j] !== GT) return p;
+          if (b[j] === 32) j += 1;
+        }
+        // j at the cell tag's '>': then '<v>', digits, '</v></c>'.
+        if (j + 4 >= end || b[j + 1] !== LT || b[j + 2] !== 118 || b[j + 3] !== GT) return p;
+        const vFrom = j + 4;
+        let k = vFrom;
+        let x = 0;
+        for (; k < end; k++) {
+          const ch = b[k]!;
+          if (ch < 48 || ch > 57) break;
+          x = x * 10 + (ch - 48);
+        }
+        const len = k - vFrom;
+        if (len < 1 || len > 9 || k + 8 > end) return p;
+        if (b[k] !== LT || b[k + 1] !== SLASH || b[k + 2] !== 118 || b[k + 3] !== GT || b[k + 4] !== LT || b[k + 5] !== SLASH || b[k + 6] !== 99 || b[k + 7] !== GT) return p;
+        if (next > 16383) return p;
+        let text: string | undefined;
+        if (isShared) text = shared[x];
+        else if (!(style >= 0 && dateStyles[style] === true) && (b[vFrom] !== 48 || len === 1)) text = x < SMALL_NUMBERS ? smallNumber(x) : String(x);
+        if (text === undefined) return p;
+        while (values.length < next) values.push('');
+        values[next] = text;
+        col = next;
+        q = k + 8;
+      }
+      this.rowNumber = rowNumber >= 0 ? rowNumber : this.rowNumber + 1;
+      this.out.push({ row: this.rowNumber, values });
+      p = q;
+    }
+  }
+
+  /** Rows completed so far (by `feedBytes`), handed out once. */
+  takeRows(): SheetRow[] {
+    return this.out.splice(0);
+  }
+
   feed(text: string): SheetRow[] {
     this.pending = this.pending.length === 0 ? text : this.pending + text;
     this.scan(false);
@@ -295,8 +440,9 @@ export class SheetScanner {
       if (name === GT) break;
       if (s.charCodeAt(j + 1) !== 61 || s.charCodeAt(j + 2) !== DQUOTE) return 0; // name="
       const from = j + 3;
-      const close = s.indexOf('"', from);
-      if (close < 0) return 0;
+      let close = from;
+      while (close < n && s.charCodeAt(close) !== DQUOTE) close++;
+      if (close >= n) return 0;
       if (name === 114) {
         // r: column letters then row digits.
         let k = from;
@@ -351,7 +497,19 @@ export class SheetScanner {
       if (ch >= 48 && ch <= 57) whole = whole * 10 + (ch - 48);
       else digits = false;
     }
-    if (k + 8 > n || !s.startsWith('</v></c>', k)) return 0;
+    // '</v></c>', compared a character at a time (a call to startsWith costs more than the comparisons).
+    if (
+      k + 8 > n ||
+      s.charCodeAt(k + 1) !== SLASH ||
+      s.charCodeAt(k + 2) !== 118 ||
+      s.charCodeAt(k + 3) !== GT ||
+      s.charCodeAt(k + 4) !== LT ||
+      s.charCodeAt(k + 5) !== SLASH ||
+      s.charCodeAt(k + 6) !== 99 ||
+      s.charCodeAt(k + 7) !== GT
+    ) {
+      return 0;
+    }
     if (col > 16383) return 0;
     // The two commonest cells, a shared string and a whole number not shown as a date, straight into the row.
     const len = k - from;

@@ -470,10 +470,28 @@ async function* sheetRows(
     try {
       const decoder = new TextDecoder('utf-8');
       const scanner = new SheetScanner(ctx);
+      // Plain rows are read from the bytes (feedBytes); the rest is decoded and scanned as text. The decoder may only
+      // be passed by when it holds no part of a character: after an ASCII byte.
+      let decoderClean = true;
       for await (const raw of stream as AsyncIterable<Buffer>) {
         const step = chunkSize !== undefined && chunkSize > 0 ? chunkSize : raw.length;
         for (let at = 0; at < raw.length; at += step) {
-          const rows = scanner.feed(decoder.decode(raw.subarray(at, at + step), { stream: true }));
+          const piece = raw.subarray(at, at + step);
+          let from = 0;
+          if (!scanner.idle() || !decoderClean) {
+            // Finish the row under way as text, up to and including its '</row>', then go back to the bytes.
+            const close = piece.indexOf('</row>');
+            if (close >= 0) {
+              from = close + 6;
+              const rows = scanner.feed(decoder.decode(piece.subarray(0, from), { stream: true }));
+              decoderClean = true;
+              if (rows.length > 0) yield rows;
+            } else from = -1;
+          }
+          if (from >= 0 && scanner.idle()) from = scanner.feedBytes(piece, from, piece.length);
+          if (from < 0) from = 0;
+          const rows = from < piece.length ? scanner.feed(decoder.decode(piece.subarray(from), { stream: true })) : scanner.takeRows();
+          if (from < piece.length) decoderClean = piece[piece.length - 1]! < 0x80;
           if (rows.length > 0) yield rows;
         }
       }

@@ -4,8 +4,9 @@
 //   breaks inside quoted values, multi-byte text and every chunk size; with columns left out, the kept ones still
 //   match and each row's blank flag matches the whole row.
 // - The blank test agrees with the JavaScript engine's own String.prototype.trim on every UTF-16 code unit.
-// - XLSX: a sheet whose cells are all in the plain form the scanner reads in one step gives the values written, and
-//   the same rows as the same sheet written so that every cell takes the general path.
+// - XLSX: a sheet whose cells are in the plain forms the scanner reads in one step (from the bytes, or from the text)
+//   gives the values written, and the same rows as the same sheet written so that every cell takes the general path;
+//   inline strings with multi-byte text among them send some rows through the text path, at every chunk size.
 // - Non-UTF-8 CSV: the first bad byte, its offset and line agree with CPython's UTF-8 decoder (fixture
 //   tests/data/fixtures/utf8-invalid.json, written by utf8-invalid.py beside it), and readCube stops with an InputError
 //   naming the file, the row and the byte.
@@ -202,7 +203,7 @@ function workbook(sheet: string, strings: string[]): Buffer {
   });
 }
 
-type XCell = { kind: 's'; index: number } | { kind: 'n'; text: string; style: 0 | 1 } | { kind: 'date' } | { kind: 'b'; v: 0 | 1 } | { kind: 'str'; text: string };
+type XCell = { kind: 's'; index: number } | { kind: 'n'; text: string; style: 0 | 1 } | { kind: 'date' } | { kind: 'b'; v: 0 | 1 } | { kind: 'str'; text: string } | { kind: 'inl'; text: string };
 
 describe('XLSX scanner: plain cells against the general path', () => {
   const strings = ['Łąka', 'Gŵyr & Tŷ', ' padded ', '🌱', 'x<y'];
@@ -213,6 +214,7 @@ describe('XLSX scanner: plain cells against the general path', () => {
     fc.constant({ kind: 'date' as const }),
     fc.constantFrom<0 | 1>(0, 1).map((v) => ({ kind: 'b' as const, v })),
     fc.constantFrom('formula text', '12', 'Ż').map((text) => ({ kind: 'str' as const, text })),
+    fc.constantFrom('Łąka', 'Gŵyr 🌱', 'ab').map((text) => ({ kind: 'inl' as const, text })),
   );
   // The value a spreadsheet program shows, worked by hand: shared strings as stored; numbers in their shortest form
   // (2.5, 0.1, 1000 for 1e3, 7 for 007); serial 45717 with built-in format 14 is 2025-03-01; booleans TRUE/FALSE.
@@ -228,6 +230,7 @@ describe('XLSX scanner: plain cells against the general path', () => {
       case 'b':
         return c.v === 1 ? 'TRUE' : 'FALSE';
       case 'str':
+      case 'inl':
         return c.text;
     }
   };
@@ -246,6 +249,8 @@ describe('XLSX scanner: plain cells against the general path', () => {
         return `<c${a('r', ref)}${a('t', 'b')}><v>${c.v}</v></c>`;
       case 'str':
         return `<c${a('r', ref)}${a('t', 'str')}><f>A1</f><v>${c.text}</v></c>`;
+      case 'inl':
+        return `<c${a('r', ref)}${a('t', 'inlineStr')}><is><t>${c.text}</t></is></c>`;
     }
   };
 
@@ -254,7 +259,7 @@ describe('XLSX scanner: plain cells against the general path', () => {
       fc.asyncProperty(fc.array(fc.array(cellArb, { minLength: 1, maxLength: 6 }), { minLength: 1, maxLength: 8 }), fc.integer({ min: 1, max: 50 }), async (table, chunkSize) => {
         const sheet = (general: boolean) =>
           table
-            .map((r, i) => `<row r="${i + 1}">${r.map((c, j) => (c === null ? '' : cellXml(c, `${letters(j)}${i + 1}`, general))).join('')}</row>`)
+            .map((r, i) => `<row r="${i + 1}"${i % 2 === 1 ? ' spans="1:6" x14ac:dyDescent="0.25"' : ''}>${r.map((c, j) => (c === null ? '' : cellXml(c, `${letters(j)}${i + 1}`, general))).join('')}</row>`)
             .join('');
         const fast = await all(readXlsxRows(file('xlsx', workbook(sheet(false), strings)), { chunkSize }));
         const slow = await all(readXlsxRows(file('xlsx', workbook(sheet(true), strings)), { chunkSize }));
