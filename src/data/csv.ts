@@ -9,6 +9,7 @@
  * The delimiter (',' ';' or tab) and the line ending are taken from the header line (the first non-empty line with a
  * delimiter, so a title line above the header is passed over), counting delimiters outside quotes. A byte-order mark is dropped.
  */
+import { isUtf8 } from 'node:buffer';
 import { createReadStream } from 'node:fs';
 import type Papa from 'papaparse';
 import { InputError } from '../errors.js';
@@ -282,6 +283,92 @@ export function splitPlainRows(
   return out;
 }
 
+/** Per kept column, texts already made into strings, by a hash of their bytes (see InternTables). */
+export type ByteInternTables = Array<Map<number, { text: string; bytes: Uint8Array }> | undefined>;
+
+/** One-character strings for the ASCII bytes. */
+const ASCII = Array.from({ length: 128 }, (_, i) => String.fromCharCode(i));
+
+/**
+ * Rows of bytes[from, end), well-formed UTF-8 with no quote, where `end` is just past a line feed: as `splitPlainRows`
+ * would split the decoded text, with columns left out and the blank flag as there. Lines end at a line feed (for
+ * `crlf`, a carriage return then a line feed; a line feed alone stops the read there). Returns where it stopped: `end`,
+ * or the start of a line it leaves to the text path.
+ */
+export function splitByteRows(
+  b: Uint8Array,
+  from: number,
+  end: number,
+  crlf: boolean,
+  d: number,
+  keep: readonly boolean[],
+  firstRow: number,
+  intern: ByteInternTables,
+  out: SheetRow[],
+): number {
+  let row = firstRow;
+  let at = from;
+  const field = (column: number, s: number, e: number, hash: number): string => {
+    if (keep[column] !== true || e === s) return '';
+    if (e - s === 1 && b[s]! < 128) return ASCII[b[s]!]!;
+    let table = intern[column];
+    if (table === undefined) {
+      table = new Map();
+      intern[column] = table;
+    }
+    const known = table.get(hash);
+    if (known !== undefined && known.bytes.length === e - s) {
+      const kb = known.bytes;
+      let k = 0;
+      while (k < kb.length && kb[k] === b[s + k]) k++;
+      if (k === kb.length) return known.text;
+    }
+    const text = Buffer.from(b.buffer, b.byteOffset + s, e - s).toString('utf8');
+    if (known === undefined && table.size < INTERN_LIMIT) table.set(hash, { text, bytes: Uint8Array.prototype.slice.call(b, s, e) });
+    return text;
+  };
+  while (at < end) {
+    let lf = at;
+    while (lf < end && b[lf] !== 10) lf++;
+    if (lf >= end) return at;
+    let stop = lf;
+    if (crlf) {
+      if (lf === at || b[lf - 1] !== 13) return at;
+      stop = lf - 1;
+    }
+    const values: string[] = [];
+    let start = at;
+    let column = 0;
+    let hash = 0;
+    let blank = true;
+    let wide = false;
+    for (let i = at; i < stop; i++) {
+      const c = b[i]!;
+      if (c === d) {
+        values.push(field(column, start, i, hash));
+        column += 1;
+        start = i + 1;
+        hash = 0;
+      } else {
+        hash = (Math.imul(hash, 31) + c) | 0;
+        if (blank) {
+          if (c >= 128) wide = true;
+          else if (c !== 32 && (c < 9 || c > 13)) blank = false;
+        }
+      }
+    }
+    values.push(field(column, start, stop, hash));
+    if (blank && wide) {
+      // Non-ASCII text in an otherwise blank line: decide on the decoded text, as isBlankRow would.
+      blank = Buffer.from(b.buffer, b.byteOffset + at, stop - at).toString('utf8').split(String.fromCharCode(d)).every((v) => v.trim() === '');
+    }
+    out.push({ row, values, blank });
+    row += 1;
+    at = lf + 1;
+  }
+  return at;
+}
+
 export interface CsvOptions extends ReadOptions {
   /** Called once with the delimiter found, before the first row is yielded. */
   onDelimiter?: (delimiter: Delimiter) => void;
@@ -318,6 +405,7 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
   let dialect: { delimiter: Delimiter; newline: Newline } | undefined;
   let pending = '';
   const intern: InternTables = [];
+  const byteIntern: ByteInternTables = [];
   let first = true;
   let row = 0;
 
@@ -346,10 +434,11 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
   }
 
   try {
-    for await (const bytes of stream as AsyncIterable<Buffer>) {
+    /** One piece of the file as text: decoded, then split by the fast paths or papaparse. */
+    async function* textPiece(bytes: Buffer): AsyncGenerator<SheetRow[]> {
       let text = await decode(bytes);
       if (first) {
-        if (text.length === 0) continue;
+        if (text.length === 0) return;
         if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
         first = false;
       }
@@ -368,13 +457,13 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
           row += rows.length;
           pending = text.slice(last + nl.length);
           yield rows;
-          continue;
+          return;
         }
       }
       pending += text;
       if (!dialectSet) {
         const found = sniff(pending, pending.length >= PEEK_LIMIT);
-        if (found === undefined) continue;
+        if (found === undefined) return;
         options.onDelimiter?.(found.delimiter);
         dialect = found;
         dialectSet = true;
@@ -384,17 +473,53 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
       if (pending.indexOf('"') < 0) {
         const nl = dialect!.newline;
         const last = pending.lastIndexOf(nl);
-        if (last < 0) continue;
+        if (last < 0) return;
         const rows = splitPlainRows(pending, 0, last, nl, dialect!.delimiter, options.select?.keep, row + 1, intern);
         row += rows.length;
         pending = pending.slice(last + nl.length);
         yield rows;
-        continue;
+        return;
       }
       const result = (await quotedParser()).parse(pending, 0, true) as Papa.ParseResult<string[]>;
       checkErrors(result.errors, result.data.length);
       pending = pending.slice(result.meta.cursor);
       yield* emit(result.data);
+    }
+
+    // Between lines, with the decoder holding no part of a character, plain lines are split straight from the
+    // bytes (splitByteRows); the rest of a piece, and any piece with a quote, goes through textPiece.
+    const decoderClean = { now: true };
+    for await (const raw of stream as AsyncIterable<Buffer>) {
+      const keep = options.select?.keep;
+      let from = 0;
+      if (keep !== undefined && dialect !== undefined && !first && dialect.newline !== '\r') {
+        if (pending !== '' || !decoderClean.now) {
+          const lf = raw.indexOf(10);
+          if (lf < 0) from = -1;
+          else {
+            yield* textPiece(raw.subarray(0, lf + 1));
+            decoderClean.now = true;
+            from = lf + 1;
+          }
+        }
+        if (from >= 0 && pending === '') {
+          const last = raw.lastIndexOf(10);
+          if (last >= from) {
+            const region = raw.subarray(from, last + 1);
+            if (region.indexOf(34) < 0 && isUtf8(region)) {
+              const rows: SheetRow[] = [];
+              from = splitByteRows(raw, from, last + 1, dialect.newline === '\r\n', dialect.delimiter.charCodeAt(0), keep, row + 1, byteIntern, rows);
+              row += rows.length;
+              if (rows.length > 0) yield rows;
+            }
+          }
+        }
+        if (from < 0) from = 0;
+      }
+      if (from < raw.length) {
+        yield* textPiece(from === 0 ? raw : raw.subarray(from));
+        decoderClean.now = raw[raw.length - 1]! < 0x80;
+      }
     }
     const tail = await decode(undefined);
     if (tail !== '') pending += first && tail.charCodeAt(0) === 0xfeff ? tail.slice(1) : tail;
