@@ -328,35 +328,43 @@ export function splitByteRows(
     return text;
   };
   while (at < end) {
-    let lf = at;
-    while (lf < end && b[lf] !== 10) lf++;
-    if (lf >= end) return at;
-    let stop = lf;
-    if (crlf) {
-      if (lf === at || b[lf - 1] !== 13) return at;
-      stop = lf - 1;
-    }
+    // One pass over the line: fields at the delimiter, the line's end at its line feed (or carriage return then
+    // line feed, for crlf; a line feed alone is left to the text path).
     const values: string[] = [];
     let start = at;
     let column = 0;
     let hash = 0;
     let blank = true;
     let wide = false;
-    for (let i = at; i < stop; i++) {
+    let stop = -1;
+    let lf = -1;
+    for (let i = at; i < end; i++) {
       const c = b[i]!;
       if (c === d) {
         values.push(field(column, start, i, hash));
         column += 1;
         start = i + 1;
         hash = 0;
-      } else {
-        hash = (Math.imul(hash, 31) + c) | 0;
-        if (blank) {
-          if (c >= 128) wide = true;
-          else if (c !== 32 && (c < 9 || c > 13)) blank = false;
-        }
+        continue;
+      }
+      if (c === 10) {
+        if (crlf) return at;
+        stop = i;
+        lf = i;
+        break;
+      }
+      if (c === 13 && crlf && b[i + 1] === 10) {
+        stop = i;
+        lf = i + 1;
+        break;
+      }
+      hash = (Math.imul(hash, 31) + c) | 0;
+      if (blank) {
+        if (c >= 128) wide = true;
+        else if (c !== 32 && (c < 9 || c > 13)) blank = false;
       }
     }
+    if (lf < 0) return at;
     values.push(field(column, start, stop, hash));
     if (blank && wide) {
       // Non-ASCII text in an otherwise blank line: decide on the decoded text, as isBlankRow would.
