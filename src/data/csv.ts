@@ -1,13 +1,23 @@
 /**
  * Streaming CSV rows.
  *
- * The file is opened with `{ encoding: 'utf8' }`, so Node's string decoder carries a multi-byte character that is split
- * between two reads over to the next read; the text is then fed, piece by piece, to papaparse's incremental parser
- * (`Papa.Parser.parse(text, base, ignoreLastRow)`), which returns the complete records and where the unfinished one
- * starts. Only the unfinished record is carried over, so memory does not grow with the file.
+ * The file is read as raw bytes, 64 KiB at a time. Three ways to split them, all giving the records papaparse gives
+ * for the whole text (tests compare them):
+ * - bytes (splitByteRows): once the header is read and the consumer has said which columns it needs
+ *   (ReadOptions.select), whole lines between line feeds with no double quote, checked to be well-formed UTF-8, are
+ *   split straight from the bytes; only the kept columns are made into strings, and a text seen before in a column
+ *   is handed over as the same string.
+ * - text (splitPlainRows): other pieces go through one `TextDecoder` in streaming, fatal mode (a character split
+ *   between two reads is carried over; bytes that are not UTF-8 stop the read with an InputError naming the row and
+ *   the byte); text without double quotes is split on the newline and the delimiter.
+ * - papaparse (loaded only then): text with quotes is fed, piece by piece, to papaparse's incremental parser
+ *   (`Papa.Parser.parse(text, base, ignoreLastRow)`), which returns the complete records and where the unfinished one
+ *   starts.
+ * Only the unfinished record is carried over, so memory does not grow with the file.
  *
  * The delimiter (',' ';' or tab) and the line ending are taken from the header line (the first non-empty line with a
- * delimiter, so a title line above the header is passed over), counting delimiters outside quotes. A byte-order mark is dropped.
+ * delimiter, so a title line above the header is passed over), counting delimiters outside quotes. A byte-order mark
+ * is dropped.
  */
 import { isUtf8 } from 'node:buffer';
 import { createReadStream } from 'node:fs';

@@ -518,85 +518,92 @@ async function respondentsCube(
   const isNa = (c: number) => (c >= 0 && c < 16 ? naSmall[c] === true : na.has(c));
   const dimValues: string[] = new Array<string>(nd).fill('');
   let rows = 0;
-  for await (const batch of body) for (const r of batch) {
-    const rv = r.values;
-    if (rowIsBlank(r)) continue;
-    rows += 1;
-    let group: Leaf | undefined;
-    for (let k = 0; k < nq; k++) {
-      const raw0 = rv[qIdx[k]!];
-      if (raw0 === undefined || raw0 === '') continue;
-      let code: number;
-      let raw = raw0;
-      const c0 = raw0.charCodeAt(0);
-      if (raw0.length === 1 && c0 >= 48 && c0 <= 57) code = c0 - 48;
-      else {
-        raw = raw0.trim();
-        if (raw === '') continue;
-        code = /^[+-]?\d+(\.0+)?$/.test(raw) ? Number(raw) : NaN;
-      }
-      if (Number.isNaN(code)) {
-        problems.add({ row: r.row, field: names[qIdx[k]!]!, found: raw, problem: 'An answer is not a whole-number code', fix: `Code answers as whole numbers (1 to ${maxCode}); list any code meaning "not applicable" under not_applicable in the source` });
-        continue;
-      }
-      if (isNa(code)) continue;
-      if (code < 1 || code > maxCode) {
-        problems.add({ row: r.row, field: names[qIdx[k]!]!, found: raw, problem: `An answer code is outside 1 to ${maxCode}`, fix: 'Correct the answer, or list the code under not_applicable in the source if it means "not applicable"' });
-        continue;
-      }
-      if (group === undefined) {
-        let node: Map<string, unknown> = root;
-        for (let j = 0; j < nd; j++) {
-          const v0 = rv[dimIdx[j]!] ?? '';
-          const v = v0.length > 0 && (v0.charCodeAt(0) <= 32 || v0.charCodeAt(v0.length - 1) <= 32) ? v0.trim() : v0;
-          dimValues[j] = v;
-          if (j === nd - 1) {
-            let leaf = node.get(v) as Leaf | undefined;
+  // One batch at a time in its own function, which the engine compiles as a whole rather than mid-loop.
+  const tallyBatch = (batch: SheetRow[]): void => {
+    for (const r of batch) {
+      const rv = r.values;
+      if (rowIsBlank(r)) continue;
+      rows += 1;
+      let group: Leaf | undefined;
+      for (let k = 0; k < nq; k++) {
+        const raw0 = rv[qIdx[k]!];
+        if (raw0 === undefined || raw0 === '') continue;
+        let code: number;
+        let raw = raw0;
+        const c0 = raw0.charCodeAt(0);
+        if (raw0.length === 1 && c0 >= 48 && c0 <= 57) code = c0 - 48;
+        else {
+          raw = raw0.trim();
+          if (raw === '') continue;
+          code = /^[+-]?\d+(\.0+)?$/.test(raw) ? Number(raw) : NaN;
+        }
+        if (Number.isNaN(code)) {
+          problems.add({ row: r.row, field: names[qIdx[k]!]!, found: raw, problem: 'An answer is not a whole-number code', fix: `Code answers as whole numbers (1 to ${maxCode}); list any code meaning "not applicable" under not_applicable in the source` });
+          continue;
+        }
+        if (isNa(code)) continue;
+        if (code < 1 || code > maxCode) {
+          problems.add({ row: r.row, field: names[qIdx[k]!]!, found: raw, problem: `An answer code is outside 1 to ${maxCode}`, fix: 'Correct the answer, or list the code under not_applicable in the source if it means "not applicable"' });
+          continue;
+        }
+        if (group === undefined) {
+          let node: Map<string, unknown> = root;
+          for (let j = 0; j < nd; j++) {
+            const v0 = rv[dimIdx[j]!] ?? '';
+            const v = v0.length > 0 && (v0.charCodeAt(0) <= 32 || v0.charCodeAt(v0.length - 1) <= 32) ? v0.trim() : v0;
+            dimValues[j] = v;
+            if (j === nd - 1) {
+              let leaf = node.get(v) as Leaf | undefined;
+              if (leaf === undefined) {
+                leaf = newLeaf(nq);
+                node.set(v, leaf);
+              }
+              group = leaf;
+            } else {
+              let next = node.get(v) as Map<string, unknown> | undefined;
+              if (next === undefined) {
+                next = new Map<string, unknown>();
+                node.set(v, next);
+              }
+              node = next;
+            }
+          }
+          if (nd === 0) {
+            let leaf = root.get('') as Leaf | undefined;
             if (leaf === undefined) {
               leaf = newLeaf(nq);
-              node.set(v, leaf);
+              root.set('', leaf);
             }
             group = leaf;
-          } else {
-            let next = node.get(v) as Map<string, unknown> | undefined;
-            if (next === undefined) {
-              next = new Map<string, unknown>();
-              node.set(v, next);
-            }
-            node = next;
           }
         }
-        if (nd === 0) {
-          let leaf = root.get('') as Leaf | undefined;
-          if (leaf === undefined) {
-            leaf = newLeaf(nq);
-            root.set('', leaf);
-          }
-          group = leaf;
+        let cell = group!.cells[k];
+        if (cell === undefined) {
+          const dims: Record<string, string> = {};
+          dimensionsWanted.forEach((d, j) => {
+            dims[d] = dimValues[j]!;
+          });
+          dims[qColName] = questions[k]!;
+          cell = { dims, n: 0, agree: 0, approximate: false, firstRow: r.row, codes: {} };
+          group!.cells[k] = cell;
+          group!.tallies[k] = new Array<number>(maxCode + 1).fill(0);
+          cells.push(cell);
+          tallies.push(group!.tallies[k]!);
         }
+        // Only the code is counted here; n and agree are summed from the code counts at the end.
+        group!.tallies[k]![code]! += 1;
       }
-      let cell = group!.cells[k];
-      if (cell === undefined) {
-        const dims: Record<string, string> = {};
-        dimensionsWanted.forEach((d, j) => {
-          dims[d] = dimValues[j]!;
-        });
-        dims[qColName] = questions[k]!;
-        cell = { dims, n: 0, agree: 0, approximate: false, firstRow: r.row, codes: {} };
-        group!.cells[k] = cell;
-        group!.tallies[k] = new Array<number>(maxCode + 1).fill(0);
-        cells.push(cell);
-        tallies.push(group!.tallies[k]!);
-      }
-      cell.n += 1;
-      if (isAgree[code] === true) cell.agree += 1;
-      group!.tallies[k]![code]! += 1;
     }
-  }
+  };
+  for await (const batch of body) tallyBatch(batch);
   cells.forEach((cell, i) => {
     const codes: Record<string, number> = {};
     tallies[i]!.forEach((k, c) => {
-      if (k > 0) codes[codeTexts[c]!] = k;
+      if (k > 0) {
+        codes[codeTexts[c]!] = k;
+        cell.n += k;
+        if (isAgree[c] === true) cell.agree += k;
+      }
     });
     cell.codes = codes;
   });
