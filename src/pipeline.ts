@@ -31,7 +31,7 @@ import { InputError } from './errors.js';
 import { packFingerprint, sha256Hex } from './history/fingerprint.js';
 import { listPacks, latestPack, openPack, packFolderName, storePack, today, type StoredPack, type WriteHooks } from './history/store.js';
 import { diffPacks, type PackDiff } from './history/diff.js';
-import { changeSection, editedNotice, folderDay, sinceName } from './history/words.js';
+import { changeSection, editedNotice, folderDay, verdictNotice } from './history/words.js';
 
 export interface BuildOptions {
   claimsPath: string;
@@ -290,11 +290,9 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
   const sections = composed.map((c) => {
     const notices: string[] = [];
     const day = edited.get(c.section.id);
-    if (day !== undefined) notices.push(editedNotice(day));
+    if (day !== undefined) notices.push(editedNotice(day, templates));
     const change = diff?.verdicts.find((v) => v.id === c.section.id);
-    if (change && diff) {
-      notices.push(`Verdict changed since ${sinceName(diff)}: it was "${templates.render(`verdict.${change.before}`, {})}" (${change.reasons.join(', ')}).`);
-    }
+    if (change && diff) notices.push(verdictNotice(diff, change, templates));
     return notices.length > 0 ? { ...c.section, notices } : c.section;
   });
   const model = composePack({

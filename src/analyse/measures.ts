@@ -2,7 +2,7 @@
  * Measures of a selection beyond the pooled agreement rate: mean scores from answer-code counts and numeric columns
  * (respondent-weighted means), from counts pooled by src/data/select.ts. Used by the means and association kinds.
  */
-import type { Filter, Measure } from '../claims/types.js';
+import type { Measure } from '../claims/types.js';
 import type { Cube, Pooled } from '../data/types.js';
 import { InputError } from '../errors.js';
 

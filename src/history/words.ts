@@ -27,32 +27,36 @@ function boundText(name: string, value: number): string {
   return /proportion|rate|difference/i.test(name) ? fmt.points(value, { sign: true }) : fmt.coefficient(value);
 }
 
-/** The other changes, one sentence each. */
-export function changeNotes(d: PackDiff): string[] {
+/** The other changes, one sentence each (templates history.*). */
+export function changeNotes(d: PackDiff, t: Templates): string[] {
   const notes: string[] = [];
   for (const f of d.data) {
-    if (f.change === 'changed') notes.push(`Data file ${f.file} (${f.id}) is not the same file as before: ${fmt.count(f.rowsBefore ?? 0)} rows then, ${fmt.count(f.rowsAfter ?? 0)} now.`);
-    else if (f.change === 'added') notes.push(`Data source ${f.id} (${f.file}) is new.`);
-    else notes.push(`Data source ${f.id} (${f.file}) is no longer used.`);
+    const view = { id: f.id, file: f.file, rowsBefore: fmt.count(f.rowsBefore ?? 0), rowsAfter: fmt.count(f.rowsAfter ?? 0) };
+    notes.push(t.render(`history.data-${f.change}`, view));
   }
   if (d.claimsFileChanged && d.edited.length === 0 && d.added.length === 0 && d.removed.length === 0) {
-    notes.push('The claims file was edited, but no claim changed what it commits to (only wording outside the claims, labels or layout).');
+    notes.push(t.render('history.claims-file-edited', {}));
   }
-  for (const s of d.settings) notes.push(`Setting ${s.name} changed from ${s.before} to ${s.after}.`);
-  for (const id of d.edited) notes.push(`Claim ${id} was edited: its words, selections, direction, confidence or thresholds differ from before.`);
-  for (const id of d.added) notes.push(`Claim ${id} is new.`);
-  for (const id of d.removed) notes.push(`Claim ${id} was removed from the claims file.`);
-  for (const id of d.becameTestable) notes.push(`Claim ${id} now has enough respondents to be tested.`);
-  for (const id of d.becameUntestable) notes.push(`Claim ${id} no longer has enough respondents to be tested.`);
+  for (const s of d.settings) notes.push(t.render('history.setting', s));
+  for (const id of d.edited) notes.push(t.render('history.claim-edited', { id }));
+  for (const id of d.added) notes.push(t.render('history.claim-added', { id }));
+  for (const id of d.removed) notes.push(t.render('history.claim-removed', { id }));
+  for (const id of d.becameTestable) notes.push(t.render('history.became-testable', { id }));
+  for (const id of d.becameUntestable) notes.push(t.render('history.became-untestable', { id }));
   for (const m of d.moved) {
     notes.push(
-      `The estimate for ${m.id} moved from ${estimateText(m.name, m.before)} to ${estimateText(m.name, m.after)}, outside the earlier interval (${boundText(m.name, m.beforeInterval[0])} to ${boundText(m.name, m.beforeInterval[1])}).`,
+      t.render('history.moved', {
+        id: m.id,
+        before: estimateText(m.name, m.before),
+        after: estimateText(m.name, m.after),
+        lower: boundText(m.name, m.beforeInterval[0]),
+        upper: boundText(m.name, m.beforeInterval[1]),
+      }),
     );
   }
   return notes;
 }
 
-/** The pack's change section. */
 /**
  * What the earlier pack is called in "What changed since ...": its data date when that differs from this pack's
  * (a new release), else the day it was built (a corrected file in the same release).
@@ -70,24 +74,24 @@ function longDate(date: string): string {
 }
 
 export function changeSection(d: PackDiff, t: Templates): ChangeSection {
-  const since = sinceName(d);
-  const built = folderDay(d.before.folder);
   const changed = d.verdicts.length;
-  const intro =
-    `This pack is compared with the earlier pack of the same claims file${built ? ` built on ${built}` : ''} (data dated ${d.before.date}). ` +
-    (changed === 0 ? 'No verdict changed.' : `${changed} ${changed === 1 ? 'verdict' : 'verdicts'} changed.`) +
-    ' Different people answer each survey, so a changed verdict may reflect a different group of respondents as much as a real change.';
+  const built = folderDay(d.before.folder);
   return {
-    heading: `What changed since ${since}`,
-    intro,
+    heading: t.render('history.heading', { since: sinceName(d) }),
+    intro: t.render('history.intro', { ...(built ? { built } : {}), date: d.before.date, none: changed === 0, count: changed, one: changed === 1 }),
     verdicts: d.verdicts.map((v) => ({ claim: `${v.statement} (${v.id})`, before: verdictName(t, v.before), after: verdictName(t, v.after), why: v.reasons.join(', ') || 'the same inputs' })),
-    notes: changeNotes(d),
+    notes: changeNotes(d, t),
   };
 }
 
 /** The sentence placed beside a claim that was edited after an earlier pack showed its results. */
-export function editedNotice(builtOn: string): string {
-  return `This claim was changed after an earlier pack (built ${builtOn}) showed its results. A claim edited after its results were seen is weaker evidence than one fixed in advance.`;
+export function editedNotice(builtOn: string, t: Templates): string {
+  return t.render('history.notice-edited', { builtOn });
+}
+
+/** The sentence placed beside a claim whose verdict changed since the earlier pack. */
+export function verdictNotice(d: PackDiff, change: PackDiff['verdicts'][number], t: Templates): string {
+  return t.render('history.notice-verdict', { since: sinceName(d), before: verdictName(t, change.before), why: change.reasons.join(', ') });
 }
 
 /** `warrant diff` as terminal text. */
@@ -102,7 +106,7 @@ export function diffText(d: PackDiff, t: Templates): string {
     lines.push('Verdicts that changed:');
     for (const v of d.verdicts) lines.push(`  ${v.id}: ${verdictName(t, v.before)} -> ${verdictName(t, v.after)} (${v.reasons.join(', ') || 'the same inputs'})`);
   }
-  const notes = changeNotes(d);
+  const notes = changeNotes(d, t);
   if (notes.length > 0) {
     lines.push('');
     lines.push('Other changes:');

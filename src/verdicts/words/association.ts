@@ -21,7 +21,7 @@ export function composeAssociation(a: AssociationAnalysis, decision: Decision, c
   const labelsOnly = { xLabel, yLabel, unitsName, expectWord, oneSided, controlled };
   const hypotheses = { null: t.render('association.null', labelsOnly), alternative: t.render('association.alternative', labelsOnly) };
   if (a.status === 'too-little-data' || !a.test || !a.fit) {
-    return tooLittle(a, decision, ctx, `${xLabel} against ${yLabel} across ${unitsName}.`, hypotheses);
+    return tooLittle(a, ctx, `${xLabel} against ${yLabel} across ${unitsName}.`, hypotheses);
   }
   const r = a.test.estimate.value;
   const iv = a.test.interval;

@@ -21,7 +21,7 @@ export function composeChange(a: ChangeAnalysis, decision: Decision, ctx: Compos
   const hypotheses = { null: t.render('change.null', periods), alternative: t.render('change.alternative', periods) };
   if (a.status === 'too-little-data' || !a.later || !a.earlier || !a.difference || !a.test) {
     const compared = `${a.periods.to} against ${a.periods.from}${scope ? `, for ${scope}` : ''}.`;
-    return tooLittle(a, decision, ctx, compared, hypotheses);
+    return tooLittle(a, ctx, compared, hypotheses);
   }
   const d = a.difference;
   const dv = differenceView(d, a.observedSign);

@@ -66,7 +66,7 @@ export function commonRows(a: Analysis, decision: Decision, ctx: ComposeContext)
   return rows;
 }
 
-export function tooLittle(a: Analysis, decision: Decision, ctx: ComposeContext, compared: string, hypotheses: ClaimSection['hypotheses']): Composed {
+export function tooLittle(a: Analysis, ctx: ComposeContext, compared: string, hypotheses: ClaimSection['hypotheses']): Composed {
   const view = { shortfall: a.shortfall ?? 'too few people answered', minRespondents: ctx.minRespondents };
   return {
     section: {

@@ -18,7 +18,7 @@ export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: Comp
   const hypotheses = { null: t.render('compare.null', labelsOnly), alternative: t.render('compare.alternative', labelsOnly) };
   if (a.status === 'too-little-data' || !a.focus || !a.against || !a.difference || !a.test) {
     const compared = `${focusLabel} against ${againstLabel}${scopeText(claim.where) ? `, for ${scopeText(claim.where)}` : ''}.`;
-    return tooLittle(a, decision, ctx, compared, hypotheses);
+    return tooLittle(a, ctx, compared, hypotheses);
   }
   const d = a.difference;
   const dv = differenceView(d, a.observedSign);

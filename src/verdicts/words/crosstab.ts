@@ -23,7 +23,7 @@ export function composeCrosstab(a: CrosstabAnalysis, decision: Decision, ctx: Co
   const labels = { rowsName, columnsName, rowsOne: rowsName.toLowerCase(), rowsPlural: plural(rowsName) };
   const hypotheses = { null: t.render('crosstab.null', labels), alternative: t.render('crosstab.alternative', labels) };
   if (a.status === 'too-little-data' || !a.test) {
-    return tooLittle(a, decision, ctx, `${rowsName} by ${columnsName}${scopeText(claim.where) ? `, for ${scopeText(claim.where)}` : ''}.`, hypotheses);
+    return tooLittle(a, ctx, `${rowsName} by ${columnsName}${scopeText(claim.where) ? `, for ${scopeText(claim.where)}` : ''}.`, hypotheses);
   }
   const total = a.counts.reduce((s, r) => s + r.reduce((u, v) => u + v, 0), 0);
   const notableText = a.notable

@@ -16,7 +16,7 @@ export function composeEquivalence(a: EquivalenceAnalysis, decision: Decision, c
   const labelsOnly = { focus: { label: focusLabel }, against: { label: againstLabel }, margin };
   const hypotheses = { null: t.render('equivalence.null', labelsOnly), alternative: t.render('equivalence.alternative', labelsOnly) };
   if (a.status === 'too-little-data' || !a.focus || !a.against || !a.difference || !a.test || !a.equivalenceInterval) {
-    return tooLittle(a, decision, ctx, `${focusLabel} against ${againstLabel}, within ±${margin} points${scopeText(claim.where) ? `, for ${scopeText(claim.where)}` : ''}.`, hypotheses);
+    return tooLittle(a, ctx, `${focusLabel} against ${againstLabel}, within ±${margin} points${scopeText(claim.where) ? `, for ${scopeText(claim.where)}` : ''}.`, hypotheses);
   }
   const d = a.difference;
   const e = a.equivalenceInterval;

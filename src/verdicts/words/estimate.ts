@@ -12,13 +12,13 @@ function score(v: number): string {
   return fmt.plain(v, 2);
 }
 
-export function composeEstimate(a: EstimateAnalysis, decision: Decision, ctx: ComposeContext): Composed {
+export function composeEstimate(a: EstimateAnalysis, _decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
   const claim = a.claim;
   const label = a.rate?.label ?? a.mean?.label ?? a.value?.label ?? claim.selectLabel ?? filterLabel({ ...claim.where, ...claim.select });
-  const hypotheses = { null: 'None: this claim reports an estimate and tests no hypothesis.', alternative: 'None.' };
+  const hypotheses = { null: t.render('estimate.null', {}), alternative: t.render('estimate.alternative', {}) };
   if (a.status === 'too-little-data' || (!a.rate && !a.mean && !a.value)) {
-    return tooLittle(a, decision, ctx, `${label}.`, hypotheses);
+    return tooLittle(a, ctx, `${label}.`, hypotheses);
   }
   const level = fmt.level(claim.confidence);
   const understood = claim.confidenceWritten === 'default' ? ' (the default)' : claim.confidenceWritten.replace(/\s+/g, '') === level ? '' : ` (written as ${claim.confidenceWritten})`;

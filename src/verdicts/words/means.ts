@@ -33,7 +33,7 @@ export function composeMeans(a: MeansAnalysis, decision: Decision, ctx: ComposeC
   const labelsOnly = { focus: { label: focusLabel }, against: { label: againstLabel }, expectWord, oneSided };
   const hypotheses = { null: t.render('means.null', labelsOnly), alternative: t.render('means.alternative', labelsOnly) };
   if (a.status === 'too-little-data' || !a.focus || !a.against || !a.difference || !a.test) {
-    return tooLittle(a, decision, ctx, `${focusLabel} against ${againstLabel}, mean scores${scopeText(claim.where) ? `, for ${scopeText(claim.where)}` : ''}.`, hypotheses);
+    return tooLittle(a, ctx, `${focusLabel} against ${againstLabel}, mean scores${scopeText(claim.where) ? `, for ${scopeText(claim.where)}` : ''}.`, hypotheses);
   }
   const d = a.difference;
   const view: View = {

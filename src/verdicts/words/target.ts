@@ -25,7 +25,7 @@ export function composeTarget(a: TargetAnalysis, decision: Decision, ctx: Compos
   const head = { label, target, valueLabel, valueName, expectWord, oneSided };
   const hypotheses = { null: t.render('target.null', head), alternative: t.render('target.alternative', head) };
   if (a.status === 'too-little-data' || !a.rate || !a.difference || !a.test) {
-    return tooLittle(a, decision, ctx, `${label} against ${valueLabel}.`, hypotheses);
+    return tooLittle(a, ctx, `${label} against ${valueLabel}.`, hypotheses);
   }
   const d = a.difference;
   const dv = differenceView(d, a.observedSign);

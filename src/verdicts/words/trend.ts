@@ -18,7 +18,7 @@ export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeC
   const head = { scope, first, last, periodCount: a.periods.length, periodList: a.periods.join(', '), expectWord, oneSided };
   const hypotheses = { null: t.render('trend.null', head), alternative: t.render('trend.alternative', head) };
   if (a.status === 'too-little-data' || !a.rates || a.slope === undefined || !a.fitted || !a.test) {
-    return tooLittle(a, decision, ctx, `${a.periods.join(', ')}${scope ? `, for ${scope}` : ''}.`, hypotheses);
+    return tooLittle(a, ctx, `${a.periods.join(', ')}${scope ? `, for ${scope}` : ''}.`, hypotheses);
   }
   const rates = a.rates;
   const totalN = rates.reduce((s, r) => s + r.n, 0);
