@@ -68,8 +68,57 @@ export interface LeastSquaresFit {
   fitted: number[];
 }
 
+/** Options of polynomialFit(). */
+export interface PolynomialFitOptions {
+  /** Add a constant term (default true). */
+  intercept?: boolean;
+  /** Non-negative weights, one per observation. */
+  weights?: readonly number[];
+  /** Name of the variable in the coefficient names: x, x^2, ... (default 'x'). */
+  name?: string;
+}
+
 const RANK_TOLERANCE = 1e-13;
-const REFINEMENT_STEPS = 4;
+/** Most refinement steps; the loop stops sooner once a step no longer changes the solution. */
+const MAX_REFINEMENT_STEPS = 12;
+const SPLITTER = 134217729; // 2^27 + 1
+
+/** a * b exactly as out[0] + out[1] (Dekker's TwoProduct with Veltkamp's splitting; no overflow handling). */
+function twoProduct(a: number, b: number, out: Float64Array | [number, number]): void {
+  const p = a * b;
+  let t = SPLITTER * a;
+  const ah = t - (t - a);
+  const al = a - ah;
+  t = SPLITTER * b;
+  const bh = t - (t - b);
+  const bl = b - bh;
+  out[0] = p;
+  out[1] = al * bl - (p - ah * bh - al * bh - ah * bl);
+}
+
+/**
+ * A column of numbers each held as the unevaluated sum hi + lo of two doubles (double-double). Data given in double
+ * have lo = 0; polynomial terms x^k are formed with lo carrying what the rounding of hi to double lost.
+ */
+interface Column {
+  hi: Float64Array;
+  lo: Float64Array;
+}
+
+/** (hi + lo) * s in double-double, renormalized so that |lo| <= ulp(hi) / 2. */
+function scaleColumn(col: Column, s: readonly number[] | Float64Array, rows: readonly number[]): Column {
+  const hi = new Float64Array(rows.length);
+  const lo = new Float64Array(rows.length);
+  const pr: [number, number] = [0, 0];
+  rows.forEach((i, k) => {
+    twoProduct(col.hi[i]!, s[k]!, pr);
+    const e = pr[1] + col.lo[i]! * s[k]!;
+    const sum = pr[0] + e;
+    hi[k] = sum;
+    lo[k] = e - (sum - pr[0]);
+  });
+  return { hi, lo };
+}
 
 /** Column-major Householder QR of an n x p matrix (p <= n), stored in place. */
 interface Householder {
@@ -82,7 +131,7 @@ interface Householder {
   r: number[][];
 }
 
-function householderQr(cols: Float64Array[], n: number, names: readonly string[]): Householder {
+function householderQr(cols: readonly Float64Array[], n: number, names: readonly string[]): Householder {
   const p = cols.length;
   const a = cols.map((c) => Float64Array.from(c));
   const v: Float64Array[] = [];
@@ -176,6 +225,85 @@ function powerOfTwoScale(col: Float64Array): number {
   return 2 ** Math.round(Math.log2(norm));
 }
 
+/** The scaled, weighted design A = hi + lo (n x p, double-double) and the QR factors of its double part. */
+interface Design {
+  n: number;
+  p: number;
+  cols: Column[];
+  qr: Householder;
+}
+
+/**
+ * Solves the augmented system [I A; A' 0][r; x] = [b; c] by iterative refinement from r = 0, x = 0 (the first step
+ * is the plain QR solution). Each step computes f = b - r - A x and g = c - A' r in twice the working precision
+ * against the double-double design, and corrects with the QR factors of its double part (Björck 1967): the
+ * refinement converges to the solution for the design as held in double-double as long as the double QR is a good
+ * enough approximation of it (condition number of the scaled design well below 1e16).
+ * b = y gives the least-squares solution and its residual; b = 0, c = -e_j gives x = (A'A)^-1 e_j.
+ */
+function solveAugmented(d: Design, b: Column | null, c: Float64Array | null): Float64Array {
+  const { n, p, cols, qr } = d;
+  const x = new Float64Array(p);
+  const r = new Float64Array(n);
+  const rowA = new Float64Array(2 * p + 3);
+  const rowB = new Float64Array(2 * p + 3);
+  const colA = new Float64Array(2 * n + 1);
+  const colB = new Float64Array(2 * n + 1);
+  let previous = Infinity;
+  for (let step = 0; step < MAX_REFINEMENT_STEPS; step++) {
+    const f = new Float64Array(n);
+    for (let i = 0; i < n; i++) {
+      rowA[0] = b === null ? 0 : b.hi[i]!;
+      rowB[0] = 1;
+      rowA[1] = b === null ? 0 : b.lo[i]!;
+      rowB[1] = 1;
+      rowA[2] = r[i]!;
+      rowB[2] = -1;
+      for (let j = 0; j < p; j++) {
+        rowA[3 + 2 * j] = cols[j]!.hi[i]!;
+        rowA[4 + 2 * j] = cols[j]!.lo[i]!;
+        rowB[3 + 2 * j] = -x[j]!;
+        rowB[4 + 2 * j] = -x[j]!;
+      }
+      f[i] = accurateDot(rowA, rowB);
+    }
+    const g = new Float64Array(p);
+    colA[0] = 1;
+    for (let i = 0; i < n; i++) {
+      colB[1 + 2 * i] = -r[i]!;
+      colB[2 + 2 * i] = -r[i]!;
+    }
+    for (let j = 0; j < p; j++) {
+      colB[0] = c === null ? 0 : c[j]!;
+      const col = cols[j]!;
+      for (let i = 0; i < n; i++) {
+        colA[1 + 2 * i] = col.hi[i]!;
+        colA[2 + 2 * i] = col.lo[i]!;
+      }
+      g[j] = accurateDot(colA, colB);
+    }
+    const h = solveRt(qr, g);
+    applyQt(qr, f);
+    const d1 = new Float64Array(p);
+    for (let j = 0; j < p; j++) d1[j] = f[j]! - h[j]!;
+    const dx = solveR(qr, d1);
+    const dr = new Float64Array(n);
+    for (let j = 0; j < p; j++) dr[j] = h[j]!;
+    for (let i = p; i < n; i++) dr[i] = f[i]!;
+    applyQ(qr, dr);
+    let change = 0;
+    for (let j = 0; j < p; j++) {
+      x[j] = x[j]! + dx[j]!;
+      change = Math.max(change, Math.abs(dx[j]!) / Math.max(Math.abs(x[j]!), Number.MIN_VALUE));
+    }
+    for (let i = 0; i < n; i++) r[i] = r[i]! + dr[i]!;
+    // Stop at convergence, or when a step no longer halves the change (the rounding level has been reached).
+    if (change < 1e-17 || (step >= 2 && change > previous / 2)) break;
+    previous = change;
+  }
+  return x;
+}
+
 function twoSidedTP(estimate: number, se: number, df: number): { t: number; p: number } {
   if (se === 0) {
     if (estimate === 0) throw new Error('least squares: a coefficient and its standard error are both exactly 0.');
@@ -185,38 +313,24 @@ function twoSidedTP(estimate: number, se: number, df: number): { t: number; p: n
   return { t, p: Math.min(1, 2 * tSf(Math.abs(t), df)) };
 }
 
-/**
- * Fits y = b0 + b1 x1 + ... + bk xk (b0 only with an intercept) by least squares.
- * @param predictors one array per predictor column, each as long as y
- * @throws Error when lengths differ, a value is not finite, a weight is negative, there are no more observations
- *   than coefficients, a predictor is a linear combination of others, or y is constant (R squared undefined).
- */
-export function leastSquares(
-  predictors: readonly (readonly number[])[],
-  y: readonly number[],
-  options: LeastSquaresOptions = {},
-): LeastSquaresFit {
-  const intercept = options.intercept ?? true;
-  requireFinite(y, 'least squares: y');
-  const nAll = y.length;
-  predictors.forEach((col, j) => {
-    if (col.length !== nAll) {
-      throw new Error(`least squares: predictor ${j + 1} has ${col.length} values but y has ${nAll}.`);
-    }
-    requireFinite(col, `least squares: predictor ${j + 1}`);
+function checkWeights(weights: readonly number[] | undefined, nAll: number): void {
+  if (weights === undefined) return;
+  if (weights.length !== nAll) throw new Error(`least squares: ${weights.length} weights for ${nAll} observations.`);
+  requireFinite(weights, 'least squares: weights');
+  weights.forEach((w, i) => {
+    if (w < 0) throw new Error(`least squares: weight ${i + 1} is negative (${w}).`);
   });
-  const weights = options.weights;
-  if (weights !== undefined) {
-    if (weights.length !== nAll) throw new Error(`least squares: ${weights.length} weights for ${nAll} observations.`);
-    requireFinite(weights, 'least squares: weights');
-    weights.forEach((w, i) => {
-      if (w < 0) throw new Error(`least squares: weight ${i + 1} is negative (${w}).`);
-    });
-  }
-  const names = [
-    ...(intercept ? ['(Intercept)'] : []),
-    ...predictors.map((_, j) => options.names?.[j] ?? `x${j + 1}`),
-  ];
+}
+
+/** The fit itself, for a design given column by column in double-double over all observations (intercept included). */
+function fitColumns(
+  design: readonly Column[],
+  y: readonly number[],
+  intercept: boolean,
+  weights: readonly number[] | undefined,
+  names: readonly string[],
+): LeastSquaresFit {
+  const nAll = y.length;
   const used: number[] = [];
   for (let i = 0; i < nAll; i++) if (weights === undefined || weights[i]! > 0) used.push(i);
   const n = used.length;
@@ -226,99 +340,58 @@ export function leastSquares(
     throw new Error(`least squares: ${n} observations for ${p} coefficients; at least ${p + 1} are needed.`);
   }
   const sw = used.map((i) => (weights === undefined ? 1 : Math.sqrt(weights[i]!)));
-  const rawCols: Float64Array[] = [];
-  if (intercept) rawCols.push(Float64Array.from(sw));
-  for (const col of predictors) rawCols.push(Float64Array.from(used, (i, k) => col[i]! * sw[k]!));
-  const yw = Float64Array.from(used, (i, k) => y[i]! * sw[k]!);
-  const scale = rawCols.map(powerOfTwoScale);
-  const cols = rawCols.map((c, j) => c.map((v) => v / scale[j]!));
+  // Rows multiplied by sqrt(w) in double-double, then columns scaled by powers of two (exactly).
+  const weighted = design.map((col) => scaleColumn(col, sw, used));
+  const scale = weighted.map((col) => powerOfTwoScale(col.hi));
+  const cols = weighted.map((col, j) => ({
+    hi: col.hi.map((v) => v / scale[j]!),
+    lo: col.lo.map((v) => v / scale[j]!),
+  }));
+  const yw = scaleColumn({ hi: Float64Array.from(y), lo: new Float64Array(nAll) }, sw, used);
+  const qr = householderQr(
+    cols.map((col) => col.hi),
+    n,
+    names,
+  );
+  const d: Design = { n, p, cols, qr };
+  const x = solveAugmented(d, yw, null);
 
-  const qr = householderQr(cols, n, names);
-
-  // Initial solution and residual.
-  const c = Float64Array.from(yw);
-  applyQt(qr, c);
-  const x = solveR(qr, c.subarray(0, p));
-  const rv = new Float64Array(n);
-  for (let i = p; i < n; i++) rv[i] = c[i]!;
-  applyQ(qr, rv);
-
-  // Refinement on the augmented system, residuals in twice the working precision.
-  const rowA = new Float64Array(p + 2);
-  const rowB = new Float64Array(p + 2);
-  const colR = new Float64Array(n);
-  for (let step = 0; step < REFINEMENT_STEPS; step++) {
-    const f = new Float64Array(n);
-    for (let i = 0; i < n; i++) {
-      rowA[0] = yw[i]!;
-      rowB[0] = 1;
-      rowA[1] = rv[i]!;
-      rowB[1] = -1;
-      for (let j = 0; j < p; j++) {
-        rowA[j + 2] = cols[j]![i]!;
-        rowB[j + 2] = -x[j]!;
-      }
-      f[i] = accurateDot(rowA, rowB);
-    }
-    const g = new Float64Array(p);
-    for (let i = 0; i < n; i++) colR[i] = -rv[i]!;
-    for (let j = 0; j < p; j++) g[j] = accurateDot(cols[j]!, colR);
-    const hv = solveRt(qr, g);
-    applyQt(qr, f);
-    const d1 = new Float64Array(p);
-    for (let j = 0; j < p; j++) d1[j] = f[j]! - hv[j]!;
-    const dx = solveR(qr, d1);
-    const dr = new Float64Array(n);
-    for (let j = 0; j < p; j++) dr[j] = hv[j]!;
-    for (let i = p; i < n; i++) dr[i] = f[i]!;
-    applyQ(qr, dr);
-    let change = 0;
-    for (let j = 0; j < p; j++) {
-      x[j] = x[j]! + dx[j]!;
-      change = Math.max(change, Math.abs(dx[j]!) / Math.max(Math.abs(x[j]!), Number.MIN_VALUE));
-    }
-    for (let i = 0; i < n; i++) rv[i] = rv[i]! + dr[i]!;
-    if (change < 1e-17) break;
-  }
-
-  // Residuals of the weighted problem recomputed from the final coefficients in twice the precision.
+  // Residuals of every observation, from the final coefficients and the double-double design, in twice the precision.
   const estimates = Array.from(x, (v, j) => v / scale[j]!);
   const fitted = new Array<number>(nAll);
   const residuals = new Array<number>(nAll);
-  const wr: number[] = [];
-  const rowX = new Float64Array(p + 1);
-  const rowC = new Float64Array(p + 1);
+  const rowX = new Float64Array(2 * p + 1);
+  const rowC = new Float64Array(2 * p + 1);
+  for (let j = 0; j < p; j++) {
+    rowC[2 * j] = estimates[j]!;
+    rowC[2 * j + 1] = estimates[j]!;
+  }
+  rowC[2 * p] = -1;
   for (let i = 0; i < nAll; i++) {
-    let k = 0;
-    if (intercept) {
-      rowX[k] = 1;
-      rowC[k++] = estimates[0]!;
+    for (let j = 0; j < p; j++) {
+      rowX[2 * j] = design[j]!.hi[i]!;
+      rowX[2 * j + 1] = design[j]!.lo[i]!;
     }
-    for (const col of predictors) {
-      rowX[k] = col[i]!;
-      rowC[k] = estimates[k]!;
-      k++;
-    }
-    rowX[k] = y[i]!;
-    rowC[k] = -1;
-    const minusResidual = accurateDot(rowX.subarray(0, k + 1), rowC.subarray(0, k + 1));
+    rowX[2 * p] = y[i]!;
+    const minusResidual = accurateDot(rowX, rowC);
     residuals[i] = -minusResidual;
     fitted[i] = y[i]! + minusResidual;
   }
-  used.forEach((i, k) => wr.push(residuals[i]! * sw[k]!));
+  const wr = used.map((i, k) => residuals[i]! * sw[k]!);
   const rss = accurateDot(wr, wr);
 
   let tss: number;
   if (intercept) {
     const wsum = compensatedSum(sw.map((s) => s * s));
-    const ybar = accurateDot(
-      sw.map((s) => s * s),
-      used.map((i) => y[i]!),
-    ) / wsum;
+    const ybar =
+      accurateDot(
+        sw.map((s) => s * s),
+        used.map((i) => y[i]!),
+      ) / wsum;
     const dev = used.map((i, k) => (y[i]! - ybar) * sw[k]!);
     tss = accurateDot(dev, dev);
   } else {
-    tss = accurateDot(yw, yw);
+    tss = accurateDot(yw.hi, yw.hi);
   }
   if (!(tss > 0)) throw new Error('least squares: y does not vary, so R squared is undefined.');
 
@@ -327,23 +400,20 @@ export function leastSquares(
   const s2 = rss / dfResidual;
   const residualSd = Math.sqrt(s2);
 
-  // Standard errors from the rows of R^-1 (scaled problem), then unscaled.
+  // Standard errors: s sqrt(((A'A)^-1)_jj), the diagonal element refined like the solution (b = 0, c = -e_j).
   const coefficients: Coefficient[] = [];
   for (let j = 0; j < p; j++) {
     const e = new Float64Array(p);
-    e[j] = 1;
-    // row j of R^-1 is the solution of R' z = e_j
-    const z = solveRt(qr, e);
-    let ss = 0;
-    for (let k = 0; k < p; k++) ss += z[k]! * z[k]!;
-    const se = (residualSd * Math.sqrt(ss)) / scale[j]!;
+    e[j] = -1;
+    const z = solveAugmented(d, null, e);
+    const se = (residualSd * Math.sqrt(z[j]!)) / scale[j]!;
     const { t, p: pValue } = twoSidedTP(estimates[j]!, se, dfResidual);
     coefficients.push({ name: names[j]!, estimate: estimates[j]!, standardError: se, t, p: pValue });
   }
 
   const rSquared = 1 - rss / tss;
   const dfTotal = intercept ? n - 1 : n;
-  const adjustedRSquared = 1 - (rss / dfResidual) / (tss / dfTotal);
+  const adjustedRSquared = 1 - rss / dfResidual / (tss / dfTotal);
   const fit: LeastSquaresFit = {
     coefficients,
     intercept,
@@ -366,6 +436,80 @@ export function leastSquares(
     fit.fTest = { value, df: [dfModel, dfResidual], p: value === Infinity ? 0 : fSf(value, dfModel, dfResidual) };
   }
   return fit;
+}
+
+/**
+ * Fits y = b0 + b1 x1 + ... + bk xk (b0 only with an intercept) by least squares.
+ * @param predictors one array per predictor column, each as long as y
+ * @throws Error when lengths differ, a value is not finite, a weight is negative, there are no more observations
+ *   than coefficients, a predictor is a linear combination of others, or y is constant (R squared undefined).
+ */
+export function leastSquares(
+  predictors: readonly (readonly number[])[],
+  y: readonly number[],
+  options: LeastSquaresOptions = {},
+): LeastSquaresFit {
+  const intercept = options.intercept ?? true;
+  requireFinite(y, 'least squares: y');
+  const nAll = y.length;
+  predictors.forEach((col, j) => {
+    if (col.length !== nAll) {
+      throw new Error(`least squares: predictor ${j + 1} has ${col.length} values but y has ${nAll}.`);
+    }
+    requireFinite(col, `least squares: predictor ${j + 1}`);
+  });
+  checkWeights(options.weights, nAll);
+  const names = [
+    ...(intercept ? ['(Intercept)'] : []),
+    ...predictors.map((_, j) => options.names?.[j] ?? `x${j + 1}`),
+  ];
+  const design: Column[] = [];
+  if (intercept) design.push({ hi: new Float64Array(nAll).fill(1), lo: new Float64Array(nAll) });
+  for (const col of predictors) design.push({ hi: Float64Array.from(col), lo: new Float64Array(nAll) });
+  return fitColumns(design, y, intercept, options.weights, names);
+}
+
+/**
+ * Polynomial y = b0 + b1 x + b2 x^2 + ... + bd x^d by least squares (b0 only with an intercept). The powers x^k are
+ * formed in double-double (each product split exactly by Dekker's TwoProduct), so the fit is that of the exact
+ * powers of the given x, not of powers rounded to double: for a high degree the rounding of x^k alone can move the
+ * solution in the 8th digit (NIST StRD Filip). Coefficients are named x, x^2, ... (after options.name).
+ * @throws Error as leastSquares() does, and when degree is not a whole number of at least 1 or a power overflows.
+ */
+export function polynomialFit(
+  x: readonly number[],
+  y: readonly number[],
+  degree: number,
+  options: PolynomialFitOptions = {},
+): LeastSquaresFit {
+  if (!Number.isInteger(degree) || degree < 1) {
+    throw new Error(`polynomial fit: the degree must be a whole number of at least 1, not ${degree}.`);
+  }
+  const intercept = options.intercept ?? true;
+  requireFinite(y, 'least squares: y');
+  requireFinite(x, 'polynomial fit: x');
+  const nAll = y.length;
+  if (x.length !== nAll) throw new Error(`polynomial fit: x has ${x.length} values but y has ${nAll}.`);
+  checkWeights(options.weights, nAll);
+  const name = options.name ?? 'x';
+  const names = [
+    ...(intercept ? ['(Intercept)'] : []),
+    ...Array.from({ length: degree }, (_, k) => (k === 0 ? name : `${name}^${k + 1}`)),
+  ];
+  const design: Column[] = [];
+  if (intercept) design.push({ hi: new Float64Array(nAll).fill(1), lo: new Float64Array(nAll) });
+  let power: Column = { hi: Float64Array.from(x), lo: new Float64Array(nAll) };
+  const all = Array.from({ length: nAll }, (_, i) => i);
+  design.push(power);
+  for (let k = 2; k <= degree; k++) {
+    // x^k = x^(k-1) * x, each term in double-double
+    power = scaleColumn(power, x, all);
+    power.hi.forEach((v, i) => {
+      if (!Number.isFinite(v)) throw new Error(`polynomial fit: x^${k} overflows at observation ${i + 1} (x = ${x[i]}).`);
+    });
+    design.push(power);
+  }
+  return fitColumns(design, y, intercept, options.weights, names);
 }
 
 export interface SimpleLinearFit {

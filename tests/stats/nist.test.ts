@@ -19,7 +19,7 @@ import {
 import { mean } from '../../src/stats/mean.js';
 import { standardDeviation } from '../../src/stats/variance.js';
 import { lag1Autocorrelation } from '../../src/stats/autocorrelation.js';
-import { leastSquares } from '../../src/stats/least-squares.js';
+import { leastSquares, polynomialFit, type LeastSquaresFit } from '../../src/stats/least-squares.js';
 import { oneWayAnova } from '../../src/stats/anova-oneway.js';
 
 function required(difficulty: Difficulty | undefined): number {
@@ -81,41 +81,44 @@ describe('NIST StRD univariate: mean, standard deviation, lag-1 autocorrelation'
   });
 });
 
-/** Columns of the design matrix for each regression file, from the model written in its header. */
-function design(name: string, rows: string[][]): { y: number[]; predictors: number[][]; intercept: boolean } {
-  const y = rows.map((r) => Number(r[0]));
-  const x = rows.map((r) => Number(r[1]));
-  const powers = (deg: number): number[][] =>
-    Array.from({ length: deg }, (_, k) => x.map((v) => v ** (k + 1)));
+/** Degree of the polynomial in x for the polynomial files (the model written in each header), 0 for Longley. */
+function polynomialDegree(name: string): number {
   switch (name) {
     case 'Norris':
-      return { y, predictors: powers(1), intercept: true };
-    case 'Pontius':
-      return { y, predictors: powers(2), intercept: true };
     case 'NoInt1':
     case 'NoInt2':
-      return { y, predictors: powers(1), intercept: false };
+      return 1;
+    case 'Pontius':
+      return 2;
     case 'Filip':
-      return { y, predictors: powers(10), intercept: true };
+      return 10;
     case 'Longley':
-      return { y, predictors: [1, 2, 3, 4, 5, 6].map((j) => rows.map((r) => Number(r[j]))), intercept: true };
+      return 0;
     default:
-      return { y, predictors: powers(5), intercept: true }; // Wampler1-5
+      return 5; // Wampler1-5
   }
 }
 
 const LINREG = ['Norris', 'Pontius', 'NoInt1', 'NoInt2', 'Longley', 'Filip', 'Wampler1', 'Wampler2', 'Wampler3', 'Wampler4', 'Wampler5'];
 
 /**
- * Filip (degree-10 polynomial in x) is the one exception. The limit is the design matrix, not the solver: the powers
- * x^k cannot be stored exactly in double precision, and the problem is so ill-conditioned (condition number about
- * 1e15 for the raw powers) that rounding them alone moves the solution in the 8th digit. Solving the least-squares
- * problem for the design matrix exactly as stored in double (x^k rounded), in exact rational arithmetic (Python
- * fractions), agrees with the certified coefficients to only 7.6 digits, while rounding x alone and keeping exact
- * powers still gives 14. The refined QR solution reaches about 8.0 digits on the estimates and 7.3 on their standard
- * deviations; 7 is required here.
+ * The polynomial files of degree 2 and more (Pontius, Filip, Wampler1-5) go through polynomialFit(), which forms the
+ * powers of x in double-double; Norris, NoInt1/2 (straight lines) and Longley (six predictors) through
+ * leastSquares() with the columns as read. Filip (degree 10) needs the exact powers: the problem is so
+ * ill-conditioned that rounding x^k to double alone moves its solution in the 8th digit (the exact least-squares
+ * solution of the design rounded to double agrees with the certified values to only 7.6 digits, computed in exact
+ * rational arithmetic with Python fractions), so the same fit from powers rounded to double is shown for the record
+ * only.
  */
-const FILIP_REQUIRED = 7;
+function fitFile(name: string, rows: string[][]): LeastSquaresFit {
+  const y = rows.map((r) => Number(r[0]));
+  const x = rows.map((r) => Number(r[1]));
+  const degree = polynomialDegree(name);
+  const intercept = name !== 'NoInt1' && name !== 'NoInt2';
+  if (degree === 0) return leastSquares([1, 2, 3, 4, 5, 6].map((j) => rows.map((r) => Number(r[j]))), y);
+  if (degree === 1) return leastSquares([x], y, { intercept });
+  return polynomialFit(x, y, degree, { intercept });
+}
 
 describe('NIST StRD linear regression: coefficients, their SDs, residual SD, R squared, ANOVA table', () => {
   it('matches the certified values of all 11 files', () => {
@@ -123,9 +126,8 @@ describe('NIST StRD linear regression: coefficients, their SDs, residual SD, R s
     for (const name of LINREG) {
       const f = readStrd('linreg', name);
       const cert = linregCertified(f);
-      const d = design(name, f.rows);
-      const fit = leastSquares(d.predictors, d.y, { intercept: d.intercept });
-      const need = name === 'Filip' ? FILIP_REQUIRED : required(f.difficulty);
+      const fit = fitFile(name, f.rows);
+      const need = required(f.difficulty);
       expect(fit.coefficients.length, `${name} parameters`).toBe(cert.parameters.length);
       cert.parameters.forEach((c, j) => {
         check(rows, name, f.difficulty, `${c.name} estimate`, fit.coefficients[j]!.estimate, c.estimate, need);
