@@ -390,6 +390,11 @@ export function splitByteRows(
 export interface CsvOptions extends ReadOptions {
   /** Called once with the delimiter found, before the first row is yielded. */
   onDelimiter?: (delimiter: Delimiter) => void;
+  /**
+   * Called with each piece of the file's bytes as read, in order, before it is split (e.g. to hash the file in the
+   * same read). Every byte has been handed over once the last row has been yielded.
+   */
+  onBytes?: (bytes: Buffer) => void;
 }
 
 export async function* readCsvRows(path: string, options: CsvOptions = {}): AsyncGenerator<SheetRow> {
@@ -507,7 +512,9 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
     // Between lines, with the decoder holding no part of a character, plain lines are split straight from the
     // bytes (splitByteRows); the rest of a piece, and any piece with a quote, goes through textPiece.
     const decoderClean = { now: true };
+    const onBytes = options.onBytes;
     for await (const raw of stream as AsyncIterable<Buffer>) {
+      onBytes?.(raw);
       const keep = options.select?.keep;
       let from = 0;
       if (keep !== undefined && dialect !== undefined && !first && dialect.newline !== '\r') {

@@ -1,7 +1,8 @@
 /**
  * Read a data source into a cube of counts (see types.ts) in one streaming pass. Rows are added into a Map keyed by
  * the row's dimension values and then dropped, so memory grows with the number of groups, not rows. The file's
- * SHA-256 is computed in a second streaming pass run at the same time.
+ * SHA-256 is computed from the bytes the CSV reader reads (no second read); a workbook is hashed in a second streaming
+ * pass run at the same time.
  *
  * Problems in data rows are collected (up to MAX_PROBLEMS) and reported together in one InputError; problems with
  * the file or its header stop the read at once.
@@ -25,6 +26,7 @@ import type { SourceSpec } from '../claims/types.js';
 import type { Cell, Cube } from './types.js';
 import { readCsvBatches } from './csv.js';
 import type { Delimiter } from './csv.js';
+import { createHash } from 'node:crypto';
 import { sha256File } from './hash.js';
 import { isBlankRow, rowIsBlank } from './rows.js';
 import type { ColumnSelection, SheetRow } from './rows.js';
@@ -191,15 +193,20 @@ async function findHeader(
 
 export async function readCube(source: CubeSource, needed: string[], displayPath: string, options: ReadCubeOptions = {}): Promise<Cube> {
   const file = displayPath;
-  const shaPromise = sha256File(source.path).then(
-    (h) => h,
-    () => '',
-  );
+  // A workbook is hashed in its own read, at the same time; a CSV file from the bytes its reader reads.
+  const shaPromise =
+    source.format === 'xlsx'
+      ? sha256File(source.path).then(
+          (h) => h,
+          () => '',
+        )
+      : undefined;
   const mismatch = kindMismatch(await sniffKind(source.path), source.format, file);
   if (mismatch !== undefined) {
     await shaPromise;
     throw mismatch;
   }
+  const csvHash = source.format === 'xlsx' ? undefined : createHash('sha256');
   let sheet: string | undefined;
   let columnLetters = (i: number): string => String(i + 1);
   let otherSheets: string[] = [];
@@ -222,6 +229,9 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
   } else {
     rows = readCsvBatches(source.path, {
       ...readOptions,
+      onBytes: (bytes: Buffer) => {
+        csvHash!.update(bytes);
+      },
       onDelimiter: (d: Delimiter) => {
         style.decimalComma = d === ';';
       },
@@ -272,7 +282,9 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
       source.shape === 'summary'
         ? await summaryCube(source, needed, body, header.row, names, column, where, style)
         : await respondentsCube(source, needed, body, header.row, names, column, where, select);
-    return { ...common, sha256: await shaPromise, ...cube };
+    // The body has been read to its end, so the CSV reader has handed every byte to the hash.
+    const sha256 = csvHash !== undefined ? csvHash.digest('hex') : await shaPromise!;
+    return { ...common, sha256, ...cube };
   } finally {
     await rows.return(undefined);
     close();
