@@ -4,7 +4,7 @@
  * A `latest` link names the newest. A pack is written into a temporary folder and renamed into place, so an
  * interrupted build leaves the earlier packs intact and no half-written pack behind.
  */
-import { existsSync, readdirSync, readFileSync, readlinkSync, statSync } from 'node:fs';
+import { existsSync, readdirSync, readFileSync, readlinkSync, realpathSync, statSync } from 'node:fs';
 import { mkdir, readlink, rename, rm, symlink, writeFile } from 'node:fs/promises';
 import { basename, join } from 'node:path';
 import type { ResultsFile } from '../results/results.js';
@@ -67,7 +67,14 @@ export function latestPack(root: string): StoredPack | undefined {
 
 /** A pack folder given on the command line: a pack folder, its results.json, or a history folder (its latest). */
 export function openPack(path: string): StoredPack | undefined {
-  const folder = path.endsWith('.json') ? join(path, '..') : path;
+  const given = path.endsWith('.json') ? join(path, '..') : path;
+  // The `latest` link (or any link) is followed, so the pack is named by its real folder.
+  let folder = given;
+  try {
+    folder = realpathSync(given);
+  } catch {
+    return undefined;
+  }
   const direct = readResults(folder);
   if (direct) return { name: basename(folder), path: folder, results: direct };
   return latestPack(folder);
