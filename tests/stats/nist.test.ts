@@ -141,6 +141,36 @@ describe('NIST StRD linear regression: coefficients, their SDs, residual SD, R s
       check(rows, name, f.difficulty, 'residual SS', fit.residualSumOfSquares, cert.residual.ss, need);
       check(rows, name, f.difficulty, 'F', fit.fTest!.value, cert.regression.f, need);
     }
+    const lowest = new Map<string, number>();
+    for (const r of rows) lowest.set(r.difficulty, Math.min(lowest.get(r.difficulty) ?? Infinity, r.lre));
+    console.table([...lowest].map(([difficulty, lre]) => ({ difficulty, lowestLre: lre })));
+    assertRows(rows);
+  });
+
+  it('leastSquares() on powers rounded to double meets the same bounds for Pontius and Wampler1-5', () => {
+    const rows: Row[] = [];
+    for (const name of ['Pontius', 'Wampler1', 'Wampler2', 'Wampler3', 'Wampler4', 'Wampler5', 'Filip']) {
+      const f = readStrd('linreg', name);
+      const cert = linregCertified(f);
+      const y = f.rows.map((r) => Number(r[0]));
+      const x = f.rows.map((r) => Number(r[1]));
+      const powers = Array.from({ length: polynomialDegree(name) }, (_, k) => x.map((v) => v ** (k + 1)));
+      const fit = leastSquares(powers, y);
+      const part: Row[] = [];
+      cert.parameters.forEach((c, j) => {
+        check(part, name, f.difficulty, `${c.name} estimate`, fit.coefficients[j]!.estimate, c.estimate);
+        check(part, name, f.difficulty, `${c.name} sd`, fit.coefficients[j]!.standardError, c.sd);
+      });
+      check(part, name, f.difficulty, 'residual sd', fit.residualSd, cert.residualSd);
+      check(part, name, f.difficulty, 'R squared', fit.rSquared, cert.rSquared);
+      if (name === 'Filip') {
+        // For the record only: with x^k rounded to double, Filip is a different problem (see fitFile above); the
+        // digits here are about 8 on the estimates and 7.7 on their SDs (shown, not required).
+        console.table(part);
+      } else {
+        rows.push(...part);
+      }
+    }
     assertRows(rows);
   });
 });

@@ -6,7 +6,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { expectClose } from '../helpers/tolerance.js';
-import { leastSquares, simpleLinearFit, type LeastSquaresFit } from '../../src/stats/least-squares.js';
+import { leastSquares, polynomialFit, simpleLinearFit, type LeastSquaresFit } from '../../src/stats/least-squares.js';
 
 interface LmSummary {
   estimate: number[];
@@ -41,6 +41,16 @@ const R = JSON.parse(readFileSync(new URL('../fixtures/r/correlation.json', impo
   };
 };
 const G = R.regression;
+
+const P = JSON.parse(readFileSync(new URL('../fixtures/r/polynomial.json', import.meta.url), 'utf8')) as {
+  r_version: string;
+  x: number[];
+  y: number[];
+  w: number[];
+  cubic: LmSummary;
+  cubic_weighted: LmSummary;
+  quadratic_no_intercept: LmSummary;
+};
 
 /** Compares a fit with summary.lm; estimates, SEs and t are closed-form (1e-12), p-values 1e-9. */
 function compare(fit: LeastSquaresFit, ref: LmSummary, what: string): void {
@@ -101,6 +111,37 @@ describe(`least squares against ${R.r_version} lm()`, () => {
   it('names coefficients and keeps the coefficient order', () => {
     const fit = leastSquares([G.z1, G.z2], G.y, { names: ['resources', 'feedback'] });
     expect(fit.coefficients.map((c) => c.name)).toEqual(['(Intercept)', 'resources', 'feedback']);
+  });
+});
+
+describe(`polynomial fit against ${P.r_version} lm(y ~ x + I(x^2) + ...)`, () => {
+  // Fixture tests/fixtures/r/polynomial.json, written by tests/fixtures/r/polynomial.R.
+  it('cubic with intercept', () => {
+    const fit = polynomialFit(P.x, P.y, 3);
+    compare(fit, P.cubic, 'cubic');
+    expect(fit.coefficients.map((c) => c.name)).toEqual(['(Intercept)', 'x', 'x^2', 'x^3']);
+  });
+
+  it('weighted cubic, with two zero weights left out of the degrees of freedom', () => {
+    compare(polynomialFit(P.x, P.y, 3, { weights: P.w }), P.cubic_weighted, 'weighted cubic');
+  });
+
+  it('quadratic without intercept', () => {
+    const fit = polynomialFit(P.x, P.y, 2, { intercept: false, name: 'score' });
+    compare(fit, P.quadratic_no_intercept, 'quadratic without intercept');
+    expect(fit.coefficients.map((c) => c.name)).toEqual(['score', 'score^2']);
+  });
+
+  it('throws clear errors', () => {
+    expect(() => polynomialFit([1, 2, 3, 4], [1, 2, 4, 3], 0)).toThrow(/degree must be a whole number of at least 1/);
+    expect(() => polynomialFit([1, 2, 3, 4], [1, 2, 4, 3], 1.5)).toThrow(/degree must be a whole number/);
+    expect(() => polynomialFit([1, 2, 3], [1, 2, 4, 3], 2)).toThrow(/x has 3 values but y has 4/);
+    expect(() => polynomialFit([1, 2, 3, 4], [1, 2, 4, 3], 3)).toThrow(/4 observations for 4 coefficients/);
+    expect(() => polynomialFit([1, 2, NaN, 4, 5], [1, 2, 4, 3, 5], 2)).toThrow(/not a finite number/);
+    expect(() => polynomialFit([1, 2, 1e200, 4, 5], [1, 2, 4, 3, 5], 2)).toThrow(/x\^2 overflows at observation 3/);
+    expect(() => polynomialFit([1, 2, 3, 4, 5], [1, 2, 4, 3, 5], 2, { weights: [1, 1, -1, 1, 1] })).toThrow(
+      /weight 3 is negative/,
+    );
   });
 });
 
