@@ -10,6 +10,7 @@
  * - Nothing overflows: every block is measured with the same font before it is drawn, moved to a new page when it
  *   does not fit, and tables repeat their header row on each page they continue on.
  */
+import { createHash } from 'node:crypto';
 import PDFDocument from 'pdfkit';
 import SVGtoPDF from 'svg-to-pdfkit';
 import type { ChartData, ClaimSection, PackModel, VerdictKind } from './model.js';
@@ -917,6 +918,9 @@ export async function renderPdf(model: PackModel, options: RenderOptions = {}): 
       Producer: 'warrant',
       CreationDate: created,
       ModDate: created,
+      // A digest of everything drawn: pdfkit derives the document ID from the info dictionary, so this makes the ID
+      // follow the content (two different packs never share an ID; the same pack always gets the same one).
+      ContentDigest: createHash('sha256').update(JSON.stringify(model)).digest('hex').slice(0, 32),
     },
   });
   for (const face of ['regular', 'bold', 'italic'] as const) doc.registerFont(FONT_NAME[face], fontBytes(face));

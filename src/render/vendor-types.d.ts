@@ -68,6 +68,8 @@ declare namespace PDFKit {
     Producer?: string;
     CreationDate?: Date;
     ModDate?: Date;
+    /** Custom entries are written into the Info dictionary as text. */
+    [key: string]: string | Date | undefined;
   }
   interface DocumentOptions {
     size?: string | [number, number];
