@@ -116,6 +116,10 @@ describe('rerun on a new release', () => {
       'arrangements-by-campus': 'supported -> not-supported (new data)',
       'campuses-equally-reachable': 'not-supported -> supported (new data)',
     });
+    // The PDF's document ID follows the content, so two different packs never share one.
+    const docId = (pdf: string) => /\/ID \[<([0-9a-f]+)>/.exec(readFileSync(pdf, 'latin1'))?.[1];
+    expect(docId(year1.files.pdf)).toMatch(/^[0-9a-f]{32}$/);
+    expect(docId(year2.files.pdf)).not.toBe(docId(year1.files.pdf));
     const text = fold(execFileSync('pdftotext', ['-enc', 'UTF-8', year2.files.pdf, '-'], { encoding: 'utf8' }));
     expect(text).toContain(fold(year2.model.changes?.heading ?? 'missing'));
     expect(text).toContain('Data file data/2026/summary.xlsx (lanternfield) is not the same file as before');
