@@ -5,15 +5,23 @@
  * Householder reflections (Golub & Van Loan, "Matrix Computations", 4th ed., 2013, Algorithm 5.2.1), and the solution
  * and residual are then refined on the augmented system [I A; A' 0][r; x] = [y; 0] with the residuals of that system
  * computed in twice the working precision (Björck, "Iterative refinement of linear least squares solutions I", BIT 7
- * (1967) 257-278; Björck, "Numerical Methods for Least Squares Problems", SIAM 1996, section 2.9). This keeps the
- * NIST StRD linear regression problems (Longley, Wampler1-5) at 12 digits or more in double precision.
+ * (1967) 257-278; Björck, "Numerical Methods for Least Squares Problems", SIAM 1996, section 2.9). The design is held
+ * as a double-double (each entry an unevaluated sum hi + lo of two doubles; Dekker, "A floating-point technique for
+ * extending the available precision", Numerische Mathematik 18 (1971) 224-242): data given in double have lo = 0,
+ * weighted rows and polynomial terms x^k (polynomialFit) are formed in it with Dekker's TwoProduct. The QR
+ * factors are those of the double part only; the refinement residuals are taken against the whole double-double
+ * design, so the refinement converges to the least-squares solution of that design (the double QR serves as the
+ * preconditioner). This keeps every NIST StRD linear regression problem (Longley, Filip, Wampler1-5 included) at 13
+ * digits or more in double precision; for Filip, a degree-10 polynomial, rounding x^k to double alone would cost
+ * 6 of them.
  *
- * Standard errors are s * sqrt(diag((R'R)^-1)) with s^2 = RSS / (n - p); t = estimate / SE with n - p degrees of
- * freedom (Draper & Smith, "Applied Regression Analysis", 3rd ed., 1998, ch. 5). With weights w, rows are multiplied
- * by sqrt(w) (weighted least squares, Draper & Smith section 9.2); rows with weight 0 are left out of the fit and of
- * the degrees of freedom, as R's lm() does. R squared is 1 - RSS/TSS with TSS taken about the (weighted) mean of y
- * when the model has an intercept and about zero when it has not (as in R's summary.lm and the NIST no-intercept
- * files).
+ * Standard errors are s * sqrt(diag((A'A)^-1)) with s^2 = RSS / (n - p), each diagonal element refined in the same
+ * way (augmented system with right-hand side [0; -e_j], whose x part is (A'A)^-1 e_j); t = estimate / SE with n - p
+ * degrees of freedom (Draper & Smith, "Applied Regression Analysis", 3rd ed., 1998, ch. 5). With weights w, rows are
+ * multiplied by sqrt(w) (weighted least squares, Draper & Smith section 9.2); rows with weight 0 are left out of the
+ * fit and of the degrees of freedom, as R's lm() does. R squared is 1 - RSS/TSS with TSS taken about the (weighted)
+ * mean of y when the model has an intercept and about zero when it has not (as in R's summary.lm and the NIST
+ * no-intercept files).
  */
 import { accurateDot } from './compensated-dot.js';
 import { compensatedSum, requireFinite } from './mean.js';
@@ -505,7 +513,9 @@ export function polynomialFit(
     // x^k = x^(k-1) * x, each term in double-double
     power = scaleColumn(power, x, all);
     power.hi.forEach((v, i) => {
-      if (!Number.isFinite(v)) throw new Error(`polynomial fit: x^${k} overflows at observation ${i + 1} (x = ${x[i]}).`);
+      if (!Number.isFinite(v)) {
+        throw new Error(`polynomial fit: x^${k} overflows at observation ${i + 1} (x = ${x[i]}).`);
+      }
     });
     design.push(power);
   }
