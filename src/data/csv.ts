@@ -532,10 +532,18 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
           if (last >= from) {
             const region = raw.subarray(from, last + 1);
             if (region.indexOf(34) < 0 && isUtf8(region)) {
-              const rows: SheetRow[] = [];
-              from = splitByteRows(raw, from, last + 1, dialect.newline === '\r\n', dialect.delimiter.charCodeAt(0), keep, row + 1, byteIntern, rows);
-              row += rows.length;
-              if (rows.length > 0) yield rows;
+              const sink = options.select?.lines;
+              if (sink !== undefined) {
+                // The consumer takes these lines itself, in order: the rows before them have been yielded.
+                const taken = sink.lines(raw, from, last + 1, dialect.newline === '\r\n', dialect.delimiter.charCodeAt(0), row + 1);
+                row += taken.rows;
+                from = taken.at;
+              } else {
+                const rows: SheetRow[] = [];
+                from = splitByteRows(raw, from, last + 1, dialect.newline === '\r\n', dialect.delimiter.charCodeAt(0), keep, row + 1, byteIntern, rows);
+                row += rows.length;
+                if (rows.length > 0) yield rows;
+              }
             }
           }
         }

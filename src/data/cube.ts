@@ -468,15 +468,22 @@ async function summaryCube(
   };
 }
 
-/** One combination of dimension values: a cell per question, and its answer-code counts indexed by code. */
+/** One combination of dimension values: its values, a cell per question, and its answer-code counts indexed by code. */
 interface Leaf {
+  values: string[];
   cells: Array<Cell | undefined>;
   tallies: Array<number[] | undefined>;
 }
 
-function newLeaf(questions: number): Leaf {
-  return { cells: new Array<Cell | undefined>(questions).fill(undefined), tallies: new Array<number[] | undefined>(questions).fill(undefined) };
+function newLeaf(values: string[], questions: number): Leaf {
+  return { values, cells: new Array<Cell | undefined>(questions).fill(undefined), tallies: new Array<number[] | undefined>(questions).fill(undefined) };
 }
+
+/** Groups remembered by the bytes of their values (see respondentsCube); past this, new ones are looked up by text. */
+const BYTE_GROUP_LIMIT = 1 << 16;
+
+/** Ends each value in a group's byte key: a byte that never occurs in well-formed UTF-8. */
+const KEY_END = 0xff;
 
 async function respondentsCube(
   source: CubeSource,
@@ -510,7 +517,6 @@ async function respondentsCube(
   const dimensions = [...dimensionsWanted, qColName];
   const keep = new Array<boolean>(names.length).fill(false);
   for (const i of [...qIdx, ...dimIdx]) keep[i] = true;
-  select.keep = keep;
   const na = new Set(source.notApplicableCodes);
   const agreeCodes = new Set(source.agreeCodes);
   const maxCode = Math.max(5, ...source.agreeCodes);
@@ -528,8 +534,88 @@ async function respondentsCube(
   // Not-applicable codes as flags for small codes (the usual case), the Set for any other.
   const naSmall = Array.from({ length: 16 }, (_, c) => na.has(c));
   const isNa = (c: number) => (c >= 0 && c < 16 ? naSmall[c] === true : na.has(c));
+  // Single-digit codes counted as they are: true for 0-9 when the code is neither not-applicable nor out of range.
+  const digitCounts = Array.from({ length: 10 }, (_, c) => !isNa(c) && c >= 1 && c <= maxCode);
   const dimValues: string[] = new Array<string>(nd).fill('');
   let rows = 0;
+
+  /** The group of the values in dimValues (trimmed as below), made on first sight. */
+  const leafOf = (): Leaf => {
+    let node: Map<string, unknown> = root;
+    if (nd === 0) {
+      let leaf = root.get('') as Leaf | undefined;
+      if (leaf === undefined) {
+        leaf = newLeaf([], nq);
+        root.set('', leaf);
+      }
+      return leaf;
+    }
+    for (let j = 0; j < nd; j++) {
+      const v = dimValues[j]!;
+      if (j === nd - 1) {
+        let leaf = node.get(v) as Leaf | undefined;
+        if (leaf === undefined) {
+          leaf = newLeaf(dimValues.slice(), nq);
+          node.set(v, leaf);
+        }
+        return leaf;
+      }
+      let next = node.get(v) as Map<string, unknown> | undefined;
+      if (next === undefined) {
+        next = new Map<string, unknown>();
+        node.set(v, next);
+      }
+      node = next;
+    }
+    throw new Error('unreachable');
+  };
+  /** A group value as read: trimmed when it starts or ends with a space or control character. */
+  const dimText = (v0: string): string => (v0.length > 0 && (v0.charCodeAt(0) <= 32 || v0.charCodeAt(v0.length - 1) <= 32) ? v0.trim() : v0);
+
+  /** The code to count for an answer's text, or -1 (blank, not applicable, or a problem recorded). */
+  const codeOf = (raw0: string, row: number, k: number): number => {
+    if (raw0 === '') return -1;
+    let code: number;
+    let raw = raw0;
+    const c0 = raw0.charCodeAt(0);
+    if (raw0.length === 1 && c0 >= 48 && c0 <= 57) code = c0 - 48;
+    else {
+      raw = raw0.trim();
+      if (raw === '') return -1;
+      code = /^[+-]?\d+(\.0+)?$/.test(raw) ? Number(raw) : NaN;
+    }
+    if (Number.isNaN(code)) {
+      problems.add({ row, field: names[qIdx[k]!]!, found: raw, problem: 'An answer is not a whole-number code', fix: `Code answers as whole numbers (1 to ${maxCode}); list any code meaning "not applicable" under not_applicable in the source` });
+      return -1;
+    }
+    if (isNa(code)) return -1;
+    if (code < 1 || code > maxCode) {
+      problems.add({ row, field: names[qIdx[k]!]!, found: raw, problem: `An answer code is outside 1 to ${maxCode}`, fix: 'Correct the answer, or list the code under not_applicable in the source if it means "not applicable"' });
+      return -1;
+    }
+    return code;
+  };
+
+  /** Count one answer of question k in a group, making the cell on its first answer. */
+  const count = (group: Leaf, k: number, code: number, row: number): void => {
+    let t = group.tallies[k];
+    if (t === undefined) {
+      const dims: Record<string, string> = {};
+      dimensionsWanted.forEach((d, j) => {
+        dims[d] = group.values[j]!;
+      });
+      dims[qColName] = questions[k]!;
+      const cell: Cell = { dims, n: 0, agree: 0, approximate: false, firstRow: row, codes: {} };
+      group.cells[k] = cell;
+      t = new Array<number>(maxCode + 1).fill(0);
+      group.tallies[k] = t;
+      cells.push(cell);
+      tallies.push(t);
+    }
+    // Only the code is counted here; n and agree are summed from the code counts at the end.
+    t[code]! += 1;
+  };
+
   // One batch at a time in its own function, which the engine compiles as a whole rather than mid-loop.
   const tallyBatch = (batch: SheetRow[]): void => {
     for (const r of batch) {
@@ -539,74 +625,165 @@ async function respondentsCube(
       let group: Leaf | undefined;
       for (let k = 0; k < nq; k++) {
         const raw0 = rv[qIdx[k]!];
-        if (raw0 === undefined || raw0 === '') continue;
-        let code: number;
-        let raw = raw0;
-        const c0 = raw0.charCodeAt(0);
-        if (raw0.length === 1 && c0 >= 48 && c0 <= 57) code = c0 - 48;
-        else {
-          raw = raw0.trim();
-          if (raw === '') continue;
-          code = /^[+-]?\d+(\.0+)?$/.test(raw) ? Number(raw) : NaN;
-        }
-        if (Number.isNaN(code)) {
-          problems.add({ row: r.row, field: names[qIdx[k]!]!, found: raw, problem: 'An answer is not a whole-number code', fix: `Code answers as whole numbers (1 to ${maxCode}); list any code meaning "not applicable" under not_applicable in the source` });
-          continue;
-        }
-        if (isNa(code)) continue;
-        if (code < 1 || code > maxCode) {
-          problems.add({ row: r.row, field: names[qIdx[k]!]!, found: raw, problem: `An answer code is outside 1 to ${maxCode}`, fix: 'Correct the answer, or list the code under not_applicable in the source if it means "not applicable"' });
-          continue;
-        }
+        if (raw0 === undefined) continue;
+        const code = codeOf(raw0, r.row, k);
+        if (code < 0) continue;
         if (group === undefined) {
-          let node: Map<string, unknown> = root;
-          for (let j = 0; j < nd; j++) {
-            const v0 = rv[dimIdx[j]!] ?? '';
-            const v = v0.length > 0 && (v0.charCodeAt(0) <= 32 || v0.charCodeAt(v0.length - 1) <= 32) ? v0.trim() : v0;
-            dimValues[j] = v;
-            if (j === nd - 1) {
-              let leaf = node.get(v) as Leaf | undefined;
-              if (leaf === undefined) {
-                leaf = newLeaf(nq);
-                node.set(v, leaf);
-              }
-              group = leaf;
-            } else {
-              let next = node.get(v) as Map<string, unknown> | undefined;
-              if (next === undefined) {
-                next = new Map<string, unknown>();
-                node.set(v, next);
-              }
-              node = next;
-            }
-          }
-          if (nd === 0) {
-            let leaf = root.get('') as Leaf | undefined;
-            if (leaf === undefined) {
-              leaf = newLeaf(nq);
-              root.set('', leaf);
-            }
-            group = leaf;
-          }
+          for (let j = 0; j < nd; j++) dimValues[j] = dimText(rv[dimIdx[j]!] ?? '');
+          group = leafOf();
         }
-        let cell = group!.cells[k];
-        if (cell === undefined) {
-          const dims: Record<string, string> = {};
-          dimensionsWanted.forEach((d, j) => {
-            dims[d] = dimValues[j]!;
-          });
-          dims[qColName] = questions[k]!;
-          cell = { dims, n: 0, agree: 0, approximate: false, firstRow: r.row, codes: {} };
-          group!.cells[k] = cell;
-          group!.tallies[k] = new Array<number>(maxCode + 1).fill(0);
-          cells.push(cell);
-          tallies.push(group!.tallies[k]!);
-        }
-        // Only the code is counted here; n and agree are summed from the code counts at the end.
-        group!.tallies[k]![code]! += 1;
+        count(group, k, code, r.row);
       }
     }
   };
+
+  // Plain lines straight from a CSV file's bytes (see ByteLineSink), tallied as tallyBatch would tally their rows:
+  // each field's place in the line is noted by its column's role, single-digit answers are counted from their byte,
+  // and a group is found by the bytes of its values (any other text is made into a string and read as above).
+  const role = new Int32Array(names.length).fill(-1); // question k as k, group column j as -2 - j, others -1
+  qIdx.forEach((i, k) => {
+    role[i] = k;
+  });
+  dimIdx.forEach((i, j) => {
+    role[i] = -2 - j;
+  });
+  const qFrom = new Int32Array(nq);
+  const qTo = new Int32Array(nq);
+  const dFrom = new Int32Array(nd);
+  const dTo = new Int32Array(nd);
+  // Groups by the bytes of their values: an open-addressing table of slots (entry + 1, 0 for free) over entries each
+  // with the full hash, the values' bytes (each ended by KEY_END) and the group.
+  const SLOTS = BYTE_GROUP_LIMIT * 2;
+  const slots = new Int32Array(SLOTS);
+  const slotHash = new Int32Array(BYTE_GROUP_LIMIT);
+  const slotKey: Uint8Array[] = [];
+  const slotLeaf: Leaf[] = [];
+  const text = (b: Uint8Array, s: number, e: number): string => Buffer.from(b.buffer, b.byteOffset + s, e - s).toString('utf8');
+  const sameKey = (key: Uint8Array, b: Uint8Array): boolean => {
+    let at = 0;
+    for (let j = 0; j < nd; j++) {
+      const e = dTo[j]!;
+      for (let i = dFrom[j]!; i < e; i++) if (key[at++] !== b[i]) return false;
+      if (key[at++] !== KEY_END) return false;
+    }
+    return at === key.length;
+  };
+  const groupOfBytes = (b: Uint8Array): Leaf => {
+    let h = 0;
+    let len = 0;
+    for (let j = 0; j < nd; j++) {
+      const e = dTo[j]!;
+      for (let i = dFrom[j]!; i < e; i++) h = (Math.imul(h, 31) + b[i]!) | 0;
+      h = (Math.imul(h, 31) + KEY_END) | 0;
+      len += e - dFrom[j]! + 1;
+    }
+    let slot = (h ^ (h >>> 15)) & (SLOTS - 1);
+    for (;;) {
+      const entry = slots[slot]! - 1;
+      if (entry < 0) break;
+      if (slotHash[entry] === h && sameKey(slotKey[entry]!, b)) return slotLeaf[entry]!;
+      slot = (slot + 1) & (SLOTS - 1);
+    }
+    for (let j = 0; j < nd; j++) dimValues[j] = dimText(text(b, dFrom[j]!, dTo[j]!));
+    const leaf = leafOf();
+    const entry = slotLeaf.length;
+    if (entry < BYTE_GROUP_LIMIT) {
+      const key = new Uint8Array(len);
+      let at = 0;
+      for (let j = 0; j < nd; j++) {
+        key.set(b.subarray(dFrom[j]!, dTo[j]!), at);
+        at += dTo[j]! - dFrom[j]!;
+        key[at++] = KEY_END;
+      }
+      slotHash[entry] = h;
+      slotKey.push(key);
+      slotLeaf.push(leaf);
+      slots[slot] = entry + 1;
+    }
+    return leaf;
+  };
+  const lines = (b: Uint8Array, from: number, end: number, crlf: boolean, d: number, firstRow: number): { at: number; rows: number } => {
+    const nc = role.length;
+    let row = firstRow;
+    let at = from;
+    // Field by field: `end` is just past a line feed, so each scan stops at one without checking `end`.
+    while (at < end) {
+      qFrom.fill(-1);
+      dFrom.fill(0);
+      dTo.fill(0);
+      let col = 0;
+      let s = at;
+      let blank = true;
+      let wide = false;
+      let stop: number;
+      for (;;) {
+        let i = s;
+        let c = b[i]!;
+        while (c !== d && c !== 10 && c !== 13) c = b[++i]!;
+        if (c === 13 && !(crlf && b[i + 1] === 10)) {
+          // A carriage return inside a field (not a line end here): part of the field.
+          c = b[++i]!;
+          while (c !== d && c !== 10 && (c !== 13 || !(crlf && b[i + 1] === 10))) c = b[++i]!;
+        }
+        if (c === 10 && crlf) return { at, rows: row - firstRow };
+        const r = col < nc ? role[col]! : -1;
+        if (r >= 0) {
+          qFrom[r] = s;
+          qTo[r] = i;
+        } else if (r < -1) {
+          dFrom[-2 - r] = s;
+          dTo[-2 - r] = i;
+        }
+        if (blank) {
+          for (let k = s; k < i; k++) {
+            const x = b[k]!;
+            if (x >= 128) wide = true;
+            else if (x !== 32 && (x < 9 || x > 13)) {
+              blank = false;
+              break;
+            }
+          }
+        }
+        if (c !== d) {
+          stop = i;
+          break;
+        }
+        col += 1;
+        s = i + 1;
+      }
+      const lf = b[stop] === 13 ? stop + 1 : stop;
+      if (blank && wide) {
+        // Non-ASCII text in an otherwise blank line: decide on the decoded text, as isBlankRow would.
+        blank = text(b, at, stop).split(String.fromCharCode(d)).every((v) => v.trim() === '');
+      }
+      if (!blank) {
+        rows += 1;
+        let group: Leaf | undefined;
+        for (let k = 0; k < nq; k++) {
+          const s = qFrom[k]!;
+          if (s < 0) continue;
+          const e = qTo[k]!;
+          let code: number;
+          const c = b[s]!;
+          if (e - s === 1 && c >= 48 && c <= 57 && digitCounts[c - 48] === true) code = c - 48;
+          else if (e === s) continue;
+          else {
+            code = codeOf(text(b, s, e), row, k);
+            if (code < 0) continue;
+          }
+          group ??= groupOfBytes(b);
+          count(group, k, code, row);
+        }
+      }
+      row += 1;
+      at = lf + 1;
+    }
+    return { at, rows: row - firstRow };
+  };
+
+  select.keep = keep;
+  // Taken only when each answer column is read once (a question listed twice is tallied row by row).
+  if (qSet.size === nq) select.lines = { lines };
   for await (const batch of body) tallyBatch(batch);
   cells.forEach((cell, i) => {
     const codes: Record<string, number> = {};
@@ -626,4 +803,3 @@ async function respondentsCube(
   values[qColName] = [...questions];
   return { rows, dimensions, cells: list, values, approximate: false, hasPopulation: false, hasCodes: true };
 }
-

@@ -23,6 +23,22 @@ export interface SheetRow {
  */
 export interface ColumnSelection {
   keep?: readonly boolean[];
+  /**
+   * Set with `keep` by a consumer that takes plain lines straight from the bytes (a CSV reader hands them over instead
+   * of making rows of them, in the same order as the rows it yields around them).
+   */
+  lines?: ByteLineSink;
+}
+
+/**
+ * Takes lines straight from a CSV file's bytes: `lines` reads b[from, end), well-formed UTF-8 with no double quote,
+ * where `end` is just past a line feed; fields end at the delimiter byte `d`, lines at a line feed (for `crlf`, a
+ * carriage return then a line feed; a line feed alone stops the read there). Lines are numbered from `firstRow`.
+ * Returns where it stopped (`end`, or the start of a line it leaves to the reader's other paths) and how many lines
+ * it took.
+ */
+export interface ByteLineSink {
+  lines(b: Uint8Array, from: number, end: number, crlf: boolean, d: number, firstRow: number): { at: number; rows: number };
 }
 
 export interface ReadOptions {
