@@ -53,12 +53,6 @@ if (process.argv.includes('--json')) {
   lines.push('| group | values | lowest LRE | required | where |');
   lines.push('|---|---:|---:|---:|---|');
   for (const g of report.nist) lines.push(`| ${g.group} | ${g.values} | ${g.lowestLre.toFixed(2)} | ${g.required} | ${g.where} |`);
-  const h = report.linregHigherWithoutFilip;
-  lines.push(
-    '',
-    `linreg higher without Filip (the recorded exception, limited by its design matrix in double): lowest LRE ` +
-      `${h.lowestLre.toFixed(2)} at ${h.where} (required 9).`,
-  );
   if (report.excludedReasons.length > 0) {
     lines.push('', 'Reference values left out of the figures above:');
     for (const r of report.excludedReasons) lines.push(`- ${r}`);
