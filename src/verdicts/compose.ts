@@ -66,5 +66,7 @@ export function composeClaim(a: Analysis, decision: Decision, ctx: ComposeContex
 
 /** The text with its first letter in upper case (a sentence may open with a lower-case label from the claims file). */
 export function sentence(text: string): string {
+  // Terms the trade writes in lower case stay so: "p-value", "r = 0.41".
+  if (/^(p-value|[a-zα-ω](\s|=|$))/.test(text)) return text;
   return text.length > 0 ? text[0]!.toUpperCase() + text.slice(1) : text;
 }
