@@ -482,6 +482,9 @@ function newLeaf(values: string[], questions: number): Leaf {
 /** Groups remembered by the bytes of their values (see respondentsCube); past this, new ones are looked up by text. */
 const BYTE_GROUP_LIMIT = 1 << 16;
 
+/** One-character strings for the ASCII bytes. */
+const ASCII_TEXT = Array.from({ length: 128 }, (_, i) => String.fromCharCode(i));
+
 /** Ends each value in a group's byte key: a byte that never occurs in well-formed UTF-8. */
 const KEY_END = 0xff;
 
@@ -534,8 +537,8 @@ async function respondentsCube(
   // Not-applicable codes as flags for small codes (the usual case), the Set for any other.
   const naSmall = Array.from({ length: 16 }, (_, c) => na.has(c));
   const isNa = (c: number) => (c >= 0 && c < 16 ? naSmall[c] === true : na.has(c));
-  // Single-digit codes counted as they are: true for 0-9 when the code is neither not-applicable nor out of range.
-  const digitCounts = Array.from({ length: 10 }, (_, c) => !isNa(c) && c >= 1 && c <= maxCode);
+  // What a single-digit answer does: 1 counted, 0 not applicable (left out), -1 out of range (a problem, see codeOf).
+  const digitDoes = Int8Array.from({ length: 10 }, (_, c) => (isNa(c) ? 0 : c >= 1 && c <= maxCode ? 1 : -1));
   const dimValues: string[] = new Array<string>(nd).fill('');
   let rows = 0;
 
@@ -647,6 +650,7 @@ async function respondentsCube(
   dimIdx.forEach((i, j) => {
     role[i] = -2 - j;
   });
+  const lastDim = nd > 0 ? Math.max(...dimIdx) : -1;
   const qFrom = new Int32Array(nq);
   const qTo = new Int32Array(nq);
   const dFrom = new Int32Array(nd);
@@ -708,9 +712,7 @@ async function respondentsCube(
     let at = from;
     // Field by field: `end` is just past a line feed, so each scan stops at one without checking `end`.
     while (at < end) {
-      qFrom.fill(-1);
-      dFrom.fill(0);
-      dTo.fill(0);
+      // Fields past the line's last (col at its end) are missing: answers not read, group values ''.
       let col = 0;
       let s = at;
       let blank = true;
@@ -759,14 +761,29 @@ async function respondentsCube(
       if (!blank) {
         rows += 1;
         let group: Leaf | undefined;
+        if (col < lastDim) {
+          for (let j = 0; j < nd; j++) {
+            if (dimIdx[j]! > col) {
+              dFrom[j] = 0;
+              dTo[j] = 0;
+            }
+          }
+        }
         for (let k = 0; k < nq; k++) {
+          if (qIdx[k]! > col) continue;
           const s = qFrom[k]!;
-          if (s < 0) continue;
           const e = qTo[k]!;
           let code: number;
           const c = b[s]!;
-          if (e - s === 1 && c >= 48 && c <= 57 && digitCounts[c - 48] === true) code = c - 48;
-          else if (e === s) continue;
+          if (e - s === 1 && c >= 48 && c <= 57) {
+            code = c - 48;
+            const does = digitDoes[code]!;
+            if (does === 0) continue;
+            if (does < 0) {
+              codeOf(ASCII_TEXT[c]!, row, k);
+              continue;
+            }
+          } else if (e === s) continue;
           else {
             code = codeOf(text(b, s, e), row, k);
             if (code < 0) continue;
