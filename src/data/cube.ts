@@ -2,7 +2,8 @@
  * Read a data source into a cube of counts (see types.ts) in one streaming pass. Rows are added into a Map keyed by
  * the row's dimension values and then dropped, so memory grows with the number of groups, not rows. The file's
  * SHA-256 is computed from the bytes the CSV reader reads (no second read); a workbook is hashed in a second streaming
- * pass run at the same time.
+ * pass run at the same time. Respondent-level CSV lines that are plain (no quote, well-formed UTF-8) are tallied
+ * straight from the file's bytes (see respondentsCube), the same counts as their rows would give.
  *
  * Problems in data rows are collected (up to MAX_PROBLEMS) and reported together in one InputError; problems with
  * the file or its header stop the read at once.
