@@ -656,6 +656,7 @@ async function respondentsCube(
   const qTo = new Int32Array(nq);
   const dFrom = new Int32Array(nd);
   const dTo = new Int32Array(nd);
+  const dHash = new Int32Array(nd);
   // Groups by the bytes of their values: an open-addressing table of slots (entry + 1, 0 for free) over entries each
   // with the full hash, the values' bytes (each ended by KEY_END) and the group.
   const SLOTS = BYTE_GROUP_LIMIT * 2;
@@ -674,13 +675,12 @@ async function respondentsCube(
     return at === key.length;
   };
   const groupOfBytes = (b: Uint8Array): Leaf => {
+    // The line's values, each hashed as it was read (dHash), combined in order.
     let h = 0;
     let len = 0;
     for (let j = 0; j < nd; j++) {
-      const e = dTo[j]!;
-      for (let i = dFrom[j]!; i < e; i++) h = (Math.imul(h, 31) + b[i]!) | 0;
-      h = (Math.imul(h, 31) + KEY_END) | 0;
-      len += e - dFrom[j]! + 1;
+      h = (Math.imul(h, 0x01000193) ^ dHash[j]!) | 0;
+      len += dTo[j]! - dFrom[j]! + 1;
     }
     let slot = (h ^ (h >>> 15)) & (SLOTS - 1);
     for (;;) {
@@ -720,22 +720,32 @@ async function respondentsCube(
       let wide = false;
       let stop: number;
       for (;;) {
+        const r = col < nc ? role[col]! : -1;
         let i = s;
         let c = b[i]!;
-        while (c !== d && c !== 10 && c !== 13) c = b[++i]!;
+        // A group value's bytes are hashed as they are passed (see groupOfBytes).
+        let h = 0;
+        if (r < -1) {
+          while (c !== d && c !== 10 && c !== 13) {
+            h = (Math.imul(h, 31) + c) | 0;
+            c = b[++i]!;
+          }
+        } else while (c !== d && c !== 10 && c !== 13) c = b[++i]!;
         if (c === 13 && !(crlf && b[i + 1] === 10)) {
           // A carriage return inside a field (not a line end here): part of the field.
           c = b[++i]!;
           while (c !== d && c !== 10 && (c !== 13 || !(crlf && b[i + 1] === 10))) c = b[++i]!;
+          h = 0;
+          if (r < -1) for (let k = s; k < i; k++) h = (Math.imul(h, 31) + b[k]!) | 0;
         }
         if (c === 10 && crlf) return { at, rows: row - firstRow };
-        const r = col < nc ? role[col]! : -1;
         if (r >= 0) {
           qFrom[r] = s;
           qTo[r] = i;
         } else if (r < -1) {
           dFrom[-2 - r] = s;
           dTo[-2 - r] = i;
+          dHash[-2 - r] = h;
         }
         if (blank) {
           for (let k = s; k < i; k++) {
@@ -767,6 +777,7 @@ async function respondentsCube(
             if (dimIdx[j]! > col) {
               dFrom[j] = 0;
               dTo[j] = 0;
+              dHash[j] = 0;
             }
           }
         }
