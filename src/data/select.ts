@@ -22,16 +22,28 @@ function wantedTexts(value: FilterValue): string[] {
   return (Array.isArray(list) ? list : [list]).map((v) => String(v).trim());
 }
 
+/** A filter turned into lookups once, so matching a cube's cells does not rebuild the wanted values per cell. */
+type Compiled = Array<{ col: string; wanted: Set<string>; not: boolean }>;
+const compiled = new WeakMap<Filter, Compiled>();
+
+function compile(filter: Filter): Compiled {
+  let c = compiled.get(filter);
+  if (c === undefined) {
+    c = Object.entries(filter).map(([col, value]) => ({ col, wanted: new Set(wantedTexts(value)), not: isNot(value) }));
+    compiled.set(filter, c);
+  }
+  return c;
+}
+
 /**
  * True when the cell's value in every filtered column is (any of) the filter's value(s), or, for `{ not: ... }`,
  * none of them. A cell without the column matches no filter on it, `not` included.
  */
 export function matches(cell: Cell, filter: Filter): boolean {
-  for (const [col, value] of Object.entries(filter)) {
+  for (const { col, wanted, not } of compile(filter)) {
     const have = cell.dims[col];
     if (have === undefined) return false;
-    const listed = wantedTexts(value).includes(have);
-    if (listed === isNot(value)) return false;
+    if (wanted.has(have) === not) return false;
   }
   return true;
 }
