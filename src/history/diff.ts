@@ -29,7 +29,7 @@ export interface PackDiff {
   claimsFileChanged: boolean;
   /** Settings that changed, as "name: before -> after". */
   settings: Array<{ name: string; before: string; after: string }>;
-  data: Array<{ id: string; file: string; change: 'changed' | 'added' | 'removed'; rowsBefore?: number; rowsAfter?: number }>;
+  data: Array<{ id: string; file: string; fileBefore?: string; change: 'changed' | 'added' | 'removed'; rowsBefore?: number; rowsAfter?: number }>;
   added: string[];
   removed: string[];
   edited: string[];
@@ -54,7 +54,7 @@ export function diffPacks(before: ResultsFile, after: ResultsFile, folders: { be
   for (const [id, s] of src1) {
     const old = src0.get(id);
     if (!old) data.push({ id, file: s.file, change: 'added', rowsAfter: s.rows });
-    else if (old.sha256 !== s.sha256) data.push({ id, file: s.file, change: 'changed', rowsBefore: old.rows, rowsAfter: s.rows });
+    else if (old.sha256 !== s.sha256) data.push({ id, file: s.file, ...(old.file !== s.file ? { fileBefore: old.file } : {}), change: 'changed', rowsBefore: old.rows, rowsAfter: s.rows });
   }
   for (const [id, s] of src0) if (!src1.has(id)) data.push({ id, file: s.file, change: 'removed', rowsBefore: s.rows });
   const changedSources = new Set(data.map((d) => d.id));

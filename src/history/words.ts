@@ -31,7 +31,7 @@ function boundText(name: string, value: number): string {
 export function changeNotes(d: PackDiff, t: Templates): string[] {
   const notes: string[] = [];
   for (const f of d.data) {
-    const view = { id: f.id, file: f.file, rowsBefore: fmt.count(f.rowsBefore ?? 0), rowsAfter: fmt.count(f.rowsAfter ?? 0) };
+    const view = { id: f.id, file: f.file, fileBefore: f.fileBefore, rowsBefore: fmt.count(f.rowsBefore ?? 0), rowsAfter: fmt.count(f.rowsAfter ?? 0) };
     notes.push(t.render(`history.data-${f.change}`, view));
   }
   if (d.claimsFileChanged && d.edited.length === 0 && d.added.length === 0 && d.removed.length === 0) {
