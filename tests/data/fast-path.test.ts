@@ -13,7 +13,6 @@
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { crc32, deflateRawSync } from 'node:zlib';
 import fc from 'fast-check';
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
@@ -23,6 +22,7 @@ import { isBlankRow, isTrimmedSpace, rowIsBlank } from '../../src/data/rows.js';
 import type { SheetRow } from '../../src/data/rows.js';
 import { readXlsxRows } from '../../src/data/xlsx.js';
 import { InputError } from '../../src/errors.js';
+import { zip } from '../helpers/zip.js';
 import { respondentsSource, summarySource } from './sources.js';
 
 const tmp = mkdtempSync(join(tmpdir(), 'warrant-fast-'));
@@ -145,50 +145,6 @@ describe('CSV reader: fast path against papaparse', () => {
 
 const NS = 'http://schemas.openxmlformats.org/spreadsheetml/2006/main';
 const RNS = 'http://schemas.openxmlformats.org/officeDocument/2006/relationships';
-
-/** A zip of deflated entries (PKWARE APPNOTE 6.3: local headers, central directory, end record). */
-function zip(files: Record<string, string>): Buffer {
-  const local: Buffer[] = [];
-  const central: Buffer[] = [];
-  let offset = 0;
-  for (const [name, text] of Object.entries(files)) {
-    const data = Buffer.from(text, 'utf8');
-    const nameBuf = Buffer.from(name, 'utf8');
-    const packed = deflateRawSync(data);
-    const crc = crc32(data);
-    const head = Buffer.alloc(30);
-    head.writeUInt32LE(0x04034b50, 0);
-    head.writeUInt16LE(20, 4);
-    head.writeUInt16LE(0x0800, 6);
-    head.writeUInt16LE(8, 8);
-    head.writeUInt32LE(crc, 14);
-    head.writeUInt32LE(packed.length, 18);
-    head.writeUInt32LE(data.length, 22);
-    head.writeUInt16LE(nameBuf.length, 26);
-    const c = Buffer.alloc(46);
-    c.writeUInt32LE(0x02014b50, 0);
-    c.writeUInt16LE(20, 4);
-    c.writeUInt16LE(20, 6);
-    c.writeUInt16LE(0x0800, 8);
-    c.writeUInt16LE(8, 10);
-    c.writeUInt32LE(crc, 16);
-    c.writeUInt32LE(packed.length, 20);
-    c.writeUInt32LE(data.length, 24);
-    c.writeUInt16LE(nameBuf.length, 28);
-    c.writeUInt32LE(offset, 42);
-    local.push(head, nameBuf, packed);
-    central.push(c, nameBuf);
-    offset += 30 + nameBuf.length + packed.length;
-  }
-  const cd = Buffer.concat(central);
-  const end = Buffer.alloc(22);
-  end.writeUInt32LE(0x06054b50, 0);
-  end.writeUInt16LE(Object.keys(files).length, 8);
-  end.writeUInt16LE(Object.keys(files).length, 10);
-  end.writeUInt32LE(cd.length, 12);
-  end.writeUInt32LE(offset, 16);
-  return Buffer.concat([...local, cd, end]);
-}
 
 function workbook(sheet: string, strings: string[]): Buffer {
   const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');

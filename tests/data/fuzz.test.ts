@@ -4,13 +4,13 @@
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { crc32, deflateRawSync } from 'node:zlib';
 import fc from 'fast-check';
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
 import { readCube } from '../../src/data/cube.js';
 import { readCsvRows } from '../../src/data/csv.js';
 import { InputError } from '../../src/errors.js';
+import { zip } from '../helpers/zip.js';
 import { summarySource } from './sources.js';
 
 const fx = (name: string) => join(import.meta.dirname, '../fixtures/data', name);
@@ -31,49 +31,6 @@ async function outcome(p: Promise<unknown>): Promise<'cube' | 'input-error'> {
     if (e instanceof InputError) return 'input-error';
     throw e;
   }
-}
-
-/** A minimal zip (PKWARE APPNOTE 6.3, deflate), for workbooks whose XML the property mutates. */
-function zip(files: Record<string, Buffer>): Buffer {
-  const local: Buffer[] = [];
-  const central: Buffer[] = [];
-  let offset = 0;
-  for (const [name, data] of Object.entries(files)) {
-    const nameBuf = Buffer.from(name, 'utf8');
-    const packed = deflateRawSync(data);
-    const crc = crc32(data);
-    const head = Buffer.alloc(30);
-    head.writeUInt32LE(0x04034b50, 0);
-    head.writeUInt16LE(20, 4);
-    head.writeUInt16LE(0x0800, 6);
-    head.writeUInt16LE(8, 8);
-    head.writeUInt32LE(crc, 14);
-    head.writeUInt32LE(packed.length, 18);
-    head.writeUInt32LE(data.length, 22);
-    head.writeUInt16LE(nameBuf.length, 26);
-    const c = Buffer.alloc(46);
-    c.writeUInt32LE(0x02014b50, 0);
-    c.writeUInt16LE(20, 4);
-    c.writeUInt16LE(20, 6);
-    c.writeUInt16LE(0x0800, 8);
-    c.writeUInt16LE(8, 10);
-    c.writeUInt32LE(crc, 16);
-    c.writeUInt32LE(packed.length, 20);
-    c.writeUInt32LE(data.length, 24);
-    c.writeUInt16LE(nameBuf.length, 28);
-    c.writeUInt32LE(offset, 42);
-    local.push(head, nameBuf, packed);
-    central.push(c, nameBuf);
-    offset += 30 + nameBuf.length + packed.length;
-  }
-  const cd = Buffer.concat(central);
-  const end = Buffer.alloc(22);
-  end.writeUInt32LE(0x06054b50, 0);
-  end.writeUInt16LE(Object.keys(files).length, 8);
-  end.writeUInt16LE(Object.keys(files).length, 10);
-  end.writeUInt32LE(cd.length, 12);
-  end.writeUInt32LE(offset, 16);
-  return Buffer.concat([...local, cd, end]);
 }
 
 const NS = 'http://schemas.openxmlformats.org/spreadsheetml/2006/main';
