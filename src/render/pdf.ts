@@ -243,10 +243,35 @@ class Layout {
 
   /** The verdict paragraph on a shaded panel with an accent bar at its left edge. */
   panel(text: string, opts: { pad?: number; spaceAfter?: number } = {}): Block {
-    const pad = opts.pad ?? 9;
-    const after = opts.spaceAfter ?? 12;
-    const width = CONTENT_WIDTH - 2 * pad - 3;
-    const h = (): number => this.textHeight(text, 'regular', SIZE.body, width) + 2 * pad - LINE_GAP;
+    return this.ruledBox(
+      { pad: opts.pad ?? 9, rule: 3, shade: COLOR.shade, ruleColor: COLOR.accent, after: opts.spaceAfter ?? 12 },
+      (width) => ({
+        height: () => this.textHeight(text, 'regular', SIZE.body, width),
+        draw: (parent, x, y) => {
+          parent.add(
+            this.doc.struct('P', {}, () => {
+              this.setFont('regular', SIZE.body);
+              this.doc.text(text, x, y, { width, lineGap: LINE_GAP });
+            }),
+          );
+        },
+      }),
+    );
+  }
+
+  /**
+   * A box shaded across the text width with a coloured rule down its left edge, its content inset by `pad` on every
+   * side (and by the rule on the left). `content` is given the width left for it and returns its height (up to the
+   * gap below its last line, which the box leaves out) and how to draw it from its top-left corner. The shading is
+   * drawn as an Artifact; the content's structure goes under the parent passed to the block.
+   */
+  private ruledBox(
+    style: { pad: number; rule: number; shade: string; ruleColor: string; after: number },
+    content: (width: number) => { height: () => number; draw: (parent: Struct, x: number, y: number) => void },
+  ): Block {
+    const { pad, rule, after } = style;
+    const inner = content(CONTENT_WIDTH - 2 * pad - rule);
+    const h = (): number => inner.height() + 2 * pad - LINE_GAP;
     return {
       after,
       height: () => h() + after,
@@ -255,15 +280,10 @@ class Layout {
         const top = this.y;
         const height = h();
         this.artifact(() => {
-          this.doc.rect(MARGIN.left, top, CONTENT_WIDTH, height).fill(COLOR.shade);
-          this.doc.rect(MARGIN.left, top, 3, height).fill(COLOR.accent);
+          this.doc.rect(MARGIN.left, top, CONTENT_WIDTH, height).fill(style.shade);
+          this.doc.rect(MARGIN.left, top, rule, height).fill(style.ruleColor);
         });
-        parent.add(
-          this.doc.struct('P', {}, () => {
-            this.setFont('regular', SIZE.body);
-            this.doc.text(text, MARGIN.left + 3 + pad, top + pad, { width, lineGap: LINE_GAP });
-          }),
-        );
+        inner.draw(parent, MARGIN.left + rule + pad, top + pad);
         this.y = top + height + after;
       },
     };
@@ -510,48 +530,38 @@ class Layout {
    * left edge and a small "Note" label, so it stands out without relying on colour.
    */
   notices(items: string[], opts: { spaceAfter?: number } = {}): Block {
-    const after = opts.spaceAfter ?? 12;
-    const pad = 8;
-    const rule = 4;
-    const width = CONTENT_WIDTH - 2 * pad - rule;
     const labelH = SIZE.small * 1.4 + 2;
-    const itemHeights = (): number[] => items.map((t) => this.textHeight(t, 'regular', SIZE.body, width));
-    const h = (): number => labelH + itemHeights().reduce((a, b) => a + b + 4, 0) - 4 + 2 * pad - LINE_GAP;
-    return {
-      after,
-      height: () => h() + after,
-      minHeight: () => h() + after,
-      draw: (parent) => {
-        const top = this.y;
-        const height = h();
-        this.artifact(() => {
-          this.doc.rect(MARGIN.left, top, CONTENT_WIDTH, height).fill(COLOR.noticeShade);
-          this.doc.rect(MARGIN.left, top, rule, height).fill(COLOR.notice);
-        });
-        const box = this.doc.struct('Div');
-        parent.add(box);
-        const x = MARGIN.left + rule + pad;
-        box.add(
-          this.doc.struct('P', {}, () => {
-            this.setFont('bold', SIZE.small, COLOR.noticeInk);
-            this.doc.text(items.length > 1 ? 'NOTES' : 'NOTE', x, top + pad, { width, characterSpacing: 0.8, lineBreak: false });
-          }),
-        );
-        let y = top + pad + labelH;
-        const heights = itemHeights();
-        items.forEach((text, i) => {
-          box.add(
-            this.doc.struct('P', {}, () => {
-              this.setFont('regular', SIZE.body);
-              this.doc.text(text, x, y, { width, lineGap: LINE_GAP });
-            }),
-          );
-          y += heights[i]! + 4;
-        });
-        box.end();
-        this.y = top + height + after;
+    return this.ruledBox(
+      { pad: 8, rule: 4, shade: COLOR.noticeShade, ruleColor: COLOR.notice, after: opts.spaceAfter ?? 12 },
+      (width) => {
+        const itemHeights = (): number[] => items.map((t) => this.textHeight(t, 'regular', SIZE.body, width));
+        return {
+          height: () => labelH + itemHeights().reduce((a, b) => a + b + 4, 0) - 4,
+          draw: (parent, x, top) => {
+            const box = this.doc.struct('Div');
+            parent.add(box);
+            box.add(
+              this.doc.struct('P', {}, () => {
+                this.setFont('bold', SIZE.small, COLOR.noticeInk);
+                this.doc.text(items.length > 1 ? 'NOTES' : 'NOTE', x, top, { width, characterSpacing: 0.8, lineBreak: false });
+              }),
+            );
+            let y = top + labelH;
+            const heights = itemHeights();
+            items.forEach((text, i) => {
+              box.add(
+                this.doc.struct('P', {}, () => {
+                  this.setFont('regular', SIZE.body);
+                  this.doc.text(text, x, y, { width, lineGap: LINE_GAP });
+                }),
+              );
+              y += heights[i]! + 4;
+            });
+            box.end();
+          },
+        };
       },
-    };
+    );
   }
 
   /**
