@@ -32,6 +32,24 @@ export function rateView(r: RateSummary) {
   return { label: r.label, n: fmt.count(r.n), rate: fmt.percent(r.rate), lower: fmt.percent(r.interval.lower), upper: fmt.percent(r.interval.upper) };
 }
 
+/**
+ * The caution for a comparison of a selection with the rest of a group that holds it (compare, means, equivalence):
+ * names the inner selection, the group and the size of the rest (`sizes`: the two selections' respondents). None
+ * when the two selections are separate.
+ */
+export function restOfGroupCaution(
+  relation: 'separate' | 'focus-inside' | 'against-inside',
+  claim: { focus: Filter; against: Filter; focusLabel?: string; againstLabel?: string },
+  sizes: { focus: number; against: number },
+  t: Templates,
+): string[] {
+  if (relation === 'separate') return [];
+  const inner = relation === 'focus-inside' ? claim.focusLabel ?? filterLabel(claim.focus) : claim.againstLabel ?? filterLabel(claim.against);
+  const outer = relation === 'focus-inside' ? claim.againstLabel ?? filterLabel(claim.against) : claim.focusLabel ?? filterLabel(claim.focus);
+  const restN = relation === 'focus-inside' ? sizes.against : sizes.focus;
+  return [t.render('caution.rest-of-group', { inner, outer, restN: fmt.count(restN) })];
+}
+
 export function scopeText(where: Filter): string {
   return Object.keys(where).length > 0 ? filterLabel(where) : '';
 }

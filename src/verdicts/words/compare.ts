@@ -5,7 +5,7 @@ import { filterLabel } from '../../analyse/labels.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, differenceView, pView, rateRow, rateView, scopeText, tooLittle, twoRateTestName, type ComposeContext, type Composed } from './common.js';
+import { commonRows, differenceView, pView, restOfGroupCaution, rateRow, rateView, scopeText, tooLittle, twoRateTestName, type ComposeContext, type Composed } from './common.js';
 
 export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
@@ -50,13 +50,7 @@ export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: Comp
     { label: "Effect size (Cohen's h)", value: fmt.coefficient(a.cohensH ?? NaN) },
     { label: 'Smallest difference detectable (80% power)', value: view.detectable ? `about ${view.detectable} points` : 'none within reach of these samples' },
   ];
-  const cautions: string[] = [];
-  if (a.relation !== 'separate') {
-    const inner = a.relation === 'focus-inside' ? claim.focusLabel ?? filterLabel(claim.focus) : claim.againstLabel ?? filterLabel(claim.against);
-    const outer = a.relation === 'focus-inside' ? claim.againstLabel ?? filterLabel(claim.against) : claim.focusLabel ?? filterLabel(claim.focus);
-    const restN = a.relation === 'focus-inside' ? a.against.n : a.focus.n;
-    cautions.push(t.render('caution.rest-of-group', { inner, outer, restN: fmt.count(restN) }));
-  }
+  const cautions: string[] = restOfGroupCaution(a.relation, claim, { focus: a.focus.n, against: a.against.n }, t);
   if (ctx.periodColumns.some((c) => c in claim.focus && c in claim.against)) cautions.push(t.render('caution.cohorts', {}));
   for (const r of [a.focus, a.against]) {
     if (r.n < 50) cautions.push(t.render('caution.small-sample', { n: fmt.count(r.n), label: r.label, onePerson: fmt.pointsSize(1 / r.n) }));

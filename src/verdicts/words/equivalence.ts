@@ -5,7 +5,7 @@ import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, pView, rateRow, rateView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, pView, restOfGroupCaution, rateRow, rateView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 export function composeEquivalence(a: EquivalenceAnalysis, decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
@@ -45,13 +45,7 @@ export function composeEquivalence(a: EquivalenceAnalysis, decision: Decision, c
     { label: `Interval set against the margin (${view.tostLevel})`, value: `${view.tostLower} to ${view.tostUpper} points` },
     ...commonRows(a, decision, ctx),
   ];
-  const cautions: string[] = [];
-  if (a.relation !== 'separate') {
-    const inner = a.relation === 'focus-inside' ? claim.focusLabel ?? filterLabel(claim.focus) : claim.againstLabel ?? filterLabel(claim.against);
-    const outer = a.relation === 'focus-inside' ? claim.againstLabel ?? filterLabel(claim.against) : claim.focusLabel ?? filterLabel(claim.focus);
-    const restN = a.relation === 'focus-inside' ? a.against.n : a.focus.n;
-    cautions.push(t.render('caution.rest-of-group', { inner, outer, restN: fmt.count(restN) }));
-  }
+  const cautions: string[] = restOfGroupCaution(a.relation, claim, { focus: a.focus.n, against: a.against.n }, t);
   for (const r of [a.focus, a.against]) {
     if (r.n < 50) cautions.push(t.render('caution.small-sample', { n: fmt.count(r.n), label: r.label, onePerson: fmt.pointsSize(1 / r.n) }));
   }

@@ -5,7 +5,7 @@ import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, pView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, pView, restOfGroupCaution, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 /** A mean score or a difference in scale points: two decimals, proper minus sign. */
 export function scalePoints(value: number, options: { sign?: boolean } = {}): string {
@@ -63,13 +63,7 @@ export function composeMeans(a: MeansAnalysis, decision: Decision, ctx: ComposeC
       ? [{ label: 'Chance a respondent in the first group answers higher', value: `${fmt.percent(a.superiority)} (ties count half)` }]
       : []),
   ];
-  const cautions: string[] = [];
-  if (a.relation !== 'separate') {
-    const inner = a.relation === 'focus-inside' ? claim.focusLabel ?? filterLabel(claim.focus) : claim.againstLabel ?? filterLabel(claim.against);
-    const outer = a.relation === 'focus-inside' ? claim.againstLabel ?? filterLabel(claim.against) : claim.focusLabel ?? filterLabel(claim.focus);
-    const restN = a.relation === 'focus-inside' ? a.against.n : a.focus.n;
-    cautions.push(t.render('caution.rest-of-group', { inner, outer, restN: fmt.count(restN) }));
-  }
+  const cautions: string[] = restOfGroupCaution(a.relation, claim, { focus: a.focus.n, against: a.against.n }, t);
   if (claim.test !== 'rank') cautions.push(t.render('means.caution-scale', {}));
   for (const m of [a.focus, a.against]) {
     if (m.n < 30) cautions.push(t.render('means.caution-small', meanView(m)));
