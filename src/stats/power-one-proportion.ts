@@ -16,6 +16,7 @@
  * (N - n)/(N - 1), which is the same as using n / f in place of n (Cochran 1977, Sampling Techniques, §3.3).
  */
 import { normalSf, normalSfQuantile } from './distributions/normal.js';
+import { smallestGapReaching } from './smallest-gap.js';
 import { finitePopulationFactor } from './wilson.js';
 
 export type OneSampleSided = 'two-sided' | 'one-sided';
@@ -75,19 +76,7 @@ export function minDetectableGap(
   if (!(targetPower > 0 && targetPower < 1)) throw new Error(`${fn}: the power must be between 0 and 1, got ${targetPower}`);
   const nEff = effectiveN(n, populationSize, fn);
   const zq = normalSfQuantile(sided === 'two-sided' ? alpha / 2 : alpha);
-  const solve = (s: 1 | -1): number | null => {
-    const max = s === 1 ? 1 - p0 : p0;
-    const at = (delta: number): number => powerAt(nEff, p0 + s * delta, p0, zq);
-    if (at(max) < targetPower) return null;
-    let lo = 0;
-    let hi = max;
-    for (let i = 0; i < 200; i++) {
-      const mid = lo + (hi - lo) / 2;
-      if (mid <= lo || mid >= hi) break;
-      if (at(mid) < targetPower) lo = mid;
-      else hi = mid;
-    }
-    return hi;
-  };
+  const solve = (s: 1 | -1): number | null =>
+    smallestGapReaching((delta) => powerAt(nEff, p0 + s * delta, p0, zq), s === 1 ? 1 - p0 : p0, targetPower);
   return { increase: solve(1), decrease: solve(-1) };
 }

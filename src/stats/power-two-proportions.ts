@@ -18,6 +18,7 @@
  * direction (R's strict = TRUE); it is off by default, as in R.
  */
 import { normalSf, normalSfQuantile } from './distributions/normal.js';
+import { smallestGapReaching } from './smallest-gap.js';
 
 export type Sided = 'two-sided' | 'one-sided';
 
@@ -102,19 +103,7 @@ export function minDetectableDifference(
     throw new Error(`${fn}: the power must be between 0 and 1, got ${targetPower}`);
   }
   const zq = normalSfQuantile(sided === 'two-sided' ? alpha / 2 : alpha);
-  const solve = (sign: 1 | -1): number | null => {
-    const max = sign === 1 ? 1 - baseRate : baseRate;
-    const at = (delta: number): number => power(n1, n2, baseRate + sign * delta, baseRate, zq, false);
-    if (at(max) < targetPower) return null;
-    let lo = 0;
-    let hi = max;
-    for (let i = 0; i < 200; i++) {
-      const mid = lo + (hi - lo) / 2;
-      if (mid <= lo || mid >= hi) break;
-      if (at(mid) < targetPower) lo = mid;
-      else hi = mid;
-    }
-    return hi;
-  };
+  const solve = (sign: 1 | -1): number | null =>
+    smallestGapReaching((delta) => power(n1, n2, baseRate + sign * delta, baseRate, zq, false), sign === 1 ? 1 - baseRate : baseRate, targetPower);
   return { increase: solve(1), decrease: solve(-1) };
 }
