@@ -12,7 +12,7 @@
  */
 import type { CompareClaim } from '../claims/types.js';
 import type { Cube } from '../data/types.js';
-import { relate } from '../data/select.js';
+import { relate, type Relation } from '../data/select.js';
 import { InputError } from '../errors.js';
 import type { AnalysisSettings, CompareAnalysis } from './types.js';
 import { compareRates, expectSignOf, rateSummary } from './rates.js';
@@ -24,24 +24,37 @@ export interface CompareContext extends AnalysisSettings {
   claimsFile: string;
 }
 
+/**
+ * Stops a two-selection claim (compare, means, equivalence) whose selections match the same rows, or share some rows
+ * without one containing the other: the same people would be counted on both sides. `example` follows "make the two
+ * selections separate" in the fix.
+ */
+export function refuseOverlap(
+  relation: Relation,
+  claim: { id: string; place: { line: number; column: number } },
+  ctx: CompareContext,
+  example = '',
+): asserts relation is Exclude<Relation, 'overlap' | 'same'> {
+  if (relation !== 'overlap' && relation !== 'same') return;
+  throw new InputError({
+    file: ctx.claimsFile,
+    line: claim.place.line,
+    column: claim.place.column,
+    field: `claims.${claim.id}.against`,
+    problem:
+      relation === 'same'
+        ? `claim "${claim.id}" compares a selection with itself: focus and against match the same rows`
+        : `claim "${claim.id}" compares two selections that share some rows but neither contains the other, so the same people would be counted on both sides`,
+    fix: `make the two selections separate${example}, or make one contain the other (a unit against its region)`,
+  });
+}
+
 export function analyseCompare(claim: CompareClaim, cube: Cube, ctx: CompareContext): CompareAnalysis {
   const focusFilter = { ...claim.where, ...claim.focus };
   const againstFilter = { ...claim.where, ...claim.against };
   const related = relate(cube, focusFilter, againstFilter);
   const expectSign = expectSignOf(claim.expect);
-  if (related.relation === 'overlap' || related.relation === 'same') {
-    throw new InputError({
-      file: ctx.claimsFile,
-      line: claim.place.line,
-      column: claim.place.column,
-      field: `claims.${claim.id}.against`,
-      problem:
-        related.relation === 'same'
-          ? `claim "${claim.id}" compares a selection with itself: focus and against match the same rows`
-          : `claim "${claim.id}" compares two selections that share some rows but neither contains the other, so the same people would be counted on both sides`,
-      fix: 'make the two selections separate (e.g. two different departments), or make one contain the other (a unit against its region)',
-    });
-  }
+  refuseOverlap(related.relation, claim, ctx, ' (e.g. two different departments)');
   const focusLabel = claim.focusLabel ?? filterLabel(claim.focus);
   const againstName = claim.againstLabel ?? filterLabel(claim.against);
   let focusPooled = related.focus;

@@ -19,7 +19,7 @@ import { InputError } from '../errors.js';
 import { newcombe } from '../stats/newcombe.js';
 import { tostTwoProportions } from '../stats/tost-two-proportions.js';
 import { wilson } from '../stats/wilson.js';
-import type { CompareContext } from './compare.js';
+import { refuseOverlap, type CompareContext } from './compare.js';
 import { filterLabel, sign } from './labels.js';
 import { shortfall } from './thresholds.js';
 import type { EquivalenceAnalysis, RateSummary } from './types.js';
@@ -41,17 +41,7 @@ export function analyseEquivalence(claim: EquivalenceClaim, cube: Cube, ctx: Com
     });
   }
   const related = relate(cube, { ...claim.where, ...claim.focus }, { ...claim.where, ...claim.against });
-  if (related.relation === 'overlap' || related.relation === 'same') {
-    throw new InputError({
-      ...place,
-      field: `claims.${claim.id}.against`,
-      problem:
-        related.relation === 'same'
-          ? `claim "${claim.id}" compares a selection with itself: focus and against match the same rows`
-          : `claim "${claim.id}" compares two selections that share some rows but neither contains the other, so the same people would be counted on both sides`,
-      fix: 'make the two selections separate, or make one contain the other (a unit against its region)',
-    });
-  }
+  refuseOverlap(related.relation, claim, ctx);
   let focusPooled = related.focus;
   let againstPooled = related.against;
   let focusLabel = claim.focusLabel ?? filterLabel(claim.focus);

@@ -24,7 +24,7 @@ import type { Alternative, TestResult } from '../stats/result.js';
 import { studentT, type GroupSummary, type TTestOptions } from '../stats/student-t.js';
 import { summaryFromCounts } from '../stats/summary-counts.js';
 import { welchT } from '../stats/welch-t.js';
-import type { CompareContext } from './compare.js';
+import { refuseOverlap, type CompareContext } from './compare.js';
 import { filterLabel, sign } from './labels.js';
 import { codeRange } from './measures.js';
 import { shortfall } from './thresholds.js';
@@ -62,17 +62,7 @@ export function analyseMeans(claim: MeansClaim, cube: Cube, ctx: CompareContext)
   const focusFilter = { ...claim.where, ...claim.focus };
   const againstFilter = { ...claim.where, ...claim.against };
   const related = relate(cube, focusFilter, againstFilter);
-  if (related.relation === 'overlap' || related.relation === 'same') {
-    throw new InputError({
-      ...place,
-      field: `claims.${claim.id}.against`,
-      problem:
-        related.relation === 'same'
-          ? `claim "${claim.id}" compares a selection with itself: focus and against match the same rows`
-          : `claim "${claim.id}" compares two selections that share some rows but neither contains the other, so the same people would be counted on both sides`,
-      fix: 'make the two selections separate, or make one contain the other (a unit against its region)',
-    });
-  }
+  refuseOverlap(related.relation, claim, ctx);
   const fCells = cube.cells.filter((c) => matches(c, focusFilter));
   const aCells = cube.cells.filter((c) => matches(c, againstFilter));
   const without = (big: Cell[], small: Cell[]) => big.filter((c) => !small.includes(c));
