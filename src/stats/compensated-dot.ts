@@ -8,8 +8,11 @@
 
 const SPLITTER = 134217729; // 2^27 + 1
 
-/** Returns a*b exactly as hi + lo (no overflow handling; inputs here are far from the limits). */
-function twoProduct(a: number, b: number, out: [number, number]): void {
+/**
+ * a * b exactly as out[0] + out[1] (Dekker's TwoProduct with Veltkamp's splitting; no overflow handling: inputs here
+ * are far from the limits). Also used by the double-double columns of least-squares.ts.
+ */
+export function twoProduct(a: number, b: number, out: Float64Array | [number, number]): void {
   const p = a * b;
   let t = SPLITTER * a;
   const ah = t - (t - a);

@@ -23,7 +23,7 @@
  * mean of y when the model has an intercept and about zero when it has not (as in R's summary.lm and the NIST
  * no-intercept files).
  */
-import { accurateDot } from './compensated-dot.js';
+import { accurateDot, twoProduct } from './compensated-dot.js';
 import { compensatedSum, requireFinite } from './mean.js';
 import { fSf } from './distributions/f.js';
 import { tSf } from './distributions/t.js';
@@ -89,20 +89,6 @@ export interface PolynomialFitOptions {
 const RANK_TOLERANCE = 1e-13;
 /** Most refinement steps; the loop stops sooner once a step no longer changes the solution. */
 const MAX_REFINEMENT_STEPS = 12;
-const SPLITTER = 134217729; // 2^27 + 1
-
-/** a * b exactly as out[0] + out[1] (Dekker's TwoProduct with Veltkamp's splitting; no overflow handling). */
-function twoProduct(a: number, b: number, out: Float64Array | [number, number]): void {
-  const p = a * b;
-  let t = SPLITTER * a;
-  const ah = t - (t - a);
-  const al = a - ah;
-  t = SPLITTER * b;
-  const bh = t - (t - b);
-  const bl = b - bh;
-  out[0] = p;
-  out[1] = al * bl - (p - ah * bh - al * bh - ah * bl);
-}
 
 /**
  * A column of numbers each held as the unevaluated sum hi + lo of two doubles (double-double). Data given in double
