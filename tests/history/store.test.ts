@@ -3,7 +3,7 @@
  * killed part-way (common practice for safe writes: write to a temporary folder, then rename).
  */
 import { spawnSync } from 'node:child_process';
-import { cpSync, mkdtempSync, readdirSync, readFileSync, readlinkSync, rmSync } from 'node:fs';
+import { cpSync, mkdtempSync, readdirSync, readFileSync, readlinkSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
@@ -44,6 +44,23 @@ describe('pack history', () => {
     expect(third.diff?.verdicts).toEqual([]);
     expect(third.model.changes?.heading).toBe('What changed since 3 March 2026');
     expect(readlinkSync(join(out, 'latest'))).toBe(third.files.folder.split('/').pop());
+  });
+
+  it('marks a claim edited after an earlier pack showed its results, and only that claim', async () => {
+    const demo = demoCopy('edit');
+    const out = join(work, 'edit-out');
+    await build({ claimsPath: join(demo, 'claims.yaml'), outDir: out, cwd: demo, now: new Date('2026-03-04T10:00:00Z') });
+    const claimsFile = join(demo, 'claims.yaml');
+    const text = readFileSync(claimsFile, 'utf8');
+    // Weaken the claim after seeing it supported: from "less likely" to "no more likely".
+    writeFileSync(claimsFile, text.replace('Our students are less likely than students elsewhere', 'Our students are no more likely than students elsewhere'));
+    const after = await build({ claimsPath: claimsFile, outDir: out, cwd: demo, now: new Date('2026-03-05T10:00:00Z') });
+    expect(after.diff?.edited).toEqual(['feedback-below-region']);
+    const noticed = after.model.claims.filter((c) => (c.notices ?? []).some((n) => n.includes('changed after an earlier pack (built 4 March 2026)')));
+    expect(noticed.map((c) => c.id)).toEqual(['feedback-below-region']);
+    expect(after.model.changes?.notes).toContain(
+      'Claim feedback-below-region was edited: its words, selections, direction, confidence or thresholds differ from before.',
+    );
   });
 
   it('leaves earlier packs and the latest link untouched when writing fails part-way', async () => {
