@@ -141,6 +141,18 @@ describe('command line', () => {
     expect(buildHelp.stdout).toContain('--out');
   });
 
+  it('prints a machine-readable summary with --json and nothing else on stdout', () => {
+    const out = join(work, 'cli-json');
+    const run = spawnSync(process.execPath, [bin, 'build', join(root, 'demo/claims.yaml'), '--out', out, '--json'], { encoding: 'utf8', cwd: root });
+    expect(run.status).toBe(0);
+    const summary = JSON.parse(run.stdout);
+    expect(summary.pdf).toBe(join(summary.folder, 'pack.pdf'));
+    expect(summary.claims).toHaveLength(first.claims.claims.length);
+    expect(summary.verdicts).toEqual(Object.fromEntries([...new Set(first.decisions.map((d) => d.verdict))].map((v) => [v, first.decisions.filter((d) => d.verdict === v).length])));
+    expect(summary.changedSince).toBeNull();
+    expect(run.stderr).toBe('');
+  });
+
   it('stops with exit code 2, one paragraph and no stack trace on a bad claims file, leaving the old pack alone', () => {
     const out = join(work, 'cli');
     const ok = spawnSync(process.execPath, [bin, 'build', join(root, 'demo/claims.yaml'), '--out', out, '--quiet'], { encoding: 'utf8', cwd: root });
