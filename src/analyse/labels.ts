@@ -1,6 +1,6 @@
 import type { Filter } from '../claims/types.js';
 
-/** A selection's name for people, built from its filter values: { Institution: "Tarnmoor", Year: 2026 } -> "Tarnmoor, 2026". */
+/** A selection's name for people, built from its filter values: { Institution: "Tarnquill", Year: 2026 } -> "Tarnquill, 2026". */
 export function filterLabel(filter: Filter): string {
   const parts = Object.values(filter).map((v) => (Array.isArray(v) ? v.join(' or ') : String(v)));
   return parts.length > 0 ? parts.join(', ') : 'all respondents';

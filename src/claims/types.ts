@@ -6,7 +6,7 @@
  *
  *   # yaml-language-server: $schema=../schema/claims.schema.json
  *   title: Student voice 2026
- *   organisation: Tarnmoor Students' Guild
+ *   organisation: Tarnquill Students' Guild
  *   confidence: 95%
  *   sources:
  *     results:
@@ -21,8 +21,8 @@
  *       kind: compare
  *       source: results
  *       where: { year: 2026, question: Q09 }
- *       focus: { provider: Tarnmoor College }
- *       against: { region: Ellerby Vale }
+ *       focus: { provider: Tarnquill College }
+ *       against: { region: Glimmerholt Vale }
  *       expect: lower
  */
 

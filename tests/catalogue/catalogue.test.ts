@@ -65,13 +65,13 @@ const failures: Case[] = [
     what: 'missing field (against, in a compare claim)',
     folder: 'claims-missing-field',
     message:
-      'claims.yaml:11:5: claim "hanes-above-lacina" has no "against", which is required for a compare claim (field "against"). Fix: Add against: { region: Ellerby Vale } naming the selection it is compared with.',
+      'claims.yaml:11:5: claim "hanes-above-lacina" has no "against", which is required for a compare claim (field "against"). Fix: Add against: { region: Glimmerholt Vale } naming the selection it is compared with.',
   },
   {
     what: 'mistyped key (againts), reported with the required key it leaves missing',
     folder: 'claims-misspelt-key',
     message: [
-      'claims.yaml:11:5: claim "hanes-above-lacina" has no "against", which is required for a compare claim (field "against"). Fix: Add against: { region: Ellerby Vale } naming the selection it is compared with.',
+      'claims.yaml:11:5: claim "hanes-above-lacina" has no "against", which is required for a compare claim (field "against"). Fix: Add against: { region: Glimmerholt Vale } naming the selection it is compared with.',
       'claims.yaml:15:5: "againts" is not a key warrant knows in claim "hanes-above-lacina" (field "againts"). Fix: Did you mean "against"? Rename the key to against.',
     ].join('\n\n'),
   },
@@ -118,7 +118,7 @@ const failures: Case[] = [
     what: 'an oversized claims file',
     folder: 'claims-oversized',
     message:
-      'claims.yaml: the claims file is larger than 1 MB, far more than any set of claims needs (found "1083371 bytes"). Fix: Check that this is the claims file and not a data file; data files belong under sources.',
+      'claims.yaml: the claims file is larger than 1 MB, far more than any set of claims needs (found "1083375 bytes"). Fix: Check that this is the claims file and not a data file; data files belong under sources.',
   },
   {
     what: 'an empty claims file',

@@ -38,12 +38,12 @@ describe('every kind of claim normalizes', async () => {
     expect(c).toEqual({
       ...common,
       id: 'compare-not',
-      statement: 'Tarnmoor agrees less on feedback than the other providers.',
+      statement: 'Tarnquill agrees less on feedback than the other providers.',
       kind: 'compare',
       source: 'results',
       where: { year: 'latest', question: 'Q09' },
-      focus: { provider: 'Tarnmoor College' },
-      against: { provider: { not: 'Tarnmoor College' } },
+      focus: { provider: 'Tarnquill College' },
+      against: { provider: { not: 'Tarnquill College' } },
       expect: 'lower',
       sided: 'one-sided',
       minRespondents: 30,
@@ -83,15 +83,15 @@ describe('every kind of claim normalizes', async () => {
   });
 
   it('trend by last N or by named periods', () => {
-    expect(claim('rising-three-years')).toMatchObject({ kind: 'trend', periods: { last: 3 }, expect: 'rising', sided: 'one-sided', where: { provider: ['Tarnmoor College', 'Ashby Hall'] } });
+    expect(claim('rising-three-years')).toMatchObject({ kind: 'trend', periods: { last: 3 }, expect: 'rising', sided: 'one-sided', where: { provider: ['Tarnquill College', 'Ashwren Hall'] } });
     expect(claim('trend-named')).toMatchObject({ kind: 'trend', periods: ['latest-2', 2025, 'latest'], expect: 'any' });
   });
 
   it('target reads "80%" as 0.8 and keeps how it was written; smallest difference 5 -> 0.05', () => {
     expect(claim('above-target')).toMatchObject({
       kind: 'target',
-      select: { provider: 'Tarnmoor College' },
-      selectLabel: 'Tarnmoor',
+      select: { provider: 'Tarnquill College' },
+      selectLabel: 'Tarnquill',
       value: 0.8,
       valueWritten: '80%',
       valueLabel: 'the 80% target',

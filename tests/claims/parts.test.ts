@@ -83,7 +83,7 @@ describe('the shipped schema', () => {
   it('accepts the example in src/claims/types.ts and refuses a typo in it', () => {
     const example = {
       title: 'Student voice 2026',
-      organisation: "Tarnmoor Students' Guild",
+      organisation: "Tarnquill Students' Guild",
       confidence: '95%',
       sources: {
         results: { file: 'data/summary.xlsx', sheet: 'Results', shape: 'summary', respondents: 'Respondents', agree: 'Agreeing' },
@@ -95,8 +95,8 @@ describe('the shipped schema', () => {
           kind: 'compare',
           source: 'results',
           where: { year: 2026, question: 'Q09' },
-          focus: { provider: 'Tarnmoor College' },
-          against: { region: 'Ellerby Vale' },
+          focus: { provider: 'Tarnquill College' },
+          against: { region: 'Glimmerholt Vale' },
           expect: 'lower',
         },
       ],

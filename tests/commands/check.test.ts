@@ -24,8 +24,8 @@ describe('warrant check', () => {
     expect(got).toEqual([
       { line: 20, column: 14, field: 'provder', found: 'provder' }, // unknown column
       { line: 27, column: 20, field: 'year', found: 'latest-7' }, // further back than the data go
-      { line: 28, column: 24, field: 'provider', found: 'Tarnmor College' }, // unknown value
-      { line: 29, column: 52, field: 'provider', found: 'Ashby Hal' }, // unknown value inside { not: [...] }
+      { line: 28, column: 24, field: 'provider', found: 'Tarnquil College' }, // unknown value
+      { line: 29, column: 53, field: 'provider', found: 'Ashwren Hal' }, // unknown value inside { not: [...] }
       { line: 35, column: 5, field: 'select', found: undefined }, // matches no rows
       { line: 43, column: 5, field: 'against', found: undefined }, // overlap, neither inside the other
       { line: 45, column: 17, field: 'confidence', found: '1.5' },
@@ -34,8 +34,8 @@ describe('warrant check', () => {
     ]);
     const text = report.problems.map((p) => p.fix).join('\n');
     expect(text).toContain('Did you mean "provider"?');
-    expect(text).toContain('Did you mean "Tarnmoor College"?');
-    expect(text).toContain('Did you mean "Ashby Hall"?');
+    expect(text).toContain('Did you mean "Tarnquill College"?');
+    expect(text).toContain('Did you mean "Ashwren Hall"?');
     expect(text).toContain('Use one of the periods found: 2023, 2024, 2025, 2026');
     expect(report.problems[5]!.problem).toContain('neither lies inside the other');
     let out = '';

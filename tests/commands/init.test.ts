@@ -44,7 +44,7 @@ describe('warrant init', () => {
     const { dir, out, text } = await starter('kinds-summary.csv');
     expect(text.split('\n')[0]).toMatch(/^# yaml-language-server: \$schema=.*schema\/claims\.schema\.json$/);
     expect(text).toContain('    shape: summary\n    respondents: Respondents\n    agree: Agreeing\n    population: Eligible\n    numeric: [StaffRatio]\n    period: year\n');
-    expect(text).toContain('#   provider: Tarnmoor College, Ashby Hall, Corran Institute, Wendle Academy');
+    expect(text).toContain('#   provider: Tarnquill College, Ashwren Hall, Corrowdeen Institute, Wendlemere Academy');
     for (const kind of KINDS) expect(text).toContain(`  # - id: ${kind}-example`);
     // All commented: the file is not yet a claims file (no claims).
     await expect(readClaims(out)).rejects.toBeInstanceOf(InputError);

@@ -6,7 +6,7 @@ import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
 import { commonRows, differenceView, pView, rateRow, rateView, twoRateTestName, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
 
-/** Where-filters other than the period column, as a phrase ("Tarnmoor, Q09"). */
+/** Where-filters other than the period column, as a phrase ("Tarnquill, Q09"). */
 export function scopeOf(a: { claim: { where: ChangeAnalysis['claim']['where'] }; periodColumn: string }): string {
   return scopeText(Object.fromEntries(Object.entries(a.claim.where).filter(([k]) => k !== a.periodColumn)));
 }
