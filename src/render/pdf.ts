@@ -100,6 +100,8 @@ interface Block {
 
 class Layout {
   readonly doc: Doc;
+  /** Measured text heights (see textHeight). */
+  private readonly heights = new Map<string, number>();
   /** Where blocks start on the current page (below a continuation line, when there is one). */
   private pageTop = MARGIN.top;
   /**
@@ -152,7 +154,15 @@ class Layout {
 
   textHeight(text: string, face: Face, size: number, width: number, lineGap = LINE_GAP): number {
     this.doc.font(FONT_NAME[face]).fontSize(size);
-    return this.doc.heightOfString(text, { width, lineGap });
+    // Blocks are measured several times (to fit, to break, to draw): the same text in the same face, size and width
+    // always has the same height, so each is measured once.
+    const key = `${face}\u0000${size}\u0000${width}\u0000${lineGap}\u0000${text}`;
+    let h = this.heights.get(key);
+    if (h === undefined) {
+      h = this.doc.heightOfString(text, { width, lineGap });
+      this.heights.set(key, h);
+    }
+    return h;
   }
 
   /** Draw decoration (rules, shading, marks) as an Artifact so that assistive technology skips it. */
