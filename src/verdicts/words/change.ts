@@ -4,7 +4,7 @@ import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, differenceView, pView, rateRow, rateView, twoRateTestName, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, differenceView, pView, rateCautions, rateRow, rateView, scopeText, tooLittle, twoRateTestName, type ComposeContext, type Composed } from './common.js';
 
 /** Where-filters other than the period column, as a phrase ("Tarnquill, Q09"). */
 export function scopeOf(a: { claim: { where: ChangeAnalysis['claim']['where'] }; periodColumn: string }): string {
@@ -52,11 +52,7 @@ export function composeChange(a: ChangeAnalysis, decision: Decision, ctx: Compos
     { label: 'Smallest change detectable (80% power)', value: view.detectable ? `about ${view.detectable} points` : 'none within reach of these samples' },
   ];
   const cautions: string[] = [t.render('caution.cohorts', {})];
-  for (const r of [a.later, a.earlier]) {
-    if (r.n < 50) cautions.push(t.render('caution.small-sample', { n: fmt.count(r.n), label: r.label, onePerson: fmt.pointsSize(1 / r.n) }));
-  }
-  if (a.responseRate !== undefined && a.responseRate < 0.5) cautions.push(t.render('caution.response-rate', { rate: fmt.percent(a.responseRate) }));
-  if (a.later.approximate || a.earlier.approximate) cautions.push(t.render('caution.rounded', {}));
+  cautions.push(...rateCautions([a.later, a.earlier], a.responseRate, t));
   if (a.methods.includes('fisher-exact-2x2')) cautions.push(t.render('caution.fisher', {}));
   const chart: Chart = {
     data: {

@@ -131,3 +131,21 @@ export function differenceView(d: { value: number; interval: { lower: number; up
 export function twoRateTestName(methods: string[]): string {
   return methods.includes('fisher-exact-2x2') ? "Fisher's exact test" : 'Pooled two-proportion z test';
 }
+
+/** A group this small gets its own caution: one person moves its rate by 2 points or more (common practice). */
+const SMALL_GROUP = 50;
+/** Below this share of those eligible answering, non-response may bias the result (a common threshold). */
+const LOW_RESPONSE = 0.5;
+
+/**
+ * The cautions every rate-based kind gives, in this order: each group under 50 respondents, a response rate below
+ * one half where the number eligible is known, and counts rebuilt from rounded percentages.
+ */
+export function rateCautions(rates: RateSummary[], responseRate: number | undefined, t: Templates): string[] {
+  const cautions = rates
+    .filter((r) => r.n < SMALL_GROUP)
+    .map((r) => t.render('caution.small-sample', { n: fmt.count(r.n), label: r.label, onePerson: fmt.pointsSize(1 / r.n) }));
+  if (responseRate !== undefined && responseRate < LOW_RESPONSE) cautions.push(t.render('caution.response-rate', { rate: fmt.percent(responseRate) }));
+  if (rates.some((r) => r.approximate)) cautions.push(t.render('caution.rounded', {}));
+  return cautions;
+}

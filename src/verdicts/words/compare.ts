@@ -5,7 +5,7 @@ import { filterLabel } from '../../analyse/labels.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, differenceView, pView, restOfGroupCaution, rateRow, rateView, scopeText, tooLittle, twoRateTestName, type ComposeContext, type Composed } from './common.js';
+import { commonRows, differenceView, pView, rateCautions, rateRow, rateView, restOfGroupCaution, scopeText, tooLittle, twoRateTestName, type ComposeContext, type Composed } from './common.js';
 
 export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
@@ -52,11 +52,7 @@ export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: Comp
   ];
   const cautions: string[] = restOfGroupCaution(a.relation, claim, { focus: a.focus.n, against: a.against.n }, t);
   if (ctx.periodColumns.some((c) => c in claim.focus && c in claim.against)) cautions.push(t.render('caution.cohorts', {}));
-  for (const r of [a.focus, a.against]) {
-    if (r.n < 50) cautions.push(t.render('caution.small-sample', { n: fmt.count(r.n), label: r.label, onePerson: fmt.pointsSize(1 / r.n) }));
-  }
-  if (a.responseRate !== undefined && a.responseRate < 0.5) cautions.push(t.render('caution.response-rate', { rate: fmt.percent(a.responseRate) }));
-  if (a.focus.approximate || a.against.approximate) cautions.push(t.render('caution.rounded', {}));
+  cautions.push(...rateCautions([a.focus, a.against], a.responseRate, t));
   if (a.methods.includes('fisher-exact-2x2')) cautions.push(t.render('caution.fisher', {}));
   const chart: Chart = {
     data: {

@@ -5,7 +5,7 @@ import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, pView, restOfGroupCaution, rateRow, rateView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, pView, rateCautions, rateRow, rateView, restOfGroupCaution, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 export function composeEquivalence(a: EquivalenceAnalysis, decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
@@ -46,10 +46,7 @@ export function composeEquivalence(a: EquivalenceAnalysis, decision: Decision, c
     ...commonRows(a, decision, ctx),
   ];
   const cautions: string[] = restOfGroupCaution(a.relation, claim, { focus: a.focus.n, against: a.against.n }, t);
-  for (const r of [a.focus, a.against]) {
-    if (r.n < 50) cautions.push(t.render('caution.small-sample', { n: fmt.count(r.n), label: r.label, onePerson: fmt.pointsSize(1 / r.n) }));
-  }
-  if (a.focus.approximate || a.against.approximate) cautions.push(t.render('caution.rounded', {}));
+  cautions.push(...rateCautions([a.focus, a.against], undefined, t));
   const chart: Chart = {
     data: { kind: 'difference', value: d.value, lower: e.lower, upper: e.upper, margin: claim.margin, axisTitle: `Difference, ${a.focus.label} minus ${a.against.label} (points)` },
     alt: `Chart of the difference of ${view.diff} points with its ${view.tostLevel} interval (${view.tostLower} to ${view.tostUpper}) against a band of ±${margin} points.`,

@@ -5,7 +5,7 @@ import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { tooLittle, type ComposeContext, type Composed } from './common.js';
+import { rateCautions, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 /** A mean score, two decimals. */
 function score(v: number): string {
@@ -40,9 +40,7 @@ export function composeEstimate(a: EstimateAnalysis, _decision: Decision, ctx: C
       data: { kind: 'rates', axisTitle: 'Agreeing (%)', bars: [{ label: r.label, rate: r.rate, lower: r.interval.lower, upper: r.interval.upper, n: r.n }] },
       alt: `Chart of the agreement rate in ${r.label}: ${view.value} with a ${level} interval of ${view.lower} to ${view.upper}.`,
     };
-    if (r.n < 50) cautions.push(t.render('caution.small-sample', { n: fmt.count(r.n), label: r.label, onePerson: fmt.pointsSize(1 / r.n) }));
-    if (a.responseRate !== undefined && a.responseRate < 0.5) cautions.push(t.render('caution.response-rate', { rate: fmt.percent(a.responseRate) }));
-    if (r.approximate) cautions.push(t.render('caution.rounded', {}));
+    cautions.push(...rateCautions([r], a.responseRate, t));
   } else if (a.mean) {
     const m = a.mean;
     view = { label, measureMean: true, n: fmt.count(m.n), value: score(m.mean), lower: score(m.interval.lower), upper: score(m.interval.upper), margin: score((m.interval.upper - m.interval.lower) / 2), sd: score(m.sd), level };

@@ -5,7 +5,7 @@ import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, differenceView, pView, rateRow, rateView, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, differenceView, pView, rateCautions, rateRow, rateView, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 /** True when the fixed value's label says it is a benchmark from elsewhere rather than a target set locally. */
 function isBenchmark(label: string | undefined): boolean {
@@ -58,9 +58,7 @@ export function composeTarget(a: TargetAnalysis, decision: Decision, ctx: Compos
     { label: 'Smallest gap detectable (80% power)', value: view.detectable ? `about ${view.detectable} points` : 'none within reach of this sample' },
   ];
   const cautions: string[] = [t.render(isBenchmark(claim.valueLabel) ? 'target.caution-benchmark' : 'target.caution-target', view)];
-  if (a.rate.n < 50) cautions.push(t.render('caution.small-sample', { n: fmt.count(a.rate.n), label: a.rate.label, onePerson: fmt.pointsSize(1 / a.rate.n) }));
-  if (a.responseRate !== undefined && a.responseRate < 0.5) cautions.push(t.render('caution.response-rate', { rate: fmt.percent(a.responseRate) }));
-  if (a.rate.approximate) cautions.push(t.render('caution.rounded', {}));
+  cautions.push(...rateCautions([a.rate], a.responseRate, t));
   if (exact) cautions.push(t.render('target.caution-exact', view));
   const chart: Chart = {
     data: {

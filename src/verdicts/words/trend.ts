@@ -5,7 +5,7 @@ import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
 import { scopeOf } from './change.js';
-import { commonRows, pView, rateRow, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, pView, rateCautions, rateRow, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
@@ -51,11 +51,7 @@ export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeC
     { label: 'Smallest steady change detectable (80% power)', value: `about ${view.detectable} points per period` },
   ];
   const cautions: string[] = [t.render('trend.caution-cohorts', {}), t.render('trend.caution-straight-line', { periodCount: a.periods.length })];
-  for (const r of rates) {
-    if (r.n < 50) cautions.push(t.render('caution.small-sample', { n: fmt.count(r.n), label: r.label, onePerson: fmt.pointsSize(1 / r.n) }));
-  }
-  if (a.responseRate !== undefined && a.responseRate < 0.5) cautions.push(t.render('caution.response-rate', { rate: fmt.percent(a.responseRate) }));
-  if (rates.some((r) => r.approximate)) cautions.push(t.render('caution.rounded', {}));
+  cautions.push(...rateCautions(rates, a.responseRate, t));
   const chart: Chart = {
     data: {
       kind: 'periods',
