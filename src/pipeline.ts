@@ -18,6 +18,7 @@ import { readCube } from './data/cube.js';
 import type { Cube } from './data/types.js';
 import { analyse, columnsUsed } from './analyse/index.js';
 import { periodColumnOf, resolvePeriods } from './analyse/periods.js';
+import { PERIOD_NAME } from './claims/periods.js';
 import type { Analysis } from './analyse/types.js';
 import { adjustP } from './stats/p-adjust.js';
 import { decide, type Decision } from './verdicts/decide.js';
@@ -349,7 +350,7 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
  */
 function periodColumns(claims: ClaimsFile, cubes: Cube[]): string[] {
   const declared = claims.sources.flatMap((s) => (s.period ? [s.period] : []));
-  const named = cubes.flatMap((c) => c.dimensions.filter((d) => /^(year|period|wave|session|academic[ _-]?year)$/i.test(d)));
+  const named = cubes.flatMap((c) => c.dimensions.filter((d) => PERIOD_NAME.test(d)));
   return [...new Set([...declared, ...named])];
 }
 

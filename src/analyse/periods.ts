@@ -11,9 +11,8 @@ import type { ChangeClaim, Claim, Filter, FilterScalar, FilterValue, TrendClaim 
 import type { Cube } from '../data/types.js';
 import { InputError } from '../errors.js';
 import { periodsBack, periodsOf } from '../data/periods.js';
+import { PERIOD_NAME } from '../claims/periods.js';
 
-/** Column names that hold survey periods when the source does not say (common practice in survey exports). */
-const PERIOD_NAME = /^(year|period|wave|session|academic[ _-]?year|survey[ _-]?year)$/i;
 
 /** The period column: the one the source names, else the single dimension whose name says it holds periods. */
 export function periodColumnOf(cube: Cube, named: string | undefined): string | undefined {

@@ -8,6 +8,12 @@ import { periodsBack } from './amounts.js';
 
 export { periodsBack, RELATIVE_PERIOD } from './amounts.js';
 
+/**
+ * Column names that hold survey periods when a source does not name its period column (common practice in survey
+ * exports). One list for every place that guesses: `warrant init`, the analyses' fallback, and the cohort caution.
+ */
+export const PERIOD_NAME = /^(year|period|wave|session|cycle|round|academic[ _-]?year|survey[ _-]?year)$/i;
+
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)$/;
 const collator = new Intl.Collator('en', { numeric: true, sensitivity: 'base' });
 

@@ -11,6 +11,7 @@ import { DATA_EXTENSIONS } from '../claims/rules.js';
 import { LIST_LIMIT, scanTable, type ColumnScan, type TableScan } from '../claims/scan.js';
 import { claimsSchemaPath } from '../claims/schema.js';
 import { displayPathFor } from '../claims/read.js';
+import { PERIOD_NAME } from '../claims/periods.js';
 import { InputError } from '../errors.js';
 
 export interface InitOptions {
@@ -44,7 +45,6 @@ const RESPONDENTS = /respon|^n$|^base$|answered|^count$|replies/i;
 const PERCENT = /%|percent|pct/i;
 const AGREE = /agree|positive|satisf/i;
 const POPULATION = /eligible|population|cohort|invited|headcount/i;
-const PERIOD = /^(year|period|wave|cycle|round|survey ?year|academic ?year)$/i;
 const ID = /^(id|.*[ _-]id|respondent|key)$/i;
 
 /** Integer answer codes: at least three of 1-5 and nothing else but a few not-applicable codes (0, 6, 9, 99). */
@@ -66,7 +66,7 @@ export function guessMeasures(scan: TableScan): Guess {
   const na = new Set<number>();
   for (const c of cols) {
     const codes = answerCodes(c);
-    if (codes && !PERIOD.test(c.name) && !RESPONDENTS.test(c.name)) {
+    if (codes && !PERIOD_NAME.test(c.name) && !RESPONDENTS.test(c.name)) {
       questions.push(c.name);
       codes.na.forEach((x) => na.add(x));
     }
@@ -86,7 +86,7 @@ export function guessMeasures(scan: TableScan): Guess {
   } else {
     questions.forEach((q) => used.add(q));
   }
-  guess.period = find(PERIOD, (c) => c.filled > 0 && !c.more && c.distinct <= LIST_LIMIT);
+  guess.period = find(PERIOD_NAME, (c) => c.filled > 0 && !c.more && c.distinct <= LIST_LIMIT);
   if (guess.period !== undefined) used.add(guess.period);
   for (const c of cols) {
     if (used.has(c.name) || c.filled === 0) continue;
