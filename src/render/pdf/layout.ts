@@ -1,0 +1,287 @@
+/**
+ * The layout engine of the PDF: a cursor on the page, text measured before it is drawn, blocks flowed onto pages,
+ * and the general blocks (headings, paragraphs, ruled boxes, bulleted lists, figures, space).
+ */
+import SVGtoPDF from 'svg-to-pdfkit';
+import { FONT_NAME, type Face } from '../fonts.js';
+import {
+  COLOR, CONTENT_BOTTOM, CONTENT_WIDTH, CONTINUATION_HEIGHT, LINE_GAP, MARGIN, PARA_GAP, SIZE, SLACK, svgSize,
+  type Block, type Doc, type Struct,
+} from './style.js';
+
+export class Layout {
+  readonly doc: Doc;
+  /** Measured text heights (see textHeight). */
+  private readonly heights = new Map<string, number>();
+  /** Where blocks start on the current page (below a continuation line, when there is one). */
+  private pageTop = MARGIN.top;
+  /**
+   * While set, a page started inside a claim opens with this small line (e.g. "CLAIM X (CONTINUED)"), drawn as page
+   * furniture: the claim's heading is already in the structure tree.
+   */
+  continuation: string | undefined;
+  constructor(doc: Doc) {
+    this.doc = doc;
+  }
+
+  get y(): number {
+    return this.doc.y;
+  }
+  set y(v: number) {
+    this.doc.y = v;
+  }
+
+  remaining(): number {
+    return CONTENT_BOTTOM - SLACK - this.doc.y;
+  }
+
+  atTop(): boolean {
+    return this.doc.y <= this.pageTop + 0.5;
+  }
+
+  newPage(): void {
+    this.doc.addPage();
+    this.doc.x = MARGIN.left;
+    this.doc.y = MARGIN.top;
+    this.pageTop = MARGIN.top;
+    if (this.continuation) {
+      const text = this.continuation;
+      this.artifact(() => {
+        this.setFont('bold', SIZE.small, COLOR.muted);
+        this.doc.text(text, MARGIN.left, MARGIN.top, { width: CONTENT_WIDTH, characterSpacing: 0.8, lineBreak: false });
+      });
+      this.pageTop = MARGIN.top + CONTINUATION_HEIGHT;
+      this.doc.y = this.pageTop;
+    }
+  }
+
+  ensure(height: number): void {
+    if (height > this.remaining() && !this.atTop()) this.newPage();
+  }
+
+  setFont(face: Face, size: number, color: string = COLOR.ink): void {
+    this.doc.font(FONT_NAME[face]).fontSize(size).fillColor(color);
+  }
+
+  textHeight(text: string, face: Face, size: number, width: number, lineGap = LINE_GAP): number {
+    this.doc.font(FONT_NAME[face]).fontSize(size);
+    // Blocks are measured several times (to fit, to break, to draw): the same text in the same face, size and width
+    // always has the same height, so each is measured once.
+    const key = `${face}\u0000${size}\u0000${width}\u0000${lineGap}\u0000${text}`;
+    let h = this.heights.get(key);
+    if (h === undefined) {
+      h = this.doc.heightOfString(text, { width, lineGap });
+      this.heights.set(key, h);
+    }
+    return h;
+  }
+
+  /** Draw decoration (rules, shading, marks) as an Artifact so that assistive technology skips it. */
+  artifact(draw: () => void): void {
+    this.doc.markContent('Artifact');
+    this.doc.save();
+    draw();
+    this.doc.restore();
+    this.doc.endMarkedContent();
+  }
+
+  /** Lay blocks out in order under `parent`, moving to a new page where a block (with any kept heading) does not fit. */
+  flow(blocks: Block[], parent: Struct): void {
+    blocks.forEach((block, i) => {
+      let need = block.minHeight();
+      let j = i;
+      while (blocks[j]?.keepWithNext && blocks[j + 1]) {
+        need += blocks[j + 1]!.minHeight();
+        j++;
+      }
+      if (j > i) need = need - block.minHeight() + block.height();
+      this.ensure(need - (blocks[j]!.after ?? 0));
+      block.draw(parent);
+    });
+  }
+
+  // ---- Blocks ----
+
+  heading(level: 'H1' | 'H2' | 'H3', text: string, opts: { size?: number; spaceAfter?: number; color?: string } = {}): Block {
+    const size = opts.size ?? (level === 'H1' ? SIZE.title : level === 'H2' ? SIZE.h2 : SIZE.sub);
+    const after = opts.spaceAfter ?? (level === 'H3' ? 4 : 10);
+    const color = opts.color ?? (level === 'H3' ? COLOR.accent : COLOR.ink);
+    const h = (): number => this.textHeight(text, 'bold', size, CONTENT_WIDTH, 1);
+    return {
+      keepWithNext: true,
+      after,
+      height: () => h() + after,
+      minHeight: () => h() + after,
+      draw: (parent) => {
+        const top = this.y;
+        parent.add(
+          this.doc.struct(level, {}, () => {
+            this.setFont('bold', size, color);
+            this.doc.text(text, MARGIN.left, top, { width: CONTENT_WIDTH, lineGap: 1 });
+          }),
+        );
+        this.y = top + h() + after;
+      },
+    };
+  }
+
+  paragraph(
+    text: string,
+    opts: {
+      face?: Face;
+      size?: number;
+      color?: string;
+      spaceAfter?: number;
+      indent?: number;
+      tag?: string;
+      /** Keep on the same page as the start of the next block (e.g. a method's text with its source line). */
+      keepWithNext?: boolean;
+    } = {},
+  ): Block {
+    const face = opts.face ?? 'regular';
+    const size = opts.size ?? SIZE.body;
+    const after = opts.spaceAfter ?? PARA_GAP;
+    const indent = opts.indent ?? 0;
+    const width = CONTENT_WIDTH - indent;
+    const h = (): number => this.textHeight(text, face, size, width);
+    return {
+      ...(opts.keepWithNext ? { keepWithNext: true } : {}),
+      after,
+      height: () => h() + after,
+      minHeight: () => Math.min(h(), 3 * (size * 1.4)) + after,
+      draw: (parent) => {
+        const top = this.y;
+        parent.add(
+          this.doc.struct(opts.tag ?? 'P', {}, () => {
+            this.setFont(face, size, opts.color ?? COLOR.ink);
+            this.doc.text(text, MARGIN.left + indent, top, { width, lineGap: LINE_GAP });
+          }),
+        );
+        this.y = Math.max(this.y, top + h()) + after;
+      },
+    };
+  }
+
+  /**
+   * A box shaded across the text width with a coloured rule down its left edge, its content inset by `pad` on every
+   * side (and by the rule on the left). `content` is given the width left for it and returns its height (up to the
+   * gap below its last line, which the box leaves out) and how to draw it from its top-left corner. The shading is
+   * drawn as an Artifact; the content's structure goes under the parent passed to the block.
+   */
+  ruledBox(
+    style: { pad: number; rule: number; shade: string; ruleColor: string; after: number },
+    content: (width: number) => { height: () => number; draw: (parent: Struct, x: number, y: number) => void },
+  ): Block {
+    const { pad, rule, after } = style;
+    const inner = content(CONTENT_WIDTH - 2 * pad - rule);
+    const h = (): number => inner.height() + 2 * pad - LINE_GAP;
+    return {
+      after,
+      height: () => h() + after,
+      minHeight: () => h() + after,
+      draw: (parent) => {
+        const top = this.y;
+        const height = h();
+        this.artifact(() => {
+          this.doc.rect(MARGIN.left, top, CONTENT_WIDTH, height).fill(style.shade);
+          this.doc.rect(MARGIN.left, top, rule, height).fill(style.ruleColor);
+        });
+        inner.draw(parent, MARGIN.left + rule + pad, top + pad);
+        this.y = top + height + after;
+      },
+    };
+  }
+
+  /**
+   * A bulleted list (L > LI > Lbl + LBody); the bullet glyph is drawn as a small vector dot. A list of up to three
+   * items is kept whole on one page; a longer one may break after its second item, never leaving one item alone.
+   */
+  bullets(items: string[], opts: { size?: number } = {}): Block {
+    const size = opts.size ?? SIZE.body;
+    const indent = 14;
+    const width = CONTENT_WIDTH - indent;
+    const itemHeights = (): number[] => items.map((t) => this.textHeight(t, 'regular', size, width) + 3);
+    return {
+      after: 9,
+      height: () => itemHeights().reduce((a, b) => a + b, 0) + 6,
+      minHeight: () =>
+        itemHeights()
+          .slice(0, items.length <= 3 ? items.length : 2)
+          .reduce((a, b) => a + b, 0) + 6,
+      draw: (parent) => {
+        const list = this.doc.struct('L');
+        parent.add(list);
+        const heights = itemHeights();
+        items.forEach((text, i) => {
+          const h = heights[i]!;
+          // The last item never starts a page alone: the one before it moves with it.
+          this.ensure(h + (i === items.length - 2 ? heights[i + 1]! : 0) - 3);
+          const top = this.y;
+          const li = this.doc.struct('LI');
+          list.add(li);
+          this.artifact(() => {
+            this.doc.circle(MARGIN.left + 4, top + size * 0.72, 1.9).fill(COLOR.accent);
+          });
+          li.add(
+            this.doc.struct('LBody', {}, () => {
+              this.setFont('regular', size);
+              this.doc.text(text, MARGIN.left + indent, top, { width, lineGap: LINE_GAP });
+            }),
+          );
+          this.y = top + h;
+        });
+        list.end();
+        this.y += 6;
+      },
+    };
+  }
+
+  /** A chart drawn as vectors from SVG, tagged as a Figure with its alt text and bounding box. */
+  figure(svg: string, alt: string, opts: { spaceAfter?: number } = {}): Block {
+    const { width, height } = svgSize(svg);
+    const scale = Math.min(1, CONTENT_WIDTH / width);
+    const w = width * scale;
+    const h = height * scale;
+    const after = opts.spaceAfter ?? 14;
+    return {
+      after,
+      height: () => h + after,
+      minHeight: () => h + after,
+      draw: (parent) => {
+        const top = this.y;
+        const x = MARGIN.left + (CONTENT_WIDTH - w) / 2;
+        parent.add(
+          this.doc.struct('Figure', { alt, bbox: [x, top, x + w, top + h], placement: 'Block' }, () => {
+            SVGtoPDF(this.doc, svg, x, top, {
+              width: w,
+              height: h,
+              assumePt: true,
+              fontCallback: (_family, bold, italic) =>
+                bold ? FONT_NAME.bold : italic ? FONT_NAME.italic : FONT_NAME.regular,
+              warningCallback: (message) => {
+                throw new Error(`Chart SVG could not be drawn: ${message}`);
+              },
+            });
+          }),
+        );
+        this.y = top + h + after;
+      },
+    };
+  }
+
+  /** Vertical space. */
+  space(points: number): Block {
+    return {
+      height: () => points,
+      minHeight: () => 0,
+      draw: () => {
+        this.y = Math.min(this.y + points, CONTENT_BOTTOM);
+      },
+    };
+  }
+}
+
+/** Height of a run of blocks, less the blank space after the last one. */
+export function blocksHeight(blocks: Block[]): number {
+  return blocks.reduce((a, b) => a + b.height(), 0) - (blocks.at(-1)?.after ?? 0);
+}

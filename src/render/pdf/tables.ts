@@ -1,0 +1,242 @@
+/**
+ * Tables: a general table whose header row repeats on each page it continues on, and the compact label/value pairs
+ * of a claim's numbers.
+ */
+import { FONT_NAME, type Face } from '../fonts.js';
+import type { Layout } from './layout.js';
+import { drawMark } from './marks.js';
+import {
+  COLOR, CONTENT_WIDTH, MARGIN, NUMBER_LABEL_WIDTH, PAGE_ROOM, SIZE,
+  type Block, type Cell, type Column, type Struct,
+} from './style.js';
+
+/**
+ * A table with a header row repeated on each page it continues on. Rows never split across pages and cell text
+ * always wraps inside its column.
+ */
+export function table(
+  L: Layout,
+  columns: Column[],
+  rows: Cell[][],
+  opts: {
+    header?: boolean;
+    size?: number;
+    spaceAfter?: number;
+    padY?: number;
+    /** Move the whole table to the next page rather than split it, when it fits on one page. */
+    keepTogether?: boolean;
+  } = {},
+): Block {
+  const showHeader = opts.header ?? true;
+  const size = opts.size ?? SIZE.table;
+  const padX = 5;
+  const padY = opts.padY ?? 3.6;
+  const after = opts.spaceAfter ?? 12;
+  const total = columns.reduce((a, c) => a + c.width, 0);
+  const scale = CONTENT_WIDTH / total;
+  const widths = columns.map((c) => c.width * scale);
+  const markRoom = 13;
+  const cellTextWidth = (i: number, cell?: Cell): number => widths[i]! - 2 * padX - (cell?.mark ? markRoom : 0);
+  const subHeight = (cell: Cell, i: number): number =>
+    cell.sub ? 1.5 + L.textHeight(cell.sub, 'regular', SIZE.small, cellTextWidth(i, cell), 1.5) : 0;
+  const rowHeight = (cells: Cell[], face?: Face): number =>
+    Math.max(
+      ...cells.map(
+        (cell, i) =>
+          L.textHeight(cell.text, face ?? cell.face ?? columns[i]!.face ?? 'regular', size, cellTextWidth(i, cell), 1.5) +
+          subHeight(cell, i),
+      ),
+    ) +
+    2 * padY -
+    1.5;
+  const headerCells: Cell[] = columns.map((c) => ({ text: c.header, face: 'bold' }));
+  const headerHeight = (): number => (showHeader ? rowHeight(headerCells, 'bold') : 0);
+
+  const drawRow = (cells: Cell[], top: number, height: number, tag: 'TH' | 'TD' | null, parent: Struct | null): void => {
+    let x = MARGIN.left;
+    cells.forEach((cell, i) => {
+      const face = tag === 'TH' || tag === null ? 'bold' : (cell.face ?? columns[i]!.face ?? 'regular');
+      let textX = x + padX;
+      if (cell.mark) {
+        const mark = cell.mark;
+        const mx = x + padX + 4.5;
+        L.artifact(() => drawMark(L, mark, mx, top + padY + size * 0.68, 3.8));
+        textX += markRoom;
+      }
+      const drawMain = (): void => {
+        L.setFont(face, size, tag === 'TH' || tag === null ? COLOR.muted : COLOR.ink);
+        L.doc.text(cell.text, textX, top + padY, { width: cellTextWidth(i, cell), lineGap: 1.5 });
+      };
+      const drawSub = (): void => {
+        if (!cell.sub) return;
+        const subTop = top + padY + L.textHeight(cell.text, face, size, cellTextWidth(i, cell), 1.5) + 1.5;
+        L.setFont('regular', SIZE.small, COLOR.muted);
+        L.doc.text(cell.sub, textX, subTop, { width: cellTextWidth(i, cell), lineGap: 1.5 });
+      };
+      // In a table without a header row, a bold first column labels its row: tag it as a row header.
+      const cellTag = tag === 'TD' && !showHeader && i === 0 && columns[0]!.face === 'bold' ? 'TH' : tag;
+      if (parent && cellTag) {
+        if (cell.sub) {
+          // Text and its small second line are separate paragraphs, so they are read as two phrases.
+          const el = L.doc.struct(cellTag);
+          parent.add(el);
+          el.add(L.doc.struct('P', {}, drawMain));
+          el.add(L.doc.struct('P', {}, drawSub));
+          el.end();
+        } else {
+          parent.add(L.doc.struct(cellTag, {}, drawMain));
+        }
+      } else {
+        L.artifact(() => {
+          drawMain();
+          drawSub();
+        });
+      }
+      x += widths[i]!;
+    });
+    L.artifact(() => {
+      L.doc
+        .lineWidth(tag === 'TD' ? 0.5 : 0.9)
+        .moveTo(MARGIN.left, top + height)
+        .lineTo(MARGIN.left + CONTENT_WIDTH, top + height)
+        .stroke(tag === 'TD' ? COLOR.rule : COLOR.muted);
+    });
+  };
+
+  return {
+    after,
+    height: () => headerHeight() + rows.reduce((a, r) => a + rowHeight(r), 0) + after,
+    minHeight: () => {
+      const whole = headerHeight() + rows.reduce((a, r) => a + rowHeight(r), 0) + after;
+      return opts.keepTogether && whole <= PAGE_ROOM ? whole : headerHeight() + (rows[0] ? rowHeight(rows[0]) : 0) + after;
+    },
+    draw: (parent) => {
+      const tableEl = L.doc.struct('Table');
+      parent.add(tableEl);
+      const hh = headerHeight();
+      if (showHeader) {
+        const top = L.y;
+        const tr = L.doc.struct('TR');
+        tableEl.add(tr);
+        drawRow(headerCells, top, hh, 'TH', tr);
+        L.y = top + hh;
+      }
+      rows.forEach((row, i) => {
+        const h = rowHeight(row);
+        // The last row never starts a page alone: the one before it moves with it.
+        const need = h + (i === rows.length - 2 && rows.length > 2 ? rowHeight(rows[i + 1]!) : 0);
+        if (need > L.remaining() && !L.atTop()) {
+          L.newPage();
+          if (showHeader) {
+            // The repeated header is visual only: the structure tree already has the header row once.
+            const top = L.y;
+            drawRow(headerCells, top, hh, null, null);
+            L.y = top + hh;
+          }
+        }
+        const top = L.y;
+        const tr = L.doc.struct('TR');
+        tableEl.add(tr);
+        drawRow(row, top, h, 'TD', tr);
+        L.y = top + h;
+      });
+      tableEl.end();
+      L.y += after;
+    },
+  };
+}
+
+/**
+ * The numbers of a claim, set compactly: two label/value pairs side by side when both values are short, one pair
+ * across the width otherwise. Labels are row headers (TH), values data cells (TD); rows never split over pages.
+ */
+export function numberPairs(
+  L: Layout,
+  rows: Array<{ label: string; value: string }>,
+  opts: { spaceAfter?: number; pair?: boolean; padY?: number } = {},
+): Block {
+  const size = SIZE.table;
+  const padX = 5;
+  const padY = opts.padY ?? 2.8;
+  const gap = 1.2;
+  const after = opts.spaceAfter ?? 4;
+  const half = CONTENT_WIDTH / 2;
+  const labelW = NUMBER_LABEL_WIDTH;
+  const shortValueW = half - labelW;
+  const fullValueW = CONTENT_WIDTH - labelW;
+  const fitsShort = (r: { label: string; value: string }): boolean => {
+    L.doc.font(FONT_NAME.regular).fontSize(size);
+    return (
+      L.doc.widthOfString(r.value) <= shortValueW - 2 * padX &&
+      L.textHeight(r.label, 'regular', size, labelW - 2 * padX, gap) <= L.textHeight('A\nA', 'regular', size, 100, gap) + 0.5
+    );
+  };
+  type Line = Array<{ label: string; value: string; valueW: number }>;
+  const lines: Line[] = [];
+  for (let i = 0; i < rows.length; i++) {
+    const a = rows[i]!;
+    const b = rows[i + 1];
+    if (b && opts.pair !== false && fitsShort(a) && fitsShort(b)) {
+      lines.push([
+        { ...a, valueW: shortValueW },
+        { ...b, valueW: shortValueW },
+      ]);
+      i++;
+    } else {
+      lines.push([{ ...a, valueW: fullValueW }]);
+    }
+  }
+  const lineHeight = (line: Line): number =>
+    Math.max(
+      ...line.flatMap((c) => [
+        L.textHeight(c.label, 'regular', size, labelW - 2 * padX, gap),
+        L.textHeight(c.value, 'regular', size, c.valueW - 2 * padX, gap),
+      ]),
+    ) +
+    2 * padY -
+    gap;
+  return {
+    after,
+    height: () => lines.reduce((a, l) => a + lineHeight(l), 0) + after,
+    minHeight: () => (lines[0] ? lineHeight(lines[0]) : 0) + after,
+    draw: (parent) => {
+      const tableEl = L.doc.struct('Table');
+      parent.add(tableEl);
+      for (const line of lines) {
+        const h = lineHeight(line);
+        if (h > L.remaining() && !L.atTop()) L.newPage();
+        const top = L.y;
+        const tr = L.doc.struct('TR');
+        tableEl.add(tr);
+        let x = MARGIN.left;
+        for (const cell of line) {
+          const lx = x;
+          tr.add(
+            L.doc.struct('TH', {}, () => {
+              L.setFont('regular', size, COLOR.muted);
+              L.doc.text(cell.label, lx + padX, top + padY, { width: labelW - 2 * padX, lineGap: gap });
+            }),
+          );
+          const vx = x + labelW;
+          tr.add(
+            L.doc.struct('TD', {}, () => {
+              L.setFont('regular', size, COLOR.ink);
+              L.doc.text(cell.value, vx + padX, top + padY, { width: cell.valueW - 2 * padX, lineGap: gap });
+            }),
+          );
+          x += labelW + cell.valueW;
+        }
+        tr.end();
+        L.artifact(() => {
+          L.doc.lineWidth(0.5).moveTo(MARGIN.left, top + h).lineTo(MARGIN.left + CONTENT_WIDTH, top + h).stroke(COLOR.rule);
+          if (line.length > 1) {
+            L.doc.lineWidth(0.5).moveTo(MARGIN.left + half, top + 3).lineTo(MARGIN.left + half, top + h - 3).stroke(COLOR.rule);
+          }
+        });
+        L.y = top + h;
+      }
+      tableEl.end();
+      L.y += after;
+    },
+  };
+}
