@@ -21,7 +21,8 @@ import { periodColumnOf, resolvePeriods } from './analyse/periods.js';
 import { PERIOD_NAME } from './claims/periods.js';
 import type { Analysis } from './analyse/types.js';
 import { adjustP } from './stats/p-adjust.js';
-import { decide, type Decision } from './verdicts/decide.js';
+import { effectiveThresholds } from './stats/p-adjust-thresholds.js';
+import { alphaOf, decide, type Decision } from './verdicts/decide.js';
 import { composeClaim } from './verdicts/compose.js';
 import { ADJUST_NAMES, composePack } from './verdicts/pack.js';
 import { Templates } from './verdicts/templates.js';
@@ -113,7 +114,14 @@ export function testClaims(claims: ClaimsFile, cubes: Cube[], claimsDisplay: str
     claims.adjust,
   );
   const pAdj = new Map(testedIdx.map((i, k) => [i, adjusted[k] as number]));
-  const decisions = analyses.map((a, i) => decide(a, pAdj.get(i)));
+  // The threshold each claim's raw p-value was in effect held to, at its own confidence level.
+  const thresholds = effectiveThresholds(
+    testedIdx.map((i) => (analyses[i]?.test?.p as number)),
+    testedIdx.map((i) => alphaOf(analyses[i]!.claim.confidence)),
+    claims.adjust,
+  );
+  const threshold = new Map(testedIdx.map((i, k) => [i, thresholds[k] as number]));
+  const decisions = analyses.map((a, i) => decide(a, pAdj.get(i), threshold.get(i)));
   return { analyses, decisions, tested: testedIdx.length };
 }
 

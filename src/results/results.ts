@@ -44,6 +44,8 @@ export interface ClaimResult {
   df: number | [number, number] | null;
   p: number | null;
   pAdjusted: number | null;
+  /** The threshold the adjustment applied to this claim's raw p-value (src/stats/p-adjust-thresholds.ts). */
+  effectiveAlpha: number | null;
   n: number[];
   /** Selections (compare) with their rates; empty when data were too few (nothing suppressed is shown). */
   selections: SelectionResult[];
@@ -130,6 +132,7 @@ export function claimResult(a: Analysis, decision: Decision, section: ClaimSecti
     verdictText: section.verdictText,
     p: decision.p ?? null,
     pAdjusted: decision.pAdjusted ?? null,
+    effectiveAlpha: decision.effectiveAlpha ?? null,
     detectable: tested && typeof extra.detectable === 'number' ? extra.detectable : null,
     cautions: section.cautions,
     interval: difference?.interval ?? a.test?.interval ?? null,

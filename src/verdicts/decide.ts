@@ -26,6 +26,12 @@ export interface Decision {
   pAdjusted?: number;
   /** 1 - confidence. */
   alpha: number;
+  /**
+   * The per-claim threshold the adjustment for many claims actually applied to this claim's raw p-value (see
+   * src/stats/p-adjust-thresholds.ts): pAdjusted < alpha exactly when p < effectiveAlpha. Equal to alpha when no
+   * adjustment was made. Absent when the claim was not tested.
+   */
+  effectiveAlpha?: number;
   /** Set when the result is real and in the claimed direction but smaller than the smallest difference that matters. */
   belowThreshold?: { effect: number; smallest: number; unit: 'points' | 'scale points' };
 }
@@ -45,16 +51,20 @@ function supportedUnlessSmall(a: Analysis, base: Omit<Decision, 'verdict'>): Dec
   return { verdict: 'supported', ...base };
 }
 
-export function decide(analysis: Analysis, pAdjusted: number | undefined): Decision {
-  // Rounded so that 1 - 0.95 is 0.05 exactly, not 0.050000000000000044: p = 0.05 is not below alpha.
-  const alpha = Number((1 - analysis.claim.confidence).toFixed(12));
+/** 1 - confidence, rounded so that 1 - 0.95 is 0.05 exactly, not 0.050000000000000044: p = 0.05 is not below alpha. */
+export function alphaOf(confidence: number): number {
+  return Number((1 - confidence).toFixed(12));
+}
+
+export function decide(analysis: Analysis, pAdjusted: number | undefined, effectiveAlpha?: number): Decision {
+  const alpha = alphaOf(analysis.claim.confidence);
   // An estimate tests no hypothesis: its verdict is 'estimate' whenever there were enough respondents.
   if (analysis.kind === 'estimate' && analysis.status === 'tested') return { verdict: 'estimate', alpha };
   if (analysis.status === 'too-little-data' || !analysis.test || pAdjusted === undefined) {
     return { verdict: 'too-little-data', alpha };
   }
   const p = analysis.test.p;
-  const base = { p, pAdjusted, alpha };
+  const base = { p, pAdjusted, alpha, ...(effectiveAlpha !== undefined ? { effectiveAlpha } : {}) };
   const expect = analysis.expectSign;
   const observed = analysis.observedSign;
   if (analysis.kind === 'equivalence') {

@@ -65,6 +65,26 @@ describe('demo evidence pack', () => {
     expect(results.claims.map((c: { verdict: string }) => c.verdict)).toEqual(first.decisions.map((d) => d.verdict));
   });
 
+  it("states each tested claim's effective threshold, which agrees with its adjusted p-value", () => {
+    const results = JSON.parse(readFileSync(first.files.results, 'utf8')) as { settings: { adjust: string }; claims: Array<{ p: number | null; pAdjusted: number | null; effectiveAlpha: number | null; confidence: number }> };
+    expect(results.settings.adjust).toBe('holm');
+    const tested = results.claims.filter((c) => c.p !== null);
+    expect(tested.length).toBeGreaterThan(5);
+    const m = tested.length;
+    // Holm's textbook step-down (Holm 1979, common practice to state it so): the k-th smallest p-value is held to
+    // alpha / (m - k + 1) until the first step fails; every later claim is settled at that failing step.
+    const sorted = tested.slice().sort((a, b) => (a.p as number) - (b.p as number));
+    let failed: number | undefined;
+    sorted.forEach((c, r) => {
+      const alpha = Number((1 - c.confidence).toFixed(12));
+      if (failed === undefined && !((c.p as number) < alpha / (m - r))) failed = r;
+      const step = failed ?? r;
+      expect(c.effectiveAlpha).toBeCloseTo(alpha / (m - step), 15);
+      expect((c.pAdjusted as number) < alpha).toBe((c.p as number) < (c.effectiveAlpha as number));
+    });
+    for (const c of results.claims.filter((r) => r.p === null)) expect(c.effectiveAlpha).toBeNull();
+  });
+
   it('withholds the counts of a claim with too little data', () => {
     const results = JSON.parse(readFileSync(first.files.results, 'utf8'));
     for (const c of results.claims.filter((r: { verdict: string }) => r.verdict === 'too-little-data')) {

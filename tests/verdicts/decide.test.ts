@@ -83,4 +83,10 @@ describe('decide (verdict rules)', () => {
   it('reports alpha as 1 - confidence', () => {
     expect(decide(analysis({ expect: 'lower', p: 0.01, sign: -1 }), 0.01).alpha).toBeCloseTo(0.05, 15);
   });
+  it('carries the effective threshold of a tested claim, and none for an untested one', () => {
+    // Holm over three claims, the smallest p: 0.05 / 3 (textbook step-down, see tests/stats/thresholds.test.ts).
+    expect(decide(analysis({ expect: 'lower', p: 0.01, sign: -1 }), 0.03, 0.05 / 3).effectiveAlpha).toBe(0.05 / 3);
+    const a: CompareAnalysis = { ...analysis({ expect: 'lower', p: 0.001, sign: -1 }), status: 'too-little-data', shortfall: 'x' };
+    expect(decide(a, undefined, 0.01).effectiveAlpha).toBeUndefined();
+  });
 });
