@@ -42,7 +42,8 @@ declare namespace PDFKit {
     lineBreak?: boolean;
     ellipsis?: boolean | string;
     indent?: number;
-    features?: string[];
+    /** OpenType features: a list to switch on, or a map switching each on (true) or off (false), e.g. { kern: false }. */
+    features?: string[] | Record<string, boolean>;
     characterSpacing?: number;
     destination?: string;
     goTo?: string;

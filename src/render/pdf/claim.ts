@@ -8,7 +8,7 @@ import { blocksHeight, type Layout } from './layout.js';
 import { badgeWidth, drawBadge } from './marks.js';
 import { numberPairs } from './tables.js';
 import {
-  BADGE, CLAIM_GAP, COLOR, CONTENT_WIDTH, LINE_GAP, MARGIN, PAGE, PAGE_ROOM, SIZE, shorten, svgSize,
+  BADGE, CLAIM_GAP, COLOR, CONTENT_WIDTH, LINE_GAP, MARGIN, SPACED_CAPS, PAGE, PAGE_ROOM, SIZE, shorten, svgSize,
   type Block, type Struct,
 } from './style.js';
 
@@ -48,7 +48,7 @@ export function notices(L: Layout, items: string[], opts: { spaceAfter?: number 
           box.add(
             L.doc.struct('P', {}, () => {
               L.setFont('bold', SIZE.small, COLOR.noticeInk);
-              L.doc.text(items.length > 1 ? 'NOTES' : 'NOTE', x, top, { width, characterSpacing: 0.8, lineBreak: false });
+              L.doc.text(items.length > 1 ? 'NOTES' : 'NOTE', x, top, { width, ...SPACED_CAPS, lineBreak: false });
             }),
           );
           let y = top + labelH;
@@ -120,7 +120,7 @@ function claimBlocks(
       parent.add(
         L.doc.struct('H2', {}, () => {
           L.setFont('bold', SIZE.small, COLOR.accent);
-          L.doc.text(label, MARGIN.left, labelTop, { width: lw, characterSpacing: 0.8, lineGap: 1 });
+          L.doc.text(label, MARGIN.left, labelTop, { width: lw, ...SPACED_CAPS, lineGap: 1 });
           L.setFont('bold', SIZE.h3);
           L.doc.text(claim.statement, MARGIN.left, statementTop, { width: CONTENT_WIDTH, lineGap: 1.5 });
         }),

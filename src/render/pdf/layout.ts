@@ -5,7 +5,7 @@
 import SVGtoPDF from 'svg-to-pdfkit';
 import { FONT_NAME, type Face } from '../fonts.js';
 import {
-  COLOR, CONTENT_BOTTOM, CONTENT_WIDTH, CONTINUATION_HEIGHT, LINE_GAP, MARGIN, PARA_GAP, SIZE, SLACK, svgSize,
+  COLOR, CONTENT_BOTTOM, CONTENT_WIDTH, CONTINUATION_HEIGHT, LINE_GAP, MARGIN, SPACED_CAPS, PARA_GAP, SIZE, SLACK, svgSize,
   type Block, type Doc, type Struct,
 } from './style.js';
 
@@ -48,7 +48,7 @@ export class Layout {
       const text = this.continuation;
       this.artifact(() => {
         this.setFont('bold', SIZE.small, COLOR.muted);
-        this.doc.text(text, MARGIN.left, MARGIN.top, { width: CONTENT_WIDTH, characterSpacing: 0.8, lineBreak: false });
+        this.doc.text(text, MARGIN.left, MARGIN.top, { width: CONTENT_WIDTH, ...SPACED_CAPS, lineBreak: false });
       });
       this.pageTop = MARGIN.top + CONTINUATION_HEIGHT;
       this.doc.y = this.pageTop;

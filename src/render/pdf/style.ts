@@ -35,6 +35,12 @@ export const COLOR = {
 export const SIZE = { title: 24, h2: 16, h3: 13, sub: 10.5, body: 10.5, table: 9.5, small: 8.5, furniture: 8 } as const;
 export const LINE_GAP = 2.2;
 export const PARA_GAP = 8;
+/**
+ * Small letter-spaced capitals (a claim's label, its continuation line, the NOTE label). Kerning is switched off:
+ * letter-spaced capitals need none, and a kerned pair such as "TT" or "AT" inside the extra spacing leaves a gap that
+ * text extraction (pdftotext, screen readers, search) reads as a space ("BUT TON" for "BUTTON").
+ */
+export const SPACED_CAPS = { characterSpacing: 0.8, features: { kern: false } } as const;
 /** The verdict badge: bold word beside a verdict mark in an outlined box. */
 export const BADGE = { size: 11, padX: 9, height: 22 } as const;
 /** Width of the label column in a claim's tables ("Null hypothesis", "Test statistic"). */
