@@ -24,6 +24,8 @@ import { adjustP } from './stats/p-adjust.js';
 import { effectiveThresholds } from './stats/p-adjust-thresholds.js';
 import { alphaOf, decide, type Decision } from './verdicts/decide.js';
 import { composeClaim } from './verdicts/compose.js';
+import { verdictStability, type Stability } from './verdicts/stability.js';
+import { stabilityView } from './verdicts/words/stability.js';
 import { ADJUST_NAMES, composePack } from './verdicts/pack.js';
 import { Templates } from './verdicts/templates.js';
 import { claimResult, resultsFile, type ResultsFile } from './results/results.js';
@@ -96,18 +98,22 @@ export async function loadData(claims: ClaimsFile, cwd: string): Promise<Cube[]>
 }
 
 /** 3-4. Test every claim, adjust the p-values of those tested for many claims, and decide each verdict. */
-export function testClaims(claims: ClaimsFile, cubes: Cube[], claimsDisplay: string): { analyses: Analysis[]; decisions: Decision[]; tested: number } {
+export function testClaims(
+  claims: ClaimsFile,
+  cubes: Cube[],
+  claimsDisplay: string,
+): { analyses: Analysis[]; decisions: Decision[]; tested: number; stability: Array<Stability | undefined> } {
   const byId = new Map(cubes.map((c) => [c.sourceId, c]));
   const periodColumns = Object.fromEntries(claims.sources.flatMap((s) => (s.period ? [[s.id, s.period]] : [])));
   const ctx = { minRespondents: claims.minRespondents, claimsFile: claimsDisplay, periodColumns };
-  const analyses = claims.claims.map((written) => {
+  const resolved = claims.claims.map((written) => {
     const cube = byId.get(written.source);
     if (!cube) throw new Error(`internal: no data loaded for source "${written.source}"`);
     // Relative periods (latest, previous, latest-N) become the periods these data hold, so the pack names them.
     const periodColumn = periodColumnOf(cube, claims.sources.find((s) => s.id === written.source)?.period);
-    const { claim } = resolvePeriods(written, cube, periodColumn, claimsDisplay);
-    return analyse(claim, cube, ctx);
+    return { claim: resolvePeriods(written, cube, periodColumn, claimsDisplay).claim, cube };
   });
+  const analyses = resolved.map(({ claim, cube }) => analyse(claim, cube, ctx));
   const testedIdx = analyses.flatMap((a, i) => (a.status === 'tested' && a.test ? [i] : []));
   const adjusted = adjustP(
     testedIdx.map((i) => (analyses[i]?.test?.p as number)),
@@ -122,7 +128,17 @@ export function testClaims(claims: ClaimsFile, cubes: Cube[], claimsDisplay: str
   );
   const threshold = new Map(testedIdx.map((i, k) => [i, thresholds[k] as number]));
   const decisions = analyses.map((a, i) => decide(a, pAdj.get(i), threshold.get(i)));
-  return { analyses, decisions, tested: testedIdx.length };
+  // The verdict at 90, 95 and 99% confidence, with and without the adjustment: each claim analysed again at each level.
+  const stability = verdictStability(claims, analyses, (i, confidence) => {
+    const { claim, cube } = resolved[i]!;
+    return analyse({ ...claim, confidence } as typeof claim, cube, ctx);
+  });
+  return {
+    analyses,
+    decisions: decisions.map((d, i) => (stability[i] ? { ...d, stability: stability[i] } : d)),
+    tested: testedIdx.length,
+    stability,
+  };
 }
 
 /** Point sources at other files for this build (`--data id=path`), checking each exists. */
@@ -280,7 +296,13 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
     minRespondents: claims.minRespondents,
     periodColumns: periodColumns(claims, cubes),
   };
-  const composed = analyses.map((a, i) => composeClaim(a, decisions[i] as Decision, ctx));
+  const composed = analyses.map((a, i) => {
+    const decision = decisions[i] as Decision;
+    const c = composeClaim(a, decision, ctx);
+    if (!decision.stability) return c;
+    const stability = stabilityView(decision.stability, a.claim.confidence, claimsTested, templates);
+    return { section: { ...c.section, stability }, summary: { ...c.summary, dependsOnLevel: stability.dependsOnLevel } };
+  });
   const results = resultsFile({
     version,
     fingerprint,

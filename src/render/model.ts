@@ -72,6 +72,39 @@ export interface NumberRow {
   value: string;
 }
 
+/**
+ * The verdict at 90%, 95% and 99% confidence, with and without the adjustment for many claims (src/verdicts/stability.ts):
+ * drawn as one compact row on the claim's page. Absent for claims that test no hypothesis or were not tested.
+ */
+export interface VerdictStability {
+  /** Three cells, at 90%, 95% and 99% in that order. */
+  cells: Array<{
+    /** e.g. "95%". */
+    level: string;
+    /** True for the claim's own confidence level (the verdict the pack gives). */
+    own: boolean;
+    /** The verdict with the pack's adjustment for many claims, and its word (e.g. "Supported"). */
+    adjusted: VerdictKind;
+    adjustedLabel: string;
+    /** The verdict on the claim's own p-value, without adjustment, and its word. */
+    unadjusted: VerdictKind;
+    unadjustedLabel: string;
+  }>;
+  /** False when no adjustment applies (adjust: none, or one claim tested): draw the adjusted verdicts only. */
+  adjustmentApplies: boolean;
+  /** True when the verdict (with the pack's adjustment) is not the same at all three levels. */
+  dependsOnLevel: boolean;
+  /** True when adjusting for many claims changes the verdict at some level. */
+  dependsOnAdjustment: boolean;
+  /** Row heading, e.g. "Verdict at other confidence levels". */
+  heading: string;
+  /** Row labels for the two lines, e.g. "Adjusted for 13 claims" and "Not adjusted". */
+  adjustedLabel: string;
+  unadjustedLabel: string;
+  /** The whole row in one sentence (for the text layer, alt text and results), e.g. "Supported at 90% and 95%, not supported at 99% (adjusted for 13 claims); ...". */
+  text: string;
+}
+
 export interface ClaimSection {
   id: string;
   /** The claim in the user's words. */
@@ -90,6 +123,8 @@ export interface ClaimSection {
   cautions: string[];
   /** One line naming the method, e.g. "Two-proportion z test (pooled); Wilson and Newcombe intervals." */
   methodLine: string;
+  /** The verdict at 90, 95 and 99% confidence, with and without adjustment; absent for estimates and untested claims. */
+  stability?: VerdictStability;
   /**
    * A notice to show prominently beside the claim, e.g. that the claim was edited after an earlier pack showed its
    * results (weaker evidence), or that its verdict changed since the previous pack.
@@ -117,6 +152,8 @@ export interface SummaryRow {
   verdictLabel: string;
   /** e.g. "61% vs 67%, gap −6 points (−9 to −3)". */
   keyFigure: string;
+  /** True when the verdict would differ at 90%, 95% or 99% confidence: the summary marks such claims. */
+  dependsOnLevel?: boolean;
 }
 
 export interface PackModel {

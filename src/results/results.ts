@@ -46,6 +46,14 @@ export interface ClaimResult {
   pAdjusted: number | null;
   /** The threshold the adjustment applied to this claim's raw p-value (src/stats/p-adjust-thresholds.ts). */
   effectiveAlpha: number | null;
+  /** The verdict at 90, 95 and 99% confidence with and without adjustment; null for estimates and untested claims. */
+  stability: {
+    levels: Array<{ level: number; adjusted: string; unadjusted: string }>;
+    adjustmentApplies: boolean;
+    dependsOnLevel: boolean;
+    dependsOnAdjustment: boolean;
+    text: string;
+  } | null;
   n: number[];
   /** Selections (compare) with their rates; empty when data were too few (nothing suppressed is shown). */
   selections: SelectionResult[];
@@ -133,6 +141,16 @@ export function claimResult(a: Analysis, decision: Decision, section: ClaimSecti
     p: decision.p ?? null,
     pAdjusted: decision.pAdjusted ?? null,
     effectiveAlpha: decision.effectiveAlpha ?? null,
+    stability:
+      decision.stability && section.stability
+        ? {
+            levels: decision.stability.cells.map((c) => ({ level: c.level, adjusted: c.adjusted, unadjusted: c.unadjusted })),
+            adjustmentApplies: decision.stability.adjustmentApplies,
+            dependsOnLevel: decision.stability.dependsOnLevel,
+            dependsOnAdjustment: decision.stability.dependsOnAdjustment,
+            text: section.stability.text,
+          }
+        : null,
     detectable: tested && typeof extra.detectable === 'number' ? extra.detectable : null,
     cautions: section.cautions,
     interval: difference?.interval ?? a.test?.interval ?? null,

@@ -17,6 +17,7 @@
  */
 import type { Analysis } from '../analyse/types.js';
 import type { VerdictKind } from '../render/model.js';
+import type { Stability } from './stability.js';
 
 export interface Decision {
   verdict: VerdictKind;
@@ -32,6 +33,8 @@ export interface Decision {
    * adjustment was made. Absent when the claim was not tested.
    */
   effectiveAlpha?: number;
+  /** The verdict at 90, 95 and 99% confidence, with and without adjustment (set by the pipeline, src/verdicts/stability.ts). */
+  stability?: Stability;
   /** Set when the result is real and in the claimed direction but smaller than the smallest difference that matters. */
   belowThreshold?: { effect: number; smallest: number; unit: 'points' | 'scale points' };
 }

@@ -85,6 +85,38 @@ describe('demo evidence pack', () => {
     for (const c of results.claims.filter((r) => r.p === null)) expect(c.effectiveAlpha).toBeNull();
   });
 
+  it('states the verdict at 90, 95 and 99% confidence, with and without adjustment, for every tested claim', () => {
+    type Cell = { level: number; adjusted: string; unadjusted: string };
+    const results = JSON.parse(readFileSync(first.files.results, 'utf8')) as {
+      claims: Array<{ id: string; verdict: string; kind: string; p: number | null; pAdjusted: number | null; confidence: number; stability: { levels: Cell[]; dependsOnLevel: boolean; dependsOnAdjustment: boolean; text: string } | null }>;
+    };
+    for (const c of results.claims) {
+      if (c.p === null || c.kind === 'estimate') {
+        expect(c.stability).toBeNull();
+        continue;
+      }
+      const s = c.stability!;
+      expect(s.levels.map((l) => l.level)).toEqual([0.9, 0.95, 0.99]);
+      // At the claim's own level the adjusted verdict is the pack's verdict.
+      expect(s.levels.find((l) => l.level === c.confidence)?.adjusted).toBe(c.verdict);
+      // The p-values do not depend on the level, so a claim the pack supports is supported at a level exactly when
+      // its (R-checked) adjusted or raw p-value is below one minus that level.
+      if (c.verdict === 'supported') {
+        for (const l of s.levels) {
+          expect({ level: l.level, v: l.adjusted === 'supported' }).toEqual({ level: l.level, v: (c.pAdjusted as number) < Number((1 - l.level).toFixed(12)) });
+          expect({ level: l.level, v: l.unadjusted === 'supported' }).toEqual({ level: l.level, v: (c.p as number) < Number((1 - l.level).toFixed(12)) });
+        }
+      }
+    }
+    // The demo's equivalence claim is supported at 90% and 95% but not at 99% once adjusted for 13 claims.
+    const equal = results.claims.find((c) => c.id === 'campuses-equally-reachable')!;
+    expect(equal.stability?.levels.map((l) => l.adjusted)).toEqual(['supported', 'supported', 'not-supported']);
+    expect(equal.stability?.dependsOnLevel).toBe(true);
+    expect(first.model.summary.find((r) => r.id === 'campuses-equally-reachable')?.dependsOnLevel).toBe(true);
+    expect(first.model.summary.find((r) => r.id === 'feedback-below-region')?.dependsOnLevel).toBe(false);
+    expect(first.model.claims.find((r) => r.id === 'campuses-equally-reachable')?.stability?.text).toBe(equal.stability?.text);
+  });
+
   it('withholds the counts of a claim with too little data', () => {
     const results = JSON.parse(readFileSync(first.files.results, 'utf8'));
     for (const c of results.claims.filter((r: { verdict: string }) => r.verdict === 'too-little-data')) {
