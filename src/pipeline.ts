@@ -23,7 +23,8 @@ import type { Analysis } from './analyse/types.js';
 import { adjustP } from './stats/p-adjust.js';
 import { effectiveThresholds } from './stats/p-adjust-thresholds.js';
 import { alphaOf, decide, type Decision } from './verdicts/decide.js';
-import { composeClaim } from './verdicts/compose.js';
+import { composeClaims } from './verdicts/compose.js';
+import { sourceLine } from './verdicts/source.js';
 import { verdictStability, type Stability } from './verdicts/stability.js';
 import { stabilityView } from './verdicts/words/stability.js';
 import { ADJUST_NAMES, composePack } from './verdicts/pack.js';
@@ -296,12 +297,12 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
     minRespondents: claims.minRespondents,
     periodColumns: periodColumns(claims, cubes),
   };
-  const composed = analyses.map((a, i) => {
+  const sourceLines = analyses.map((a) => sourceLine(a, claims.sources.find((s) => s.id === a.claim.source), cubes.find((c) => c.sourceId === a.claim.source), templates));
+  const composed = composeClaims(analyses, decisions, ctx, sourceLines).map((c, i) => {
     const decision = decisions[i] as Decision;
-    const c = composeClaim(a, decision, ctx);
     if (!decision.stability) return c;
-    const stability = stabilityView(decision.stability, a.claim.confidence, claimsTested, templates);
-    return { section: { ...c.section, stability }, summary: { ...c.summary, dependsOnLevel: stability.dependsOnLevel } };
+    const stability = stabilityView(decision.stability, (analyses[i] as Analysis).claim.confidence, claimsTested, templates);
+    return { ...c, section: { ...c.section, stability }, summary: { ...c.summary, dependsOnLevel: stability.dependsOnLevel } };
   });
   const results = resultsFile({
     version,
@@ -310,7 +311,7 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
     claimsDisplay,
     date,
     cubes,
-    results: analyses.map((a, i) => claimResult(a, decisions[i] as Decision, (composed[i] as (typeof composed)[number]).section, claims.claims[i])),
+    results: analyses.map((a, i) => claimResult(a, decisions[i] as Decision, (composed[i] as (typeof composed)[number]).section, claims.claims[i], composed[i]?.worth)),
   });
 
   // 6. history: what changed since the previous pack, and claims edited after their results were seen

@@ -82,6 +82,8 @@ export function normalize(parsed: ParsedYaml, absPath: string, sha256: string, l
       place: placeAt(['sources', id], 'key'),
     };
     if (typeof s.sheet === 'string') spec.sheet = s.sheet;
+    if (typeof s.title === 'string') spec.title = s.title;
+    if (s.origin === 'independent' || s.origin === 'own') spec.origin = s.origin;
     if (typeof s.respondents === 'string') spec.respondents = s.respondents;
     if (typeof s.agree === 'string') spec.agree = s.agree;
     if (typeof s.agree_percent === 'string') spec.agreePercent = s.agree_percent;

@@ -54,6 +54,13 @@ export interface SourceSpec {
   format: 'csv' | 'xlsx';
   /** Worksheet name for XLSX (default: the first visible sheet). */
   sheet?: string;
+  /** The survey's name as the pack should give it, e.g. "Lanternfield Student Opinion Survey 2026". */
+  title?: string;
+  /**
+   * Who ran the survey: 'independent' (a release by an independent body) or 'own' (the organisation's own survey).
+   * The pack names it on each claim's page; unset, it says the claims file does not state it.
+   */
+  origin?: 'independent' | 'own';
   shape: SourceShape;
   /** summary: column with the number who answered. */
   respondents?: string;

@@ -6,6 +6,40 @@
 /** 'estimate' is for claims that test no hypothesis (a plain estimate with its margin of error). */
 export type VerdictKind = 'supported' | 'not-supported' | 'opposite' | 'too-little-data' | 'estimate';
 
+/**
+ * Which kind of "not supported" a result is, where the data allow the split (a difference or correlation with an
+ * interval): 'inconclusive' when the interval holds both no difference and a difference worth reporting;
+ * 'ruled-out' when the interval excludes a difference worth reporting in the claimed direction(s); 'too-small' when
+ * the difference is real and in the claimed direction but below the claim's smallest difference that matters.
+ * Absent for other verdicts and for kinds with no interval to judge by (crosstab, trend).
+ */
+export type NotSupportedAs = 'inconclusive' | 'ruled-out' | 'too-small';
+
+/**
+ * What the summary advises doing with a claim: 'quote' as written; 'quote-with-interval' (an estimate: quote the
+ * figure with its margin); 'reword' to what the data support (`wording` holds a suggestion); 'drop' it; or
+ * 'must-not-make' (the data point the other way). Drawn first and with weight: 'must-not-make'.
+ */
+export type ClaimAction = 'quote' | 'quote-with-interval' | 'reword' | 'drop' | 'must-not-make';
+
+export interface ClaimAdvice {
+  action: ClaimAction;
+  /** The action in words, e.g. "Quote as written", "Reword", "Drop", "Must not make". */
+  label: string;
+  /** One or two sentences saying why, e.g. "The interval rules out a gap of 5.7 points or more." */
+  reason: string;
+  /** A wording the data support, ready to quote ('reword' and 'quote-with-interval'; sometimes 'drop'). */
+  wording?: string;
+}
+
+/** Another claim in the pack tested on the same data (e.g. "the campuses differ" and "equally reachable"). */
+export interface LinkedClaim {
+  id: string;
+  verdictLabel: string;
+  /** One sentence saying how the two relate, e.g. "Tests the same two campuses on the same question: Supported". */
+  text: string;
+}
+
 /** Data for one chart; the renderer turns it into a Vega-Lite spec, then SVG, then PDF vectors. */
 export type ChartData =
   | {
@@ -125,6 +159,25 @@ export interface ClaimSection {
   methodLine: string;
   /** The verdict at 90, 95 and 99% confidence, with and without adjustment; absent for estimates and untested claims. */
   stability?: VerdictStability;
+  /** The verdict refined for 'not-supported' (see NotSupportedAs); absent otherwise. */
+  verdictDetail?: NotSupportedAs;
+  /**
+   * What to do with the claim (quote, reword, drop, must not make), with a suggested wording where one fits. The
+   * pipeline always sets it; optional only so that hand-built models (renderer tests) may leave it out.
+   */
+  advice?: ClaimAdvice;
+  /** Other claims tested on the same data, to read together. */
+  linked?: LinkedClaim[];
+  /**
+   * Where the data came from, one sentence: the source's name, whether it is an independent release or the
+   * organisation's own survey (or that this is not stated), and the response rate or that it is unknown.
+   */
+  sourceLine?: string;
+  /**
+   * Terms of the trade that appear for the first time in the pack on this page, each with a plain explanation
+   * (also in the glossary), e.g. { term: "Cohen's h", text: "..." }. Drawn near the numbers table.
+   */
+  terms?: Array<{ term: string; text: string }>;
   /**
    * A notice to show prominently beside the claim, e.g. that the claim was edited after an earlier pack showed its
    * results (weaker evidence), or that its verdict changed since the previous pack.
@@ -154,6 +207,15 @@ export interface SummaryRow {
   keyFigure: string;
   /** True when the verdict would differ at 90%, 95% or 99% confidence: the summary marks such claims. */
   dependsOnLevel?: boolean;
+  /** The verdict refined for 'not-supported' (see NotSupportedAs); absent otherwise. */
+  verdictDetail?: NotSupportedAs;
+  /**
+   * What to do with the claim (quote, reword, drop, must not make), with a suggested wording where one fits. The
+   * pipeline always sets it; optional only so that hand-built models (renderer tests) may leave it out.
+   */
+  advice?: ClaimAdvice;
+  /** Other claims tested on the same data, to read together. */
+  linked?: LinkedClaim[];
 }
 
 export interface PackModel {
@@ -166,7 +228,28 @@ export interface PackModel {
   confidenceText: string;
   /** e.g. "Holm's method across the 9 claims tested". */
   adjustmentText: string;
-  sources: Array<{ id: string; file: string; description: string; rows: number; sha256: string }>;
+  sources: Array<{
+    id: string;
+    file: string;
+    description: string;
+    rows: number;
+    sha256: string;
+    /** The survey's name where the claims file gives one (source `title`), e.g. "Lanternfield Student Opinion Survey 2026". */
+    title?: string;
+    /** "an independent release", "the organisation's own survey", or absent when the claims file does not say. */
+    origin?: string;
+    /** The periods (years) the file holds, oldest first, where the source names its period column. */
+    periods?: string[];
+    /** Respondents in words for the cover, e.g. "2,229 in 2025 and 2,218 in 2026 (the most answering any one question)". */
+    respondentsText?: string;
+  }>;
+  /**
+   * Every verdict word the pack may use, with its meaning, for the summary page (in this order: the words that tell a
+   * reader not to make a claim first). `label` matches a ClaimSection's verdictLabel.
+   */
+  verdictDefinitions?: Array<{ label: string; text: string }>;
+  /** Every action word the summary may advise (ClaimAdvice.label), with its meaning. */
+  actionDefinitions?: Array<{ label: string; text: string }>;
   /** A short paragraph under the summary table: how to read it and the overall cautions. */
   summaryIntro: string;
   summary: SummaryRow[];

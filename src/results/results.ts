@@ -9,6 +9,8 @@ import type { ClaimSection } from '../render/model.js';
 import type { Interval, TestResult } from '../stats/result.js';
 import type { Decision } from '../verdicts/decide.js';
 import { claimFingerprint } from '../history/fingerprint.js';
+import type { Worth } from '../verdicts/advice.js';
+import { responseRateOf } from '../verdicts/source.js';
 
 export const RESULTS_FORMAT = 1;
 
@@ -63,6 +65,18 @@ export interface ClaimResult {
   detectable: number | null;
   comparedWithRest: boolean;
   cautions: string[];
+  /** The verdict in the pack's words. */
+  verdictLabel?: string;
+  /** For not-supported: inconclusive, ruled-out or too-small; null otherwise (see src/verdicts/advice.ts). */
+  verdictDetail?: string | null;
+  /** The difference worth reporting that split not-supported, in the interval's units, and its basis. */
+  worthReporting?: { value: number; basis: string } | null;
+  /** What the summary advises doing with the claim. */
+  advice?: { action: string; label: string; reason: string; wording?: string };
+  /** Other claims tested on the same data. */
+  linkedClaims?: string[];
+  /** Lowest response rate among the selections (0-1), null when unknown. */
+  responseRate?: number | null;
 }
 
 export interface ResultsFile {
@@ -105,7 +119,7 @@ function testFields(test: TestResult | undefined) {
  * One claim's results. `written` is the claim as the claims file states it (before relative periods such as
  * `latest` were resolved): its fingerprint must not change just because next year's data have a new latest period.
  */
-export function claimResult(a: Analysis, decision: Decision, section: ClaimSection, written: Claim = a.claim): ClaimResult {
+export function claimResult(a: Analysis, decision: Decision, section: ClaimSection, written: Claim = a.claim, worth?: Worth): ClaimResult {
   const tested = a.status === 'tested';
   // Fields not every kind has are read by name, so a new claim kind appears here without changes to this file:
   // `expect` (direction), `detectable` (power), `focus`/`against` or `selections` (rates), `points` (units),
@@ -157,6 +171,12 @@ export function claimResult(a: Analysis, decision: Decision, section: ClaimSecti
     selections: tested ? rates.filter((r) => typeof r.rate === 'number').map(selection) : [],
     units: tested ? points.map((p) => ({ unit: p.unit, x: p.x, y: p.y, nx: p.nx, ny: p.ny })) : [],
     comparedWithRest: extra.relation !== undefined && extra.relation !== 'separate',
+    verdictLabel: section.verdictLabel,
+    verdictDetail: section.verdictDetail ?? null,
+    worthReporting: worth ? { value: worth.value, basis: worth.basis } : null,
+    ...(section.advice ? { advice: section.advice } : {}),
+    linkedClaims: (section.linked ?? []).map((l) => l.id),
+    responseRate: tested ? responseRateOf(a)?.rate ?? null : null,
   };
 }
 

@@ -16,6 +16,8 @@ import { composeCrosstab } from './words/crosstab.js';
 import { composeEquivalence } from './words/equivalence.js';
 import { composeMeans, scalePoints } from './words/means.js';
 import * as fmt from '../format/numbers.js';
+import { adviseClaim, linkedClaims, linkNote, notSupportedAs, worthReporting, type Worth } from './advice.js';
+import type { NotSupportedAs } from '../render/model.js';
 
 export type { ComposeContext } from './words/common.js';
 
@@ -42,7 +44,15 @@ function composeKind(a: Analysis, decision: Decision, ctx: ComposeContext): Comp
   }
 }
 
-export function composeClaim(a: Analysis, decision: Decision, ctx: ComposeContext): { section: ClaimSection; summary: SummaryRow } {
+/** What the pack-wide pass (src/verdicts/advice.ts) found for a claim: its kind of "not supported" and the worth-reporting size. */
+export interface ClaimExtras {
+  detail?: NotSupportedAs;
+  worth?: Worth;
+  /** One sentence naming the claim's source and response rate. */
+  sourceLine?: string;
+}
+
+export function composeClaim(a: Analysis, decision: Decision, ctx: ComposeContext, extras: ClaimExtras = {}): { section: ClaimSection; summary: SummaryRow } {
   const built = composeKind(a, decision, ctx);
   const small = decision.belowThreshold;
   if (small) {
@@ -59,9 +69,14 @@ export function composeClaim(a: Analysis, decision: Decision, ctx: ComposeContex
   section.verdictText = sentence(section.verdictText);
   section.cautions = section.cautions.map(sentence);
   section.numbers = section.numbers.map((row) => ({ ...row, label: sentence(row.label) }));
-  const verdictLabel = ctx.templates.render(`verdict.${decision.verdict}`, {});
-  const head = { id: a.claim.id, statement: a.claim.statement, verdict: decision.verdict, verdictLabel };
-  return { section: { ...head, ...built.section }, summary: { ...head, keyFigure: built.key } };
+  const detail = extras.detail;
+  const verdictLabel = ctx.templates.render(detail ? `verdict.${decision.verdict}.${detail}` : `verdict.${decision.verdict}`, {});
+  const advice = adviseClaim({ analysis: a, decision, detail, worth: extras.worth, key: built.key, templates: ctx.templates });
+  const head = { id: a.claim.id, statement: a.claim.statement, verdict: decision.verdict, verdictLabel, ...(detail ? { verdictDetail: detail } : {}), advice };
+  return {
+    section: { ...head, ...built.section, ...(extras.sourceLine ? { sourceLine: extras.sourceLine } : {}) },
+    summary: { ...head, keyFigure: built.key },
+  };
 }
 
 /** The text with its first letter in upper case (a sentence may open with a lower-case label from the claims file). */
@@ -69,4 +84,34 @@ export function sentence(text: string): string {
   // Terms the trade writes in lower case stay so: "p-value", "r = 0.41".
   if (/^(p-value|[a-zα-ω](\s|=|$))/.test(text)) return text;
   return text.length > 0 ? text[0]!.toUpperCase() + text.slice(1) : text;
+}
+
+/**
+ * Words for every claim of a pack: each claim's kind of "not supported" and advice (src/verdicts/advice.ts), its
+ * source line, and links between claims tested on the same data.
+ */
+export function composeClaims(
+  analyses: Analysis[],
+  decisions: Decision[],
+  ctx: ComposeContext,
+  sourceLines: string[],
+  detectables: Array<number | undefined> = analyses.map((a) => (a as { detectable?: number }).detectable),
+): Array<{ section: ClaimSection; summary: SummaryRow; worth?: Worth }> {
+  const links = linkedClaims(analyses);
+  const composed = analyses.map((a, i) => {
+    const decision = decisions[i] as Decision;
+    const linked = (links[i] ?? []).map((j) => analyses[j] as Analysis);
+    const worth = worthReporting(a, decision, linked, detectables[i]);
+    const detail = notSupportedAs(a, decision, worth);
+    const built = composeClaim(a, decision, ctx, { ...(detail ? { detail } : {}), ...(worth ? { worth } : {}), ...(sourceLines[i] ? { sourceLine: sourceLines[i] } : {}) });
+    return { ...built, ...(worth && detail ? { worth } : {}) };
+  });
+  composed.forEach((c, i) => {
+    const notes = (links[i] ?? []).map((j) => linkNote({ id: composed[j]!.section.id, verdictLabel: composed[j]!.section.verdictLabel, kind: analyses[j]!.kind }, ctx.templates));
+    if (notes.length > 0) {
+      c.section.linked = notes;
+      c.summary.linked = notes;
+    }
+  });
+  return composed;
 }

@@ -9,6 +9,16 @@ import * as fmt from '../format/numbers.js';
 import type { ClaimSection, PackModel, SummaryRow } from '../render/model.js';
 import { METHODS, methodInfo } from '../stats/methods.js';
 import type { Templates } from './templates.js';
+import { originText, respondentsByPeriod, respondentsText } from './source.js';
+
+/** A template of "Label | meaning" lines (verdict and action definitions). */
+function definitions(templates: Templates, name: string, view: Record<string, unknown>): Array<{ label: string; text: string }> {
+  return templates.renderLines(name, view).map((line) => {
+    const at = line.indexOf('|');
+    const text = line.slice(at + 1).trim();
+    return { label: line.slice(0, at).trim(), text: text.length > 0 ? text[0]!.toUpperCase() + text.slice(1) : text };
+  });
+}
 
 export const ADJUST_NAMES: Record<ClaimsFile['adjust'], string> = {
   holm: "Holm's method",
@@ -64,9 +74,23 @@ export function composePack(input: {
       const spec = claims.sources.find((s) => s.id === c.sourceId);
       const shape = spec?.shape === 'respondents' ? 'one row per respondent' : 'summary counts per group';
       const sheet = spec?.sheet ?? c.sheet;
-      return { id: c.sourceId, file: c.file, description: `${shape}${sheet ? `, sheet "${sheet}"` : ''}`, rows: c.rows, sha256: c.sha256 };
+      const periods = respondentsByPeriod(spec, c).periods;
+      const respondents = respondentsText(spec, c);
+      return {
+        id: c.sourceId,
+        file: c.file,
+        description: `${shape}${sheet ? `, sheet "${sheet}"` : ''}`,
+        rows: c.rows,
+        sha256: c.sha256,
+        ...(spec?.title ? { title: spec.title } : {}),
+        ...(spec?.origin ? { origin: originText(spec) } : {}),
+        ...(periods.length > 0 ? { periods } : {}),
+        ...(respondents ? { respondentsText: respondents } : {}),
+      };
     }),
     summaryIntro: templates.render('summary.intro', view),
+    verdictDefinitions: definitions(templates, 'verdict-definitions', view),
+    actionDefinitions: definitions(templates, 'action-definitions', view),
     summary: input.summary,
     claims: input.sections,
     methods: ordered.map((id) => {

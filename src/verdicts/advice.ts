@@ -1,0 +1,224 @@
+/**
+ * What a reader should do with each claim, and which kind of "not supported" a result is.
+ *
+ * "Not supported" is split where the claim has an interval to judge by (a difference of rates or of mean scores, a
+ * gap from a fixed value, a correlation):
+ * - too-small: the difference is real and in the claimed direction but below the claim's smallest difference that
+ *   matters (decide.ts sets `belowThreshold`);
+ * - ruled-out: the interval at the claim's confidence level excludes a difference worth reporting in the claimed
+ *   direction (both directions for a claim of "a difference"), so the data speak against a difference of that size;
+ * - inconclusive: otherwise: the interval holds both no difference (or too little to count) and a difference
+ *   worth reporting.
+ *
+ * "Worth reporting" is, in this order: the claim's own smallest difference that matters (`smallest_difference`); the
+ * margin of an equivalence claim in the pack that tests the same two selections on the same data; else the smallest
+ * difference (or correlation) the test would detect 80% of the time at the threshold that decided the verdict. The
+ * method notes say so ("worth-reporting" in src/stats/methods.ts). Crosstab and trend claims have no interval for
+ * their effect, so their "not supported" is not split.
+ *
+ * The advice follows from the verdict: supported -> quote as written; estimate -> quote with its interval; points
+ * the other way -> must not make; ruled out or too small -> reword to what the interval supports (a suggested
+ * wording is given); inconclusive, too little data -> drop.
+ */
+import type { Analysis } from '../analyse/types.js';
+import { filterLabel } from '../analyse/labels.js';
+import * as fmt from '../format/numbers.js';
+import type { ClaimAdvice, LinkedClaim, NotSupportedAs } from '../render/model.js';
+import type { Decision } from './decide.js';
+import type { Templates } from './templates.js';
+import { plural } from './words/common.js';
+
+/** A difference worth reporting, in the units of the claim's interval, and where it comes from. */
+export interface Worth {
+  value: number;
+  basis: 'threshold' | 'linked-margin' | 'detectable';
+  /** For 'linked-margin': the equivalence claim whose margin is used. */
+  linkedId?: string;
+}
+
+/** The effect and its interval in the claim's own units, for the kinds whose "not supported" can be split. */
+export interface EffectInterval {
+  value: number;
+  lower: number;
+  upper: number;
+  unit: 'points' | 'scale points' | 'r';
+}
+
+export function effectInterval(a: Analysis): EffectInterval | undefined {
+  if (a.status !== 'tested') return undefined;
+  switch (a.kind) {
+    case 'compare':
+    case 'change':
+    case 'target':
+    case 'equivalence':
+      return a.difference ? { value: a.difference.value, lower: a.difference.interval.lower, upper: a.difference.interval.upper, unit: 'points' } : undefined;
+    case 'means':
+      return a.difference ? { value: a.difference.value, lower: a.difference.interval.lower, upper: a.difference.interval.upper, unit: 'scale points' } : undefined;
+    case 'association':
+      return a.test?.interval ? { value: a.test.estimate.value, lower: a.test.interval.lower, upper: a.test.interval.upper, unit: 'r' } : undefined;
+    default:
+      return undefined;
+  }
+}
+
+/** Two selections tested on the same data: same source, same scope, same pair (in either order). */
+function dataKey(a: Analysis): string | undefined {
+  const c = a.claim as unknown as { source: string; where?: Record<string, unknown>; focus?: Record<string, unknown>; against?: Record<string, unknown> };
+  if (!c.focus || !c.against || !['compare', 'equivalence', 'means'].includes(a.kind)) return undefined;
+  const canon = (v: unknown): string =>
+    JSON.stringify(v, (_k, x: unknown) => (x && typeof x === 'object' && !Array.isArray(x) ? Object.fromEntries(Object.entries(x as Record<string, unknown>).sort(([p], [q]) => p.localeCompare(q))) : x));
+  const pair = [canon(c.focus), canon(c.against)].sort();
+  // Means claims measure scores, not agreement: they link only with other means claims.
+  return JSON.stringify([a.kind === 'means' ? 'means' : 'rates', c.source, canon(c.where ?? {}), pair]);
+}
+
+/** For each claim, the indexes of the other claims tested on the same data. */
+export function linkedClaims(analyses: Analysis[]): number[][] {
+  const keys = analyses.map(dataKey);
+  return keys.map((k, i) => (k === undefined ? [] : keys.flatMap((other, j) => (j !== i && other === k ? [j] : []))));
+}
+
+/** The difference worth reporting for a claim (see the file comment), or undefined when none can be named. */
+export function worthReporting(a: Analysis, decision: Decision, linked: Analysis[], detectable: number | undefined): Worth | undefined {
+  if (decision.belowThreshold) return { value: decision.belowThreshold.smallest, basis: 'threshold' };
+  if (a.threshold) return { value: a.threshold.smallest, basis: 'threshold' };
+  if (a.claim.smallestDifference !== undefined && a.kind !== 'means' && a.kind !== 'association') return { value: a.claim.smallestDifference, basis: 'threshold' };
+  if (a.kind === 'compare') {
+    const eq = linked.find((l) => l.kind === 'equivalence');
+    if (eq && eq.kind === 'equivalence') return { value: eq.claim.margin, basis: 'linked-margin', linkedId: eq.claim.id };
+  }
+  if (a.kind === 'equivalence') return { value: a.claim.margin, basis: 'threshold' };
+  return detectable !== undefined && detectable > 0 ? { value: detectable, basis: 'detectable' } : undefined;
+}
+
+/** Which kind of "not supported" this is, or undefined for other verdicts and kinds that cannot be split. */
+export function notSupportedAs(a: Analysis, decision: Decision, worth: Worth | undefined): NotSupportedAs | undefined {
+  if (decision.verdict !== 'not-supported') return undefined;
+  if (decision.belowThreshold) return 'too-small';
+  const e = effectInterval(a);
+  if (!e) return undefined;
+  // Equivalence not shown: the interval crosses the margin, so it holds both a gap inside and one beyond it.
+  if (a.kind === 'equivalence') return 'inconclusive';
+  if (worth === undefined) return undefined;
+  const directions = a.expectSign === 0 ? [1, -1] : [a.expectSign];
+  const ruledOut = directions.every((d) => (d > 0 ? e.upper < worth.value : e.lower > -worth.value));
+  return ruledOut ? 'ruled-out' : 'inconclusive';
+}
+
+/** An amount in the interval's units: "5.7 points", "0.20 scale points", "0.73". */
+export function amount(value: number, unit: EffectInterval['unit']): string {
+  if (unit === 'points') return `${fmt.pointsSize(value)} points`;
+  if (unit === 'scale points') return `${fmt.coefficient(Math.abs(value), 2)} scale points`;
+  return fmt.coefficient(Math.abs(value), 2);
+}
+
+function signedAmount(value: number, unit: EffectInterval['unit']): string {
+  if (unit === 'points') return fmt.points(value, { sign: true });
+  const text = fmt.coefficient(value, 2);
+  return value > 0 && Number(text) !== 0 ? `+${text}` : text;
+}
+
+export interface AdviceInput {
+  analysis: Analysis;
+  decision: Decision;
+  detail: NotSupportedAs | undefined;
+  worth: Worth | undefined;
+  /** The kind's key figure (as on the summary), quoted in the advice where a figure is needed. */
+  key: string;
+  templates: Templates;
+}
+
+/** The words of the worth-reporting threshold and where it came from, for templates. */
+export function worthView(worth: Worth | undefined, unit: EffectInterval['unit'] | undefined) {
+  if (!worth || !unit) return { worth: '', worthBasis: '' };
+  const basis =
+    worth.basis === 'threshold'
+      ? 'the smallest difference that matters set by the claim'
+      : worth.basis === 'linked-margin'
+        ? `the margin of claim ${worth.linkedId ?? ''}, which tests the same data`
+        : unit === 'r'
+          ? 'the weakest correlation this test would detect 80% of the time'
+          : 'the smallest difference this test would detect 80% of the time';
+  return { worth: unit === 'r' ? `a correlation of ${amount(worth.value, unit)}` : amount(worth.value, unit), worthBasis: basis };
+}
+
+function labelsOf(a: Analysis): { focus: string; against: string; subject: string } {
+  const c = a.claim as unknown as { focus?: Record<string, unknown>; against?: Record<string, unknown>; focusLabel?: string; againstLabel?: string; selectLabel?: string; select?: Record<string, unknown>; where?: Record<string, unknown> };
+  const x = a as unknown as { focus?: { label: string }; against?: { label: string }; rate?: { label: string } };
+  const focus = x.focus?.label ?? c.focusLabel ?? (c.focus ? filterLabel(c.focus as never) : '');
+  const against = x.against?.label ?? c.againstLabel ?? (c.against ? filterLabel(c.against as never) : '');
+  const subject = x.rate?.label ?? c.selectLabel ?? (c.where ? filterLabel(c.where as never) : '');
+  return { focus, against, subject };
+}
+
+/** The suggested rewording of a claim whose size is ruled out: what the interval supports. */
+function rewording(a: Analysis, e: EffectInterval, t: Templates): string {
+  const direction = a.expectSign;
+  // The bound the interval puts on an effect in the claimed direction(s), never below zero.
+  const bound = direction > 0 ? Math.max(e.upper, 0) : direction < 0 ? Math.max(-e.lower, 0) : Math.max(Math.abs(e.lower), Math.abs(e.upper));
+  const l = labelsOf(a);
+  const c = a.claim as unknown as { confidence: number; valueLabel?: string; value?: number; xLabel?: string; yLabel?: string };
+  const x = a as unknown as { periods?: { from: string; to: string }; points?: unknown[]; claim: { units?: string } };
+  const view = {
+    focus: l.focus,
+    against: l.against,
+    subject: l.subject,
+    bound: e.unit === 'r' ? fmt.coefficient(bound, 2) : amount(bound, e.unit),
+    unitWord: e.unit,
+    lower: signedAmount(e.lower, e.unit),
+    upper: signedAmount(e.upper, e.unit),
+    level: fmt.level(c.confidence),
+    twoSided: direction === 0,
+    higher: direction > 0,
+    lower_: direction < 0,
+    from: x.periods?.from ?? '',
+    to: x.periods?.to ?? '',
+    target: c.valueLabel ?? (c.value !== undefined ? fmt.percent(c.value) : ''),
+    xLabel: c.xLabel ?? '',
+    yLabel: c.yLabel ?? '',
+    units: String(x.points?.length ?? ''),
+    unitsName: x.claim.units ? plural(x.claim.units) : 'units',
+  };
+  return t.render(`advice.wording.${a.kind}`, view);
+}
+
+export function adviseClaim(input: AdviceInput): ClaimAdvice {
+  const { analysis: a, decision, detail, worth, key, templates: t } = input;
+  const e = effectInterval(a);
+  const view = {
+    key,
+    level: fmt.level(a.claim.confidence),
+    lower: e ? signedAmount(e.lower, e.unit) : '',
+    upper: e ? signedAmount(e.upper, e.unit) : '',
+    unitWord: e?.unit === 'r' ? '' : ` ${e?.unit ?? ''}`,
+    association: a.kind === 'association',
+    twoSided: a.expectSign === 0,
+    ...worthView(worth, e?.unit),
+  };
+  const make = (action: ClaimAdvice['action'], reason: string, wording?: string): ClaimAdvice => ({
+    action,
+    label: t.render(`action.${action}`, {}),
+    reason: t.render(`advice.reason.${reason}`, view),
+    ...(wording ? { wording } : {}),
+  });
+  switch (decision.verdict) {
+    case 'supported':
+      return make('quote', a.kind === 'association' ? 'supported-association' : 'supported');
+    case 'estimate':
+      return make('quote-with-interval', 'estimate', key);
+    case 'opposite':
+      return make('must-not-make', 'opposite');
+    case 'too-little-data':
+      return make('drop', 'too-little-data');
+    case 'not-supported':
+      if (detail === 'too-small') return make('reword', 'too-small', t.render('advice.wording.too-small', view));
+      if (detail === 'ruled-out' && e) return make('reword', 'ruled-out', rewording(a, e, t));
+      if (detail === 'inconclusive') return make('drop', a.kind === 'equivalence' ? 'inconclusive-equivalence' : 'inconclusive');
+      return make('drop', 'not-supported');
+  }
+}
+
+/** The note on a claim that another claim tests the same data. */
+export function linkNote(other: { id: string; verdictLabel: string; kind: string }, t: Templates): LinkedClaim {
+  return { id: other.id, verdictLabel: other.verdictLabel, text: t.render('linked', { id: other.id, verdictLabel: other.verdictLabel, equivalence: other.kind === 'equivalence' }) };
+}

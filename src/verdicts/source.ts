@@ -1,0 +1,79 @@
+/**
+ * Where a claim's data came from, in words: the survey's name, who ran it (an independent release or the
+ * organisation's own survey, as the claims file states in the source's `origin`), and the response rate or that it
+ * is unknown. Also the cover's respondents and periods for each source.
+ */
+import type { Analysis, RateSummary } from '../analyse/types.js';
+import type { SourceSpec } from '../claims/types.js';
+import type { Cube } from '../data/types.js';
+import * as fmt from '../format/numbers.js';
+import type { Templates } from './templates.js';
+
+/** Every selection's rate a claim reports (two groups, one selection, or one per period). */
+function ratesOf(a: Analysis): RateSummary[] {
+  const x = a as unknown as { focus?: RateSummary; against?: RateSummary; rate?: RateSummary; earlier?: RateSummary; later?: RateSummary; rates?: RateSummary[] };
+  const all = [x.focus, x.against, x.rate, x.earlier, x.later, ...(x.rates ?? [])];
+  return all.filter((r): r is RateSummary => r !== undefined && typeof r.n === 'number');
+}
+
+/** The lowest response rate (respondents / eligible) among the claim's selections, where the number eligible is known. */
+export function responseRateOf(a: Analysis): { rate: number; of: number } | undefined {
+  const known = ratesOf(a).filter((r) => r.population !== undefined && (r.population as number) > 0);
+  if (known.length === 0) return undefined;
+  return { rate: Math.min(...known.map((r) => r.n / (r.population as number))), of: known.length };
+}
+
+export function originText(spec: SourceSpec | undefined): string {
+  if (spec?.origin === 'independent') return 'an independent release';
+  if (spec?.origin === 'own') return "the organisation's own survey";
+  return 'the claims file does not say who ran it';
+}
+
+export function sourceLine(a: Analysis, spec: SourceSpec | undefined, cube: Cube | undefined, t: Templates): string {
+  const rr = a.status === 'tested' ? responseRateOf(a) : undefined;
+  return t.render('source-line', {
+    title: spec?.title ?? a.claim.source,
+    origin: originText(spec),
+    file: spec?.file ?? cube?.file ?? '',
+    known: rr !== undefined,
+    rate: rr ? fmt.percent(rr.rate) : '',
+    lowest: rr !== undefined && rr.of > 1,
+    noPopulation: rr === undefined && !cube?.hasPopulation,
+    withheld: a.status !== 'tested',
+  });
+}
+
+/** The column that names the question in a cube, if any (respondent files always have one). */
+function questionColumn(spec: SourceSpec | undefined, cube: Cube): string | undefined {
+  if (spec?.shape === 'respondents' && cube.dimensions.includes(spec.questionColumn)) return spec.questionColumn;
+  return cube.dimensions.find((d) => /^(question|item|question code)$/i.test(d.trim()));
+}
+
+/**
+ * Respondents per period for the cover: for each period, the number who answered the most-answered question (the
+ * closest a file of answers per question comes to a head count). Undefined without a question column.
+ */
+export function respondentsByPeriod(spec: SourceSpec | undefined, cube: Cube): { periods: string[]; respondents: Array<{ period: string; n: number }> | undefined } {
+  const period = spec?.period && cube.dimensions.includes(spec.period) ? spec.period : undefined;
+  const periods = period ? [...(cube.values[period] ?? [])].sort((p, q) => p.localeCompare(q, 'en', { numeric: true })) : [];
+  const question = questionColumn(spec, cube);
+  if (!question) return { periods, respondents: undefined };
+  const totals = new Map<string, Map<string, number>>();
+  for (const cell of cube.cells) {
+    const p = period ? cell.dims[period] ?? '' : '';
+    const q = cell.dims[question] ?? '';
+    const byQ = totals.get(p) ?? new Map<string, number>();
+    byQ.set(q, (byQ.get(q) ?? 0) + cell.n);
+    totals.set(p, byQ);
+  }
+  const keys = period ? periods : [''];
+  return { periods, respondents: keys.map((p) => ({ period: p, n: Math.max(0, ...(totals.get(p)?.values() ?? [])) })) };
+}
+
+export function respondentsText(spec: SourceSpec | undefined, cube: Cube): string | undefined {
+  const { respondents } = respondentsByPeriod(spec, cube);
+  if (!respondents || respondents.length === 0) return undefined;
+  const parts = respondents.map((r) => (r.period ? `${fmt.count(r.n)} in ${r.period}` : fmt.count(r.n)));
+  const list = parts.length > 1 ? `${parts.slice(0, -1).join(', ')} and ${parts[parts.length - 1]}` : parts[0];
+  return `${list} (the most answering any one question)`;
+}

@@ -1,0 +1,90 @@
+/**
+ * Through the command line: the demo pack's verdict words, their definitions, the split of "not supported", the
+ * advice for each claim and the links between claims on the same data, read back from results.json.
+ *
+ * The intervals the split is judged by are the pack's own (Newcombe, Fisher z), checked against R elsewhere
+ * (tests/stats); here each expected detail is worked by hand from the printed interval and the worth-reporting size.
+ */
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
+const root = resolve(__dirname, '../..');
+const bin = join(root, 'bin/warrant.js');
+const work = mkdtempSync(join(tmpdir(), 'warrant-advice-'));
+
+interface Claim {
+  id: string;
+  verdict: string;
+  verdictLabel: string;
+  verdictDetail: string | null;
+  worthReporting: { value: number; basis: string } | null;
+  interval: { lower: number; upper: number } | null;
+  advice: { action: string; label: string; reason: string; wording?: string };
+  linkedClaims: string[];
+  responseRate: number | null;
+}
+let claims: Claim[];
+const byId = (id: string) => claims.find((c) => c.id === id) as Claim;
+
+beforeAll(() => {
+  const run = spawnSync(process.execPath, [bin, 'build', join(root, 'demo/claims.yaml'), '--out', join(work, 'out'), '--json'], { encoding: 'utf8', cwd: root });
+  expect(run.status).toBe(0);
+  const summary = JSON.parse(run.stdout) as { folder: string };
+  claims = JSON.parse(readFileSync(join(summary.folder, 'results.json'), 'utf8')).claims;
+}, 120_000);
+
+afterAll(() => rmSync(work, { recursive: true, force: true }));
+
+describe('verdict words and what to do with each claim', () => {
+  it('defines every verdict word the pack can print', () => {
+    const defs = readFileSync(join(root, 'templates/verdict-definitions.mustache'), 'utf8')
+      .trim()
+      .split('\n')
+      .map((l) => l.split('|')[0]!.trim());
+    const words = ['supported', 'opposite', 'not-supported', 'too-little-data', 'estimate'].map((v) => readFileSync(join(root, `templates/verdict.${v}.mustache`), 'utf8').trim());
+    const details = ['inconclusive', 'ruled-out', 'too-small'].map((d) => readFileSync(join(root, `templates/verdict.not-supported.${d}.mustache`), 'utf8').trim());
+    expect(defs.sort()).toEqual([...words, ...details].sort());
+    for (const c of claims) expect(defs).toContain(c.verdictLabel);
+  });
+
+  it('splits "not supported": the campuses gap is ruled out by the 6-point margin of the linked claim, ceramics is inconclusive', () => {
+    const campuses = byId('campuses-reach-staff-differently');
+    // Interval −4.4 to +3.3 points lies inside ±6 points (margin of campuses-equally-reachable): ruled out.
+    expect(campuses.verdictDetail).toBe('ruled-out');
+    expect(campuses.worthReporting).toEqual({ value: 0.06, basis: 'linked-margin' });
+    expect(campuses.interval!.lower).toBeGreaterThan(-0.06);
+    expect(campuses.interval!.upper).toBeLessThan(0.06);
+    expect(campuses.verdictLabel).toBe('Not supported: ruled out');
+    expect(campuses.advice.action).toBe('reword');
+    expect(campuses.advice.wording).toMatch(/differ by less than 4\.4 points \(95% interval for the difference −4\.4 to \+3\.3 points\)/);
+    expect(campuses.linkedClaims).toEqual(['campuses-equally-reachable']);
+    expect(byId('campuses-equally-reachable').linkedClaims).toEqual(['campuses-reach-staff-differently']);
+
+    const ceramics = byId('ceramics-clearer-than-music');
+    // Interval −9.4 to +21.3 points holds 0 and the detectable difference (about 19 points) in the claimed direction.
+    expect(ceramics.verdictDetail).toBe('inconclusive');
+    expect(ceramics.worthReporting!.basis).toBe('detectable');
+    expect(ceramics.interval!.lower).toBeLessThan(0);
+    expect(ceramics.interval!.upper).toBeGreaterThan(ceramics.worthReporting!.value);
+    expect(ceramics.advice.action).toBe('drop');
+  });
+
+  it('advises quoting supported claims, dropping untestable ones and never making claims that point the other way', () => {
+    for (const c of claims) {
+      const expected = { supported: 'quote', opposite: 'must-not-make', 'too-little-data': 'drop', estimate: 'quote-with-interval' }[c.verdict as 'supported'];
+      if (expected) expect(c.advice.action, c.id).toBe(expected);
+      if (c.verdict !== 'not-supported') expect(c.verdictDetail, c.id).toBeNull();
+    }
+    expect(byId('library-fell').advice.reason).toContain('The data point the other way: 68% in 2025 to 77% in 2026');
+  });
+
+  it('gives each claim its response rate, or null where the data hold no number eligible', () => {
+    // lanternfield holds Eligible: Quarrendell's 2,079 respondents of 3,358 eligible on Q08, as the estimate page prints.
+    expect(byId('overall-contentment-estimate').responseRate).toBeCloseTo(2079 / 3358, 12);
+    // pulse (the union's own survey) has no eligible column.
+    expect(byId('library-fell').responseRate).toBeNull();
+  });
+});
