@@ -5,6 +5,7 @@
  */
 import yargs from 'yargs';
 import { InputError, isInputError } from './errors.js';
+import { packageVersion } from './paths.js';
 import { closest } from './suggest.js';
 
 const EXIT_INPUT = 2;
@@ -107,6 +108,7 @@ const COMMANDS: Record<string, string> = {
   check: 'the claims file: warrant check <claims.yaml>',
   init: 'the data file: warrant init <data.csv or data.xlsx>',
   diff: 'two pack folders: warrant diff <earlier pack> <later pack>',
+  demo: 'a folder to write the demo into: warrant demo <folder>',
 };
 
 /** A mistake in the command line itself (unknown option, missing argument), as one paragraph with its fix. */
@@ -116,6 +118,7 @@ const OPTIONS: Record<string, string[]> = {
   check: ['json', 'debug', 'help'],
   init: ['sheet', 'out', 'force', 'debug', 'help'],
   diff: ['json', 'debug', 'help'],
+  demo: ['force', 'no-build', 'debug', 'help'],
 };
 
 function usageError(msg: string | undefined, argv: string[]): InputError {
@@ -219,12 +222,31 @@ export async function main(argv: string[]): Promise<number> {
           code = await init(args as unknown as { data: string; sheet?: string; out?: string; force?: boolean });
         },
       )
+      .command(
+        'demo <folder>',
+        'Write the demo (a claims file and the invented survey data it tests) into a folder and build its evidence pack there',
+        (y) =>
+          y
+            .positional('folder', { type: 'string', demandOption: true, describe: 'The folder to write into (created if missing)' })
+            .option('force', { type: 'boolean', describe: 'Replace files of the same names already in the folder' })
+            .option('build', { type: 'boolean', default: true, describe: 'Build the pack after writing the files (--no-build: only write them)' })
+            .example('$0 demo warrant-demo', 'Write warrant-demo/claims.yaml and warrant-demo/data/, then build warrant-demo/out/claims/latest/pack.pdf'),
+        async (args) => {
+          const { writeDemo, nextSteps } = await import('./commands/demo.js');
+          const a = args as unknown as { folder: string; force?: boolean; build: boolean };
+          const written = await writeDemo({ folder: a.folder, ...(a.force !== undefined ? { force: a.force } : {}) });
+          if (a.build) code = await runBuild({ claims: written.claims, out: written.history }, argv);
+          process.stdout.write(nextSteps(written, a.build));
+        },
+      )
       .option('debug', { type: 'boolean', describe: 'Show internal details (stack traces) when something fails' })
-      .demandCommand(1, 'Name a command: warrant build <claims.yaml>, warrant check <claims.yaml>, warrant init <data file> or warrant diff <old> <new>')
+      .demandCommand(1, 'Name a command: warrant build <claims.yaml>, warrant check <claims.yaml>, warrant init <data file>, warrant diff <old> <new> or warrant demo <folder>')
       .strict()
       .help()
       .alias('h', 'help')
-      .version()
+      // warrant's own version: yargs alone reports the package.json above the node_modules it is installed in, which
+      // in someone else's project is that project's.
+      .version(packageVersion())
       .wrap(Math.min(110, process.stdout.columns || 100))
       .fail((msg, err) => {
         if (err) throw err;
