@@ -16,7 +16,7 @@ import { relate, type Relation } from '../data/select.js';
 import { InputError } from '../errors.js';
 import type { AnalysisSettings, CompareAnalysis } from './types.js';
 import { compareRates, expectSignOf, rateSummary } from './rates.js';
-import { filterLabel, sign } from './labels.js';
+import { filterLabel, restLabel, sign } from './labels.js';
 import { shortfall } from './thresholds.js';
 
 export interface CompareContext extends AnalysisSettings {
@@ -31,11 +31,22 @@ export interface CompareContext extends AnalysisSettings {
  */
 export function refuseOverlap(
   relation: Relation,
-  claim: { id: string; place: { line: number; column: number } },
+  claim: { id: string; place: { line: number; column: number }; againstRest?: boolean },
   ctx: CompareContext,
   example = '',
 ): asserts relation is Exclude<Relation, 'overlap' | 'same'> {
   if (relation !== 'overlap' && relation !== 'same') return;
+  if (claim.againstRest === true) {
+    throw new InputError({
+      file: ctx.claimsFile,
+      line: claim.place.line,
+      column: claim.place.column,
+      field: `claims.${claim.id}.against`,
+      found: 'rest',
+      problem: `claim "${claim.id}" compares its focus with everyone else its where selects, but the focus already takes in everyone, so there is no rest`,
+      fix: 'narrow the focus (e.g. one campus or department), or widen where so that it selects more than the focus',
+    });
+  }
   throw new InputError({
     file: ctx.claimsFile,
     line: claim.place.line,
@@ -63,7 +74,7 @@ export function analyseCompare(claim: CompareClaim, cube: Cube, ctx: CompareCont
   let focusName = focusLabel;
   if (related.relation === 'focus-inside' && related.rest) {
     againstPooled = related.rest;
-    againstLabel = `the rest of ${againstName}`;
+    againstLabel = restLabel(claim);
   } else if (related.relation === 'against-inside' && related.rest) {
     focusPooled = related.rest;
     focusName = `the rest of ${focusLabel}`;

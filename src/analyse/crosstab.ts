@@ -20,6 +20,7 @@ import { fisherExact2x2 } from '../stats/fisher-exact-2x2.js';
 import { FisherTooLargeError, fisherExactRxc } from '../stats/fisher-exact-rxc.js';
 import type { TestResult } from '../stats/result.js';
 import type { CompareContext } from './compare.js';
+import { InputError } from '../errors.js';
 import { cellsByUnit, poolCells } from '../data/select.js';
 import { shortfall } from './thresholds.js';
 import type { CrosstabAnalysis } from './types.js';
@@ -32,17 +33,23 @@ export interface CrosstabOptions {
   yates?: boolean;
 }
 
-export function analyseCrosstab(claim: CrosstabClaim, cube: Cube, _ctx: CompareContext, options: CrosstabOptions = {}): CrosstabAnalysis {
+export function analyseCrosstab(claim: CrosstabClaim, cube: Cube, ctx: CompareContext, options: CrosstabOptions = {}): CrosstabAnalysis {
   const byRow = cellsByUnit(cube, claim.where, claim.rows);
   const agreement = claim.columns === 'agreement';
-  const columnLabels = agreement ? ['agreeing', 'not agreeing'] : [...(cube.values[claim.columns] ?? [])];
-  if (!agreement) cellsByUnit(cube, claim.where, claim.columns); // checks the column exists
+  const answers = claim.columns === 'answers' ? answerColumns(claim, cube, ctx) : undefined;
+  const splitBy = Array.isArray(claim.columns) ? claim.columns : undefined;
+  let columnLabels: string[];
+  if (agreement) columnLabels = ['agreeing', 'not agreeing'];
+  else if (answers !== undefined) columnLabels = answers.scale.map(String);
+  else columnLabels = [...cellsByUnit(cube, claim.where, splitBy as string[]).keys()];
   const rowLabels: string[] = [];
   const counts: number[][] = [];
   const suppressedRows: string[] = [];
+  const leftOut = { notApplicable: 0, blank: 0, offScale: 0 };
   for (const [row, cells] of byRow) {
     const pooled = poolCells(cube, cells);
-    if (pooled.n <= 0 || shortfall(claim, [{ label: row, pooled }]) !== undefined) {
+    const inTable = answers !== undefined ? answers.scale.reduce((s, code) => s + (pooled.codes?.[String(code)] ?? 0), 0) : pooled.n;
+    if (inTable <= 0 || shortfall(claim, [{ label: row, pooled: { ...pooled, n: inTable } }]) !== undefined) {
       suppressedRows.push(row);
       continue;
     }
@@ -50,8 +57,14 @@ export function analyseCrosstab(claim: CrosstabClaim, cube: Cube, _ctx: CompareC
     if (agreement) {
       const agree = Math.round(pooled.agree);
       counts.push([agree, Math.round(pooled.n) - agree]);
+    } else if (answers !== undefined) {
+      counts.push(answers.scale.map((code) => pooled.codes?.[String(code)] ?? 0));
+      leftOut.notApplicable += pooled.notApplicable ?? 0;
+      leftOut.blank += pooled.blank ?? 0;
+      leftOut.offScale += pooled.n - inTable;
     } else {
-      counts.push(columnLabels.map((col) => Math.round(cells.filter((c) => c.dims[claim.columns] === col).reduce((s, c) => s + c.n, 0))));
+      const byColumn = cellsByUnit({ ...cube, cells }, {}, splitBy as string[]);
+      counts.push(columnLabels.map((col) => Math.round((byColumn.get(col) ?? []).reduce((s, c) => s + c.n, 0))));
     }
   }
   // Columns nobody fell into add nothing to either test; leave them out so residuals line up with labels.
@@ -66,13 +79,14 @@ export function analyseCrosstab(claim: CrosstabClaim, cube: Cube, _ctx: CompareC
     counts: table,
     suppressedRows,
     notable: [] as CrosstabAnalysis['notable'],
+    ...(answers !== undefined ? { answers: { question: answers.question, scale: answers.scale, ...leftOut } } : {}),
     expectSign: 0 as const,
     methods: [] as string[],
   };
   if (rowLabels.length < 2 || cols.length < 2) {
     const why =
       rowLabels.length < 2
-        ? `only ${rowLabels.length} of the ${claim.rows.toLowerCase()} values ${rowLabels.length === 1 ? 'has' : 'have'} at least ${claim.minRespondents} respondents, and at least 2 are needed`
+        ? `only ${rowLabels.length} of the ${[claim.rows].flat().join(' and ').toLowerCase()} values ${rowLabels.length === 1 ? 'has' : 'have'} at least ${claim.minRespondents} respondents, and at least 2 are needed`
         : `every respondent falls in the same column (${cols[0] ?? 'none'}), so there is nothing to relate`;
     return { ...base, rowLabels: [], counts: [], columnLabels: [], status: 'too-little-data', shortfall: why, observedSign: 0 };
   }
@@ -115,4 +129,42 @@ export function analyseCrosstab(claim: CrosstabClaim, cube: Cube, _ctx: CompareC
     ...(fisherTooLarge ? { fisherTooLarge } : {}),
     methods: method === chi.method ? [chi.method] : [method, chi.method],
   };
+}
+
+/** The answer scale when none is written: the five points of the usual agreement scale. */
+export const DEFAULT_SCALE = [1, 2, 3, 4, 5];
+
+/**
+ * For `columns: answers`: the one question whose answers make the columns (the claim's `where` must select exactly
+ * one on the question column) and the codes shown. Only a respondent-level source has answers to spread.
+ */
+function answerColumns(claim: CrosstabClaim, cube: Cube, ctx: CompareContext): { question: string; scale: number[] } {
+  const refuse = (problem: string, fix: string, found?: string): never => {
+    throw new InputError({
+      file: ctx.claimsFile,
+      line: claim.place.line,
+      column: claim.place.column,
+      field: `claims.${claim.id}.columns`,
+      ...(found !== undefined ? { found } : {}),
+      problem,
+      fix,
+    });
+  };
+  if (cube.hasCodes !== true || cube.questionColumn === undefined) {
+    refuse(
+      `claim "${claim.id}" spreads the answers across the table's columns, but source "${cube.sourceId}" holds counts per group, not each respondent's answer`,
+      'use a source of shape respondents, or write columns: agreement to split by agreeing / not agreeing',
+    );
+  }
+  const qCol = cube.questionColumn as string;
+  const written = claim.where[qCol];
+  const picked = written === undefined || (typeof written === 'object' && !Array.isArray(written)) ? [] : Array.isArray(written) ? written : [written];
+  if (picked.length !== 1) {
+    refuse(
+      `claim "${claim.id}" spreads the answers to one question across the table's columns, but its where ${picked.length === 0 ? 'selects no single question' : `selects ${picked.length} questions`}`,
+      `name one question in where, e.g. where: { ${qCol}: ${cube.values[qCol]?.[0] ?? 'Q01'} }; to compare questions, write one claim per question`,
+      picked.length > 0 ? picked.join(', ') : undefined,
+    );
+  }
+  return { question: String(picked[0]).trim(), scale: claim.scale ?? DEFAULT_SCALE };
 }

@@ -20,7 +20,7 @@ import { newcombe } from '../stats/newcombe.js';
 import { tostTwoProportions } from '../stats/tost-two-proportions.js';
 import { wilson } from '../stats/wilson.js';
 import { refuseOverlap, type CompareContext } from './compare.js';
-import { filterLabel, sign } from './labels.js';
+import { filterLabel, restLabel, sign } from './labels.js';
 import { shortfall } from './thresholds.js';
 import type { EquivalenceAnalysis, RateSummary } from './types.js';
 
@@ -48,7 +48,7 @@ export function analyseEquivalence(claim: EquivalenceClaim, cube: Cube, ctx: Com
   let againstLabel = claim.againstLabel ?? filterLabel(claim.against);
   if (related.relation === 'focus-inside' && related.rest) {
     againstPooled = related.rest;
-    againstLabel = `the rest of ${againstLabel}`;
+    againstLabel = restLabel(claim);
   } else if (related.relation === 'against-inside' && related.rest) {
     focusPooled = related.rest;
     focusLabel = `the rest of ${focusLabel}`;

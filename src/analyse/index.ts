@@ -44,10 +44,10 @@ export function columnsUsed(claim: Claim): string[] {
   if ('select' in claim) filters.push(claim.select);
   if (claim.kind === 'association') filters.push(claim.x, claim.y, ...claim.controls.map((c) => c.filter));
   const cols = new Set(filters.flatMap((f) => Object.keys(f)));
-  if (claim.kind === 'association') cols.add(claim.units);
+  if (claim.kind === 'association') for (const u of [claim.units].flat()) cols.add(u);
   if (claim.kind === 'crosstab') {
-    cols.add(claim.rows);
-    if (claim.columns !== 'agreement') cols.add(claim.columns);
+    for (const r of [claim.rows].flat()) cols.add(r);
+    if (Array.isArray(claim.columns)) for (const c of claim.columns) cols.add(c);
   }
   return [...cols];
 }

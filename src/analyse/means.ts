@@ -25,7 +25,7 @@ import { studentT, type GroupSummary, type TTestOptions } from '../stats/student
 import { summaryFromCounts } from '../stats/summary-counts.js';
 import { welchT } from '../stats/welch-t.js';
 import { refuseOverlap, type CompareContext } from './compare.js';
-import { filterLabel, sign } from './labels.js';
+import { filterLabel, restLabel, sign } from './labels.js';
 import { codeRange } from './measures.js';
 import { shortfall } from './thresholds.js';
 import type { MeanSummary, MeansAnalysis } from './types.js';
@@ -72,7 +72,7 @@ export function analyseMeans(claim: MeansClaim, cube: Cube, ctx: CompareContext)
   let againstLabel = claim.againstLabel ?? filterLabel(claim.against);
   if (related.relation === 'focus-inside') {
     againstCells = without(aCells, fCells);
-    againstLabel = `the rest of ${againstLabel}`;
+    againstLabel = restLabel(claim);
   } else if (related.relation === 'against-inside') {
     focusCells = without(fCells, aCells);
     focusLabel = `the rest of ${focusLabel}`;

@@ -111,6 +111,11 @@ export interface CrosstabAnalysis extends AnalysisBase {
   notable: Array<{ row: string; column: string; residual: number }>;
   /** True when Fisher's exact test was called for but the table was too large, so chi-square was used. */
   fisherTooLarge?: boolean;
+  /**
+   * columns `answers`: the question whose answer codes are the columns, the codes, and the answers left out of the
+   * table (in the rows shown): not applicable, blank, or a valid code outside the scale.
+   */
+  answers?: { question: string; scale: number[]; notApplicable: number; blank: number; offScale: number };
 }
 
 /** One selection's mean score with its t interval. */

@@ -14,6 +14,7 @@ import type {
   ClaimsFile,
   CompareClaim,
   CompareExpect,
+  CrosstabClaim,
   EquivalenceClaim,
   EstimateClaim,
   Filter,
@@ -154,6 +155,11 @@ function amount(r: AmountReading, lenient: boolean): number | undefined {
   throw new Error(`${r.written} passed validation but cannot be read`);
 }
 
+/** One column name or a list of them, as a list. */
+function columnList(raw: unknown): string[] {
+  return (Array.isArray(raw) ? raw : [raw]).map((v) => String(v));
+}
+
 /** "agree" | "mean" | { column } -> Measure. */
 function measureOf(raw: unknown, fallback: Measure): Measure {
   if (raw === 'agree') return { type: 'agree' };
@@ -172,11 +178,16 @@ function labels<T extends object>(claim: T, c: Rec, keys: Record<string, string>
 
 const PAIR_LABELS = { focus_label: 'focusLabel', against_label: 'againstLabel' };
 
+/** `against` as a filter; `against: rest` is the whole of the claim's `where` (the focus is then taken out of it). */
+function againstOf(c: Rec): { against: Filter; againstRest?: true } {
+  return c.against === 'rest' ? { against: {}, againstRest: true } : { against: copyFilter(c.against as Filter) };
+}
+
 function claimOfKind(c: Rec, base: Base, lenient: boolean): Claim {
   switch (c.kind as ClaimKind) {
     case 'compare':
       return labels<CompareClaim>(
-        { ...base, kind: 'compare', focus: copyFilter(c.focus as Filter), against: copyFilter(c.against as Filter), expect: c.expect as CompareExpect },
+        { ...base, kind: 'compare', focus: copyFilter(c.focus as Filter), ...againstOf(c), expect: c.expect as CompareExpect },
         c,
         PAIR_LABELS,
       );
@@ -190,7 +201,7 @@ function claimOfKind(c: Rec, base: Base, lenient: boolean): Claim {
         {
           ...base,
           kind: 'association',
-          units: c.units as string,
+          units: columnList(c.units),
           x: copyFilter(c.x as Filter),
           y: copyFilter(c.y as Filter),
           xMeasure: measureOf(c.x_measure, { type: 'agree' }),
@@ -221,15 +232,25 @@ function claimOfKind(c: Rec, base: Base, lenient: boolean): Claim {
         { select_label: 'selectLabel', value_label: 'valueLabel' },
       );
     }
-    case 'crosstab':
-      return { ...base, kind: 'crosstab', rows: c.rows as string, columns: (c.columns as string | undefined) ?? 'agreement', expect: 'related' };
+    case 'crosstab': {
+      const cols = c.columns ?? 'agreement';
+      const claim: CrosstabClaim = {
+        ...base,
+        kind: 'crosstab',
+        rows: columnList(c.rows),
+        columns: cols === 'agreement' || cols === 'answers' ? cols : columnList(cols),
+        expect: 'related',
+      };
+      if (Array.isArray(c.scale)) claim.scale = [...(c.scale as number[])];
+      return claim;
+    }
     case 'means':
       return labels<MeansClaim>(
         {
           ...base,
           kind: 'means',
           focus: copyFilter(c.focus as Filter),
-          against: copyFilter(c.against as Filter),
+          ...againstOf(c),
           measure: measureOf(c.measure, { type: 'mean' }),
           test: ((c.method as string | undefined) ?? 'welch') as MeansClaim['test'],
           expect: c.expect as CompareExpect,
@@ -239,7 +260,7 @@ function claimOfKind(c: Rec, base: Base, lenient: boolean): Claim {
       );
     case 'equivalence':
       return labels<EquivalenceClaim>(
-        { ...base, kind: 'equivalence', focus: copyFilter(c.focus as Filter), against: copyFilter(c.against as Filter), margin: amount(readPoints(c.margin), lenient) ?? 0 },
+        { ...base, kind: 'equivalence', focus: copyFilter(c.focus as Filter), ...againstOf(c), margin: amount(readPoints(c.margin), lenient) ?? 0 },
         c,
         PAIR_LABELS,
       );

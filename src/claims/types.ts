@@ -133,13 +133,18 @@ export interface CompareClaim extends ClaimBase {
   /** Optional labels for the two selections in the pack (default: built from the filters). */
   focusLabel?: string;
   againstLabel?: string;
+  /** `against: rest`: everyone else the claim's `where` selects (against is then empty, the whole of `where`). */
+  againstRest?: true;
 }
 
 /** Association between two measures across units (one point per value of `units`). */
 export interface AssociationClaim extends ClaimBase {
   kind: 'association';
-  /** Column whose values are the units, e.g. "department". */
-  units: string;
+  /**
+   * Columns whose values are the units, e.g. ["Department"]; with several columns each combination of their values is
+   * a unit (each institution's departments), labelled by its values in this order.
+   */
+  units: string[];
   /** Filters that define the first measure (horizontal axis), on top of `where`. */
   x: Filter;
   /** Filters that define the second measure (vertical axis), on top of `where`. */
@@ -194,13 +199,16 @@ export interface TargetClaim extends ClaimBase {
 /** Two categorical variables related or not: a table of counts (e.g. campus by agreeing / not agreeing). */
 export interface CrosstabClaim extends ClaimBase {
   kind: 'crosstab';
-  /** Column whose values are the table's rows. */
-  rows: string;
+  /** Columns whose values (or combinations of values, with several) are the table's rows. */
+  rows: string[];
   /**
-   * The table's columns: `agreement` (agreeing / not agreeing on the selection), or the name of another column
-   * whose values split the respondents.
+   * The table's columns: `agreement` (agreeing / not agreeing on the selection); `answers` (respondent-level sources:
+   * the answer codes of the one question the claim selects, `scale` giving the codes); or other columns whose values
+   * (or combinations) split the respondents.
    */
-  columns: string;
+  columns: 'agreement' | 'answers' | string[];
+  /** columns `answers`: the codes shown as columns, in order (default 1 to 5). */
+  scale?: number[];
   expect: 'related';
 }
 
@@ -211,6 +219,8 @@ export interface MeansClaim extends ClaimBase {
   against: Filter;
   focusLabel?: string;
   againstLabel?: string;
+  /** `against: rest`: everyone else the claim's `where` selects. */
+  againstRest?: true;
   measure: Measure;
   /** Welch's t test (default), Student's t, or the Mann–Whitney test on the answers' ranks. */
   test: 'welch' | 'student' | 'rank';
@@ -224,6 +234,8 @@ export interface EquivalenceClaim extends ClaimBase {
   against: Filter;
   focusLabel?: string;
   againstLabel?: string;
+  /** `against: rest`: everyone else the claim's `where` selects. */
+  againstRest?: true;
   /** The margin as a fraction (0.05 = 5 points either way). */
   margin: number;
 }

@@ -26,7 +26,7 @@ const EXAMPLE: Record<string, string> = {
   focus: 'focus: { provider: Tarnquill College } naming the selection the claim is about',
   against: 'against: { region: Glimmerholt Vale } naming the selection it is compared with',
   expect: 'expect: lower, higher or different (compare) or positive, negative or any (association)',
-  units: 'units: department naming the column whose values are the units',
+  units: 'units: Department naming the column whose values are the units (or units: [Department, Institution] for each combination)',
   x: 'x: { question: Q12 } defining the first measure',
   y: 'y: { question: Q27 } defining the second measure',
   from: 'from: previous (or a value of the period column, such as 2025)',
@@ -142,8 +142,15 @@ export function schemaProblems(parsed: ParsedYaml, file: string): Problem[] {
   const data = parsed.data;
   const problems: Problem[] = [];
 
-  // Group-level errors (anyOf, oneOf) replace the errors of their branches.
-  const groups = errors.filter((e) => e.keyword === 'anyOf' || e.keyword === 'oneOf');
+  // Group-level errors (anyOf, oneOf) replace the errors of their branches; except that `against` written as a
+  // mapping is a selection, whose own errors say more than "not rest and not a selection".
+  const againstMapping = (e: ErrorObject): boolean => {
+    const path = pointerToPath(e.instancePath);
+    const v = get(data, path);
+    return path[path.length - 1] === 'against' && path[0] === 'claims' && v !== null && typeof v === 'object' && !Array.isArray(v);
+  };
+  const dropped = errors.filter((e) => (e.keyword === 'anyOf' || e.keyword === 'const') && againstMapping(e));
+  const groups = errors.filter((e) => (e.keyword === 'anyOf' || e.keyword === 'oneOf') && !dropped.includes(e));
   const isBranchError = (e: ErrorObject): boolean =>
     groups.some(
       (g) =>
@@ -154,7 +161,7 @@ export function schemaProblems(parsed: ParsedYaml, file: string): Problem[] {
 
   const seen = new Set<string>();
   for (const e of errors) {
-    if (e.keyword === 'if' || isBranchError(e)) continue;
+    if (e.keyword === 'if' || isBranchError(e) || dropped.includes(e)) continue;
     const path = pointerToPath(e.instancePath);
     const last = path[path.length - 1];
     // Confidence and other amounts are read and range-checked with their own messages by the cross-field rules.
@@ -247,6 +254,30 @@ function toProblem(e: ErrorObject, path: Segment[], parsed: ParsedYaml, file: st
         p.problem = `"${field}" in ${describeOwner(data, path.slice(0, -1))} is not a measure warrant knows`;
         const guess = typeof value === 'string' ? closest(value, ['agree', 'mean']) : undefined;
         p.fix = `Write agree, mean, or { column: NAME } naming a numeric column of the source${guess !== undefined ? ` (did you mean ${guess}?)` : ''}`;
+        return p;
+      }
+      if (path[0] === 'claims' && path.length === 3 && field === 'against') {
+        const p = base(valuePlace);
+        p.field = field;
+        p.found = foundRaw(value);
+        p.problem = `"against" in ${describeOwner(data, path.slice(0, -1))} is neither a selection nor the word rest`;
+        p.fix =
+          typeof value === 'string'
+            ? `To compare with everyone else the claim's where selects, write against: rest (and against_label: followed by a name for the whole, such as the college); to compare with a group, write a selection such as against: { Region: ${value} }`
+            : 'Write against: rest for everyone else, or a selection such as against: { Region: Glasvane Reach }';
+        return p;
+      }
+      if (path[0] === 'claims' && (field === 'units' || field === 'rows' || field === 'columns')) {
+        const p = base(valuePlace);
+        p.field = field;
+        p.found = foundRaw(value);
+        const one = field === 'units' ? 'Department' : 'Campus';
+        const two = field === 'units' ? '[Department, Institution]' : '[Campus, Mode]';
+        p.problem = `"${field}" in ${describeOwner(data, path.slice(0, 2))} should name a column, or list several columns`;
+        p.fix =
+          field === 'columns'
+            ? `Write columns: agreement, columns: answers (the answers to the question in where), a column name such as columns: Mode, or a list such as columns: [Mode, Campus]`
+            : `Write ${field}: ${one} for one column, or ${field}: ${two} to use each combination of their values`;
         return p;
       }
       // Otherwise a filter value (or the list under not:).

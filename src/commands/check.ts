@@ -103,7 +103,7 @@ export async function checkClaimsFile(path: string, displayPath?: string): Promi
     // A data file that is missing or of the wrong type was reported with the claims file's own problems.
     if (users.length === 0 || source.format === undefined || !isFile(source.path)) continue;
     const skip = new Set<Claim>();
-    const cube = await sourceCube(source, users, file, place, claimProblems, dataProblems, skip);
+    const cube = await sourceCube(source, users, file, place, claimProblems, dataProblems, skip, parsed.data);
     if (cube === undefined) continue;
     for (const { claim, i } of users) if (!skip.has(claim)) claimProblems.push(...claimDataProblems(claim, i, source, cube, file, place, parsed));
   }
@@ -129,6 +129,7 @@ async function sourceCube(
   claimProblems: Problem[],
   dataProblems: Problem[],
   skip: Set<Claim>,
+  written: unknown,
 ): Promise<Cube | undefined> {
   const display = displayPathFor(source.path);
   let header: string[];
@@ -175,27 +176,43 @@ async function sourceCube(
     const before = claimProblems.length;
     const named: Array<[Path, string, 'key' | 'value']> = [];
     for (const f of Object.values(filtersOf(claim, i))) for (const col of Object.keys(f.filter)) named.push([[...f.path, col], col, 'key']);
-    if (claim.kind === 'association') named.push([['claims', i, 'units'], claim.units, 'value']);
+    // units, rows and columns name one column or a list; the path of a listed one ends in its index.
+    const grouping = (key: string, cols: readonly string[]): void => {
+      const raw = (written as { claims?: Array<Record<string, unknown>> }).claims?.[i]?.[key];
+      cols.forEach((c, k) => named.push([Array.isArray(raw) ? ['claims', i, key, k] : ['claims', i, key], c, 'value']));
+    };
+    if (claim.kind === 'association') grouping('units', claim.units);
     if (claim.kind === 'crosstab') {
-      named.push([['claims', i, 'rows'], claim.rows, 'value']);
-      if (claim.columns !== 'agreement') named.push([['claims', i, 'columns'], claim.columns, 'value']);
+      grouping('rows', claim.rows);
+      if (Array.isArray(claim.columns)) grouping('columns', claim.columns);
     }
     for (const [p, col, prefer] of named) {
       if (selectable.includes(col)) continue;
-      const isMeasure = measures.has(col) || (source.questions ?? []).includes(col);
+      const key = String(p[2] ?? '');
+      const isQuestion = (source.questions ?? []).includes(col);
+      const isMeasure = measures.has(col) || isQuestion;
+      // "units: Department, Institution" is one name with a comma: the columns were meant as a list.
+      const parts = col.split(',').map((x) => x.trim());
+      const listMeant = (key === 'units' || key === 'rows' || key === 'columns') && parts.length > 1 && parts.every((x) => selectable.includes(x));
+      let fix: string;
+      if (listMeant) fix = `To make the ${key === 'units' ? 'units' : `table's ${key}`} the combinations of several columns, write them as a list: ${key}: [${parts.join(', ')}]`;
+      else if (isQuestion && key === 'columns') fix = `To spread the answers to ${col} across the table's columns, write columns: answers and select the question in where, e.g. where: { ${source.questionColumn}: ${col} }`;
+      else if (isQuestion && key === 'rows') fix = `A question's answers can be the table's columns, not its rows: write columns: answers with ${source.questionColumn}: ${col} in where, and rows: the column that splits the respondents (such as a campus or the period)`;
+      else if (isQuestion && key === 'units') fix = `Units are groups of respondents (such as departments); measure ${col} on each unit with x: { ${source.questionColumn}: ${col} } or y: { ${source.questionColumn}: ${col} }`;
+      else if (isMeasure && source.shape === 'respondents') fix = `Select a question with { ${source.questionColumn}: ${col} } instead`;
+      else if (isMeasure) fix = 'Select rows by the columns that describe them, such as a provider or a question';
+      else fix = fixFor(col, selectable, 'columns');
       claimProblems.push({
         file,
         ...place(p, prefer),
         field: col,
         found: col,
-        problem: isMeasure
-          ? `"${col}" is a measure column of source "${source.id}", not a column to select on`
-          : `the data of source "${source.id}" have no column "${col}" to select on`,
-        fix: isMeasure
-          ? source.shape === 'respondents'
-            ? `Select a question with { ${source.questionColumn}: ${col} } instead`
-            : 'Select rows by the columns that describe them, such as a provider or a question'
-          : fixFor(col, selectable, 'columns'),
+        problem: listMeant
+          ? `the data of source "${source.id}" have no column "${col}", but each of ${parts.map((x) => `"${x}"`).join(' and ')} is a column`
+          : isMeasure
+            ? `"${col}" is a measure column of source "${source.id}", not a column to select on`
+            : `the data of source "${source.id}" have no column "${col}" to select on`,
+        fix,
       });
     }
     if (claimProblems.length > before) skip.add(claim);

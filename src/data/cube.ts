@@ -480,6 +480,10 @@ function newLeaf(values: string[], questions: number): Leaf {
   return { values, cells: new Array<Cell | undefined>(questions).fill(undefined), tallies: new Array<number[] | undefined>(questions).fill(undefined) };
 }
 
+/** What codeOf returns for an answer coded "not applicable" and for a blank answer (a problem is -1). */
+const NA_ANSWER = -2;
+const BLANK_ANSWER = -3;
+
 /** Groups remembered by the bytes of their values (see respondentsCube); past this, new ones are looked up by text. */
 const BYTE_GROUP_LIMIT = 1 << 16;
 
@@ -576,23 +580,23 @@ async function respondentsCube(
   /** A group value as read: trimmed when it starts or ends with a space or control character. */
   const dimText = (v0: string): string => (v0.length > 0 && (v0.charCodeAt(0) <= 32 || v0.charCodeAt(v0.length - 1) <= 32) ? v0.trim() : v0);
 
-  /** The code to count for an answer's text, or -1 (blank, not applicable, or a problem recorded). */
+  /** The code to count for an answer's text; NA_ANSWER, BLANK_ANSWER, or -1 (a problem recorded). */
   const codeOf = (raw0: string, row: number, k: number): number => {
-    if (raw0 === '') return -1;
+    if (raw0 === '') return BLANK_ANSWER;
     let code: number;
     let raw = raw0;
     const c0 = raw0.charCodeAt(0);
     if (raw0.length === 1 && c0 >= 48 && c0 <= 57) code = c0 - 48;
     else {
       raw = raw0.trim();
-      if (raw === '') return -1;
+      if (raw === '') return BLANK_ANSWER;
       code = /^[+-]?\d+(\.0+)?$/.test(raw) ? Number(raw) : NaN;
     }
     if (Number.isNaN(code)) {
       problems.add({ row, field: names[qIdx[k]!]!, found: raw, problem: 'An answer is not a whole-number code', fix: `Code answers as whole numbers (1 to ${maxCode}); list any code meaning "not applicable" under not_applicable in the source` });
       return -1;
     }
-    if (isNa(code)) return -1;
+    if (isNa(code)) return NA_ANSWER;
     if (code < 1 || code > maxCode) {
       problems.add({ row, field: names[qIdx[k]!]!, found: raw, problem: `An answer code is outside 1 to ${maxCode}`, fix: 'Correct the answer, or list the code under not_applicable in the source if it means "not applicable"' });
       return -1;
@@ -600,7 +604,13 @@ async function respondentsCube(
     return code;
   };
 
-  /** Count one answer of question k in a group, making the cell on its first answer. */
+  // Past the codes, each tally holds the not-applicable and blank answers and the order in which its cell got its first
+  // valid answer (plus one; 0 for none yet): cells are listed in that order, as when only valid answers made cells.
+  const naSlot = maxCode + 1;
+  const blankSlot = maxCode + 2;
+  const seqSlot = maxCode + 3;
+  let validSeen = 0;
+  /** Count one answer of question k in a group (a code, NA_ANSWER or BLANK_ANSWER), making the cell on its first. */
   const count = (group: Leaf, k: number, code: number, row: number): void => {
     let t = group.tallies[k];
     if (t === undefined) {
@@ -611,13 +621,19 @@ async function respondentsCube(
       dims[qColName] = questions[k]!;
       const cell: Cell = { dims, n: 0, agree: 0, approximate: false, firstRow: row, codes: {} };
       group.cells[k] = cell;
-      t = new Array<number>(maxCode + 1).fill(0);
+      t = new Array<number>(maxCode + 4).fill(0);
       group.tallies[k] = t;
       cells.push(cell);
       tallies.push(t);
     }
     // Only the code is counted here; n and agree are summed from the code counts at the end.
-    t[code]! += 1;
+    if (code >= 0) {
+      t[code]! += 1;
+      if (t[seqSlot] === 0) {
+        t[seqSlot] = ++validSeen;
+        (group.cells[k] as Cell).firstRow = row;
+      }
+    } else t[code === NA_ANSWER ? naSlot : blankSlot]! += 1;
   };
 
   // One batch at a time in its own function, which the engine compiles as a whole rather than mid-loop.
@@ -629,9 +645,8 @@ async function respondentsCube(
       let group: Leaf | undefined;
       for (let k = 0; k < nq; k++) {
         const raw0 = rv[qIdx[k]!];
-        if (raw0 === undefined) continue;
-        const code = codeOf(raw0, r.row, k);
-        if (code < 0) continue;
+        const code = raw0 === undefined ? BLANK_ANSWER : codeOf(raw0, r.row, k);
+        if (code === -1) continue;
         if (group === undefined) {
           for (let j = 0; j < nd; j++) dimValues[j] = dimText(rv[dimIdx[j]!] ?? '');
           group = leafOf();
@@ -782,7 +797,11 @@ async function respondentsCube(
           }
         }
         for (let k = 0; k < nq; k++) {
-          if (qIdx[k]! > col) continue;
+          if (qIdx[k]! > col) {
+            group ??= groupOfBytes(b);
+            count(group, k, BLANK_ANSWER, row);
+            continue;
+          }
           const s = qFrom[k]!;
           const e = qTo[k]!;
           let code: number;
@@ -790,15 +809,19 @@ async function respondentsCube(
           if (e - s === 1 && c >= 48 && c <= 57) {
             code = c - 48;
             const does = digitDoes[code]!;
-            if (does === 0) continue;
+            if (does === 0) {
+              group ??= groupOfBytes(b);
+              count(group, k, NA_ANSWER, row);
+              continue;
+            }
             if (does < 0) {
               codeOf(ASCII_TEXT[c]!, row, k);
               continue;
             }
-          } else if (e === s) continue;
+          } else if (e === s) code = BLANK_ANSWER;
           else {
             code = codeOf(text(b, s, e), row, k);
-            if (code < 0) continue;
+            if (code === -1) continue;
           }
           group ??= groupOfBytes(b);
           count(group, k, code, row);
@@ -814,21 +837,30 @@ async function respondentsCube(
   // Taken only when each answer column is read once (a question listed twice is tallied row by row).
   if (qSet.size === nq) select.lines = { lines };
   for await (const batch of body) tallyBatch(batch);
+  // Cells with valid answers, in the order each got its first; a group with only blank or not-applicable answers to a
+  // question has no cell for it, as no one answered it.
+  const kept: Array<[number, Cell]> = [];
   cells.forEach((cell, i) => {
+    const t = tallies[i]!;
     const codes: Record<string, number> = {};
-    tallies[i]!.forEach((k, c) => {
+    for (let c = 0; c <= maxCode; c++) {
+      const k = t[c]!;
       if (k > 0) {
         codes[codeTexts[c]!] = k;
         cell.n += k;
         if (isAgree[c] === true) cell.agree += k;
       }
-    });
+    }
     cell.codes = codes;
+    if (t[naSlot]! > 0) cell.notApplicable = t[naSlot]!;
+    if (t[blankSlot]! > 0) cell.blank = t[blankSlot]!;
+    if (t[seqSlot]! > 0) kept.push([t[seqSlot]!, cell]);
   });
+  kept.sort((a, b) => a[0] - b[0]);
   problems.throwIfAny();
   if (rows === 0) throw noDataRows(where, headerRow);
-  const list = cells;
+  const list = kept.map(([, cell]) => cell);
   const values = distinctValues(dimensionsWanted, list);
   values[qColName] = [...questions];
-  return { rows, dimensions, cells: list, values, approximate: false, hasPopulation: false, hasCodes: true };
+  return { rows, dimensions, cells: list, values, approximate: false, hasPopulation: false, hasCodes: true, questionColumn: qColName };
 }

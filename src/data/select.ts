@@ -81,6 +81,8 @@ export function poolCells(cube: Cube, cells: Iterable<Cell>): Pooled {
   let population = 0;
   let approximate = false;
   let count = 0;
+  let notApplicable = 0;
+  let blank = 0;
   let codes: Record<string, number> | undefined = cube.hasCodes === true ? {} : undefined;
   let numeric: Record<string, { weightedSum: number; weight: number }> | undefined;
   if (cube.numericColumns !== undefined && cube.numericColumns.length > 0) {
@@ -93,6 +95,8 @@ export function poolCells(cube: Cube, cells: Iterable<Cell>): Pooled {
     population += c.population ?? 0;
     approximate ||= c.approximate;
     count += 1;
+    notApplicable += c.notApplicable ?? 0;
+    blank += c.blank ?? 0;
     if (c.codes !== undefined) {
       codes ??= {};
       for (const [code, k] of Object.entries(c.codes)) codes[code] = (codes[code] ?? 0) + k;
@@ -109,6 +113,8 @@ export function poolCells(cube: Cube, cells: Iterable<Cell>): Pooled {
   const pooled: Pooled = { n, agree, approximate, cells: count };
   if (cube.hasPopulation) pooled.population = population;
   if (codes !== undefined) pooled.codes = codes;
+  if (notApplicable > 0) pooled.notApplicable = notApplicable;
+  if (blank > 0) pooled.blank = blank;
   if (numeric !== undefined) pooled.numeric = numeric;
   return pooled;
 }
@@ -122,31 +128,54 @@ export function pool(cube: Cube, filter: Filter): Pooled {
   );
 }
 
+/** The name of a unit made of one or more columns: its values joined in the columns' order ("Computing, Quarrendell"). */
+export function unitLabel(values: readonly string[]): string {
+  return values.join(', ');
+}
+
 /**
- * Counts per value of `unitColumn` over the cells the filter matches, in the order the values first appear in the
- * data. Units with no matching cell are left out.
+ * Counts per unit over the cells the filter matches. A unit is a value of `unitColumns` or, with several columns, a
+ * combination of their values (each institution's departments, not departments pooled across institutions). Units
+ * with no matching cell are left out.
  */
-export function poolByUnit(cube: Cube, filter: Filter, unitColumn: string): Map<string, Pooled> {
+export function poolByUnit(cube: Cube, filter: Filter, unitColumns: string | readonly string[]): Map<string, Pooled> {
   const out = new Map<string, Pooled>();
-  for (const [u, cells] of cellsByUnit(cube, filter, unitColumn)) out.set(u, poolCells(cube, cells));
+  for (const [u, cells] of cellsByUnit(cube, filter, unitColumns)) out.set(u, poolCells(cube, cells));
   return out;
 }
 
-/** The cells the filter matches, grouped by their value of `unitColumn`, in the order of the column's values. */
-export function cellsByUnit(cube: Cube, filter: Filter, unitColumn: string): Map<string, Cell[]> {
+/**
+ * The cells the filter matches, grouped by their unit: the value of one column, or the combination of the values of
+ * several (labelled by unitLabel). Units come in the order of the columns' values (first column first); combinations
+ * that no matching cell has are left out.
+ */
+export function cellsByUnit(cube: Cube, filter: Filter, unitColumns: string | readonly string[]): Map<string, Cell[]> {
+  const cols = typeof unitColumns === 'string' ? [unitColumns] : [...unitColumns];
   checkFilter(cube, filter);
-  checkFilter(cube, { [unitColumn]: [] });
-  const groups = new Map<string, Cell[]>();
-  for (const u of cube.values[unitColumn] ?? []) groups.set(u, []);
+  for (const col of cols) checkFilter(cube, { [col]: [] });
+  const rank = cols.map((col) => new Map((cube.values[col] ?? []).map((v, i) => [v, i] as const)));
+  const groups = new Map<string, { order: number[]; cells: Cell[] }>();
   for (const c of cube.cells) {
     if (!matches(c, filter)) continue;
-    const u = c.dims[unitColumn] ?? '';
-    const list = groups.get(u);
-    if (list === undefined) groups.set(u, [c]);
-    else list.push(c);
+    const values = cols.map((col) => c.dims[col] ?? '');
+    const key = values.length === 1 ? (values[0] as string) : JSON.stringify(values);
+    const group = groups.get(key);
+    if (group === undefined) groups.set(key, { order: values.map((v, j) => (rank[j] as Map<string, number>).get(v) ?? Number.MAX_SAFE_INTEGER), cells: [c] });
+    else group.cells.push(c);
   }
-  for (const [u, cells] of groups) if (cells.length === 0) groups.delete(u);
-  return groups;
+  const sorted = [...groups.entries()].sort(([ka, a], [kb, b]) => {
+    for (let j = 0; j < a.order.length; j++) if (a.order[j] !== b.order[j]) return (a.order[j] as number) - (b.order[j] as number);
+    return ka < kb ? -1 : ka > kb ? 1 : 0;
+  });
+  const out = new Map<string, Cell[]>();
+  for (const [key, g] of sorted) {
+    const label = cols.length === 1 ? key : unitLabel(JSON.parse(key) as string[]);
+    const same = out.get(label);
+    // Two combinations whose values join to the same words (a value holding ", "): kept apart by the column order.
+    if (same !== undefined) out.set(`${label} (${cols.join(', ')})`, g.cells);
+    else out.set(label, g.cells);
+  }
+  return out;
 }
 
 export type Relation = 'separate' | 'focus-inside' | 'against-inside' | 'overlap' | 'same';

@@ -26,6 +26,10 @@ export interface Cell {
   firstRow: number;
   /** respondents sources: how many valid answers had each code (code as text -> count), for mean scores and ranks. */
   codes?: Record<string, number>;
+  /** respondents sources: answers coded "not applicable" (left out of n), where any. */
+  notApplicable?: number;
+  /** respondents sources: blank answers in rows that answered something else (left out of n), where any. */
+  blank?: number;
   /** summary sources: per numeric column, the sum of value × respondents and the sum of respondents weighted. */
   numeric?: Record<string, { weightedSum: number; weight: number }>;
 }
@@ -55,6 +59,8 @@ export interface Cube {
   numericColumns?: string[];
   /** respondents sources: true, and every cell carries `codes`. */
   hasCodes?: boolean;
+  /** respondents sources: the name the question codes appear under (SourceSpec.questionColumn). */
+  questionColumn?: string;
 }
 
 /** Counts pooled over the cells a selection matches (respondent-weighted, never an average of percentages). */
@@ -67,6 +73,9 @@ export interface Pooled {
   cells: number;
   /** Pooled answer-code counts (respondents sources). */
   codes?: Record<string, number>;
+  /** Pooled not-applicable and blank answers (respondents sources). */
+  notApplicable?: number;
+  blank?: number;
   /** Pooled numeric-column sums (summary sources). */
   numeric?: Record<string, { weightedSum: number; weight: number }>;
 }

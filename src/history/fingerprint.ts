@@ -29,7 +29,14 @@ export function sha256Hex(text: string): string {
 
 /** Digest of what a claim commits to (see the file comment). */
 export function claimFingerprint(claim: Claim): string {
-  const committed = Object.fromEntries(Object.entries(claim).filter(([k]) => !COSMETIC.has(k)));
+  // A single column written as a list or as text ("units: Department", "rows: [Campus]") commits to the same thing,
+  // and is digested as text, as before units and rows could name several columns.
+  const one = (v: unknown): unknown => (Array.isArray(v) && v.length === 1 ? v[0] : v);
+  const committed = Object.fromEntries(
+    Object.entries(claim)
+      .filter(([k]) => !COSMETIC.has(k))
+      .map(([k, v]) => (k === 'units' || k === 'rows' || (k === 'columns' && claim.kind === 'crosstab') ? [k, one(v)] : [k, v])),
+  );
   return sha256Hex(canonicalJson(committed)).slice(0, 16);
 }
 

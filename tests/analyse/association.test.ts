@@ -28,7 +28,7 @@ function claim(over: Partial<AssociationClaim> = {}): AssociationClaim {
     ...base,
     id: 'a',
     kind: 'association',
-    units: 'Dept',
+    units: ['Dept'],
     x: { Q: 'Q1' },
     y: { Q: 'Q2' },
     xLabel: 'resources',

@@ -11,7 +11,7 @@ import { base, ctx, cubeOf, find, ref, type CrosstabCase } from './kinds-b-fixtu
 // uncorrected statistic (tests/fixtures/r/kinds-b.R).
 
 function claim(columns: string, minRespondents = 10): CrosstabClaim {
-  return { ...base, id: 'x', kind: 'crosstab', rows: 'Campus', columns, expect: 'related', minRespondents };
+  return { ...base, id: 'x', kind: 'crosstab', rows: ['Campus'], columns: columns === 'agreement' || columns === 'answers' ? columns : [columns], expect: 'related', minRespondents };
 }
 
 /** A summary-shaped cube: per row, agreeing and respondents (columns: agreement). */
@@ -63,7 +63,7 @@ describe('crosstab: chi-square, Fisher and residuals against R', () => {
 
   it('2 × 3 table split by another column with small expected counts: Fisher r × c, as R fisher.test', () => {
     const c = find(ref.crosstab, 'mode-by-site-small');
-    const a = analyseCrosstab({ ...claim('Mode', 5), rows: 'Campus' }, splitCube(c), { ...ctx, minRespondents: 5 });
+    const a = analyseCrosstab({ ...claim('Mode', 5), rows: ['Campus'] }, splitCube(c), { ...ctx, minRespondents: 5 });
     expect(c.min_expected).toBeLessThan(5);
     expect(a.test?.method).toBe('fisher-exact-rxc');
     expectClose(a.test?.p ?? NaN, c.fisher_p as number, 'p', 'Fisher p');

@@ -53,7 +53,7 @@ describe('every kind of claim normalizes', async () => {
   it('association with measures, controls and weights', () => {
     expect(claim('ratio-association')).toMatchObject({
       kind: 'association',
-      units: 'provider',
+      units: ['provider'],
       xMeasure: { type: 'column', column: 'StaffRatio' },
       yMeasure: { type: 'agree' },
       controls: [
@@ -101,8 +101,8 @@ describe('every kind of claim normalizes', async () => {
   });
 
   it('crosstab defaults its columns to agreement and its expectation to related', () => {
-    expect(claim('region-by-agreement')).toMatchObject({ kind: 'crosstab', rows: 'region', columns: 'agreement', expect: 'related' });
-    expect(claim('campus-by-department')).toMatchObject({ kind: 'crosstab', rows: 'Department', columns: 'Campus', expect: 'related' });
+    expect(claim('region-by-agreement')).toMatchObject({ kind: 'crosstab', rows: ['region'], columns: 'agreement', expect: 'related' });
+    expect(claim('campus-by-department')).toMatchObject({ kind: 'crosstab', rows: ['Department'], columns: ['Campus'], expect: 'related' });
   });
 
   it('means: method becomes test, measure defaults to mean', () => {

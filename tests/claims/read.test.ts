@@ -134,7 +134,7 @@ describe('valid files normalize to the expected object', () => {
         kind: 'association',
         source: 'people',
         where: {},
-        units: 'department',
+        units: ['department'],
         x: { question: 'Q01' },
         y: { question: 'Q02' },
         xLabel: 'Resources',

@@ -15,8 +15,7 @@ export function composeAssociation(a: AssociationAnalysis, decision: Decision, c
   const oneSided = a.test ? a.test.alternative !== 'two-sided' : claim.sided === 'one-sided' && claim.expect !== 'any';
   const xLabel = claim.xLabel ?? filterLabel(claim.x);
   const yLabel = claim.yLabel ?? filterLabel(claim.y);
-  const unitName = claim.units.toLowerCase();
-  const unitsName = plural(claim.units);
+  const { unitName, unitsName } = unitWords(claim.units);
   const controlled = claim.controls && claim.controls.length > 0 ? listWords(claim.controls.map((c) => c.label)) : '';
   const labelsOnly = { xLabel, yLabel, unitsName, expectWord, oneSided, controlled };
   const hypotheses = { null: t.render('association.null', labelsOnly), alternative: t.render('association.alternative', labelsOnly) };
@@ -49,7 +48,7 @@ export function composeAssociation(a: AssociationAnalysis, decision: Decision, c
   };
   const bothRates = (claim.xMeasure?.type ?? 'agree') === 'agree' && (claim.yMeasure?.type ?? 'agree') === 'agree';
   const numbers: NumberRow[] = [
-    { label: 'Units', value: `${a.points.length} ${unitsName}` },
+    { label: 'Units', value: unitsUsedText(a, unitsName) },
     {
       label: controlled ? `Partial correlation (controlling for ${controlled})` : a.weighted ? 'Correlation (Pearson r, weighted by respondents)' : 'Correlation (Pearson r)',
       value: `${view.r} (interval ${view.rLower} to ${view.rUpper})`,
@@ -83,7 +82,7 @@ export function composeAssociation(a: AssociationAnalysis, decision: Decision, c
       xTitle: `${xLabel} (${measureWords(claim.xMeasure)})`,
       yTitle: `${yLabel} (${measureWords(claim.yMeasure)})`,
       fit: { intercept: a.fit.intercept, slope: a.fit.slope },
-      note: `${view.rName} = ${view.r}`,
+      note: `${view.rName} = ${view.r}; ${unitsUsedText(a, unitsName)}`,
       percent: bothRates,
     },
     alt: `Scatter chart of ${a.points.length} ${unitsName}: ${xLabel} across, ${yLabel} up, with the least-squares line; ${view.rName} = ${view.r} (interval ${view.rLower} to ${view.rUpper}).`,
@@ -102,6 +101,24 @@ export function composeAssociation(a: AssociationAnalysis, decision: Decision, c
   };
 }
 
+
+/**
+ * What one unit and several units are called: "department" / "departments" for one column; for several, the
+ * combinations of their values ("department and institution combination(s)").
+ */
+export function unitWords(written: string | readonly string[]): { unitName: string; unitsName: string } {
+  const columns = typeof written === 'string' ? [written] : written;
+  if (columns.length === 1) return { unitName: (columns[0] as string).toLowerCase(), unitsName: plural(columns[0] as string) };
+  const both = listWords(columns.map((c) => c.toLowerCase()));
+  return { unitName: `${both} combination`, unitsName: `${both} combinations` };
+}
+
+/** "36 departments" or "36 of 40 departments (4 with fewer than the minimum respondents left out)". */
+function unitsUsedText(a: AssociationAnalysis, unitsName: string): string {
+  const left = a.suppressedUnits.length;
+  if (left === 0) return `${a.points.length} ${unitsName}`;
+  return `${a.points.length} of ${a.points.length + left} ${unitsName} (${left} under ${a.claim.minRespondents} respondents left out)`;
+}
 
 /** "A", "A and B", "A, B and C". */
 function listWords(items: string[]): string {

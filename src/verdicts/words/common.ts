@@ -39,11 +39,12 @@ export function rateView(r: RateSummary) {
  */
 export function restOfGroupCaution(
   relation: 'separate' | 'focus-inside' | 'against-inside',
-  claim: { focus: Filter; against: Filter; focusLabel?: string; againstLabel?: string },
+  claim: { focus: Filter; against: Filter; focusLabel?: string; againstLabel?: string; againstRest?: true },
   sizes: { focus: number; against: number },
   t: Templates,
 ): string[] {
-  if (relation === 'separate') return [];
+  // `against: rest` asked for everyone else in so many words: the label already says so.
+  if (relation === 'separate' || claim.againstRest === true) return [];
   const inner = relation === 'focus-inside' ? claim.focusLabel ?? filterLabel(claim.focus) : claim.againstLabel ?? filterLabel(claim.against);
   const outer = relation === 'focus-inside' ? claim.againstLabel ?? filterLabel(claim.against) : claim.focusLabel ?? filterLabel(claim.focus);
   const restN = relation === 'focus-inside' ? sizes.against : sizes.focus;

@@ -4,7 +4,8 @@ import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, plural, pView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { unitWords } from './association.js';
+import { commonRows, pView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 /** Test names for people, by method machine name. */
 const TEST_NAMES: Record<string, string> = {
@@ -17,10 +18,10 @@ const TEST_NAMES: Record<string, string> = {
 export function composeCrosstab(a: CrosstabAnalysis, decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
   const claim = a.claim;
-  const agreement = claim.columns === 'agreement';
-  const rowsName = claim.rows;
-  const columnsName = agreement ? 'agreement' : claim.columns;
-  const labels = { rowsName, columnsName, rowsOne: rowsName.toLowerCase(), rowsPlural: plural(rowsName) };
+  const rowsName = [claim.rows].flat().join(', ');
+  const rowWords = unitWords(claim.rows);
+  const columnsName = a.answers !== undefined ? `the answer to ${a.answers.question}` : Array.isArray(claim.columns) ? claim.columns.join(', ') : claim.columns;
+  const labels = { rowsName, columnsName, rowsOne: rowWords.unitName, rowsPlural: rowWords.unitsName };
   const hypotheses = { null: t.render('crosstab.null', labels), alternative: t.render('crosstab.alternative', labels) };
   if (a.status === 'too-little-data' || !a.test) {
     return tooLittle(a, ctx, `${rowsName} by ${columnsName}${scopeText(claim.where) ? `, for ${scopeText(claim.where)}` : ''}.`, hypotheses);
@@ -44,15 +45,21 @@ export function composeCrosstab(a: CrosstabAnalysis, decision: Decision, ctx: Co
     ...pView(decision, ctx),
   };
   const numbers: NumberRow[] = [
+    ...(a.answers !== undefined ? [{ label: `Answers to ${a.answers.question}`, value: `codes ${a.columnLabels.join(', ')}, number answering each` }] : []),
     ...a.rowLabels.map((row, i) => ({
       label: row,
-      value: a.columnLabels.map((col, j) => `${col} ${fmt.count((a.counts[i] as number[])[j] as number)}`).join(', '),
+      value: a.columnLabels.map((col, j) => `${a.answers !== undefined ? `${col}:` : col} ${fmt.count((a.counts[i] as number[])[j] as number)}`).join(', '),
     })),
+    ...(a.suppressedRows.length > 0
+      ? [{ label: 'Rows used', value: `${a.rowLabels.length} of ${a.rowLabels.length + a.suppressedRows.length} ${labels.rowsPlural} (${a.suppressedRows.length} under ${claim.minRespondents} respondents left out)` }]
+      : []),
     ...commonRows(a, decision, ctx),
     { label: "Cramér's V", value: view.v as string },
     { label: 'Smallest expected count', value: fmt.plain(a.minExpected ?? NaN, 1) },
   ];
   const cautions: string[] = [];
+  const left = a.answers !== undefined ? answersLeftOut(a.answers) : '';
+  if (left !== '') cautions.push(left);
   if (a.suppressedRows.length > 0) cautions.push(t.render('crosstab.caution-suppressed', { names: a.suppressedRows.join(', '), minRespondents: claim.minRespondents }));
   if (a.test.method.startsWith('fisher')) cautions.push(t.render('caution.fisher', {}));
   if (a.fisherTooLarge) cautions.push(t.render('crosstab.caution-fisher-too-large', {}));
@@ -82,4 +89,22 @@ export function composeCrosstab(a: CrosstabAnalysis, decision: Decision, ctx: Co
     },
     key: t.render('crosstab.key', view),
   };
+}
+
+/**
+ * The answers a table of answer codes leaves out, in the rows it shows: "Left out of the table: 41 answers of
+ * not applicable and 118 blank answers; the table counts the 2,220 answers on the scale 1 to 5." Empty when none.
+ */
+function answersLeftOut(x: NonNullable<CrosstabAnalysis['answers']>): string {
+  const parts: string[] = [];
+  if (x.notApplicable > 0) parts.push(`${fmt.count(x.notApplicable)} ${x.notApplicable === 1 ? 'answer' : 'answers'} of "not applicable"`);
+  if (x.blank > 0) parts.push(`${fmt.count(x.blank)} blank ${x.blank === 1 ? 'answer' : 'answers'} (respondents who answered other questions but not this one)`);
+  if (x.offScale > 0) parts.push(`${fmt.count(x.offScale)} ${x.offScale === 1 ? 'answer' : 'answers'} with codes outside ${x.scale.join(', ')}`);
+  if (parts.length === 0) return '';
+  const list = parts.length === 1 ? parts[0] : `${parts.slice(0, -1).join(', ')} and ${parts[parts.length - 1]}`;
+  const same =
+    x.offScale > 0
+      ? ` Agreement rates and mean scores on ${x.question} also count the answers outside the scale, so their base is larger by ${fmt.count(x.offScale)}.`
+      : ` Agreement rates and mean scores on ${x.question} count the same answers, leaving out the same ones.`;
+  return `The table counts the answers to ${x.question} on the scale ${x.scale.join(', ')}; left out: ${list}.${same}`;
 }
