@@ -26,7 +26,7 @@ import * as fmt from '../format/numbers.js';
 import type { ClaimAdvice, LinkedClaim, NotSupportedAs } from '../render/model.js';
 import type { Decision } from './decide.js';
 import type { Templates } from './templates.js';
-import { plural } from './words/common.js';
+import { unitWords } from './words/association.js';
 
 /** A difference worth reporting, in the units of the claim's interval, and where it comes from. */
 export interface Worth {
@@ -158,7 +158,7 @@ function rewording(a: Analysis, e: EffectInterval, t: Templates): string {
   const bound = direction > 0 ? Math.max(e.upper, 0) : direction < 0 ? Math.max(-e.lower, 0) : Math.max(Math.abs(e.lower), Math.abs(e.upper));
   const l = labelsOf(a);
   const c = a.claim as unknown as { confidence: number; valueLabel?: string; value?: number; xLabel?: string; yLabel?: string };
-  const x = a as unknown as { periods?: { from: string; to: string }; points?: unknown[]; claim: { units?: string } };
+  const x = a as unknown as { periods?: { from: string; to: string }; points?: unknown[]; claim: { units?: string | string[] } };
   const view = {
     focus: l.focus,
     against: l.against,
@@ -177,7 +177,7 @@ function rewording(a: Analysis, e: EffectInterval, t: Templates): string {
     xLabel: c.xLabel ?? '',
     yLabel: c.yLabel ?? '',
     units: String(x.points?.length ?? ''),
-    unitsName: x.claim.units ? plural(x.claim.units) : 'units',
+    unitsName: x.claim.units ? unitWords(x.claim.units).unitsName : 'units',
   };
   return t.render(`advice.wording.${a.kind}`, view);
 }
