@@ -53,6 +53,8 @@ async function runBuild(args: BuildArgs, argv: string[]): Promise<number> {
     command: ['warrant', ...argv].join(' '),
     hooks: hooksFromEnv(),
   });
+  // Said even with --quiet or --json: the user should know when the pack lacks what it would normally hold.
+  for (const w of result.warnings ?? []) process.stderr.write(`warrant: ${w}\n`);
   const counts: Record<string, number> = {};
   for (const d of result.decisions) counts[d.verdict] = (counts[d.verdict] ?? 0) + 1;
   if (args.json) {

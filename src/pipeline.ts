@@ -10,7 +10,7 @@
  * half-written pack or harms an earlier one. When an earlier pack exists, the new one says what changed.
  */
 import { readFile } from 'node:fs/promises';
-import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
+import { existsSync, readdirSync, statSync } from 'node:fs';
 import { basename, dirname, extname, join, relative, resolve } from 'node:path';
 import { readClaims } from './claims/read.js';
 import type { ClaimsFile } from './claims/types.js';
@@ -33,8 +33,10 @@ import { claimResult, resultsFile, type ResultsFile } from './results/results.js
 import type { PackModel } from './render/model.js';
 import { packageRoot } from './paths.js';
 import { InputError } from './errors.js';
+import { fsFailure, readOrdinaryFile, requireOrdinaryFile } from './files.js';
+import { impossibleDate } from './claims/dates.js';
 import { packFingerprint, sha256Hex } from './history/fingerprint.js';
-import { listPacks, latestPack, openPack, packFolderName, storePack, today, type StoredPack, type WriteHooks } from './history/store.js';
+import { latestInTheWay, latestOrUnreadable, latestProblem, listPacks, openPack, packFolderName, storePack, today, type StoredPack, type WriteHooks } from './history/store.js';
 import { diffPacks, type PackDiff } from './history/diff.js';
 import { changeSection, editedNotice, folderDay, verdictNotice } from './history/words.js';
 
@@ -71,6 +73,8 @@ export interface BuildResult {
   model: PackModel;
   /** The comparison with the previous pack, if there was one. */
   diff?: PackDiff;
+  /** Things the user should know that did not stop the build (an earlier pack that could not be read). */
+  warnings?: string[];
   /** The pack folder and its files; `reused` when an identical pack existed already. */
   files: { folder: string; pdf: string; results: string; reused: boolean };
 }
@@ -152,9 +156,10 @@ function overrideSources(claims: ClaimsFile, data: Record<string, string>, cwd: 
     if (!existsSync(path)) {
       throw new InputError({ file: given, field: `--data ${source.id}`, problem: `the data file given on the command line was not found (looked for at ${path})`, fix: 'Check the path; it is read relative to the folder you run warrant in' });
     }
-    if (!statSync(path).isFile()) {
+    if (statSync(path).isDirectory()) {
       throw new InputError({ file: given, field: `--data ${source.id}`, problem: 'the path given on the command line is a folder, not a data file', fix: 'Give the path of the .csv or .xlsx file inside the folder' });
     }
+    requireOrdinaryFile(path, { file: given, field: `--data ${source.id}` }, 'data file');
     const ext = extname(path).toLowerCase();
     const format = ext === '.csv' ? 'csv' : ext === '.xlsx' ? 'xlsx' : undefined;
     if (!format) {
@@ -181,6 +186,16 @@ function checkFolders(options: BuildOptions, root: string, templatesDir: string 
       throw new InputError({ file: given, field: '--templates', problem: 'this is a file, not a folder of templates', fix: 'Pass --templates the folder that holds the .mustache files' });
     }
   }
+  if (options.date !== undefined) {
+    const why = options.date.trim() === '' ? 'it is empty' : impossibleDate(options.date);
+    if (why !== undefined) {
+      throw new InputError({ file: 'command line', field: '--date', found: options.date, problem: `the date given is not a real date: ${why}`, fix: 'Give the date shown on the pack as YYYY-MM-DD, e.g. --date 2026-03-14' });
+    }
+  }
+  // `latest` in the history folder must be the link warrant keeps; a folder or a file there would stop the build at
+  // its very end, so it is reported before any work.
+  const inTheWay = latestInTheWay(root);
+  if (inTheWay !== undefined) throw latestProblem(options.outDir ?? displayPath(root), inTheWay);
   // The history folder, or the nearest part of its path that exists, must be a folder.
   for (let dir = root; ; dir = dirname(dir)) {
     if (existsSync(dir)) {
@@ -220,7 +235,8 @@ async function placedInClaims(e: InputError, claimsPath: string, claimsDisplay: 
 function templatesDigest(dir: string | undefined): string | null {
   if (!dir) return null;
   const names = readdirSync(dir).filter((f) => f.endsWith('.mustache')).sort();
-  return sha256Hex(names.map((n) => `${n}\n${readFileSync(join(dir, n), 'utf8')}`).join('\n'));
+  const read = (n: string): string => readOrdinaryFile(join(dir, n), 1024 * 1024, { file: displayPath(join(dir, n)), field: '--templates' }, 'template', (size) => new InputError({ file: displayPath(join(dir, n)), found: size, problem: 'the template is far larger than a sentence needs', fix: 'Check that this is a template; each holds one sentence or a short list' })).toString('utf8');
+  return sha256Hex(names.map((n) => `${n}\n${read(n)}`).join('\n'));
 }
 
 /** Claims edited since an earlier pack showed their results: id -> the day of the latest such pack. */
@@ -316,7 +332,9 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
 
   // 6. history: what changed since the previous pack, and claims edited after their results were seen
   const name = packFolderName(today(options.now), fingerprint);
-  const previous = since ?? latestPack(root);
+  const latest = since === undefined ? latestOrUnreadable(root) : undefined;
+  const unreadable = latest !== undefined && 'reason' in latest ? latest : undefined;
+  const previous = since ?? (latest !== undefined && 'results' in latest ? latest : undefined);
   const diff = previous && previous.name !== name ? diffPacks(previous.results, results, { before: previous.name, after: name }) : undefined;
   const edited = editedSince(listPacks(root), results, name);
   const sections = composed.map((c) => {
@@ -341,6 +359,11 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
     templates,
   });
   if (diff) model.changes = changeSection(diff, templates);
+  if (unreadable) {
+    // Said in the pack and on the terminal, rather than leaving out "What changed" without a word.
+    const view = { folder: unreadable.name, reason: unreadable.reason };
+    model.changes = { heading: templates.render('history.unreadable-heading', view), intro: templates.render('history.unreadable', view), verdicts: [], notes: [] };
+  }
 
   // 7. render (loaded here, not at start-up: pdfkit and vega are slow to import)
   say(`Drawing the pack (${analyses.length} claims)`);
@@ -352,17 +375,23 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
   const charts = await chartFiles(model);
   // 8. write
   say('Writing the pack');
-  const stored = await storePack(
-    root,
-    name,
-    [
-      ['results.json', `${JSON.stringify(results, null, 2)}\n`],
-      ['results.xlsx', xlsx],
-      ...charts,
-      ['pack.pdf', pdf],
-    ],
-    options.hooks ?? {},
-  );
+  let stored: Awaited<ReturnType<typeof storePack>>;
+  try {
+    stored = await storePack(
+      root,
+      name,
+      [
+        ['results.json', `${JSON.stringify(results, null, 2)}\n`],
+        ['results.xlsx', xlsx],
+        ...charts,
+        ['pack.pdf', pdf],
+      ],
+      options.hooks ?? {},
+    );
+  } catch (e) {
+    // A full disk, a read-only folder, a name too long: the user's to fix, and no half-written pack is left.
+    throw fsFailure(e, { file: options.outDir ?? displayPath(root), field: '--out' }, 'writing the pack into the history folder') ?? e;
+  }
   return {
     claims,
     cubes,
@@ -371,6 +400,7 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
     results,
     model,
     ...(diff ? { diff } : {}),
+    ...(unreadable ? { warnings: [`The latest earlier pack, ${unreadable.name}, could not be read (${unreadable.reason}), so the pack cannot say what changed since it; it says so in place of "What changed".`] } : {}),
     files: { folder: stored.path, pdf: join(stored.path, 'pack.pdf'), results: join(stored.path, 'results.json'), reused: stored.reused },
   };
 }

@@ -66,10 +66,42 @@ export function listNames(names: readonly string[], max = 30): string {
   return shown.join(', ') + more;
 }
 
+// eslint-disable-next-line no-control-regex
+const NON_ASCII = /[^\u0000-\u007f]/;
+
+/**
+ * A name in Unicode normalization form C (Unicode Standard Annex #15): "ŷ" typed as one character and "y" followed by
+ * a combining circumflex (as some systems save it) become the same text. Names from the claims file and from the
+ * data are compared in this form on both sides; each keeps its own spelling for display.
+ */
+export function nfc(s: string): string {
+  return NON_ASCII.test(s) ? s.normalize('NFC') : s;
+}
+
+/** The name in `known` equal to `wanted` once both are in normalization form C, preferring an exact match. */
+export function findName(wanted: string, known: readonly string[]): string | undefined {
+  if (known.includes(wanted)) return wanted;
+  const w = nfc(wanted);
+  return known.find((k) => nfc(k) === w);
+}
+
+/**
+ * Why two names that look alike do not match, when the only difference is in their Unicode form beyond canonical
+ * equivalence (compatibility characters: a ligature, a non-breaking or other special space, full-width letters,
+ * invisible characters such as a zero-width space): undefined when they differ in visible letters.
+ */
+export function unicodeOnlyDifference(a: string, b: string): string | undefined {
+  const fold = (s: string): string => s.normalize('NFKC').replace(/[\u200B-\u200D\u2060\uFEFF\u00AD]/g, '').replace(/\s+/g, ' ');
+  if (a === b || fold(a) !== fold(b)) return undefined;
+  return 'they look the same but differ in their Unicode form (special spaces, invisible characters, ligatures or full-width letters)';
+}
+
 /** A fix sentence: use the closest name if there is one, and list the choices. */
 export function fixFor(wanted: string, known: readonly string[], what: string): string {
   if (known.length === 0) return `Check the file: no ${what} were found in it`;
   const near = closest(wanted, known);
   const list = listNames(known);
+  const why = near !== undefined ? unicodeOnlyDifference(wanted, near) : undefined;
+  if (near !== undefined && why !== undefined) return `Did you mean ${JSON.stringify(near)}? ${why[0]!.toUpperCase()}${why.slice(1)}: retype the name. The ${what} found are ${list}`;
   return near !== undefined ? `Did you mean ${JSON.stringify(near)}? The ${what} found are ${list}` : `Use one of the ${what} found: ${list}`;
 }

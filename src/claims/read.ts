@@ -10,9 +10,10 @@
  * Problems from the schema and the rules are gathered together and thrown as one InputError, in file order.
  */
 import { createHash } from 'node:crypto';
-import { readFile, stat } from 'node:fs/promises';
+import { stat } from 'node:fs/promises';
 import { dirname, isAbsolute, relative, resolve } from 'node:path';
 import { InputError, type Problem } from '../errors.js';
+import { fsFailure, readOrdinaryFile } from '../files.js';
 import { normalize } from './normalize.js';
 import { crossFieldProblems } from './rules.js';
 import type { ClaimsFile } from './types.js';
@@ -63,6 +64,34 @@ function decodeUtf8(bytes: Buffer, file: string): string {
   }
 }
 
+/** Names of the control characters most often met, for the message. */
+const CONTROL_NAMES: Record<number, string> = { 0: 'NUL', 7: 'BEL', 8: 'backspace', 0x0b: 'vertical tab', 0x0c: 'form feed', 0x1a: 'SUB (end-of-file mark)', 0x1b: 'ESC', 0x7f: 'DEL' };
+
+/**
+ * The first character YAML does not allow in a file (YAML 1.2.2 §5.1, c-printable: tab, line feed, carriage return
+ * and printable characters): a NUL byte, another C0 or C1 control character, DEL, U+FFFE or U+FFFF. They are
+ * invisible in most editors and come from damaged saves or pasted binary; refused wherever they are, as YAML does.
+ */
+export function controlCharacter(text: string, file: string): InputError | undefined {
+  // eslint-disable-next-line no-control-regex
+  const at = text.search(/[\u0000-\u0008\u000B\u000C\u000E-\u001F\u007F-\u0084\u0086-\u009F\uFFFE\uFFFF]/);
+  if (at < 0) return undefined;
+  const code = text.charCodeAt(at);
+  const before = text.slice(0, at);
+  const line = before.split('\n').length;
+  const column = at - before.lastIndexOf('\n');
+  const hex = `U+${code.toString(16).toUpperCase().padStart(4, '0')}`;
+  const name = CONTROL_NAMES[code];
+  return new InputError({
+    file,
+    line,
+    column,
+    found: hex,
+    problem: `the claims file holds a control character (${hex}${name !== undefined ? `, ${name}` : ''}), which YAML does not allow anywhere in a file`,
+    fix: 'Delete the character (most editors do not show it; it often comes from a damaged save or text pasted from another program); inside a double-quoted value, write an escape such as \\t if the character is really meant',
+  });
+}
+
 /**
  * Read, check and normalize a claims file.
  * @param path the claims file (absolute, or relative to the working folder)
@@ -81,7 +110,9 @@ async function claimsText(path: string, displayPath?: string): Promise<{ absPath
   let info;
   try {
     info = await stat(absPath);
-  } catch {
+  } catch (e) {
+    const failed = (e as { code?: string }).code === 'ENOENT' ? undefined : fsFailure(e, { file }, 'looking for the claims file');
+    if (failed) throw failed;
     throw new InputError({
       file,
       problem: 'the claims file was not found',
@@ -95,18 +126,20 @@ async function claimsText(path: string, displayPath?: string): Promise<{ absPath
       fix: 'Give the path of the .yaml claims file inside the folder',
     });
   }
-  const tooBig = (size: number): InputError =>
+  const tooBig = (size: string): InputError =>
     new InputError({
       file,
-      found: `${size} bytes`,
+      found: size,
       problem: `the claims file is larger than ${MAX_CLAIMS_BYTES / 1024 / 1024} MB, far more than any set of claims needs`,
       fix: 'Check that this is the claims file and not a data file; data files belong under sources',
     });
-  if (info.size > MAX_CLAIMS_BYTES) throw tooBig(info.size);
-  const bytes = await readFile(absPath);
-  if (bytes.length > MAX_CLAIMS_BYTES) throw tooBig(bytes.length);
+  // Refuses a pipe or a device before reading, and stops past the cap even when the file reports 0 bytes.
+  const bytes = readOrdinaryFile(absPath, MAX_CLAIMS_BYTES, { file }, 'claims file', tooBig);
   const sha256 = createHash('sha256').update(bytes).digest('hex');
-  return { absPath, file, sha256, text: decodeUtf8(bytes, file) };
+  const text = decodeUtf8(bytes, file);
+  const control = controlCharacter(text, file);
+  if (control) throw control;
+  return { absPath, file, sha256, text };
 }
 
 /** What `warrant check` needs: every problem in the file, and the normalized claims whenever they can be built. */

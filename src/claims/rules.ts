@@ -9,6 +9,8 @@ import type { Problem } from '../errors.js';
 import { CONFIDENCE_FORMS, readConfidence } from './confidence.js';
 import { POINTS_FORMS, readPoints, readShare, SHARE_FORMS, periodsBack } from './amounts.js';
 import { closest } from '../suggest.js';
+import { impossibleDate } from './dates.js';
+import { notOrdinaryProblem, otherThanFile } from '../files.js';
 import { describeOwner } from './validate.js';
 import { locate, type ParsedYaml } from './yaml.js';
 
@@ -63,6 +65,16 @@ export function crossFieldProblems(parsed: ParsedYaml, file: string, claimsDir: 
   };
   checkAmount(data, ['min_response_rate'], 'share', 'the minimum response rate');
   checkAmount(data, ['smallest_difference'], 'points', 'the smallest difference that matters,');
+  if (typeof data.data_date === 'string' && impossibleDate(data.data_date) !== undefined) {
+    problems.push({
+      file,
+      ...at(['data_date']),
+      field: 'data_date',
+      found: data.data_date,
+      problem: `${data.data_date} is not a real date: ${impossibleDate(data.data_date)}`,
+      fix: 'Write the date the data describe as YYYY-MM-DD, e.g. 2026-03-14',
+    });
+  }
 
   // Sources: file extension, existence, sheet only for workbooks, codes not both agreeing and not applicable.
   const sources = isRec(data.sources) ? data.sources : {};
@@ -347,6 +359,8 @@ function fileProblems(written: string, claimsDir: string, file: string, place: {
       },
     ];
   }
+  const other = otherThanFile(stat);
+  if (other !== undefined && !stat.isDirectory()) return [notOrdinaryProblem(abs, other, { file, ...place, field: 'file', found: written }, 'data file')];
   if (stat.isDirectory()) {
     let inside: string | undefined;
     try {

@@ -15,10 +15,10 @@ import { orderPeriods, periodsBack, resolvePeriod } from '../claims/periods.js';
 import { scanTable } from '../claims/scan.js';
 import type { Claim, Filter, FilterScalar, FilterValue, SourceSpec } from '../claims/types.js';
 import { locate, type ParsedYaml } from '../claims/yaml.js';
-import { readCube } from '../data/cube.js';
+import { claimsSpellings, readCube } from '../data/cube.js';
 import type { Cell, Cube } from '../data/types.js';
 import { formatProblem, InputError, type Problem } from '../errors.js';
-import { fixFor } from '../suggest.js';
+import { findName, fixFor, nfc } from '../suggest.js';
 
 export interface CheckOptions {
   /** The claims file. */
@@ -140,7 +140,9 @@ async function sourceCube(
       ...(source.sheet !== undefined ? { sheet: source.sheet } : {}),
       ...(source.headerRow !== undefined ? { headerRow: source.headerRow } : {}),
     });
-    header = scan.columns.map((c) => c.name);
+    // Names match under Unicode normalization form C, as the data readers match them (src/data/cube.ts).
+    const spelled = claimsSpellings(source, users.flatMap((u) => columnsUsed(u.claim)));
+    header = scan.columns.map((c) => spelled.get(nfc(c.name)) ?? c.name);
   } catch (e) {
     if (!(e instanceof InputError)) throw e;
     dataProblems.push(...e.problems);
@@ -248,7 +250,8 @@ function claimDataProblems(claim: Claim, i: number, source: SourceSpec, cube: Cu
       text = r.period;
     }
     const known = cube.values[col] ?? [];
-    if (known.includes(text)) return text;
+    const same = findName(text, known);
+    if (same !== undefined) return same;
     const relative = periodsBack(v) !== undefined && col !== periodCol;
     // A relative word on a source without a period column is reported by the claims file's own rules.
     if (relative && periodCol === undefined) return undefined;

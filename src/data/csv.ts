@@ -24,6 +24,7 @@ import { isUtf8 } from 'node:buffer';
 import { createReadStream } from 'node:fs';
 import type Papa from 'papaparse';
 import { InputError } from '../errors.js';
+import { requireOrdinaryFile } from '../files.js';
 import { isTrimmedSpace } from './rows.js';
 import type { ReadOptions, SheetRow } from './rows.js';
 
@@ -405,6 +406,7 @@ export async function* readCsvRows(path: string, options: CsvOptions = {}): Asyn
 /** As readCsvRows, the rows of each piece of the file together (one await per piece, not per row). */
 export async function* readCsvBatches(path: string, options: CsvOptions = {}): AsyncGenerator<SheetRow[]> {
   const file = options.displayPath ?? path;
+  requireOrdinaryFile(path, { file }, 'data file');
   const stream = createReadStream(path, { highWaterMark: options.chunkSize !== undefined ? Math.max(1, options.chunkSize) : READ_SIZE });
   // Raw bytes through one streaming decoder: a character split between two reads is carried over, and bytes that are
   // not UTF-8 stop the read (the BOM is kept here and dropped below, once).

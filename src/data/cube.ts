@@ -22,6 +22,7 @@
  *   reader sees as empty.
  */
 import { InputError } from '../errors.js';
+import { requireOrdinaryFile } from '../files.js';
 import type { Problem } from '../errors.js';
 import type { SourceSpec } from '../claims/types.js';
 import type { Cell, Cube } from './types.js';
@@ -31,7 +32,7 @@ import { createHash } from 'node:crypto';
 import { sha256File } from './hash.js';
 import { isBlankRow, rowIsBlank } from './rows.js';
 import type { ColumnSelection, SheetRow } from './rows.js';
-import { fixFor } from '../suggest.js';
+import { fixFor, nfc } from '../suggest.js';
 import { kindMismatch, sniffKind } from './kind.js';
 
 /** How many row problems are gathered before reading stops. */
@@ -194,6 +195,8 @@ async function findHeader(
 
 export async function readCube(source: CubeSource, needed: string[], displayPath: string, options: ReadCubeOptions = {}): Promise<Cube> {
   const file = displayPath;
+  // Before anything opens it: a pipe or a device would make every read below wait for ever.
+  requireOrdinaryFile(source.path, { file }, 'data file');
   // A workbook is hashed in its own read, at the same time; a CSV file from the bytes its reader reads.
   const shaPromise =
     source.format === 'xlsx'
@@ -242,15 +245,21 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
   try {
     const reader = new BatchReader(rows);
     const header = await findHeader(reader, source.headerRow, where);
-    const names = header.values.map((v) => v.trim());
+    const raw = header.values.map((v) => v.trim());
+    // Column names match the claims file's under Unicode normalization form C, and are then known by its spelling.
+    const spelled = claimsSpellings(source, needed);
+    const names = raw.map((n) => spelled.get(nfc(n)) ?? n);
     const seen = new Map<string, number>();
+    const seenForm = new Map<string, number>();
     names.forEach((n, i) => {
       if (n === '') return;
-      const before = seen.get(n);
+      const before = seen.get(n) ?? seenForm.get(nfc(n));
       if (before !== undefined) {
-        throw new InputError({ ...where, row: header.row, field: n, found: n, problem: `Two columns have the same name (columns ${before + 1} and ${i + 1})`, fix: 'Give each column a different name in the header row' });
+        const forms = raw[before] !== raw[i] ? ', written in different Unicode forms (one with accents as separate combining marks)' : '';
+        throw new InputError({ ...where, row: header.row, field: n, found: raw[i], problem: `Two columns have the same name (columns ${before + 1} and ${i + 1})${forms}`, fix: 'Give each column a different name in the header row' });
       }
       seen.set(n, i);
+      seenForm.set(nfc(n), i);
     });
     const known = names.filter((n) => n !== '');
     const firstNamed = names.findIndex((n) => n !== '');
@@ -290,6 +299,18 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
     await rows.return(undefined);
     close();
   }
+}
+
+/** Column names as the claims file spells them (the source's own fields and the columns its claims use), by their NFC form. */
+export function claimsSpellings(source: CubeSource, needed: string[]): Map<string, string> {
+  const out = new Map<string, string>();
+  const add = (v: unknown): void => {
+    if (typeof v === 'string' && v.trim() !== '') out.set(nfc(v.trim()), v.trim());
+    else if (Array.isArray(v)) v.forEach(add);
+  };
+  Object.values(source).forEach(add);
+  needed.forEach(add);
+  return out;
 }
 
 type CubeBody = Omit<Cube, 'sourceId' | 'file' | 'sha256'>;

@@ -10,7 +10,7 @@
 import { InputError } from '../errors.js';
 import type { Filter, FilterScalar, FilterValue } from '../claims/types.js';
 import type { Cell, Cube, Pooled } from './types.js';
-import { fixFor } from '../suggest.js';
+import { findName, fixFor, nfc } from '../suggest.js';
 
 function isNot(value: FilterValue): value is { not: FilterScalar | FilterScalar[] } {
   return typeof value === 'object' && value !== null && !Array.isArray(value);
@@ -29,7 +29,7 @@ const compiled = new WeakMap<Filter, Compiled>();
 function compile(filter: Filter): Compiled {
   let c = compiled.get(filter);
   if (c === undefined) {
-    c = Object.entries(filter).map(([col, value]) => ({ col, wanted: new Set(wantedTexts(value)), not: isNot(value) }));
+    c = Object.entries(filter).map(([col, value]) => ({ col, wanted: new Set(wantedTexts(value).map(nfc)), not: isNot(value) }));
     compiled.set(filter, c);
   }
   return c;
@@ -43,7 +43,7 @@ export function matches(cell: Cell, filter: Filter): boolean {
   for (const { col, wanted, not } of compile(filter)) {
     const have = cell.dims[col];
     if (have === undefined) return false;
-    if (wanted.has(have) === not) return false;
+    if (wanted.has(nfc(have)) === not) return false;
   }
   return true;
 }
@@ -58,7 +58,7 @@ export function checkFilter(cube: Cube, filter: Filter): void {
     const known = cube.values[col] ?? [];
     // A value named under `not` must exist too: leaving out a misspelt value would silently leave out nothing.
     for (const v of wantedTexts(value)) {
-      if (!known.includes(v)) {
+      if (findName(v, known) === undefined) {
         throw new InputError({ ...where, field: col, found: v, problem: `No row of source "${cube.sourceId}" has this value in column "${col}"`, fix: fixFor(v, known, `values of "${col}"`) });
       }
     }

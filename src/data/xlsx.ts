@@ -24,6 +24,7 @@ import { createInflateRaw } from 'node:zlib';
 import { Transform, pipeline } from 'node:stream';
 import type { SaxesTagPlain } from 'saxes';
 import { InputError } from '../errors.js';
+import { requireOrdinaryFile } from '../files.js';
 import type { ReadOptions, SheetRow } from './rows.js';
 import { SheetScanner, isBuiltInDateFormat, isDateFormatCode } from './sheet-scan.js';
 
@@ -131,9 +132,84 @@ function openZip(path: string, file: string): Promise<ZipFile> {
   });
 }
 
-function listEntries(zip: ZipFile): Promise<Map<string, Entry>> {
+/**
+ * Limits on what a workbook may unpack to, so that time and memory stay bounded whatever the file holds (a zip bomb
+ * inflates a few kilobytes to gigabytes). Every part read is checked against the size its kind may reach and against
+ * an inflation ratio, both on the sizes the zip's directory records and again on the bytes as they are inflated (a
+ * directory can lie). The ratio follows common practice (Apache POI refuses parts that inflate more than 100-fold);
+ * sheet XML of real survey data inflates 5 to 20-fold. Parts under a megabyte are not held to the ratio.
+ */
+export const ZIP_LIMITS = {
+  /** The most inflated bytes per compressed byte. */
+  ratio: 100,
+  /** Inflated bytes allowed before the ratio applies. */
+  ratioGrace: 1 << 20,
+  /** The sheet part, streamed row by row: Excel's 1,048,576 rows of a few dozen columns fit well within it. */
+  sheet: 2 * 1024 ** 3,
+  /** The shared strings part, held in memory while the sheet is read. */
+  strings: 256 * 1024 ** 2,
+  /** Relationships, workbook and styles parts: a few kilobytes in real workbooks. */
+  small: 32 * 1024 ** 2,
+  /** Parts listed in the zip's directory: real workbooks have tens, or hundreds with many sheets and images. */
+  entries: 10_000,
+};
+
+type PartKind = 'sheet' | 'strings' | 'small';
+
+const mb = (n: number): string => (n >= 1024 ** 3 ? `${(n / 1024 ** 3).toFixed(0)} GB` : `${Math.round(n / 1024 ** 2)} MB`);
+
+/** The refusal of a part that unpacks to too much: which part, how much, and why. */
+function tooLarge(file: string, part: string, kind: PartKind, inflated: number, compressed: number, declared: boolean): InputError | undefined {
+  const cap = ZIP_LIMITS[kind];
+  const what = `the workbook's part ${part}`;
+  const amount = declared ? `is recorded as unpacking to ${inflated} bytes` : `unpacked to more than ${inflated} bytes`;
+  if (inflated > cap) {
+    return new InputError({
+      file,
+      field: part,
+      found: `${inflated} bytes`,
+      problem: `${what} ${amount}, more than the ${mb(cap)} warrant allows for ${kind === 'sheet' ? 'a sheet' : kind === 'strings' ? 'the shared text of a workbook' : 'a part of this kind'}, so it was not read (it may be a zip bomb, built to exhaust memory or time)`,
+      fix: 'Check that this is the right workbook; save the data again from a spreadsheet program, or export the sheet as CSV',
+    });
+  }
+  if (inflated > ZIP_LIMITS.ratioGrace && inflated > ZIP_LIMITS.ratio * Math.max(compressed, 1)) {
+    return new InputError({
+      file,
+      field: part,
+      found: `${compressed} bytes unpacking to ${declared ? '' : 'more than '}${inflated}`,
+      problem: `${what} ${amount} from ${compressed} compressed bytes, more than ${ZIP_LIMITS.ratio} times its size, which real workbooks never need, so it was not read (it is probably a zip bomb, built to exhaust memory or time)`,
+      fix: 'Check where the workbook came from; save the data again from a spreadsheet program, or export the sheet as CSV',
+    });
+  }
+  return undefined;
+}
+
+/** A counter for the bytes of one part as they inflate, throwing as soon as they pass a limit. */
+function inflateCounter(file: string, entry: Entry, kind: PartKind): (bytes: number) => void {
+  const declared = tooLarge(file, entry.fileName, kind, entry.uncompressedSize, entry.compressedSize, true);
+  if (declared !== undefined) throw declared;
+  let total = 0;
+  return (bytes: number) => {
+    total += bytes;
+    const e = tooLarge(file, entry.fileName, kind, total, entry.compressedSize, false);
+    if (e !== undefined) throw e;
+  };
+}
+
+function listEntries(zip: ZipFile, file: string): Promise<Map<string, Entry>> {
   return new Promise((resolve, reject) => {
     const entries = new Map<string, Entry>();
+    if (zip.entryCount > ZIP_LIMITS.entries) {
+      reject(
+        new InputError({
+          file,
+          found: `${zip.entryCount} parts`,
+          problem: `the workbook's zip directory lists ${zip.entryCount} parts, more than the ${ZIP_LIMITS.entries} warrant reads through (real workbooks hold tens or hundreds)`,
+          fix: 'Check that this is the right workbook; save the data again from a spreadsheet program, or export the sheet as CSV',
+        }),
+      );
+      return;
+    }
     zip.on('entry', (e: Entry) => {
       entries.set(e.fileName.replace(/\\/g, '/'), e);
       zip.readEntry();
@@ -158,7 +234,8 @@ const INFLATE_CHUNK = 1 << 18;
  * pieces than yauzl's own inflater uses; its length is then checked against the size the zip's directory records,
  * as yauzl would.
  */
-async function openSheetEntry(zip: ZipFile, entry: Entry): Promise<NodeJS.ReadableStream & { destroy(): void }> {
+async function openSheetEntry(zip: ZipFile, entry: Entry, file: string): Promise<NodeJS.ReadableStream & { destroy(): void }> {
+  const count = inflateCounter(file, entry, 'sheet');
   if (entry.compressionMethod !== 8) return openEntry(zip, entry);
   const raw = await new Promise<NodeJS.ReadableStream & { destroy(): void }>((resolve, reject) => {
     zip.openReadStream(entry, { decompress: false }, (err, stream) => (err ? reject(err) : resolve(stream)));
@@ -169,6 +246,12 @@ async function openSheetEntry(zip: ZipFile, entry: Entry): Promise<NodeJS.Readab
   const checked = new Transform({
     transform(piece: Buffer, _enc, done) {
       size += piece.length;
+      try {
+        count(piece.length);
+      } catch (e) {
+        done(e as Error);
+        return;
+      }
       if (size > expected) done(new Error(`too many bytes in the stream: more than the expected ${expected}`));
       else done(null, piece);
     },
@@ -195,7 +278,10 @@ async function* parsePart<T>(
   chunkSize: number | undefined,
   setup: (parser: SaxesParser) => () => T[],
   damaged: (message: string) => InputError,
+  file: string,
+  kind: PartKind = 'small',
 ): AsyncGenerator<T> {
+  const count = inflateCounter(file, entry, kind);
   const stream = await openEntry(zip, entry);
   const decoder = new TextDecoder('utf-8');
   const parser = new SaxesParser({ xmlns: false });
@@ -211,6 +297,7 @@ async function* parsePart<T>(
   };
   try {
     for await (const raw of stream as AsyncIterable<Buffer>) {
+      count(raw.length);
       const step = chunkSize !== undefined && chunkSize > 0 ? chunkSize : raw.length;
       for (let at = 0; at < raw.length; at += step) {
         yield* write(decoder.decode(raw.subarray(at, at + step), { stream: true }));
@@ -220,6 +307,16 @@ async function* parsePart<T>(
     parser.close();
     if (failure !== undefined) throw damaged(failure.message);
     yield* drain();
+  } catch (e) {
+    if (e instanceof InputError) throw e;
+    // A zip-level failure while inflating (bad data, or more bytes than the directory records), named by its part.
+    throw new InputError({
+      file,
+      field: entry.fileName,
+      problem: `The workbook is damaged: its part ${entry.fileName} cannot be unpacked${/too many bytes/.test(String(e)) ? ', as it unpacks to more bytes than the zip\'s directory records (a damaged file, or a zip bomb)' : ''}`,
+      found: e instanceof Error ? e.message : String(e),
+      fix: 'Open the workbook in a spreadsheet program and save it again as .xlsx',
+    });
   } finally {
     stream.destroy();
   }
@@ -253,6 +350,7 @@ function relsPath(part: string): string {
  */
 export async function openXlsxSheet(path: string, options: XlsxOptions = {}): Promise<OpenedSheet> {
   const file = options.displayPath ?? path;
+  requireOrdinaryFile(path, { file }, 'data file');
   const zip = await openZip(path, file);
   let closed = false;
   const close = (): void => {
@@ -263,7 +361,7 @@ export async function openXlsxSheet(path: string, options: XlsxOptions = {}): Pr
   };
   let handedOver = false;
   try {
-    const entries = await listEntries(zip);
+    const entries = await listEntries(zip, file);
     const damaged = (part: string) => (message: string) =>
       new InputError({
         file,
@@ -294,7 +392,7 @@ export async function openXlsxSheet(path: string, options: XlsxOptions = {}): Pr
             }
           });
           return () => out.splice(0);
-        }, damaged(relsPath(part))),
+        }, damaged(relsPath(part)), file),
       );
       for (const r of rels) map.set(r.id, { type: r.type, target: resolvePart(part, r.target) });
       return map;
@@ -323,7 +421,7 @@ export async function openXlsxSheet(path: string, options: XlsxOptions = {}): Pr
           out.push({ name: attr(t, 'name') ?? '', hidden: (attr(t, 'state') ?? 'visible') !== 'visible', rid: attr(t, 'id', true) ?? '' });
         });
         return () => out.splice(0);
-      }, damaged(workbookPart)),
+      }, damaged(workbookPart), file),
     );
     const sheets: SheetInfo[] = sheetTags.map((s) => ({
       name: s.name,
@@ -361,13 +459,13 @@ export async function openXlsxSheet(path: string, options: XlsxOptions = {}): Pr
     let stringsPart: string | undefined;
     for (const r of workbookRels.values()) if (r.type.endsWith('/sharedStrings')) stringsPart = r.target;
     const stringsEntry = entries.get(stringsPart ?? 'xl/sharedStrings.xml');
-    const shared = stringsEntry === undefined ? [] : await collect(parsePart(zip, stringsEntry, options.chunkSize, sharedStringsHandler, damaged(stringsPart ?? 'xl/sharedStrings.xml')));
+    const shared = stringsEntry === undefined ? [] : await collect(parsePart(zip, stringsEntry, options.chunkSize, sharedStringsHandler, damaged(stringsPart ?? 'xl/sharedStrings.xml'), file, 'strings'));
 
     // Styles: which cell formats show dates (the workbook relationship of type styles, usually xl/styles.xml).
     let stylesPart: string | undefined;
     for (const r of workbookRels.values()) if (r.type.endsWith('/styles')) stylesPart = r.target;
     const stylesEntry = entries.get(stylesPart ?? 'xl/styles.xml');
-    const dateStyles = stylesEntry === undefined ? [] : (await collect(parsePart(zip, stylesEntry, options.chunkSize, stylesHandler, damaged(stylesPart ?? 'xl/styles.xml'))))[0] ?? [];
+    const dateStyles = stylesEntry === undefined ? [] : (await collect(parsePart(zip, stylesEntry, options.chunkSize, stylesHandler, damaged(stylesPart ?? 'xl/styles.xml'), file)))[0] ?? [];
 
     const batches = sheetRows(zip, sheetEntry, options.chunkSize, { file, sheet: chosen.name, shared, dateStyles, date1904, damaged: damaged(chosen.part) }, close);
     const rows = (async function* () {
@@ -466,7 +564,7 @@ async function* sheetRows(
   close: () => void,
 ): AsyncGenerator<SheetRow[]> {
   try {
-    const stream = await openSheetEntry(zip, entry);
+    const stream = await openSheetEntry(zip, entry, ctx.file);
     try {
       const decoder = new TextDecoder('utf-8');
       const scanner = new SheetScanner(ctx);
@@ -503,7 +601,8 @@ async function* sheetRows(
       throw new InputError({
         file: ctx.file,
         sheet: ctx.sheet,
-        problem: 'The workbook is damaged: the sheet cannot be unpacked',
+        field: entry.fileName,
+        problem: `The workbook is damaged: the sheet cannot be unpacked${/too many bytes/.test(String(e)) ? `, as its part ${entry.fileName} unpacks to more bytes than the zip's directory records (a damaged file, or a zip bomb)` : ''}`,
         found: e instanceof Error ? e.message : String(e),
         fix: 'Open the workbook in a spreadsheet program and save it again as .xlsx',
       });

@@ -4,10 +4,12 @@
  * A `latest` link names the newest. A pack is written into a temporary folder and renamed into place, so an
  * interrupted build leaves the earlier packs intact and no half-written pack behind.
  */
-import { existsSync, readdirSync, readFileSync, readlinkSync, realpathSync, statSync } from 'node:fs';
+import { existsSync, lstatSync, readdirSync, readlinkSync, realpathSync, statSync } from 'node:fs';
 import { mkdir, readlink, rename, rm, symlink, writeFile } from 'node:fs/promises';
 import { basename, join } from 'node:path';
 import type { ResultsFile } from '../results/results.js';
+import { InputError } from '../errors.js';
+import { fsFailure, fsReason, otherThanFile, readOrdinaryFile } from '../files.js';
 
 export const LATEST = 'latest';
 const TEMP_PREFIX = '.building-';
@@ -30,14 +32,50 @@ export function today(now = new Date()): string {
   return now.toISOString().slice(0, 10);
 }
 
-function readResults(folder: string): ResultsFile | undefined {
+/** An earlier pack whose results.json is there but cannot be read, and why (said in the new pack and on the terminal). */
+export interface UnreadablePack {
+  name: string;
+  path: string;
+  reason: string;
+}
+
+/** results.json of a pack is a few megabytes at most; anything beyond this is not one. */
+const MAX_RESULTS_BYTES = 256 * 1024 * 1024;
+
+/** The parts of results.json that comparing two packs relies on; a file without them is not a readable pack. */
+function resultsShapeProblem(x: unknown): string | undefined {
+  const isObj = (v: unknown): v is Record<string, unknown> => v !== null && typeof v === 'object' && !Array.isArray(v);
+  if (!isObj(x)) return 'it does not hold a JSON object';
+  const listOfIds = (v: unknown): boolean => Array.isArray(v) && v.every((c) => isObj(c) && typeof c.id === 'string');
+  if (!listOfIds(x.claims)) return 'its list of claims is missing or damaged';
+  if (!listOfIds(x.sources)) return 'its list of sources is missing or damaged';
+  if (!isObj(x.settings) || !isObj(x.claimsFile) || typeof x.date !== 'string' || typeof x.fingerprint !== 'string') return 'its settings, claims file, date or fingerprint are missing';
+  return undefined;
+}
+
+/** A pack folder's results.json: the results, the reason it cannot be read, or nothing when there is none. */
+export function readResultsOf(folder: string): { results: ResultsFile } | { unreadable: string } | undefined {
   const file = join(folder, 'results.json');
   if (!existsSync(file)) return undefined;
+  let text: string;
   try {
-    return JSON.parse(readFileSync(file, 'utf8')) as ResultsFile;
-  } catch {
-    return undefined;
+    text = readOrdinaryFile(file, MAX_RESULTS_BYTES, { file }, 'results.json of an earlier pack', (size) => new InputError({ file, found: size, problem: 'results.json is far larger than any pack writes', fix: 'Remove the file' })).toString('utf8');
+  } catch (e) {
+    return { unreadable: e instanceof InputError ? (e.problems[0]?.problem ?? e.message) : fsReason(e) ?? String(e) };
   }
+  let parsed: unknown;
+  try {
+    parsed = JSON.parse(text);
+  } catch (e) {
+    return { unreadable: `its results.json is cut short or damaged (${(e as Error).message})` };
+  }
+  const shape = resultsShapeProblem(parsed);
+  return shape !== undefined ? { unreadable: `its results.json is not one warrant can compare with: ${shape}` } : { results: parsed as ResultsFile };
+}
+
+function readResults(folder: string): ResultsFile | undefined {
+  const r = readResultsOf(folder);
+  return r !== undefined && 'results' in r ? r.results : undefined;
 }
 
 /** Every complete pack in a history folder, oldest first (by folder name: build day, then fingerprint). */
@@ -54,6 +92,12 @@ export function listPacks(root: string): StoredPack[] {
 
 /** The pack the `latest` link names, if any. */
 export function latestPack(root: string): StoredPack | undefined {
+  const r = latestOrUnreadable(root);
+  return r !== undefined && 'results' in r ? r : undefined;
+}
+
+/** The pack the `latest` link names; or, when its results.json is damaged, which pack that is and why. */
+export function latestOrUnreadable(root: string): StoredPack | UnreadablePack | undefined {
   const link = join(root, LATEST);
   let name: string;
   try {
@@ -61,8 +105,9 @@ export function latestPack(root: string): StoredPack | undefined {
   } catch {
     return undefined;
   }
-  const results = readResults(join(root, name));
-  return results ? { name, path: join(root, name), results } : undefined;
+  const r = readResultsOf(join(root, name));
+  if (r === undefined) return undefined;
+  return 'results' in r ? { name, path: join(root, name), results: r.results } : { name, path: join(root, name), reason: r.unreadable };
 }
 
 /** A pack folder given on the command line: a pack folder, its results.json, or a history folder (its latest). */
@@ -75,9 +120,16 @@ export function openPack(path: string): StoredPack | undefined {
   } catch {
     return undefined;
   }
-  const direct = readResults(folder);
-  if (direct) return { name: basename(folder), path: folder, results: direct };
-  return latestPack(folder);
+  const direct = readResultsOf(folder);
+  if (direct !== undefined) {
+    if ('results' in direct) return { name: basename(folder), path: folder, results: direct.results };
+    throw new InputError({ file: path, problem: `the pack ${basename(folder)} cannot be read: ${direct.unreadable}`, fix: 'Name another pack, or build this one again from its claims file and data' });
+  }
+  const latest = latestOrUnreadable(folder);
+  if (latest !== undefined && 'reason' in latest) {
+    throw new InputError({ file: path, problem: `the latest pack ${latest.name} cannot be read: ${latest.reason}`, fix: 'Name another pack, or build this one again from its claims file and data' });
+  }
+  return latest;
 }
 
 /** Remove temporary folders left by builds that were killed (their process no longer runs). */
@@ -150,7 +202,34 @@ export async function storePack(root: string, name: string, files: Array<[string
   return { path: target, reused };
 }
 
-/** Replace the `latest` link atomically (a new link renamed over the old one). */
+/**
+ * What stands where the `latest` link belongs, when it is not a link ("a folder", "a file"); undefined when there
+ * is a link or nothing. Checked before a build starts, so that nothing is written when the link cannot be moved.
+ */
+export function latestInTheWay(root: string): string | undefined {
+  let st;
+  try {
+    st = lstatSync(join(root, LATEST));
+  } catch {
+    return undefined;
+  }
+  if (st.isSymbolicLink()) return undefined;
+  return st.isDirectory() ? 'a folder' : st.isFile() ? 'a file' : (otherThanFile(st) ?? 'something else');
+}
+
+/** The InputError for a `latest` that is not a link (`shown` is the history folder as the user named it). */
+export function latestProblem(shown: string, what: string): InputError {
+  const link = join(shown, LATEST);
+  return new InputError({
+    file: link,
+    field: '--out',
+    found: what,
+    problem: `warrant keeps a link named ${LATEST} in the history folder pointing to the newest pack, but ${link} is ${what}, not a link, so it cannot be moved to the new pack`,
+    fix: `Move or rename ${link} (e.g. to ${link}-old), then build again; warrant makes the link itself`,
+  });
+}
+
+/** Replace the `latest` link atomically (a new link renamed over the old one); the temporary link never stays. */
 async function pointLatest(root: string, name: string): Promise<void> {
   const link = join(root, LATEST);
   try {
@@ -158,8 +237,15 @@ async function pointLatest(root: string, name: string): Promise<void> {
   } catch {
     // no link yet
   }
+  const inTheWay = latestInTheWay(root);
+  if (inTheWay !== undefined) throw latestProblem(root, inTheWay);
   const tmp = join(root, `${TEMP_PREFIX}${process.pid}-link`);
   await rm(tmp, { force: true });
-  await symlink(name, tmp, 'dir');
-  await rename(tmp, link);
+  try {
+    await symlink(name, tmp, 'dir');
+    await rename(tmp, link);
+  } catch (e) {
+    await rm(tmp, { force: true });
+    throw fsFailure(e, { file: link, field: '--out' }, 'pointing the latest link at the new pack') ?? e;
+  }
 }

@@ -2,6 +2,8 @@
  * The whole pack's words: cover, summary, sections, method notes, glossary, reproducibility. Per-claim wording is in
  * compose.ts; this file adds what belongs to the pack as a whole.
  */
+import { realpathSync } from 'node:fs';
+import { dirname, isAbsolute, relative } from 'node:path';
 import type { Analysis } from '../analyse/types.js';
 import type { ClaimsFile } from '../claims/types.js';
 import type { Cube } from '../data/types.js';
@@ -28,6 +30,26 @@ export const ADJUST_NAMES: Record<ClaimsFile['adjust'], string> = {
   bonferroni: 'the Bonferroni method',
   'benjamini-yekutieli': 'the Benjamini–Yekutieli method',
 };
+
+/**
+ * For a data file outside the claims file's folder (a path with "..", an absolute path, a link leading out): the
+ * file actually read, so that a reader sees exactly which one was used. Files inside the folder need no more than
+ * the path as written, which keeps the pack the same wherever the folder is copied.
+ */
+function readFrom(claims: ClaimsFile, sourceId: string): string {
+  const spec = claims.sources.find((s) => s.id === sourceId);
+  if (spec === undefined) return '';
+  let real: string;
+  let folder: string;
+  try {
+    real = realpathSync(spec.path);
+    folder = realpathSync(dirname(claims.path));
+  } catch {
+    return '';
+  }
+  const rel = relative(folder, real);
+  return rel.startsWith('..') || isAbsolute(rel) ? ` (outside the claims file's folder: read from ${real})` : '';
+}
 
 export function composePack(input: {
   claims: ClaimsFile;
@@ -102,7 +124,7 @@ export function composePack(input: {
       { label: 'Tool', value: `warrant ${input.version}` },
       { label: 'Command', value: input.command },
       { label: 'Claims file', value: `${input.claimsDisplay} (SHA-256 ${claims.sha256})` },
-      ...input.cubes.map((c) => ({ label: `Data: ${c.sourceId}`, value: `${c.file}, ${fmt.count(c.rows)} rows (SHA-256 ${c.sha256})` })),
+      ...input.cubes.map((c) => ({ label: `Data: ${c.sourceId}`, value: `${c.file}${readFrom(claims, c.sourceId)}, ${fmt.count(c.rows)} rows (SHA-256 ${c.sha256})` })),
     ],
     generalCautions: templates.renderLines('general-cautions', view),
   };
