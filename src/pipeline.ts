@@ -13,7 +13,7 @@ import { readFile } from 'node:fs/promises';
 import { existsSync, readdirSync, statSync } from 'node:fs';
 import { basename, dirname, extname, join, relative, resolve } from 'node:path';
 import { readClaims } from './claims/read.js';
-import type { ClaimsFile } from './claims/types.js';
+import type { Claim, ClaimsFile } from './claims/types.js';
 import { readCube } from './data/cube.js';
 import type { Cube } from './data/types.js';
 import { analyse, columnsUsed } from './analyse/index.js';
@@ -118,7 +118,14 @@ export function testClaims(
     const periodColumn = periodColumnOf(cube, claims.sources.find((s) => s.id === written.source)?.period);
     return { claim: resolvePeriods(written, cube, periodColumn, claimsDisplay).claim, cube };
   });
-  const analyses = resolved.map(({ claim, cube }) => analyse(claim, cube, ctx));
+  const analyseOne = (i: number, claim: Claim): Analysis => {
+    try {
+      return analyse(claim, resolved[i]!.cube, ctx);
+    } catch (e) {
+      throw untestable(e, claims.claims[i]!, claimsDisplay);
+    }
+  };
+  const analyses = resolved.map(({ claim }, i) => analyseOne(i, claim));
   const testedIdx = analyses.flatMap((a, i) => (a.status === 'tested' && a.test ? [i] : []));
   const adjusted = adjustP(
     testedIdx.map((i) => (analyses[i]?.test?.p as number)),
@@ -135,8 +142,8 @@ export function testClaims(
   const decisions = analyses.map((a, i) => decide(a, pAdj.get(i), threshold.get(i)));
   // The verdict at 90, 95 and 99% confidence, with and without the adjustment: each claim analysed again at each level.
   const stability = verdictStability(claims, analyses, (i, confidence) => {
-    const { claim, cube } = resolved[i]!;
-    return analyse({ ...claim, confidence } as typeof claim, cube, ctx);
+    const { claim } = resolved[i]!;
+    return analyseOne(i, { ...claim, confidence } as typeof claim);
   });
   return {
     analyses,
@@ -144,6 +151,25 @@ export function testClaims(
     tested: testedIdx.length,
     stability,
   };
+}
+
+/**
+ * A statistical method stopped on the data a claim selects (a measure that does not vary, a table with one row, a
+ * perfectly collinear control): said as a problem with that claim, with what the method reported. The methods throw
+ * only on degenerate input, so this is the data's shape rather than a fault in warrant; the message says how to
+ * report it should the data be as they ought to be.
+ */
+function untestable(e: unknown, claim: ClaimsFile['claims'][number], claimsDisplay: string): unknown {
+  if (e instanceof InputError || !(e instanceof Error)) return e;
+  return new InputError({
+    file: claimsDisplay,
+    line: claim.place.line,
+    column: claim.place.column,
+    field: 'id',
+    found: claim.id,
+    problem: `claim "${claim.id}" cannot be tested on the data it selects: the statistical method reports that ${e.message.replace(/\.$/, '').replace(/^[^:]*: /, '')}`,
+    fix: 'Check the selections of this claim: a measure with the same value everywhere, or groups that all answered alike, leave nothing to test; change the claim or remove it. If the data are as they should be, please report this to the warrant maintainers with the command you ran and the output of the same command with --debug',
+  });
 }
 
 /** Point sources at other files for this build (`--data id=path`), checking each exists. */

@@ -115,6 +115,18 @@ export function analyseAssociation(claim: AssociationClaim, cube: Cube, ctx: Com
   }
   const x = points.map((p) => p.x);
   const y = points.map((p) => p.y);
+  // A measure with the same value in every unit has no association with anything: said as such, not tested.
+  const flat = [x, y].findIndex((v) => v.every((a) => a === v[0]));
+  if (flat >= 0) {
+    const label = flat === 0 ? (claim.xLabel ?? 'the first measure') : (claim.yLabel ?? 'the second measure');
+    return {
+      ...base,
+      points: [],
+      status: 'too-little-data',
+      shortfall: `every one of the ${points.length} units has the same value of ${label} (no variation to relate to the other measure)`,
+      observedSign: 0,
+    };
+  }
   const weights = claim.weighted ? points.map((p) => Math.min(p.nx, p.ny)) : undefined;
   const z = controls.map((_, j) => points.map((p) => (p.controls as number[])[j] as number));
   const run = (alternative: Alternative): TestResult =>

@@ -10,6 +10,7 @@ import { CONFIDENCE_FORMS, readConfidence } from './confidence.js';
 import { POINTS_FORMS, readPoints, readShare, SHARE_FORMS, periodsBack } from './amounts.js';
 import { closest } from '../suggest.js';
 import { impossibleDate } from './dates.js';
+import { samenessProblems } from './sameness.js';
 import { notOrdinaryProblem, otherThanFile } from '../files.js';
 import { describeOwner } from './validate.js';
 import { locate, type ParsedYaml } from './yaml.js';
@@ -47,6 +48,7 @@ export function crossFieldProblems(parsed: ParsedYaml, file: string, claimsDir: 
     });
   };
   checkConfidence(['confidence']);
+  problems.push(...samenessProblems(parsed, file));
 
   /** Shares (0.8, 80, "80%") and points (5, "5 points") written at `path`, range-checked with their own message. */
   const checkAmount = (owner: Rec, path: Array<string | number>, how: 'share' | 'share0' | 'points', what: string): void => {
