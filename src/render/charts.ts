@@ -1,12 +1,13 @@
 /**
  * Charts for the evidence pack: ChartData -> Vega-Lite spec -> Vega view (headless, no canvas) -> SVG string.
- * The SVG is drawn into the PDF as vectors by pdf.ts. Text widths inside Vega are measured with the same Noto Sans
- * faces the PDF embeds (fonts.ts), so axis labels are placed and sized as they will be drawn.
+ * The SVG is drawn into the PDF as vectors by pdf.ts. Turning a spec into a drawing (compiling, parsing, the headless
+ * view, text widths measured with the faces the PDF embeds) is chart-runtime.ts's work; this module builds the specs.
  *
  *   ChartData --chartSpec--> Vega-Lite spec --vega-lite compile--> Vega spec --View(renderer none)--> SVG
  */
 import type { ChartData } from './model.js';
-import { CHART_FONT_FAMILY, faceFor, textWidth } from './fonts.js';
+import { CHART_FONT_FAMILY } from './fonts.js';
+import { compileVegaLite, specSvg } from './chart-runtime.js';
 
 /**
  * Chart palette (our own). Safe for colour-blind readers because the three colours differ strongly in lightness
@@ -507,80 +508,14 @@ export function chartSpec(data: ChartData, options: ChartSizeOptions = {}): obje
   }
 }
 
-interface VegaTextItem {
-  fontSize?: number;
-  fontWeight?: string | number;
-  fontStyle?: string;
-}
-
-let metricsInstalled = false;
-
-type VegaModule = typeof import('vega');
-type VegaLiteModule = typeof import('vega-lite');
-let libs: Promise<{ vega: VegaModule; vl: VegaLiteModule }> | undefined;
-
-/** Load vega and vega-lite on first use (each costs a few tenths of a second to import). */
-async function loadLibs(): Promise<{ vega: VegaModule; vl: VegaLiteModule }> {
-  libs ??= Promise.all([import('vega'), import('vega-lite')]).then(([vega, vl]) => {
-    if (!metricsInstalled) {
-      // Vega without a canvas guesses 0.8 em per character; measure with the embedded faces instead.
-      const metrics = (vega as unknown as { textMetrics: { width: (item: VegaTextItem, text: unknown) => number } })
-        .textMetrics;
-      // Widths are asked for again and again (each label at each layout pass, in each chart): remember them.
-      const widths = new Map<string, number>();
-      metrics.width = (item: VegaTextItem, text: unknown): number => {
-        const s = text == null ? '' : String(text).trim();
-        const size = item.fontSize ?? 11;
-        const face = faceFor(item.fontWeight, item.fontStyle);
-        const key = `${String(face)}\u0000${size}\u0000${s}`;
-        let w = widths.get(key);
-        if (w === undefined) {
-          w = textWidth(s, size, face);
-          if (widths.size >= WIDTHS_KEPT) widths.clear();
-          widths.set(key, w);
-        }
-        return w;
-      };
-      metricsInstalled = true;
-    }
-    return { vega, vl };
-  });
-  return libs;
-}
-
 /** Compile a chart to a Vega spec, collecting every Vega-Lite warning (a correct spec compiles with none). */
 export async function compileChart(
   data: ChartData,
   options: ChartSizeOptions = {},
 ): Promise<{ vegaSpec: object; warnings: string[] }> {
-  const { vl } = await loadLibs();
-  const warnings: string[] = [];
-  const logger: Record<string, (...args: unknown[]) => unknown> = {
-    level() {
-      return logger;
-    },
-    warn(...args: unknown[]) {
-      warnings.push(args.map(String).join(' '));
-      return logger;
-    },
-    info() {
-      return logger;
-    },
-    debug() {
-      return logger;
-    },
-    error(...args: unknown[]) {
-      throw new Error(`Vega-Lite error: ${args.map(String).join(' ')}`);
-    },
-  };
-  const result = vl.compile(chartSpec(data, options) as Parameters<VegaLiteModule['compile']>[0], {
-    logger: logger as unknown as NonNullable<Parameters<VegaLiteModule['compile']>[1]>['logger'],
-  });
-  return { vegaSpec: result.spec, warnings };
+  return compileVegaLite(chartSpec(data, options));
 }
 
-/** Text widths remembered before the table is emptied. */
-const WIDTHS_KEPT = 20_000;
 /** SVGs remembered: the pack and the chart files beside it draw each chart with the same data and size. */
 const SVGS_KEPT = 512;
 const svgs = new Map<string, Promise<string>>();
@@ -601,13 +536,5 @@ export function chartSvg(data: ChartData, options: ChartSizeOptions = {}): Promi
 }
 
 async function renderChartSvg(data: ChartData, options: ChartSizeOptions): Promise<string> {
-  const { vega } = await loadLibs();
-  const { vegaSpec, warnings } = await compileChart(data, options);
-  if (warnings.length > 0) throw new Error(`Chart spec has Vega-Lite warnings: ${warnings.join('; ')}`);
-  const view = new vega.View(vega.parse(vegaSpec as Parameters<VegaModule['parse']>[0]), { renderer: 'none' });
-  try {
-    return await view.toSVG();
-  } finally {
-    view.finalize();
-  }
+  return specSvg(chartSpec(data, options));
 }
