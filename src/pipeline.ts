@@ -26,6 +26,7 @@ import { alphaOf, decide, type Decision } from './verdicts/decide.js';
 import { composeClaims } from './verdicts/compose.js';
 import { sourceLine } from './verdicts/source.js';
 import { verdictStability, type Stability } from './verdicts/stability.js';
+import { adjustedConfidence, headline } from './verdicts/adjusted-interval.js';
 import { stabilityView } from './verdicts/words/stability.js';
 import { ADJUST_NAMES, composePack } from './verdicts/pack.js';
 import { Templates } from './verdicts/templates.js';
@@ -145,9 +146,20 @@ export function testClaims(
     const { claim } = resolved[i]!;
     return analyseOne(i, { ...claim, confidence } as typeof claim);
   });
+  // Where the adjustment lowered a claim's threshold, its headline interval again at the level that decided it.
+  const adjustedIntervals = analyses.map((a, i) => {
+    const d = decisions[i] as Decision;
+    if (d.effectiveAlpha === undefined || !(d.effectiveAlpha < d.alpha) || !headline(a)) return undefined;
+    const { claim, cube } = resolved[i]!;
+    return headline(analyse({ ...claim, confidence: adjustedConfidence(d.effectiveAlpha) } as typeof claim, cube, ctx));
+  });
   return {
     analyses,
-    decisions: decisions.map((d, i) => (stability[i] ? { ...d, stability: stability[i] } : d)),
+    decisions: decisions.map((d, i) => {
+      const adjustedInterval = adjustedIntervals[i];
+      const withInterval = adjustedInterval ? { ...d, adjustedInterval } : d;
+      return stability[i] ? { ...withInterval, stability: stability[i] } : withInterval;
+    }),
     tested: testedIdx.length,
     stability,
   };

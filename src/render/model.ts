@@ -205,6 +205,8 @@ export interface SummaryRow {
   verdictLabel: string;
   /** e.g. "61% vs 67%, gap −6 points (−9 to −3)". */
   keyFigure: string;
+  /** The confidence level of the interval in the key figure, e.g. "95%" ("90%" for an equivalence claim at 95%). */
+  intervalLevel?: string;
   /** True when the verdict would differ at 90%, 95% or 99% confidence: the summary marks such claims. */
   dependsOnLevel?: boolean;
   /** The verdict refined for 'not-supported' (see NotSupportedAs); absent otherwise. */

@@ -48,6 +48,8 @@ export interface ClaimResult {
   pAdjusted: number | null;
   /** The threshold the adjustment applied to this claim's raw p-value (src/stats/p-adjust-thresholds.ts). */
   effectiveAlpha: number | null;
+  /** The headline interval again at the level that decided the adjusted verdict (1 - effectiveAlpha); null when not adjusted. */
+  adjustedInterval: Interval | null;
   /** The verdict at 90, 95 and 99% confidence with and without adjustment; null for estimates and untested claims. */
   stability: {
     levels: Array<{ level: number; adjusted: string; unadjusted: string }>;
@@ -155,6 +157,7 @@ export function claimResult(a: Analysis, decision: Decision, section: ClaimSecti
     p: decision.p ?? null,
     pAdjusted: decision.pAdjusted ?? null,
     effectiveAlpha: decision.effectiveAlpha ?? null,
+    adjustedInterval: decision.adjustedInterval?.interval ?? null,
     stability:
       decision.stability && section.stability
         ? {
@@ -167,7 +170,8 @@ export function claimResult(a: Analysis, decision: Decision, section: ClaimSecti
         : null,
     detectable: tested && typeof extra.detectable === 'number' ? extra.detectable : null,
     cautions: section.cautions,
-    interval: difference?.interval ?? a.test?.interval ?? null,
+    // Equivalence: the 1 - 2 alpha interval the pack sets against the margin (the one its verdict rests on).
+    interval: (a.kind === 'equivalence' ? a.equivalenceInterval : undefined) ?? difference?.interval ?? a.test?.interval ?? null,
     selections: tested ? rates.filter((r) => typeof r.rate === 'number').map(selection) : [],
     units: tested ? points.map((p) => ({ unit: p.unit, x: p.x, y: p.y, nx: p.nx, ny: p.ny })) : [],
     comparedWithRest: extra.relation !== undefined && extra.relation !== 'separate',

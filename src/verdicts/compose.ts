@@ -18,6 +18,8 @@ import { composeMeans, scalePoints } from './words/means.js';
 import * as fmt from '../format/numbers.js';
 import { adviseClaim, linkedClaims, linkNote, notSupportedAs, worthReporting, type Worth } from './advice.js';
 import type { NotSupportedAs } from '../render/model.js';
+import { withAdjustedInterval } from './words/adjusted.js';
+import { headline } from './adjusted-interval.js';
 
 export type { ComposeContext } from './words/common.js';
 
@@ -53,15 +55,17 @@ export interface ClaimExtras {
 }
 
 export function composeClaim(a: Analysis, decision: Decision, ctx: ComposeContext, extras: ClaimExtras = {}): { section: ClaimSection; summary: SummaryRow } {
-  const built = composeKind(a, decision, ctx);
+  const kindBuilt = composeKind(a, decision, ctx);
   const small = decision.belowThreshold;
   if (small) {
     // Real and in the claimed direction, but smaller than the smallest difference that matters: its own sentence
     // (templates/<kind>.below-threshold), followed by the kind's usual numbers.
     const size = small.unit === 'points' ? fmt.pointsSize : (v: number) => scalePoints(Math.abs(v));
     const smallestWritten = fmt.percent(a.claim.smallestDifference ?? 0);
-    built.section.verdictText = ctx.templates.render(`${a.kind}.below-threshold`, { effect: size(small.effect), smallest: size(small.smallest), smallestWritten });
+    kindBuilt.section.verdictText = ctx.templates.render(`${a.kind}.below-threshold`, { effect: size(small.effect), smallest: size(small.smallest), smallestWritten });
   }
+  // Beside the interval at the claim's own level, the interval at the level that decided the adjusted verdict.
+  const built = withAdjustedInterval(kindBuilt, a, decision, ctx);
   // Sentences start with a capital even when a template opens with a label written in lower case.
   const section = built.section;
   section.compared = sentence(section.compared);
@@ -73,9 +77,12 @@ export function composeClaim(a: Analysis, decision: Decision, ctx: ComposeContex
   const verdictLabel = ctx.templates.render(detail ? `verdict.${decision.verdict}.${detail}` : `verdict.${decision.verdict}`, {});
   const advice = adviseClaim({ analysis: a, decision, detail, worth: extras.worth, key: built.key, templates: ctx.templates });
   const head = { id: a.claim.id, statement: a.claim.statement, verdict: decision.verdict, verdictLabel, ...(detail ? { verdictDetail: detail } : {}), advice };
+  // The level of the interval in the key figure (claims in one pack may use 90, 95 and 99%).
+  const h = headline(a);
+  const level = h ? fmt.level(h.interval.level) : a.kind === 'estimate' && a.status === 'tested' ? fmt.level(a.claim.confidence) : undefined;
   return {
     section: { ...head, ...built.section, ...(extras.sourceLine ? { sourceLine: extras.sourceLine } : {}) },
-    summary: { ...head, keyFigure: built.key },
+    summary: { ...head, keyFigure: built.key, ...(level ? { intervalLevel: level } : {}) },
   };
 }
 

@@ -18,6 +18,7 @@
 import type { Analysis } from '../analyse/types.js';
 import type { VerdictKind } from '../render/model.js';
 import type { Stability } from './stability.js';
+import type { Headline } from './adjusted-interval.js';
 
 export interface Decision {
   verdict: VerdictKind;
@@ -33,6 +34,11 @@ export interface Decision {
    * adjustment was made. Absent when the claim was not tested.
    */
   effectiveAlpha?: number;
+  /**
+   * The claim's headline interval at confidence 1 - effectiveAlpha (equivalence: 1 - 2 effectiveAlpha), the level that
+   * decided the verdict; set by the pipeline when the adjustment changed the threshold (src/verdicts/adjusted-interval.ts).
+   */
+  adjustedInterval?: Headline;
   /** The verdict at 90, 95 and 99% confidence, with and without adjustment (set by the pipeline, src/verdicts/stability.ts). */
   stability?: Stability;
   /** Set when the result is real and in the claimed direction but smaller than the smallest difference that matters. */

@@ -16,6 +16,12 @@ let first: BuildResult;
 let text: string;
 
 /** pdftotext breaks lines and may hyphenate nothing; compare with all runs of white space folded to one space. */
+/** A difference in points as the pack writes it: one decimal, signed, U+2212 minus. */
+function fmtPoints(v: number): string {
+  const t = (Math.round(Math.abs(v) * 1000) / 10).toFixed(1);
+  return v < 0 && t !== '0.0' ? `\u2212${t}` : `+${t}`;
+}
+
 function fold(s: string): string {
   return s.replace(/\s+/g, ' ').trim();
 }
@@ -115,6 +121,20 @@ describe('demo evidence pack', () => {
     expect(first.model.summary.find((r) => r.id === 'campuses-equally-reachable')?.dependsOnLevel).toBe(true);
     expect(first.model.summary.find((r) => r.id === 'feedback-below-region')?.dependsOnLevel).toBe(false);
     expect(first.model.claims.find((r) => r.id === 'campuses-equally-reachable')?.stability?.text).toBe(equal.stability?.text);
+  });
+
+  it('labels the TOST p-value as what it is and gives results.json the 90% interval the pack sets against the margin', () => {
+    const results = JSON.parse(readFileSync(first.files.results, 'utf8')) as { claims: Array<{ id: string; kind: string; interval: { level: number; lower: number; upper: number } }> };
+    const eq = results.claims.find((c) => c.kind === 'equivalence')!;
+    const section = first.model.claims.find((c) => c.id === eq.id)!;
+    // 1 - 2 alpha at 95% (Schuirmann 1987, from memory: two one-sided tests at alpha match a 1 - 2 alpha interval).
+    expect(eq.interval.level).toBeCloseTo(0.9, 12);
+    const printed = section.numbers.find((r) => r.label.startsWith('Interval set against the margin (90%)'))!;
+    expect(printed.value.startsWith(`${fmtPoints(eq.interval.lower)} to ${fmtPoints(eq.interval.upper)} points`)).toBe(true);
+    expect(section.numbers.map((r) => r.label)).toContain('p-value (TOST, the larger of the two one-sided p-values)');
+    // pdftotext may join a word broken at its hyphen ("p-values" -> "pvalues"): the part before it is enough.
+    expect(text).toContain('p-value (TOST, the larger of the two one-sided');
+    expect(section.numbers.map((r) => r.label)).not.toContain('p-value (two-sided)');
   });
 
   it('withholds the counts of a claim with too little data', () => {

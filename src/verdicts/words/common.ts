@@ -75,7 +75,9 @@ export function commonRows(a: Analysis, decision: Decision, ctx: ComposeContext)
           : `, ${fmt.plain(a.test.df, 1)} ${a.test.df === 1 ? 'degree' : 'degrees'} of freedom`;
     rows.push({ label: 'Test statistic', value: `${a.test.statistic.symbol} = ${fmt.statistic(a.test.statistic.value)}${df}` });
   }
-  rows.push({ label: `p-value (${a.test?.alternative === 'two-sided' ? 'two-sided' : 'one-sided'})`, value: fmt.pValue(decision.p ?? NaN) });
+  // The TOST p-value is neither one- nor two-sided: it is the larger of the two one-sided p-values.
+  const sidedness = a.kind === 'equivalence' ? 'TOST, the larger of the two one-sided p-values' : a.test?.alternative === 'two-sided' ? 'two-sided' : 'one-sided';
+  rows.push({ label: `p-value (${sidedness})`, value: fmt.pValue(decision.p ?? NaN) });
   if (ctx.adjusted) rows.push({ label: `p-value adjusted for ${ctx.claimsTested} claims`, value: fmt.pValue(decision.pAdjusted ?? NaN) });
   const level = fmt.level(a.claim.confidence);
   const written = a.claim.confidenceWritten;
