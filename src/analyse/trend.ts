@@ -18,6 +18,7 @@ import type { Cube, Pooled } from '../data/types.js';
 import { pool } from '../data/select.js';
 import { InputError } from '../errors.js';
 import { cochranArmitage } from '../stats/cochran-armitage.js';
+import { departureFromTrend } from '../stats/departure-from-trend.js';
 import { normalSfQuantile } from '../stats/distributions/normal.js';
 import type { Alternative } from '../stats/result.js';
 import type { CompareContext } from './compare.js';
@@ -98,6 +99,8 @@ export function analyseTrend(written: TrendClaim, cube: Cube, ctx: CompareContex
   const test = cochranArmitage(x, n, { scores, alternative });
   const pOpposite = alternative === 'two-sided' ? undefined : cochranArmitage(x, n, { scores, alternative: alternativeFor(claim.expect, claim.sided, true) }).p;
   const fitted = scores.map((s) => test.intercept + test.slope * s);
+  // How far the periods stray from that line (overall chi-square minus the trend's, k - 2 df): a rise then a fall.
+  const departure = departureFromTrend(x, n, scores);
   const detectable = detectableSlope(n, pooledRate, 1 - claim.confidence, alternative === 'two-sided' ? 'two-sided' : 'one-sided');
   const withPop = rates.filter((r) => r.population !== undefined);
   return {
@@ -109,8 +112,9 @@ export function analyseTrend(written: TrendClaim, cube: Cube, ctx: CompareContex
     observedSign: sign(test.z),
     slope: test.slope,
     fitted,
+    departure: { statistic: departure.statistic.value, df: departure.df, p: departure.p, overall: departure.overall },
     detectable,
     ...(withPop.length > 0 ? { responseRate: Math.min(...withPop.map((r) => r.n / (r.population as number))) } : {}),
-    methods: ['cochran-armitage-trend', withPop.length > 0 ? 'wilson-fpc' : 'wilson', 'power-trend'],
+    methods: ['cochran-armitage-trend', 'departure-from-trend', withPop.length > 0 ? 'wilson-fpc' : 'wilson', 'power-trend'],
   };
 }

@@ -191,6 +191,11 @@ export interface TrendAnalysis extends AnalysisBase {
   slope?: number;
   /** Fitted rate per period, same order. */
   fitted?: number[];
+  /**
+   * Chi-square for departure from the straight line (Pearson's chi-square over the periods minus the trend's, on
+   * k - 2 df), with the overall chi-square it came from: a small p says the line does not describe the periods.
+   */
+  departure?: { statistic: number; df: number; p: number; overall: number };
   /** Smallest steady change per period detectable with 80% power. */
   detectable?: number;
   responseRate?: number;

@@ -163,6 +163,11 @@ export const METHODS: Record<string, MethodInfo> = {
     text: 'Tests whether a rate rises or falls steadily across ordered periods, with the fitted change per period. It looks for a straight-line trend and can miss a rise followed by a fall.',
     source: 'Armitage, P. (1955). Tests for linear trends in proportions and frequencies. Biometrics 11, 375–386.',
   },
+  'departure-from-trend': {
+    name: 'Chi-square for departure from a straight-line trend',
+    text: 'Pearson’s chi-square over the periods minus the trend test’s, on two fewer degrees of freedom than periods: whether the rates stray from the fitted straight line (a rise then a fall) more than chance would explain.',
+    source: 'Armitage, P. (1955). Tests for linear trends in proportions and frequencies. Biometrics 11, 375–386.',
+  },
   'welch-t': {
     name: 'Welch t test',
     text: 'Compares two mean scores without assuming the two groups have the same spread.',

@@ -49,8 +49,25 @@ export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeC
     { label: `Fitted rate, ${first} to ${last}`, value: `${view.fittedFirst} to ${view.fittedLast} (${view.fittedChange} points)` },
     ...commonRows(a, decision, ctx),
     { label: 'Smallest steady change detectable (80% power)', value: `about ${view.detectable} points per period` },
+    ...(a.departure !== undefined
+      ? [{ label: 'Departure from a straight line', value: `X² = ${fmt.statistic(a.departure.statistic)}, ${a.departure.df} ${a.departure.df === 1 ? 'degree' : 'degrees'} of freedom, ${fmt.pPhrase(a.departure.p)}` }]
+      : []),
   ];
-  const cautions: string[] = [t.render('trend.caution-cohorts', {}), t.render('trend.caution-straight-line', { periodCount: a.periods.length })];
+  // When the periods stray from the line more than chance would explain, the verdict paragraph says so: the fitted
+  // change per period then misdescribes them (not adjusted for many claims: it qualifies this claim's own line).
+  const bent = a.departure !== undefined && a.departure.p < 1 - claim.confidence;
+  const d = a.departure;
+  const bentText =
+    bent && d !== undefined
+      ? ` ${t.render('trend.departure', {
+          statistic: fmt.statistic(d.statistic),
+          dfText: `${d.df} ${d.df === 1 ? 'degree' : 'degrees'} of freedom`,
+          pPhrase: fmt.pPhrase(d.p),
+          rateList: rates.map((r) => `${fmt.percent(r.rate)} in ${r.label}`).join(', '),
+        })}`
+      : '';
+  const cautions: string[] = [t.render('trend.caution-cohorts', {})];
+  if (!bent) cautions.push(t.render('trend.caution-straight-line', { periodCount: a.periods.length }));
   cautions.push(...rateCautions(rates, a.responseRate, t));
   const chart: Chart = {
     data: {
@@ -67,7 +84,7 @@ export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeC
       hypotheses,
       numbers,
       chart,
-      verdictText: t.render(`trend.${decision.verdict}`, view),
+      verdictText: `${t.render(`trend.${decision.verdict}`, view)}${bentText}`,
       cautions,
       methodLine: t.render('trend.method', view),
     },
