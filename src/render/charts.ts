@@ -6,8 +6,9 @@
  *   ChartData --chartSpec--> Vega-Lite spec --vega-lite compile--> Vega spec --View(renderer none)--> SVG
  */
 import type { ChartData } from './model.js';
-import { CHART_FONT_FAMILY } from './fonts.js';
+import { CHART_FONT_FAMILY, textWidth } from './fonts.js';
 import { compileVegaLite, specSvg } from './chart-runtime.js';
+import { shareRange, shareValues, WHOLE_SHARE } from './chart-scales.js';
 
 /**
  * Chart palette (our own). Safe for colour-blind readers because the three colours differ strongly in lightness
@@ -54,12 +55,18 @@ function baseConfig(): Record<string, unknown> {
   };
 }
 
-/** Round a fraction down (or up) to a tenth, for a dot-plot axis that does not need to start at zero. */
-function tenthFloor(v: number): number {
-  return Math.max(0, Math.floor(v * 10 + 1e-9) / 10);
-}
-function tenthCeil(v: number): number {
-  return Math.min(1, Math.ceil(v * 10 - 1e-9) / 10);
+/** A share axis over `domain`: grid every 10%, labels every 10% or, on a wide range, every 20% (never "90%100%"). */
+function shareAxis(domain: [number, number], extra: Record<string, unknown> = {}): Record<string, unknown> {
+  const tenths: number[] = [];
+  for (let k = Math.round(domain[0] * 10); k <= Math.round(domain[1] * 10); k++) tenths.push(k / 10);
+  const every = tenths.length > 7 ? 20 : 10;
+  return {
+    format: '.0%',
+    values: tenths,
+    labelExpr: `round(datum.value * 100) % ${every} === 0 ? datum.label : ''`,
+    grid: true,
+    ...extra,
+  };
 }
 
 function requireFinite(value: number, what: string): void {
@@ -103,19 +110,9 @@ function ratesSpec(data: Extract<ChartData, { kind: 'rates' }>, maxHeight: numbe
     requireFinite(b.upper, `upper bound of "${b.label}"`);
     return { label: b.label, n: b.n, value: b.rate, lower: b.lower, upper: b.upper, text: `${Math.round(b.rate * 100)}%` };
   });
-  const all = data.bars.flatMap((b) => [b.lower, b.upper, b.rate]);
-  if (data.reference) {
-    requireFinite(data.reference.value, 'reference value');
-    all.push(data.reference.value);
-  }
-  let lo = tenthFloor(Math.min(...all) - 0.02);
-  let hi = tenthCeil(Math.max(...all) + 0.06);
-  if (hi - lo < 0.2) {
-    const mid = (hi + lo) / 2;
-    lo = tenthFloor(mid - 0.1);
-    hi = tenthCeil(lo + 0.2);
-  }
-  return dotIntervalSpec(rows, data.axisTitle, [lo, hi], '.0%', Math.round((hi - lo) * 10), maxHeight, data.reference);
+  if (data.reference) requireFinite(data.reference.value, 'reference value');
+  const domain = data.domain ?? shareRange(shareValues(data));
+  return dotIntervalSpec(rows, data.axisTitle, domain, shareAxis(domain, { domain: false }), maxHeight, data.reference);
 }
 
 function meansSpec(data: Extract<ChartData, { kind: 'means' }>, maxHeight: number): Record<string, unknown> {
@@ -131,7 +128,7 @@ function meansSpec(data: Extract<ChartData, { kind: 'means' }>, maxHeight: numbe
     return { label: b.label, n: b.n, value: b.mean, lower: b.lower, upper: b.upper, text: b.mean.toFixed(2) };
   });
   const ticks = hi - lo <= 10 && Number.isInteger(lo) && Number.isInteger(hi) ? hi - lo : 5;
-  return dotIntervalSpec(rows, data.axisTitle, [lo, hi], '~g', ticks, maxHeight);
+  return dotIntervalSpec(rows, data.axisTitle, [lo, hi], { format: '~g', grid: true, tickCount: ticks, domain: false }, maxHeight);
 }
 
 /** Dots with interval bars, one row per selection in data order, labels with n, values in a column at the right. */
@@ -139,8 +136,7 @@ function dotIntervalSpec(
   rowsIn: Array<{ label: string; n: number; value: number; lower: number; upper: number; text: string }>,
   axisTitle: string,
   domain: [number, number],
-  format: string,
-  tickCount: number,
+  axis: Record<string, unknown>,
   maxHeight: number,
   reference?: { value: number; label: string },
 ): Record<string, unknown> {
@@ -174,7 +170,7 @@ function dotIntervalSpec(
           type: 'quantitative',
           scale: xScale,
           title: data.axisTitle,
-          axis: { format, grid: true, tickCount, domain: false },
+          axis,
         },
         x2: { field: 'upper' },
       },
@@ -235,6 +231,105 @@ function dotIntervalSpec(
   };
 }
 
+/** Points of a scatter chart are named when there are at most this many (more would crowd the plot). */
+export const MAX_NAMED_POINTS = 25;
+const POINT_LABEL_SIZE = 8;
+/** Radius in points of a scatter point (a filled circle of area 40). */
+const POINT_RADIUS = Math.sqrt(40 / Math.PI);
+
+/** Room the plot of a scatter chart takes inside its outer size (estimated from the axis labels and titles). */
+function scatterPlotSize(
+  height: number,
+  yDomain: [number, number],
+  fmt: string,
+  hasNote: boolean,
+): { width: number; height: number } {
+  const yLabel = (v: number): string => (fmt === '.0%' ? `${Math.round(v * 100)}%` : String(+v.toPrecision(3)));
+  const yLabelWidth = Math.max(textWidth(yLabel(yDomain[0]), AXIS_LABEL_SIZE), textWidth(yLabel(yDomain[1]), AXIS_LABEL_SIZE));
+  const left = 2 + yLabelWidth + 2 + 5;
+  const title = (hasNote ? 10 * 1.25 + 3 : 0) + AXIS_TITLE_SIZE * 1.25 + 8;
+  const xAxis = 5 + 2 + AXIS_LABEL_SIZE * 1.25 + 8 + AXIS_TITLE_SIZE * 1.25;
+  return { width: CHART_WIDTH - left - 8, height: height - 6 - 2 - title - xAxis };
+}
+
+interface Box {
+  x0: number;
+  y0: number;
+  x1: number;
+  y1: number;
+}
+
+function overlap(a: Box, b: Box): number {
+  const w = Math.min(a.x1, b.x1) - Math.max(a.x0, b.x0);
+  const h = Math.min(a.y1, b.y1) - Math.max(a.y0, b.y0);
+  return w > 0 && h > 0 ? w * h : 0;
+}
+
+/**
+ * Place a label beside each point (right, left, above, below, then the diagonals), taking for each the first place
+ * that covers no point, no label already placed and does not leave the plot; where none is free, the place that
+ * covers least. Points are labelled from the most crowded first. Returns the label anchors in data units.
+ */
+export function placeLabels(
+  points: Array<{ label: string; x: number; y: number }>,
+  xDomain: [number, number],
+  yDomain: [number, number],
+  plot: { width: number; height: number },
+): Array<{ label: string; x: number; y: number; align: 'left' | 'right' | 'center' }> {
+  const px = (x: number): number => ((x - xDomain[0]) / (xDomain[1] - xDomain[0])) * plot.width;
+  const py = (y: number): number => plot.height - ((y - yDomain[0]) / (yDomain[1] - yDomain[0])) * plot.height;
+  const dots: Box[] = points.map((p) => ({
+    x0: px(p.x) - POINT_RADIUS,
+    x1: px(p.x) + POINT_RADIUS,
+    y0: py(p.y) - POINT_RADIUS,
+    y1: py(p.y) + POINT_RADIUS,
+  }));
+  const lineH = POINT_LABEL_SIZE * 1.2;
+  const gap = POINT_RADIUS + 3;
+  const crowd = points.map((p, i) =>
+    points.reduce((a, q, j) => a + (i !== j && Math.hypot(px(p.x) - px(q.x), py(p.y) - py(q.y)) < 60 ? 1 : 0), 0),
+  );
+  const order = points.map((_, i) => i).sort((a, b) => crowd[b]! - crowd[a]! || a - b);
+  const boxes: Box[] = [];
+  const out: Array<{ label: string; x: number; y: number; align: 'left' | 'right' | 'center' }> = new Array(points.length);
+  for (const i of order) {
+    const p = points[i]!;
+    const cx = px(p.x);
+    const cy = py(p.y);
+    const w = textWidth(p.label, POINT_LABEL_SIZE);
+    // Anchor (ax, ay) in plot points, with the alignment of the text about it.
+    const candidates: Array<{ ax: number; ay: number; align: 'left' | 'right' | 'center' }> = [
+      { ax: cx + gap, ay: cy, align: 'left' },
+      { ax: cx - gap, ay: cy, align: 'right' },
+      { ax: cx, ay: cy - gap - lineH / 2, align: 'center' },
+      { ax: cx, ay: cy + gap + lineH / 2, align: 'center' },
+      { ax: cx + gap - 2, ay: cy - gap - 1, align: 'left' },
+      { ax: cx + gap - 2, ay: cy + gap + 1, align: 'left' },
+      { ax: cx - gap + 2, ay: cy - gap - 1, align: 'right' },
+      { ax: cx - gap + 2, ay: cy + gap + 1, align: 'right' },
+    ];
+    let best: { c: (typeof candidates)[number]; box: Box; cost: number } | undefined;
+    for (const c of candidates) {
+      const x0 = c.align === 'left' ? c.ax : c.align === 'right' ? c.ax - w : c.ax - w / 2;
+      const box = { x0, x1: x0 + w, y0: c.ay - lineH / 2, y1: c.ay + lineH / 2 };
+      const outside =
+        Math.max(0, -box.x0) + Math.max(0, box.x1 - plot.width) + Math.max(0, -box.y0) + Math.max(0, box.y1 - plot.height);
+      const cost =
+        outside * lineH * 4 + dots.reduce((a, d) => a + overlap(box, d), 0) + boxes.reduce((a, b) => a + overlap(box, b), 0);
+      if (best === undefined || cost < best.cost) best = { c, box, cost };
+      if (cost === 0) break;
+    }
+    boxes.push(best!.box);
+    out[i] = {
+      label: p.label,
+      x: xDomain[0] + (best!.c.ax / plot.width) * (xDomain[1] - xDomain[0]),
+      y: yDomain[0] + ((plot.height - best!.c.ay) / plot.height) * (yDomain[1] - yDomain[0]),
+      align: best!.c.align,
+    };
+  }
+  return out;
+}
+
 function scatterSpec(data: Extract<ChartData, { kind: 'scatter' }>, height: number): Record<string, unknown> {
   if (data.points.length === 0) throw new Error('Chart data: a scatter chart needs at least one point.');
   for (const p of data.points) {
@@ -260,16 +355,23 @@ function scatterSpec(data: Extract<ChartData, { kind: 'scatter' }>, height: numb
       },
     },
   ];
-  if (data.points.length <= 10) {
-    layers.push({
-      data: { values: data.points.map((p) => ({ label: p.label, x: p.x, y: p.y })) },
-      mark: { type: 'text', align: 'left', baseline: 'middle', dx: 6, color: PALETTE.muted, fontSize: 8 },
-      encoding: {
-        x: { field: 'x', type: 'quantitative' },
-        y: { field: 'y', type: 'quantitative' },
-        text: { field: 'label', type: 'nominal' },
-      },
-    });
+  if (data.points.length <= MAX_NAMED_POINTS) {
+    // Every point is named, each label placed beside its point where it covers no other label or point.
+    const plot = scatterPlotSize(height, yScale.domain, fmt, data.note !== undefined);
+    const placed = placeLabels(data.points, xScale.domain, yScale.domain, plot);
+    for (const align of ['left', 'right', 'center'] as const) {
+      const values = placed.filter((p) => p.align === align);
+      if (values.length === 0) continue;
+      layers.push({
+        data: { values },
+        mark: { type: 'text', align, baseline: 'middle', color: PALETTE.muted, fontSize: POINT_LABEL_SIZE },
+        encoding: {
+          x: { field: 'x', type: 'quantitative' },
+          y: { field: 'y', type: 'quantitative' },
+          text: { field: 'label', type: 'nominal' },
+        },
+      });
+    }
   }
   if (data.fit) {
     requireFinite(data.fit.intercept, 'fit intercept');
@@ -321,9 +423,6 @@ function periodsSpec(data: Extract<ChartData, { kind: 'periods' }>, height: numb
     if (data.fit) requireFinite(data.fit[i]!, `fitted rate of period "${p.period}"`);
     return { period: `${p.period} (n = ${count(p.n)})`, rate: p.rate, lower: p.lower, upper: p.upper, fit: data.fit?.[i] };
   });
-  const all = data.points.flatMap((p) => [p.lower, p.upper]).concat(data.fit ?? []);
-  const lo = tenthFloor(Math.min(...all) - 0.02);
-  const hi = tenthCeil(Math.max(...all) + 0.02);
   const x = {
     field: 'period',
     type: 'ordinal',
@@ -332,13 +431,14 @@ function periodsSpec(data: Extract<ChartData, { kind: 'periods' }>, height: numb
     axis: { labelAngle: values.length > 5 ? -30 : 0, labelPadding: 6 },
     scale: { padding: 0.5 },
   };
-  const yScale = { domain: [lo, hi], nice: false, zero: false };
+  const domain = data.domain ?? shareRange(shareValues(data));
+  const yScale = { domain, nice: false, zero: false };
   const layers: Array<Record<string, unknown>> = [
     {
       mark: { type: 'area', color: PALETTE.light, opacity: 0.45 },
       encoding: {
         x,
-        y: { field: 'lower', type: 'quantitative', scale: yScale, title: null, axis: { format: '.0%', grid: true } },
+        y: { field: 'lower', type: 'quantitative', scale: yScale, title: null, axis: shareAxis(domain) },
         y2: { field: 'upper' },
       },
     },
@@ -369,22 +469,44 @@ function periodsSpec(data: Extract<ChartData, { kind: 'periods' }>, height: numb
 /** Colours for the parts of a stacked bar, darkest first, so neighbouring parts always differ in lightness. */
 const STACK_COLOURS = [PALETTE.primary, PALETTE.light, PALETTE.secondary, '#e9c9a6', PALETTE.muted, '#d9dde2'];
 
+/** Parts of a stacked bar drawn in white (dark fills) rather than ink (light fills), by index in STACK_COLOURS. */
+const STACK_ON_DARK = [true, false, true, false, true, false];
+/** A part narrower than this share carries no value inside it (the value would not fit); its share is in the table. */
+const STACK_MIN_LABELLED = 0.06;
+
 function stackedSpec(data: Extract<ChartData, { kind: 'stacked' }>, maxHeight: number): Record<string, unknown> {
   if (data.rows.length === 0) throw new Error('Chart data: a stacked chart needs at least one row.');
   const partNames: string[] = [];
+  // Each part's share and where it starts and ends along its bar, so that the bar and its value share one position.
   const values = data.rows.flatMap((r) => {
     const total = r.parts.reduce((a, p) => a + p.count, 0);
     if (!(total > 0)) throw new Error(`Chart data: row "${r.label}" of a stacked chart has no counts.`);
+    let start = 0;
     return r.parts.map((p) => {
       requireFinite(p.count, `count of "${p.label}" in "${r.label}"`);
       if (!partNames.includes(p.label)) partNames.push(p.label);
-      return { row: `${r.label} (n = ${count(total)})`, part: p.label, order: partNames.indexOf(p.label), count: p.count };
+      const order = partNames.indexOf(p.label);
+      const share = p.count / total;
+      const part = { row: `${r.label} (n = ${count(total)})`, part: p.label, order, count: p.count, start, end: start + share, mid: start + share / 2 };
+      start += share;
+      return {
+        ...part,
+        shareText: share >= STACK_MIN_LABELLED ? `${Math.round(share * 100)}%` : '',
+        ink: STACK_ON_DARK[order] ? '#ffffff' : PALETTE.ink,
+      };
     });
   });
   if (partNames.length > STACK_COLOURS.length) {
     throw new Error(`Chart data: a stacked chart can show at most ${STACK_COLOURS.length} parts; found ${partNames.length}.`);
   }
   const rowOrder = [...new Set(values.map((v) => v.row))];
+  const y = {
+    field: 'row',
+    type: 'nominal',
+    sort: rowOrder,
+    title: null,
+    axis: { ticks: false, domain: false, labelPadding: 6, labelLimit: 0 },
+  };
   return {
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
     width: CHART_WIDTH,
@@ -393,31 +515,35 @@ function stackedSpec(data: Extract<ChartData, { kind: 'stacked' }>, maxHeight: n
     padding: { left: 2, right: 8, top: 6, bottom: 2 },
     config: { ...baseConfig(), legend: { labelFont: CHART_FONT_FAMILY, labelFontSize: AXIS_LABEL_SIZE, orient: 'bottom', title: null } },
     data: { values },
-    mark: { type: 'bar', stroke: '#ffffff', strokeWidth: 1 },
-    encoding: {
-      y: {
-        field: 'row',
-        type: 'nominal',
-        sort: rowOrder,
-        title: null,
-        axis: { ticks: false, domain: false, labelPadding: 6, labelLimit: 0 },
+    layer: [
+      {
+        mark: { type: 'bar', stroke: '#ffffff', strokeWidth: 1 },
+        encoding: {
+          y,
+          x: {
+            field: 'start',
+            type: 'quantitative',
+            scale: { domain: WHOLE_SHARE, nice: false, zero: false },
+            title: data.axisTitle,
+            axis: shareAxis(WHOLE_SHARE),
+          },
+          x2: { field: 'end' },
+          color: {
+            field: 'part',
+            type: 'nominal',
+            sort: partNames,
+            scale: { domain: partNames, range: STACK_COLOURS.slice(0, partNames.length) },
+            legend: { title: null },
+          },
+        },
       },
-      x: {
-        field: 'count',
-        type: 'quantitative',
-        stack: 'normalize',
-        title: data.axisTitle,
-        axis: { format: '.0%', grid: true },
-      },
-      color: {
-        field: 'part',
-        type: 'nominal',
-        sort: partNames,
-        scale: { domain: partNames, range: STACK_COLOURS.slice(0, partNames.length) },
-        legend: { title: null },
-      },
-      order: { field: 'order', type: 'quantitative' },
-    },
+      // Each part's share printed inside it, white on the dark fills and ink on the light ones.
+      ...(['#ffffff', PALETTE.ink] as const).map((ink) => ({
+        transform: [{ filter: { field: 'ink', equal: ink } }],
+        mark: { type: 'text', baseline: 'middle', align: 'center', fontWeight: 'bold', color: ink },
+        encoding: { y, x: { field: 'mid', type: 'quantitative' }, text: { field: 'shareText', type: 'nominal' } },
+      })),
+    ],
   };
 }
 
@@ -437,10 +563,13 @@ function differenceSpec(data: Extract<ChartData, { kind: 'difference' }>): Recor
   const [lo, hi] = roundDomain([-extent, extent]);
   const xScale = { domain: [lo, hi], nice: false, zero: false };
   const row = [{ value: pts(data.value), lower: pts(data.lower), upper: pts(data.upper), m0: -pts(data.margin), m1: pts(data.margin) }];
+  // The key sits above the plot, where the zero line cannot strike through it.
+  const key = `Shaded: margin \u00b1${+pts(data.margin).toFixed(1)} points.   Bar: ${data.intervalLabel ?? 'interval'} of the difference.`;
   return {
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
+    title: { text: key, anchor: 'start', color: PALETTE.ink, fontSize: AXIS_LABEL_SIZE, fontWeight: 'normal', offset: 6 },
     width: CHART_WIDTH,
-    height: 110,
+    height: 124,
     autosize: { type: 'fit', contains: 'padding' },
     padding: { left: 2, right: 8, top: 6, bottom: 2 },
     config: baseConfig(),
@@ -456,15 +585,19 @@ function differenceSpec(data: Extract<ChartData, { kind: 'difference' }>): Recor
       { mark: { type: 'rule', color: PALETTE.muted, strokeDash: [2, 2] }, encoding: { x: { datum: 0, type: 'quantitative' } } },
       {
         mark: { type: 'rule', color: PALETTE.primary, strokeWidth: 2 },
-        encoding: { x: { field: 'lower', type: 'quantitative' }, x2: { field: 'upper' }, y: { value: 40 } },
+        encoding: { x: { field: 'lower', type: 'quantitative' }, x2: { field: 'upper' }, y: { value: 34 } },
       },
       {
-        mark: { type: 'point', filled: true, size: 70, color: PALETTE.primary, opacity: 1 },
-        encoding: { x: { field: 'value', type: 'quantitative' }, y: { value: 40 } },
+        mark: { type: 'tick', color: PALETTE.primary, orient: 'vertical', size: 10, thickness: 2 },
+        encoding: { x: { field: 'lower', type: 'quantitative' }, y: { value: 34 } },
       },
       {
-        mark: { type: 'text', baseline: 'top', dy: 4, color: PALETTE.muted, fontStyle: 'italic', y: 0 },
-        encoding: { x: { datum: 0, type: 'quantitative' }, text: { value: `Margin \u00b1${+pts(data.margin).toFixed(1)} points` } },
+        mark: { type: 'tick', color: PALETTE.primary, orient: 'vertical', size: 10, thickness: 2 },
+        encoding: { x: { field: 'upper', type: 'quantitative' }, y: { value: 34 } },
+      },
+      {
+        mark: { type: 'point', filled: true, size: 70, color: PALETTE.primary, opacity: 1, stroke: '#ffffff', strokeWidth: 1 },
+        encoding: { x: { field: 'value', type: 'quantitative' }, y: { value: 34 } },
       },
     ],
   };

@@ -49,7 +49,8 @@ export type ChartData =
       /** Axis title, e.g. "Agreeing (%)". */
       axisTitle: string;
       /** Optional reference line (a target), as a fraction. */
-      reference?: { value: number; label: string };
+      reference?: { value: number; label: string };      /** The axis range, common to the pack (see withCommonShareRange in charts.ts); fitted to this chart when absent. */
+      domain?: [number, number];
     }
   | {
       kind: 'scatter';
@@ -69,7 +70,8 @@ export type ChartData =
       points: Array<{ period: string; rate: number; lower: number; upper: number; n: number }>;
       axisTitle: string;
       /** Fitted rate per period (same order), drawn as a line. */
-      fit?: number[];
+      fit?: number[];      /** The axis range, common to the pack (see withCommonShareRange in charts.ts); fitted to this chart when absent. */
+      domain?: [number, number];
     }
   | {
       /** Stacked bars, one per row of a table, split into parts (e.g. agreeing / not agreeing). Shares computed by the renderer. */
@@ -93,6 +95,8 @@ export type ChartData =
       upper: number;
       margin: number;
       axisTitle: string;
+      /** What the interval is, for the chart's key, e.g. "90% interval (1 − 2α)"; "interval" when absent. */
+      intervalLabel?: string;
     };
 
 export interface Chart {

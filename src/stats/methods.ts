@@ -198,6 +198,11 @@ export const METHODS: Record<string, MethodInfo> = {
     text: 'Multiplies each p-value by the number of claims tested; simple and the most cautious.',
     source: 'Dunn, O. J. (1961). Multiple comparisons among means. Journal of the American Statistical Association 56, 52–64.',
   },
+  'chart-scales': {
+    name: 'How the charts are drawn',
+    text: 'Every agreement rate in the pack (the charts of rates and the lines over periods) is drawn on one common range, from the lowest to the highest interval end in the pack rounded out to a tenth, so that equal gaps look equal from page to page. The parts of a stacked bar fill the whole 0% to 100%. A mean score is drawn on the whole answer scale, and a difference set against an equivalence margin on a range centred on zero. Only a scatter of units, whose point is how two measures move together rather than their level, fits its axes to the units shown. Periods run earliest first in every table and chart. Each interval is drawn at the level the claim states beside it.',
+    source: 'Common practice, warrant\'s own rule; on choosing scales see Cleveland, W. S. (1994). The Elements of Graphing Data, revised ed., Hobart Press, ch. 2.',
+  },
 };
 
 export function methodInfo(id: string): MethodInfo {

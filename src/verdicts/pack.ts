@@ -10,6 +10,7 @@ import type { Cube } from '../data/types.js';
 import * as fmt from '../format/numbers.js';
 import type { ClaimSection, PackModel, SummaryRow } from '../render/model.js';
 import { METHODS, methodInfo } from '../stats/methods.js';
+import { withCommonShareRange } from '../render/chart-scales.js';
 import type { Templates } from './templates.js';
 import { originText, respondentsByPeriod, respondentsText } from './source.js';
 
@@ -69,6 +70,7 @@ export function composePack(input: {
   const oneSided = claims.claims.some((c) => c.sided === 'one-sided');
   const methodIds = [...new Set(input.analyses.flatMap((a) => a.methods))];
   if (claims.adjust !== 'none' && input.claimsTested > 1) methodIds.push(claims.adjust);
+  if (input.sections.some((s) => s.chart)) methodIds.push('chart-scales');
   const ordered = Object.keys(METHODS).filter((id) => methodIds.includes(id));
   const view = {
     claimsTested: input.claimsTested,
@@ -114,7 +116,7 @@ export function composePack(input: {
     verdictDefinitions: definitions(templates, 'verdict-definitions', view),
     actionDefinitions: definitions(templates, 'action-definitions', view),
     summary: input.summary,
-    claims: input.sections,
+    claims: withCommonShareRange(input.sections),
     methods: ordered.map((id) => {
       const info = methodInfo(id);
       return { name: info.name, text: info.text, source: info.source };

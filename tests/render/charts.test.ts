@@ -3,7 +3,8 @@
  * domains are checked against the data by hand (the percent axis rounds outward to whole tenths).
  */
 import { describe, it, expect } from 'vitest';
-import { chartSpec, chartSvg, compileChart, ratesChartHeight } from '../../src/render/charts.js';
+import { chartSpec, chartSvg, compileChart, MAX_NAMED_POINTS, placeLabels, ratesChartHeight } from '../../src/render/charts.js';
+import { withCommonShareRange } from '../../src/render/chart-scales.js';
 import { hasGlyphs, textWidth } from '../../src/render/fonts.js';
 import { sampleModel } from './sample-model.js';
 import type { ChartData } from '../../src/render/model.js';
@@ -86,7 +87,7 @@ describe('chartSvg', () => {
     expect(st).toContain('Llŷn campus (n = 100)');
     expect(st).toContain('Disagree');
     expect(await chartSvg(means)).toContain('Naïve Arts (n = 45)');
-    expect(await chartSvg(difference)).toContain('Margin ±3 points');
+    expect(await chartSvg(difference)).toContain('Shaded: margin ±3 points.');
   });
 
   it('draws the rates chart with n in labels, the reference label and percent ticks', async () => {
@@ -95,8 +96,9 @@ describe('chartSvg', () => {
     expect(svg).toContain('Coleg Gŵyr (n = 840)');
     expect(svg).toContain('Rest of region (n = 18,500)');
     expect(svg).toContain('Target 75%');
-    // Data span 57.6% to 75%: domain rounds out to 50%..90%.
-    for (const tick of ['50%', '60%', '70%', '80%', '90%']) expect(svg).toContain(`>${tick}<`);
+    // Interval ends and target span 57.6% to 75%: the range rounds out (2 points of room) to tenths, 50%..80%.
+    for (const tick of ['50%', '60%', '70%', '80%']) expect(svg).toContain(`>${tick}<`);
+    expect(svg).not.toContain('>90%<');
     expect(svg).toContain('font-family="Noto Sans"');
   });
 
@@ -105,6 +107,75 @@ describe('chartSvg', () => {
     expect(svg).toContain('r = 0.41');
     expect(svg).toContain('Resources rated good (%)');
     expect(svg).toContain('Satisfied overall (%)');
+  });
+});
+
+describe('axis ranges, values and labels', () => {
+  /** The text of every <text> element of an SVG, in document order. */
+  const texts = (svg: string): string[] => [...svg.matchAll(/<text[^>]*>([^<]*)<\/text>/g)].map((m) => m[1]!);
+
+  it('gives every share chart of a pack one common range, from the lowest to the highest interval end', () => {
+    const sections = withCommonShareRange([{ chart: { data: rates } }, { chart: { data: periods } }, { chart: { data: means } }, {}]);
+    // Lowest end 57.6% (rates) and highest 77% (periods), 2 points of room each side, out to tenths: 50%..80%.
+    expect((sections[0]!.chart!.data as { domain?: unknown }).domain).toEqual([0.5, 0.8]);
+    expect((sections[1]!.chart!.data as { domain?: unknown }).domain).toEqual([0.5, 0.8]);
+    // A mean score keeps its answer scale.
+    expect(sections[2]!.chart!.data).toBe(means);
+  });
+
+  it('labels a whole 0-100% axis every 20% so that no two labels touch ("90%100%")', async () => {
+    const labels = texts(await chartSvg(stacked));
+    for (const tick of ['0%', '20%', '40%', '60%', '80%', '100%']) expect(labels).toContain(tick);
+    expect(labels).not.toContain('90%');
+  });
+
+  it('prints each part of a stacked bar with its share (rounded, as in the table)', async () => {
+    const labels = texts(await chartSvg(stacked));
+    // Llŷn campus 60/25/15 of 100; Łódź exchange 30/10/12 of 52: 57.7% 19.2% 23.1%.
+    for (const share of ['60%', '25%', '15%', '58%', '19%', '23%']) expect(labels).toContain(share);
+  });
+
+  it('says what the equivalence interval is, above the plot where the zero line cannot cross it', async () => {
+    const labelled: ChartData = { ...difference, intervalLabel: '90% interval (1 − 2α)' } as ChartData;
+    const svg = await chartSvg(labelled);
+    expect(svg).toContain('Bar: 90% interval (1 − 2α) of the difference.');
+    // The key is the chart's title, drawn above the plot: its baseline lies above every mark of the plot.
+    const spec = chartSpec(labelled) as { title: { text: string }; layer: unknown[] };
+    expect(spec.title.text).toContain('Shaded: margin ±3 points.');
+  });
+
+  it(`names every point of a scatter of up to ${MAX_NAMED_POINTS} units, with no two names overlapping`, async () => {
+    const points = Array.from({ length: MAX_NAMED_POINTS }, (_, i) => ({
+      label: `Unit ${String.fromCharCode(65 + i)}`,
+      x: 0.5 + 0.4 * ((i * 7) % 25) / 25,
+      y: 0.55 + 0.35 * ((i * 11) % 25) / 25,
+      n: 100,
+    }));
+    const data: ChartData = { kind: 'scatter', points, xTitle: 'x (%)', yTitle: 'y (%)', percent: true };
+    const labels = texts(await chartSvg(data));
+    for (const p of points) expect(labels).toContain(p.label);
+    const placed = placeLabels(points, [0.5, 0.9], [0.5, 0.9], { width: 400, height: 150 });
+    expect(placed).toHaveLength(points.length);
+    expect(new Set(placed.map((p) => p.label)).size).toBe(points.length);
+    // Back to plot points (400 x 150, y down): no two label boxes (8 pt text, 1.2 line height) overlap.
+    const boxes = placed.map((p) => {
+      const w = textWidth(p.label, 8);
+      const ax = ((p.x - 0.5) / 0.4) * 400;
+      const ay = 150 - ((p.y - 0.5) / 0.4) * 150;
+      const x0 = p.align === 'left' ? ax : p.align === 'right' ? ax - w : ax - w / 2;
+      return { x0, x1: x0 + w, y0: ay - 4.8, y1: ay + 4.8 };
+    });
+    for (let i = 0; i < boxes.length; i++) {
+      for (let j = i + 1; j < boxes.length; j++) {
+        const a = boxes[i]!;
+        const b = boxes[j]!;
+        const clear = a.x1 <= b.x0 + 1e-6 || b.x1 <= a.x0 + 1e-6 || a.y1 <= b.y0 + 1e-6 || b.y1 <= a.y0 + 1e-6;
+        expect(clear, `${placed[i]!.label} and ${placed[j]!.label}`).toBe(true);
+      }
+    }
+    // One more unit than the limit: no names.
+    const many: ChartData = { ...data, points: [...points, { label: 'Unit Z', x: 0.6, y: 0.6, n: 5 }] } as ChartData;
+    expect(texts(await chartSvg(many))).not.toContain('Unit Z');
   });
 });
 

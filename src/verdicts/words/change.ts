@@ -20,7 +20,7 @@ export function composeChange(a: ChangeAnalysis, decision: Decision, ctx: Compos
   const periods = { fromPeriod: a.periods.from, toPeriod: a.periods.to, scope, expectVerb, oneSided };
   const hypotheses = { null: t.render('change.null', periods), alternative: t.render('change.alternative', periods) };
   if (a.status === 'too-little-data' || !a.later || !a.earlier || !a.difference || !a.test) {
-    const compared = `${a.periods.to} against ${a.periods.from}${scope ? `, for ${scope}` : ''}.`;
+    const compared = `${a.periods.from} to ${a.periods.to}${scope ? `, for ${scope}` : ''}.`;
     return tooLittle(a, ctx, compared, hypotheses);
   }
   const d = a.difference;
@@ -44,8 +44,9 @@ export function composeChange(a: ChangeAnalysis, decision: Decision, ctx: Compos
     ...pView(decision, ctx),
   };
   const numbers: NumberRow[] = [
-    rateRow(a.later, a.periods.to),
+    // Periods run earliest first, in the table as in the chart.
     rateRow(a.earlier, a.periods.from),
+    rateRow(a.later, a.periods.to),
     { label: 'Change', value: `${view.change} points (interval ${view.changeLower} to ${view.changeUpper})` },
     ...commonRows(a, decision, ctx),
     { label: "Effect size (Cohen's h)", value: fmt.coefficient(a.cohensH ?? NaN) },

@@ -48,7 +48,7 @@ export function composeEquivalence(a: EquivalenceAnalysis, decision: Decision, c
   const cautions: string[] = restOfGroupCaution(a.relation, claim, { focus: a.focus.n, against: a.against.n }, t);
   cautions.push(...rateCautions([a.focus, a.against], undefined, t));
   const chart: Chart = {
-    data: { kind: 'difference', value: d.value, lower: e.lower, upper: e.upper, margin: claim.margin, axisTitle: `Difference, ${a.focus.label} minus ${a.against.label} (points)` },
+    data: { kind: 'difference', value: d.value, lower: e.lower, upper: e.upper, margin: claim.margin, axisTitle: `Difference, ${a.focus.label} minus ${a.against.label} (points)`, intervalLabel: `${view.tostLevel} interval (1 − 2α)` },
     alt: `Chart of the difference of ${view.diff} points with its ${view.tostLevel} interval (${view.tostLower} to ${view.tostUpper}) against a band of ±${margin} points.`,
   };
   return {
