@@ -16,7 +16,7 @@
  */
 import type { MeansClaim } from '../claims/types.js';
 import type { Cell, Cube, Pooled } from '../data/types.js';
-import { matches, poolCells, relate } from '../data/select.js';
+import { matching, poolCells, relate } from '../data/select.js';
 import { InputError } from '../errors.js';
 import { tQuantile } from '../stats/distributions/t.js';
 import { mannWhitneyCounts } from '../stats/mann-whitney-counts.js';
@@ -63,8 +63,8 @@ export function analyseMeans(claim: MeansClaim, cube: Cube, ctx: CompareContext)
   const againstFilter = { ...claim.where, ...claim.against };
   const related = relate(cube, focusFilter, againstFilter);
   refuseOverlap(related.relation, claim, ctx);
-  const fCells = cube.cells.filter((c) => matches(c, focusFilter));
-  const aCells = cube.cells.filter((c) => matches(c, againstFilter));
+  const fCells = matching(cube, focusFilter);
+  const aCells = matching(cube, againstFilter);
   const without = (big: Cell[], small: Cell[]) => big.filter((c) => !small.includes(c));
   let focusCells = fCells;
   let againstCells = aCells;

@@ -48,6 +48,61 @@ export function matches(cell: Cell, filter: Filter): boolean {
   return true;
 }
 
+/** Per cube's cell list: for each column, the indices (ascending) of the cells holding each value (in NFC). */
+const indexes = new WeakMap<readonly Cell[], Map<string, Map<string, number[]>>>();
+
+function columnIndex(cells: readonly Cell[], col: string): Map<string, number[]> {
+  let byCol = indexes.get(cells);
+  if (byCol === undefined) {
+    byCol = new Map();
+    indexes.set(cells, byCol);
+  }
+  let index = byCol.get(col);
+  if (index === undefined) {
+    index = new Map();
+    for (let i = 0; i < cells.length; i++) {
+      const have = (cells[i] as Cell).dims[col];
+      if (have === undefined) continue;
+      const key = nfc(have);
+      const list = index.get(key);
+      if (list === undefined) index.set(key, [i]);
+      else list.push(i);
+    }
+    byCol.set(col, index);
+  }
+  return index;
+}
+
+/**
+ * The cells the filter matches, in the cube's order: the same as `cube.cells.filter((c) => matches(c, filter))`, but
+ * looked up through an index of the filter's most selective column (built once per column) rather than by testing
+ * every cell, so that 200 claims over a cube of 27,000 cells do not make 200 scans.
+ */
+export function matching(cube: Cube, filter: Filter): Cell[] {
+  const cells = cube.cells;
+  let best: number[] | undefined;
+  for (const { col, wanted, not } of compile(filter)) {
+    if (not) continue;
+    const index = columnIndex(cells, col);
+    let found: number[];
+    if (wanted.size === 1) found = index.get(wanted.values().next().value as string) ?? [];
+    else {
+      found = [];
+      for (const w of wanted) found.push(...(index.get(w) ?? []));
+      found.sort((x, y) => x - y);
+    }
+    if (best === undefined || found.length < best.length) best = found;
+    if (best.length === 0) return [];
+  }
+  if (best === undefined) return cells.filter((c) => matches(c, filter));
+  const out: Cell[] = [];
+  for (const i of best) {
+    const c = cells[i] as Cell;
+    if (matches(c, filter)) out.push(c);
+  }
+  return out;
+}
+
 /** Throw an InputError when the filter names a column the cube does not have or a value no cell has. */
 export function checkFilter(cube: Cube, filter: Filter): void {
   const where = { file: cube.file, ...(cube.sheet !== undefined ? { sheet: cube.sheet } : {}) };
@@ -122,10 +177,7 @@ export function poolCells(cube: Cube, cells: Iterable<Cell>): Pooled {
 /** Counts summed over the cells the filter matches. */
 export function pool(cube: Cube, filter: Filter): Pooled {
   checkFilter(cube, filter);
-  return poolCells(
-    cube,
-    cube.cells.filter((c) => matches(c, filter)),
-  );
+  return poolCells(cube, matching(cube, filter));
 }
 
 /** The name of a unit made of one or more columns: its values joined in the columns' order ("Computing, Quarrendell"). */
@@ -155,8 +207,7 @@ export function cellsByUnit(cube: Cube, filter: Filter, unitColumns: string | re
   for (const col of cols) checkFilter(cube, { [col]: [] });
   const rank = cols.map((col) => new Map((cube.values[col] ?? []).map((v, i) => [v, i] as const)));
   const groups = new Map<string, { order: number[]; cells: Cell[] }>();
-  for (const c of cube.cells) {
-    if (!matches(c, filter)) continue;
+  for (const c of matching(cube, filter)) {
     const values = cols.map((col) => c.dims[col] ?? '');
     const key = values.length === 1 ? (values[0] as string) : JSON.stringify(values);
     const group = groups.get(key);
@@ -197,8 +248,8 @@ export interface Related {
 export function relate(cube: Cube, focus: Filter, against: Filter): Related {
   checkFilter(cube, focus);
   checkFilter(cube, against);
-  const f = new Set(cube.cells.filter((c) => matches(c, focus)));
-  const a = new Set(cube.cells.filter((c) => matches(c, against)));
+  const f = new Set(matching(cube, focus));
+  const a = new Set(matching(cube, against));
   let shared = 0;
   for (const c of f) if (a.has(c)) shared += 1;
   const pooledF = poolCells(cube, f);

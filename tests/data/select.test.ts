@@ -5,7 +5,8 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { readCube } from '../../src/data/cube.js';
-import { matches, pool, poolByUnit, relate } from '../../src/data/select.js';
+import { matches, matching, pool, poolByUnit, relate } from '../../src/data/select.js';
+import fc from 'fast-check';
 import type { Cube } from '../../src/data/types.js';
 import { InputError } from '../../src/errors.js';
 import { summarySource } from './sources.js';
@@ -56,6 +57,29 @@ describe('matches', () => {
     expect(matches(cell, { Year: [2025, ' 2026 '] })).toBe(true);
     expect(matches(cell, { Region: 'x' })).toBe(false);
     expect(matches(cell, {})).toBe(true);
+  });
+});
+
+describe('matching', () => {
+  it('finds through its index exactly the cells a scan with matches finds, in the same order', () => {
+    const dims = cube.dimensions;
+    const valueOf = (col: string) => fc.constantFrom(...(cube.values[col] ?? []), 'no such value');
+    const filter = fc.dictionary(fc.constantFrom(...dims), fc.constant(0)).chain((cols) =>
+      fc.record(
+        Object.fromEntries(
+          Object.keys(cols).map((col) => [
+            col,
+            fc.oneof(valueOf(col), fc.array(valueOf(col), { maxLength: 3 }), fc.record({ not: fc.oneof(valueOf(col), fc.array(valueOf(col), { maxLength: 2 })) })),
+          ]),
+        ),
+      ),
+    );
+    fc.assert(
+      fc.property(filter, (f) => {
+        expect(matching(cube, f)).toEqual(cube.cells.filter((c) => matches(c, f)));
+      }),
+      { numRuns: 200 },
+    );
   });
 });
 
