@@ -22,11 +22,12 @@ import { wilson } from '../stats/wilson.js';
 import { refuseOverlap, type CompareContext } from './compare.js';
 import { filterLabel, restLabel, sign } from './labels.js';
 import { shortfall } from './thresholds.js';
+import { suppressedOf } from './rates.js';
 import type { EquivalenceAnalysis, RateSummary } from './types.js';
 
 function rateSummary(label: string, pooled: Pooled, confidence: number): RateSummary {
   const est = wilson(pooled.agree, pooled.n, confidence);
-  return { label, n: pooled.n, agree: pooled.agree, rate: est.p, interval: est.interval, approximate: pooled.approximate };
+  return { label, n: pooled.n, agree: pooled.agree, rate: est.p, interval: est.interval, approximate: pooled.approximate, ...suppressedOf(pooled) };
 }
 
 export function analyseEquivalence(claim: EquivalenceClaim, cube: Cube, ctx: CompareContext): EquivalenceAnalysis {

@@ -31,7 +31,13 @@ export function rateSummary(label: string, pooled: Pooled, confidence: number): 
     interval: estimate.interval,
     ...(population !== undefined ? { population } : {}),
     approximate: pooled.approximate,
+    ...suppressedOf(pooled),
   };
+}
+
+/** The selection's suppressed rows, for RateSummary.suppressed (nothing when none were). */
+export function suppressedOf(pooled: Pooled): { suppressed?: { rows: number; of: number } } {
+  return pooled.suppressed !== undefined && pooled.suppressed > 0 ? { suppressed: { rows: pooled.suppressed, of: pooled.cells } } : {};
 }
 
 /**

@@ -18,8 +18,16 @@ export interface Selected {
  */
 export function shortfall(claim: Claim, selections: Selected[]): string | undefined {
   const few = selections.filter((s) => s.pooled.n < claim.minRespondents);
+  // A selection every row of which was withheld in the release has no figures at all: say so, not "fewer answered".
+  const withheld = few.filter((s) => s.pooled.cells > 0 && s.pooled.suppressed === s.pooled.cells);
+  if (withheld.length > 0) {
+    const rows = (s: Selected) => (s.pooled.cells === 1 ? 'its only row' : s.pooled.cells === 2 ? 'both of its rows' : `all ${s.pooled.cells} of its rows`);
+    return `the release suppressed ${withheld.map((s) => `${rows(s)} for ${s.label}`).join(' and ')} (withheld as too small to publish), so there are no figures to test`;
+  }
   if (few.length > 0) {
-    return `fewer than ${claim.minRespondents} people answered in ${few.map((s) => s.label).join(' and ')}`;
+    const partly = few.filter((s) => (s.pooled.suppressed ?? 0) > 0);
+    const why = partly.length > 0 ? ` (${partly.map((s) => `${s.pooled.suppressed} of the ${s.pooled.cells} rows of ${s.label} were suppressed in the release`).join('; ')})` : '';
+    return `fewer than ${claim.minRespondents} people answered in ${few.map((s) => s.label).join(' and ')}${why}`;
   }
   const minRate = claim.minResponseRate;
   if (minRate !== undefined) {

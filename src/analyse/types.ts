@@ -17,6 +17,8 @@ export interface RateSummary {
   population?: number;
   /** True when counts were rebuilt from rounded percentages. */
   approximate: boolean;
+  /** Rows of the selection whose counts were withheld in the release, and all its rows (only when some were). */
+  suppressed?: { rows: number; of: number };
 }
 
 /** Sign of an effect in the claim's terms: +1 the way the claim says, -1 the other way, 0 no direction claimed. */

@@ -93,6 +93,9 @@ export function normalize(parsed: ParsedYaml, absPath: string, sha256: string, l
     if (typeof s.period === 'string') spec.period = s.period;
     if (Array.isArray(s.numeric)) spec.numeric = [...(s.numeric as string[])];
     if (typeof s.header_row === 'number') spec.headerRow = s.header_row;
+    if (s.header_rows === 1 || s.header_rows === 2) spec.headerRows = s.header_rows;
+    if (typeof s.last_row === 'number') spec.lastRow = s.last_row;
+    if (Array.isArray(s.suppressed)) spec.suppressed = (s.suppressed as unknown[]).map(String);
     return spec;
   });
 

@@ -87,6 +87,12 @@ export interface SourceSpec {
   numeric?: string[];
   /** 1-based row holding the column names (default: the first non-empty row). */
   headerRow?: number;
+  /** Rows the header spans: 1, or 2 (codes above wording, or group headings above names). Default: detected. */
+  headerRows?: 1 | 2;
+  /** Last row of the table (1-based); rows below it are notes. Default: detected (see src/data/table.ts). */
+  lastRow?: number;
+  /** summary: markers this release uses for withheld cells, read as suppressed besides the common ones. */
+  suppressed?: string[];
   place: Place;
 }
 

@@ -19,6 +19,8 @@ import { claimsSpellings, readCube } from '../data/cube.js';
 import type { Cell, Cube } from '../data/types.js';
 import { formatProblem, InputError, type Problem } from '../errors.js';
 import { findName, fixFor, nfc } from '../suggest.js';
+import { readingNotes } from '../data/reading-notes.js';
+import { Templates } from '../verdicts/templates.js';
 
 export interface CheckOptions {
   /** The claims file. */
@@ -37,6 +39,8 @@ export interface CheckReport {
   sources?: number;
   /** Every problem found, claims-file problems first in file order, then data problems. */
   problems: Problem[];
+  /** How each source's table was read (rows taken as notes, suppressed rows, footnote markers), when there is anything to say. */
+  reading?: Array<{ source: string; file: string; notes: string[] }>;
 }
 
 type Path = Array<string | number>;
@@ -98,6 +102,8 @@ export async function checkClaimsFile(path: string, displayPath?: string): Promi
     return { line: at.line, column: at.column };
   };
 
+  const templates = new Templates();
+  const reading: NonNullable<CheckReport['reading']> = [];
   for (const source of claims.sources) {
     const users = claims.claims.map((c, i) => ({ claim: c, i })).filter((u) => u.claim.source === source.id);
     // A data file that is missing or of the wrong type was reported with the claims file's own problems.
@@ -105,9 +111,11 @@ export async function checkClaimsFile(path: string, displayPath?: string): Promi
     const skip = new Set<Claim>();
     const cube = await sourceCube(source, users, file, place, claimProblems, dataProblems, skip, parsed.data);
     if (cube === undefined) continue;
+    const notes = readingNotes(cube, templates);
+    if (notes.length > 0) reading.push({ source: source.id, file: cube.file, notes });
     for (const { claim, i } of users) if (!skip.has(claim)) claimProblems.push(...claimDataProblems(claim, i, source, cube, file, place, parsed));
   }
-  return { file, claims: claims.claims.length, sources: claims.sources.length, problems: [...inFileOrder(claimProblems), ...dataProblems] };
+  return { file, claims: claims.claims.length, sources: claims.sources.length, problems: [...inFileOrder(claimProblems), ...dataProblems], ...(reading.length > 0 ? { reading } : {}) };
 }
 
 function isFile(path: string): boolean {
@@ -133,16 +141,21 @@ async function sourceCube(
 ): Promise<Cube | undefined> {
   const display = displayPathFor(source.path);
   let header: string[];
+  let aliases: string[] = [];
   try {
     const scan = await scanTable(source.path, source.format, {
       displayPath: display,
       headerOnly: true,
       ...(source.sheet !== undefined ? { sheet: source.sheet } : {}),
       ...(source.headerRow !== undefined ? { headerRow: source.headerRow } : {}),
+      ...(source.headerRows !== undefined ? { headerRows: source.headerRows } : {}),
+      ...(source.suppressed !== undefined ? { suppressed: source.suppressed } : {}),
     });
     // Names match under Unicode normalization form C, as the data readers match them (src/data/cube.ts).
     const spelled = claimsSpellings(source, users.flatMap((u) => columnsUsed(u.claim)));
     header = scan.columns.map((c) => spelled.get(nfc(c.name)) ?? c.name);
+    // A count or answer column of a two-row header answers to either row's text (groups go by the name only).
+    aliases = scan.columns.flatMap((c) => (c.alias !== undefined ? [c.alias] : []));
   } catch (e) {
     if (!(e instanceof InputError)) throw e;
     dataProblems.push(...e.problems);
@@ -160,7 +173,7 @@ async function sourceCube(
   (source.questions ?? []).forEach((q, k) => sourceColumns.push([sp('questions', k), q]));
   (source.numeric ?? []).forEach((q, k) => sourceColumns.push([sp('numeric', k), q]));
   for (const [p, name] of sourceColumns) {
-    if (header.includes(name)) continue;
+    if (header.includes(name) || (aliases.includes(name) && p[2] !== 'period')) continue;
     claimProblems.push({
       file,
       ...place(p, 'value'),
@@ -360,8 +373,12 @@ export async function check(opts: CheckOptions): Promise<number> {
   const report = await checkClaimsFile(opts.claims);
   const ok = report.problems.length === 0;
   if (opts.json) {
-    write(`${JSON.stringify({ file: report.file, ok, claims: report.claims ?? null, sources: report.sources ?? null, problems: report.problems }, null, 2)}\n`);
-  } else if (ok) {
+    write(`${JSON.stringify({ file: report.file, ok, claims: report.claims ?? null, sources: report.sources ?? null, problems: report.problems, reading: report.reading ?? [] }, null, 2)}\n`);
+    return ok ? 0 : 2;
+  }
+  // How the data were read comes first: a wrong guess about where a table ends explains problems that follow.
+  for (const r of report.reading ?? []) write(`${r.file} (source "${r.source}"):\n${r.notes.map((n) => `  - ${n}`).join('\n')}\n`);
+  if (ok) {
     write(`${report.file}: ${report.claims} claim${report.claims === 1 ? '' : 's'}, ${report.sources} source${report.sources === 1 ? '' : 's'}, all good.\n`);
   } else {
     write(`${report.problems.map(formatProblem).join('\n\n')}\n\n${report.problems.length} problem${report.problems.length === 1 ? '' : 's'} found in ${report.file}.\n`);

@@ -34,6 +34,9 @@ import { isBlankRow, rowIsBlank } from './rows.js';
 import type { ColumnSelection, SheetRow } from './rows.js';
 import { fixFor, nfc } from '../suggest.js';
 import { kindMismatch, sniffKind } from './kind.js';
+import { isSuppressedMarker, isTitleRow, looksLikeDataRow, markerSet, MAX_NOTE_ROWS, oneRowHeader, quoteRow, secondHeaderRow, splitFootnote, twoRowHeader } from './table.js';
+import type { Header } from './table.js';
+import type { TableEnd } from './types.js';
 
 /** How many row problems are gathered before reading stops. */
 export const MAX_PROBLEMS = 25;
@@ -156,6 +159,10 @@ class BatchReader {
     }
     return { done: false, value: this.left.shift()! };
   }
+  /** Hand a row taken with next() back, to be read again first. */
+  unread(r: SheetRow): void {
+    this.left.unshift(r);
+  }
   async *rest(): AsyncGenerator<SheetRow[]> {
     if (this.left.length > 0) yield this.left.splice(0);
     for (;;) {
@@ -189,7 +196,8 @@ async function findHeader(
       }
       return r;
     }
-    if (!isBlankRow(r.values)) return r;
+    // A title line above the table (one cell of text) is passed over; the header names at least two columns.
+    if (!isBlankRow(r.values) && !isTitleRow(r.values)) return r;
   }
 }
 
@@ -245,7 +253,21 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
   try {
     const reader = new BatchReader(rows);
     const header = await findHeader(reader, source.headerRow, where);
-    const raw = header.values.map((v) => v.trim());
+    const markers = markerSet(source.suppressed);
+    // A second header row: when the source says so, or detected in the very next row (see src/data/table.ts).
+    let shape: Header = oneRowHeader(header.values);
+    if (source.headerRows !== 1) {
+      const next = await reader.next();
+      if (!next.done) {
+        const adjacent = next.value.row === header.row + 1 && !isBlankRow(next.value.values);
+        if (source.headerRows === 2 ? adjacent : adjacent && secondHeaderRow(header.values, next.value.values, markers)) shape = twoRowHeader(header.values, next.value.values);
+        else reader.unread(next.value);
+      }
+      if (source.headerRows === 2 && shape.rows === 1) {
+        throw new InputError({ ...where, row: header.row + 1, field: 'header_rows', found: '2', problem: `The source says its header spans two rows, but row ${header.row + 1} is blank or missing`, fix: 'Remove header_rows: 2 from the source, or name the first header row with header_row' });
+      }
+    }
+    const raw = shape.names;
     // Column names match the claims file's under Unicode normalization form C, and are then known by its spelling.
     const spelled = claimsSpellings(source, needed);
     const names = raw.map((n) => spelled.get(nfc(n)) ?? n);
@@ -277,6 +299,7 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
         fix: 'Unmerge the header cells and give every column its own name in one header row (or name the row that has them with header_row)',
       });
     }
+    for (const [alias, i] of shape.aliases) if (!seen.has(alias)) seen.set(alias, i);
     const column = (name: string, role: string): number => {
       const i = seen.get(name.trim());
       if (i === undefined) {
@@ -290,11 +313,12 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
     const common = { sourceId: source.id, file: source.file, ...(sheet !== undefined ? { sheet } : {}) };
     const cube =
       source.shape === 'summary'
-        ? await summaryCube(source, needed, body, header.row, names, column, where, style)
+        ? await summaryCube(source, needed, body, header.row, names, column, where, style, markers)
         : await respondentsCube(source, needed, body, header.row, names, column, where, select);
     // The body has been read to its end, so the CSV reader has handed every byte to the hash.
     const sha256 = csvHash !== undefined ? csvHash.digest('hex') : await shaPromise!;
-    return { ...common, sha256, ...cube };
+    const labels = Object.keys(shape.labels).length > 0 ? { labels: shape.labels } : {};
+    return { ...common, sha256, ...cube, ...(shape.rows === 2 ? { headerRows: 2 as const } : {}), ...labels };
   } finally {
     await rows.return(undefined);
     close();
@@ -339,6 +363,7 @@ async function summaryCube(
   column: ColumnOf,
   where: Where,
   style: NumberStyle,
+  markers: ReadonlySet<string> = markerSet(undefined),
 ): Promise<CubeBody> {
   if (source.respondents === undefined) {
     throw new InputError({ ...where, field: 'respondents', problem: `Source "${source.id}" does not name the column with the number who answered`, fix: 'Add "respondents: <column name>" to the source in the claims file' });
@@ -380,9 +405,25 @@ async function summaryCube(
   const cells = new Map<string, Cell>();
   const percents = new Map<Cell, PercentValue>();
   let rows = 0;
-  for await (const batch of body) for (const r of batch) {
-    if (isBlankRow(r.values)) continue;
+  let lastRow = headerRow;
+  let suppressedRows = 0;
+  const markerCounts = new Map<string, number>();
+  const footnotes = new Map<string, { marker: string; cells: number; example: string; row: number }>();
+  const countColumns = [nCol, agreeCol ?? pctCol].filter((i): i is number => i !== undefined);
+  /** A measure cell's text: trimmed, with a footnote marker after a number taken off (and noted once per marker). */
+  const measureText = (r: SheetRow, i: number | undefined): string => {
+    if (i === undefined) return '';
+    const t = (r.values[i] ?? '').trim();
+    const f = splitFootnote(t);
+    if (f === undefined) return t;
+    const seen = footnotes.get(f.marker);
+    if (seen === undefined) footnotes.set(f.marker, { marker: f.marker, cells: 1, example: t, row: r.row });
+    else seen.cells += 1;
+    return f.number;
+  };
+  const handle = (r: SheetRow): void => {
     rows += 1;
+    lastRow = r.row;
     const text = (i: number | undefined) => (i === undefined ? '' : (r.values[i] ?? '').trim());
     const dims: Record<string, string> = {};
     dimIdx.forEach((i, k) => {
@@ -390,54 +431,85 @@ async function summaryCube(
     });
     const measureTexts = [nCol, agreeCol ?? pctCol, popCol].filter((i): i is number => i !== undefined).map(text);
     if (measureTexts.every((t) => t === '')) {
-      problems.add({ row: r.row, field: nName, found: '', problem: 'This row names a group but has no counts', fix: 'Fill in the counts for this row, or delete the row' });
-      continue;
+      problems.add({
+        row: r.row,
+        field: nName,
+        found: '',
+        problem: 'This row names a group but has no counts',
+        fix: `Fill in the counts for this row, or delete the row; if the table ends above it and the rows from here on are notes, set the table's last row with "last_row: ${r.row - 1}" in the source`,
+      });
+      return;
+    }
+    // A count withheld in the release: the row is kept as a suppressed group (no number guessed) and counted.
+    const withheld = countColumns.map(text).filter((t) => isSuppressedMarker(t, markers));
+    if (withheld.length > 0) {
+      for (const m of withheld) markerCounts.set(m, (markerCounts.get(m) ?? 0) + 1);
+      const key = JSON.stringify(dimIdx.map((i) => text(i)));
+      const earlier = cells.get(key);
+      if (earlier !== undefined) {
+        const label = dimensions.map((d) => `${d} = ${dims[d]}`).join(', ');
+        problems.add({ row: r.row, field: dimensions.join(', '), found: label, problem: `This row repeats the group of row ${earlier.firstRow}`, fix: `Keep one row per group: remove or merge rows ${earlier.firstRow} and ${r.row}, or add the column that tells them apart` });
+        return;
+      }
+      const cell: Cell = { dims, n: 0, agree: 0, approximate: false, firstRow: r.row, suppressed: true };
+      if (numericNames.length > 0) cell.numeric = Object.fromEntries(numericNames.map((name) => [name, { weightedSum: 0, weight: 0 }]));
+      cells.set(key, cell);
+      suppressedRows += 1;
+      return;
     }
     const blank = (name: string) => problems.add({ row: r.row, field: name, found: '', problem: 'A count is blank in a row that has other counts', fix: 'Fill in the missing number, or delete the row' });
     let ok = true;
-    const nText = text(nCol);
+    const nText = measureText(r, nCol);
     const n = nText === '' ? (blank(nName), undefined) : parseCount(nText, r.row, nName, problems, style);
     let agree: number | undefined;
     let pct: PercentValue | undefined;
     if (agreeCol !== undefined) {
-      const t = text(agreeCol);
+      const t = measureText(r, agreeCol);
       agree = t === '' ? (blank(agreeName!), undefined) : parseCount(t, r.row, agreeName!, problems, style);
       ok &&= agree !== undefined;
     } else {
-      const t = text(pctCol);
+      const t = measureText(r, pctCol);
       pct = t === '' ? (blank(pctName!), undefined) : parsePercent(t, r.row, pctName!, problems, style);
       ok &&= pct !== undefined;
     }
     let population: number | undefined;
+    let populationWithheld = false;
     if (popCol !== undefined) {
-      const t = text(popCol);
-      population = t === '' ? (blank(popName!), undefined) : parseCount(t, r.row, popName!, problems, style);
-      ok &&= population !== undefined;
+      const t = measureText(r, popCol);
+      if (isSuppressedMarker(t, markers)) {
+        populationWithheld = true;
+        markerCounts.set(t, (markerCounts.get(t) ?? 0) + 1);
+      } else {
+        population = t === '' ? (blank(popName!), undefined) : parseCount(t, r.row, popName!, problems, style);
+        ok &&= population !== undefined;
+      }
     }
     const numericValues = numericIdx.map((i) => {
       const before = problems.list.length;
-      const x = parseNumeric(text(i), r.row, names[i]!, problems, style);
+      const t = measureText(r, i);
+      const x = isSuppressedMarker(t, markers) ? undefined : parseNumeric(t, r.row, names[i]!, problems, style);
       if (problems.list.length > before) ok = false;
       return x;
     });
-    if (n === undefined || !ok) continue;
+    if (n === undefined || !ok) return;
     if (agree !== undefined && agree > n) {
       problems.add({ row: r.row, field: agreeName!, found: String(agree), problem: `More people agreed than answered (${agree} agreeing, ${n} respondents)`, fix: 'Check the two counts on this row; the agreeing count cannot exceed the number who answered' });
-      continue;
+      return;
     }
     if (population !== undefined && n > population) {
       problems.add({ row: r.row, field: popName!, found: String(population), problem: `More people answered than were eligible (${n} respondents, population ${population})`, fix: 'Check the population column: it should hold the number eligible to answer' });
-      continue;
+      return;
     }
     const key = JSON.stringify(dimIdx.map((i) => text(i)));
     const earlier = cells.get(key);
     if (earlier !== undefined) {
       const label = dimensions.map((d) => `${d} = ${dims[d]}`).join(', ');
       problems.add({ row: r.row, field: dimensions.join(', '), found: label, problem: `This row repeats the group of row ${earlier.firstRow}`, fix: `Keep one row per group: remove or merge rows ${earlier.firstRow} and ${r.row}, or add the column that tells them apart` });
-      continue;
+      return;
     }
     const cell: Cell = { dims, n, agree: agree ?? 0, approximate: pct !== undefined, firstRow: r.row };
     if (population !== undefined) cell.population = population;
+    if (populationWithheld) cell.populationSuppressed = true;
     if (numericNames.length > 0) {
       const numeric: Record<string, { weightedSum: number; weight: number }> = {};
       numericNames.forEach((name, k) => {
@@ -448,11 +520,62 @@ async function summaryCube(
     }
     cells.set(key, cell);
     if (pct !== undefined) percents.set(cell, pct);
+  };
+  // The table ends at the last row the source names, or at a blank row after which no row looks like data: rows
+  // after a blank row are held until one looks like data (then they were table rows after all) or the file ends
+  // (then they are notes).
+  let afterBlank = false;
+  let seenRow = headerRow;
+  let held: SheetRow[] = [];
+  const notes: SheetRow[] = [];
+  const flush = (): void => {
+    for (const h of held) handle(h);
+    held = [];
+  };
+  for await (const batch of body) for (const r of batch) {
+    const blankRow = isBlankRow(r.values);
+    if (source.lastRow !== undefined && r.row > source.lastRow) {
+      if (!blankRow) notes.push(r);
+      continue;
+    }
+    // A workbook leaves empty rows out: a gap in the row numbers is a blank row too.
+    if (rows > 0 && source.lastRow === undefined && r.row > seenRow + 1) afterBlank = true;
+    seenRow = r.row;
+    if (blankRow) {
+      if (rows > 0 && source.lastRow === undefined) afterBlank = true;
+      continue;
+    }
+    if (afterBlank) {
+      if (looksLikeDataRow(r.values, countColumns, markers)) {
+        flush();
+        afterBlank = false;
+        handle(r);
+      } else {
+        held.push(r);
+        if (held.length > MAX_NOTE_ROWS) {
+          flush();
+          afterBlank = false;
+        }
+      }
+      continue;
+    }
+    handle(r);
   }
+  notes.push(...held);
   problems.throwIfAny();
   if (rows === 0) throw noDataRows(where, headerRow);
+  const tableEnd: TableEnd | undefined =
+    notes.length > 0
+      ? { lastRow: source.lastRow ?? lastRow, noteRows: notes.length, firstNoteRow: notes[0]!.row, firstNote: quoteRow(notes[0]!.values), by: source.lastRow !== undefined ? 'source' : 'detected' }
+      : undefined;
+  const readNotes = {
+    ...(suppressedRows > 0 ? { suppressedRows } : {}),
+    ...(markerCounts.size > 0 ? { suppressedMarkers: Object.fromEntries(markerCounts) } : {}),
+    ...(footnotes.size > 0 ? { footnotes: [...footnotes.values()] } : {}),
+    ...(tableEnd !== undefined ? { tableEnd } : {}),
+  };
 
-  const notes: string[] = [];
+  const notesText: string[] = [];
   if (pctName !== undefined) {
     const all = [...percents.values()];
     const fractionLike = all.find((p) => !p.sign && p.value < 1 && !Number.isInteger(p.value));
@@ -469,9 +592,9 @@ async function summaryCube(
     }
     const fractions = fractionLike !== undefined;
     if (fractions) {
-      notes.push(`The values in "${pctName}" are all between 0 and 1, so they were read as fractions (0.72 means 72%).`);
+      notesText.push(`The values in "${pctName}" are all between 0 and 1, so they were read as fractions (0.72 means 72%).`);
     }
-    notes.push(`Agreeing counts were worked out from the rounded percentages in "${pctName}", so they are approximate.`);
+    notesText.push(`Agreeing counts were worked out from the rounded percentages in "${pctName}", so they are approximate.`);
     for (const [cell, p] of percents) {
       const share = fractions ? p.value : p.value / 100;
       cell.agree = Math.min(cell.n, Math.round(share * cell.n));
@@ -485,8 +608,9 @@ async function summaryCube(
     values: distinctValues(dimensions, list),
     approximate: pctName !== undefined && list.length > 0,
     hasPopulation: popCol !== undefined,
-    ...(notes.length > 0 ? { notes } : {}),
+    ...(notesText.length > 0 ? { notes: notesText } : {}),
     ...(numericNames.length > 0 ? { numericColumns: numericNames } : {}),
+    ...readNotes,
   };
 }
 

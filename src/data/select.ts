@@ -138,6 +138,8 @@ export function poolCells(cube: Cube, cells: Iterable<Cell>): Pooled {
   let count = 0;
   let notApplicable = 0;
   let blank = 0;
+  let suppressed = 0;
+  let populationKnown = true;
   let codes: Record<string, number> | undefined = cube.hasCodes === true ? {} : undefined;
   let numeric: Record<string, { weightedSum: number; weight: number }> | undefined;
   if (cube.numericColumns !== undefined && cube.numericColumns.length > 0) {
@@ -152,6 +154,8 @@ export function poolCells(cube: Cube, cells: Iterable<Cell>): Pooled {
     count += 1;
     notApplicable += c.notApplicable ?? 0;
     blank += c.blank ?? 0;
+    if (c.suppressed === true) suppressed += 1;
+    else if (c.populationSuppressed === true) populationKnown = false;
     if (c.codes !== undefined) {
       codes ??= {};
       for (const [code, k] of Object.entries(c.codes)) codes[code] = (codes[code] ?? 0) + k;
@@ -166,7 +170,9 @@ export function poolCells(cube: Cube, cells: Iterable<Cell>): Pooled {
     }
   }
   const pooled: Pooled = { n, agree, approximate, cells: count };
-  if (cube.hasPopulation) pooled.population = population;
+  // A number eligible withheld for any row pooled leaves the selection's number eligible unknown (never a partial sum).
+  if (cube.hasPopulation && populationKnown) pooled.population = population;
+  if (suppressed > 0) pooled.suppressed = suppressed;
   if (codes !== undefined) pooled.codes = codes;
   if (notApplicable > 0) pooled.notApplicable = notApplicable;
   if (blank > 0) pooled.blank = blank;

@@ -32,6 +32,24 @@ export interface Cell {
   blank?: number;
   /** summary sources: per numeric column, the sum of value × respondents and the sum of respondents weighted. */
   numeric?: Record<string, { weightedSum: number; weight: number }>;
+  /** summary sources: true when the row's counts were withheld in the release (a marker such as "*" or "[c]"); n and agree are 0. */
+  suppressed?: true;
+  /** summary sources: true when the row's number eligible was withheld (its counts are used, its population is not known). */
+  populationSuppressed?: true;
+}
+
+/** Where a source's table ended and what followed it (see src/data/table.ts). */
+export interface TableEnd {
+  /** Last row of the table (1-based, as numbered in the file). */
+  lastRow: number;
+  /** Non-blank rows below the table, read as notes. */
+  noteRows: number;
+  /** Row number of the first note. */
+  firstNoteRow: number;
+  /** The first note's text, shortened. */
+  firstNote: string;
+  /** 'detected' when found after a blank row, 'source' when set by last_row. */
+  by: 'detected' | 'source';
 }
 
 export interface Cube {
@@ -61,6 +79,18 @@ export interface Cube {
   hasCodes?: boolean;
   /** respondents sources: the name the question codes appear under (SourceSpec.questionColumn). */
   questionColumn?: string;
+  /** summary sources: rows whose counts were withheld in the release (cells with `suppressed`), when any. */
+  suppressedRows?: number;
+  /** The markers read as suppressed in this source, with how many cells held each, when any. */
+  suppressedMarkers?: Record<string, number>;
+  /** Footnote markers read after numbers ("120*"), each with how many cells and the first cell's text and row. */
+  footnotes?: Array<{ marker: string; cells: number; example: string; row: number }>;
+  /** Set when rows below the table were read as notes (or the source set the table's last row). */
+  tableEnd?: TableEnd;
+  /** 2 when the header spans two rows. */
+  headerRows?: 2;
+  /** Wording for columns from a second header row (codes above wording), by column name. */
+  labels?: Record<string, string>;
 }
 
 /** Counts pooled over the cells a selection matches (respondent-weighted, never an average of percentages). */
@@ -69,8 +99,10 @@ export interface Pooled {
   agree: number;
   population?: number;
   approximate: boolean;
-  /** Number of cells pooled. */
+  /** Number of cells pooled (suppressed ones included). */
   cells: number;
+  /** How many of the cells pooled were suppressed in the release (summary sources; absent when none). */
+  suppressed?: number;
   /** Pooled answer-code counts (respondents sources). */
   codes?: Record<string, number>;
   /** Pooled not-applicable and blank answers (respondents sources). */

@@ -248,6 +248,8 @@ export interface PackModel {
     periods?: string[];
     /** Respondents in words for the cover, e.g. "2,229 in 2025 and 2,218 in 2026 (the most answering any one question)". */
     respondentsText?: string;
+    /** How the source's table was read (rows taken as notes, suppressed rows, footnote markers), one sentence each. */
+    notes?: string[];
   }>;
   /**
    * Every verdict word the pack may use, with its meaning, for the summary page (in this order: the words that tell a

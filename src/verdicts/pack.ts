@@ -7,6 +7,7 @@ import { dirname, isAbsolute, relative } from 'node:path';
 import type { Analysis } from '../analyse/types.js';
 import type { ClaimsFile } from '../claims/types.js';
 import type { Cube } from '../data/types.js';
+import { readingNotes } from '../data/reading-notes.js';
 import * as fmt from '../format/numbers.js';
 import type { ClaimSection, PackModel, SummaryRow } from '../render/model.js';
 import { METHODS, methodInfo } from '../stats/methods.js';
@@ -100,6 +101,7 @@ export function composePack(input: {
       const sheet = spec?.sheet ?? c.sheet;
       const periods = respondentsByPeriod(spec, c).periods;
       const respondents = respondentsText(spec, c);
+      const notes = readingNotes(c, templates);
       return {
         id: c.sourceId,
         file: c.file,
@@ -110,6 +112,7 @@ export function composePack(input: {
         ...(spec?.origin ? { origin: originText(spec) } : {}),
         ...(periods.length > 0 ? { periods } : {}),
         ...(respondents ? { respondentsText: respondents } : {}),
+        ...(notes.length > 0 ? { notes } : {}),
       };
     }),
     summaryIntro: templates.render('summary.intro', view),

@@ -76,11 +76,11 @@ describe('numeric columns of a summary source', () => {
 
   it('names the row and value of text in a numeric column, and a numeric column the file lacks', async () => {
     const path = join(tmp, 'text.csv');
-    writeFileSync(path, 'Dept,Respondents,Agreeing,Ratio\nA,10,5,12.5\nB,20,5,n/a\nC,5,1,\n');
+    writeFileSync(path, 'Dept,Respondents,Agreeing,Ratio\nA,10,5,12.5\nB,20,5,twelve\nC,5,1,\n');
     const e = await failure(readCube(summarySource(path, { numeric: ['Ratio'] }), [], 'text.csv'));
     expect(e.problems).toHaveLength(1);
-    expect(e.problems[0]).toMatchObject({ file: 'text.csv', row: 3, field: 'Ratio', found: 'n/a' });
-    expect(e.message).toContain('text.csv, row 3: A value in a numeric column is not a number (field "Ratio", found "n/a").');
+    expect(e.problems[0]).toMatchObject({ file: 'text.csv', row: 3, field: 'Ratio', found: 'twelve' });
+    expect(e.message).toContain('text.csv, row 3: A value in a numeric column is not a number (field "Ratio", found "twelve").');
     expect(e.message).toContain('leave the cell blank');
     const e2 = await failure(readCube(summarySource(path, { numeric: ['Ration'] }), [], 'text.csv'));
     expect(e2.problems[0]).toMatchObject({ row: 1, field: 'numeric', found: 'Ration' });

@@ -58,6 +58,9 @@ export function drawCover(L: Layout, model: PackModel, root: Struct, bookmark: B
         ]),
       ),
     );
+    // How each source's table was read (notes under it, suppressed rows, footnote markers), under the table.
+    const readNotes = model.sources.flatMap((s) => (s.notes ?? []).map((n) => (model.sources.length > 1 ? `${s.id}: ${n}` : n)));
+    if (readNotes.length > 0) coverBlocks.push(L.bullets(readNotes, { size: SIZE.table }));
   }
   L.flow(coverBlocks, cover);
   cover.end();

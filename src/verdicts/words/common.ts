@@ -150,5 +150,10 @@ export function rateCautions(rates: RateSummary[], responseRate: number | undefi
     .map((r) => t.render('caution.small-sample', { n: fmt.count(r.n), label: r.label, onePerson: fmt.pointsSize(1 / r.n) }));
   if (responseRate !== undefined && responseRate < LOW_RESPONSE) cautions.push(t.render('caution.response-rate', { rate: fmt.percent(responseRate) }));
   if (rates.some((r) => r.approximate)) cautions.push(t.render('caution.rounded', {}));
+  for (const r of rates) {
+    if (r.suppressed === undefined) continue;
+    const { rows, of } = r.suppressed;
+    cautions.push(t.render('caution.suppressed-rows', { rows: fmt.count(rows), of: fmt.count(of), rest: fmt.count(of - rows), label: r.label, one: rows === 1 }));
+  }
   return cautions;
 }
