@@ -142,7 +142,8 @@ afterAll(() => {
   rmSync(work, { recursive: true, force: true });
 });
 
-describe('warrant installed from its tarball into another project (slow)', () => {
+// Each command starts npm and Node afresh; on a busy 2-core machine one build took 40 s, so each test gets 5 minutes.
+describe('warrant installed from its tarball into another project (slow)', { timeout: 5 * 60_000 }, () => {
   it('packs every file the installed tool reads at run time, and none of the repository-only files', () => {
     const need = [
       'package.json',
