@@ -16,7 +16,7 @@ import { InputError } from '../errors.js';
 import type { CompareContext } from './compare.js';
 import { filterLabel, sign } from './labels.js';
 import { periodColumnOf, resolvePeriods } from './periods.js';
-import { compareRates, expectSignOf, rateSummary } from './rates.js';
+import { compareRates, expectSignOf, fpcWanted, rateSummary } from './rates.js';
 import { shortfall } from './thresholds.js';
 import type { ChangeAnalysis } from './types.js';
 
@@ -72,14 +72,21 @@ export function analyseChange(written: ChangeClaim, cube: Cube, ctx: CompareCont
     { label: from, pooled: earlierPooled },
   ]);
   if (why !== undefined) return { ...base, status: 'too-little-data', shortfall: why, observedSign: 0 };
-  const later = rateSummary(laterLabel, laterPooled, claim.confidence);
-  const earlier = rateSummary(earlierLabel, earlierPooled, claim.confidence);
-  const r = compareRates(later, earlier, claim.expect, claim.sided, claim.confidence);
+  const wanted = fpcWanted(claim, cube);
+  const r = compareRates(
+    rateSummary(laterLabel, laterPooled, claim.confidence, wanted?.used === true),
+    rateSummary(earlierLabel, earlierPooled, claim.confidence, wanted?.used === true),
+    claim.expect,
+    claim.sided,
+    claim.confidence,
+    wanted,
+  );
   return {
     ...base,
     status: 'tested',
-    later,
-    earlier,
+    later: r.first,
+    earlier: r.second,
+    ...(r.fpc !== undefined ? { fpc: r.fpc } : {}),
     test: r.test,
     ...(r.pOpposite !== undefined ? { pOpposite: r.pOpposite } : {}),
     observedSign: sign(r.difference.value),

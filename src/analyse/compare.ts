@@ -15,7 +15,7 @@ import type { Cube } from '../data/types.js';
 import { relate, type Relation } from '../data/select.js';
 import { InputError } from '../errors.js';
 import type { AnalysisSettings, CompareAnalysis } from './types.js';
-import { compareRates, expectSignOf, rateSummary } from './rates.js';
+import { compareRates, expectSignOf, fpcWanted, rateSummary } from './rates.js';
 import { filterLabel, restLabel, sign } from './labels.js';
 import { shortfall } from './thresholds.js';
 
@@ -93,14 +93,21 @@ export function analyseCompare(claim: CompareClaim, cube: Cube, ctx: CompareCont
   ]);
   if (why !== undefined) return { ...base, status: 'too-little-data', shortfall: why, observedSign: 0 };
 
-  const focus = rateSummary(focusName, focusPooled, claim.confidence);
-  const against = rateSummary(againstLabel, againstPooled, claim.confidence);
-  const rates = compareRates(focus, against, claim.expect, claim.sided, claim.confidence);
+  const wanted = fpcWanted(claim, cube);
+  const rates = compareRates(
+    rateSummary(focusName, focusPooled, claim.confidence, wanted?.used === true),
+    rateSummary(againstLabel, againstPooled, claim.confidence, wanted?.used === true),
+    claim.expect,
+    claim.sided,
+    claim.confidence,
+    wanted,
+  );
   return {
     ...base,
     status: 'tested',
-    focus,
-    against,
+    focus: rates.first,
+    against: rates.second,
+    ...(rates.fpc !== undefined ? { fpc: rates.fpc } : {}),
     test: rates.test,
     ...(rates.pOpposite !== undefined ? { pOpposite: rates.pOpposite } : {}),
     observedSign: sign(rates.difference.value),

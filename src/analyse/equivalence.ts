@@ -21,6 +21,7 @@ import { tostTwoProportions } from '../stats/tost-two-proportions.js';
 import { wilson } from '../stats/wilson.js';
 import { refuseOverlap, type CompareContext } from './compare.js';
 import { filterLabel, restLabel, sign } from './labels.js';
+import { fpcWanted } from './rates.js';
 import { shortfall } from './thresholds.js';
 import { suppressedOf } from './rates.js';
 import type { EquivalenceAnalysis, RateSummary } from './types.js';
@@ -54,7 +55,9 @@ export function analyseEquivalence(claim: EquivalenceClaim, cube: Cube, ctx: Com
     focusPooled = related.rest;
     focusLabel = `the rest of ${focusLabel}`;
   }
-  const base = { kind: 'equivalence' as const, claim, relation: related.relation, expectSign: 0 as const, methods: [] as string[] };
+  // The equivalence test has no corrected form here: no figure of the claim carries the finite-population correction.
+  const fpc = fpcWanted(claim, cube, 'the equivalence test');
+  const base = { kind: 'equivalence' as const, claim, relation: related.relation, expectSign: 0 as const, methods: [] as string[], ...(fpc !== undefined ? { fpc } : {}) };
   const why = shortfall(claim, [
     { label: focusLabel, pooled: focusPooled },
     { label: againstLabel, pooled: againstPooled },

@@ -18,7 +18,7 @@ import { tQuantile } from '../stats/distributions/t.js';
 import type { Interval } from '../stats/result.js';
 import type { CompareContext } from './compare.js';
 import { filterLabel } from './labels.js';
-import { rateSummary } from './rates.js';
+import { fpcWanted, rateSummary } from './rates.js';
 import { shortfall } from './thresholds.js';
 import type { EstimateAnalysis } from './types.js';
 
@@ -75,13 +75,16 @@ export function analyseEstimate(claim: EstimateClaim, cube: Cube, ctx: CompareCo
   if (measure.type === 'agree') {
     const why = shortfall(claim, [{ label, pooled }]);
     if (why !== undefined) return { ...base, status: 'too-little-data', shortfall: why };
-    const rate = rateSummary(label, pooled, claim.confidence);
+    const wanted = fpcWanted(claim, cube);
+    const rate = rateSummary(label, pooled, claim.confidence, wanted?.used === true);
+    const fpc = wanted?.used === true && rate.fpc !== true ? { used: false, why: 'no-population' as const } : wanted;
     return {
       ...base,
       status: 'tested',
       rate,
+      ...(fpc !== undefined ? { fpc } : {}),
       ...(rate.population !== undefined ? { responseRate: rate.n / rate.population } : {}),
-      methods: [rate.population !== undefined ? 'wilson-fpc' : 'wilson'],
+      methods: rate.fpc === true ? ['wilson-fpc', 'finite-population-correction'] : ['wilson'],
     };
   }
   if (measure.type === 'mean') {

@@ -17,12 +17,17 @@ import { twoProportionZ } from '../stats/two-proportion-z.js';
 import { fisherExact2x2 } from '../stats/fisher-exact-2x2.js';
 import { cohensH } from '../stats/cohens-h.js';
 import { minDetectableDifference } from '../stats/power-two-proportions.js';
-import type { RateSummary } from './types.js';
+import { effectiveSize, twoProportionZFpc } from '../stats/finite-population.js';
+import type { FpcChoice, RateSummary } from './types.js';
 
-/** A selection's pooled rate with its Wilson interval (with the finite-population correction when eligible is known). */
-export function rateSummary(label: string, pooled: Pooled, confidence: number): RateSummary {
+/**
+ * A selection's pooled rate with its Wilson interval, with the finite-population correction when eligible is known
+ * and `correct` is true (the claim's one decision, see fpcWanted). The number eligible is kept either way, for the
+ * response rate.
+ */
+export function rateSummary(label: string, pooled: Pooled, confidence: number, correct = true): RateSummary {
   const population = pooled.population !== undefined && pooled.population >= pooled.n ? pooled.population : undefined;
-  const estimate = wilson(pooled.agree, pooled.n, confidence, population);
+  const estimate = wilson(pooled.agree, pooled.n, confidence, correct ? population : undefined);
   return {
     label,
     n: pooled.n,
@@ -30,6 +35,7 @@ export function rateSummary(label: string, pooled: Pooled, confidence: number): 
     rate: estimate.p,
     interval: estimate.interval,
     ...(population !== undefined ? { population } : {}),
+    ...(correct && population !== undefined ? { fpc: true as const } : {}),
     approximate: pooled.approximate,
     ...suppressedOf(pooled),
   };
@@ -38,6 +44,20 @@ export function rateSummary(label: string, pooled: Pooled, confidence: number): 
 /** The selection's suppressed rows, for RateSummary.suppressed (nothing when none were). */
 export function suppressedOf(pooled: Pooled): { suppressed?: { rows: number; of: number } } {
   return pooled.suppressed !== undefined && pooled.suppressed > 0 ? { suppressed: { rows: pooled.suppressed, of: pooled.cells } } : {};
+}
+
+/**
+ * The finite-population correction is one decision per claim: on for every figure of its rates, or off for all.
+ * Wanted when the source gives the number eligible and the claims file does not turn it off (finite_population_
+ * correction: false, pack-wide or on the claim). `form` names the test when the claim's kind has no corrected
+ * form, so that nothing of it is corrected. Undefined when there is nothing to say (no number eligible, nothing
+ * written).
+ */
+export function fpcWanted(claim: { finitePopulation?: boolean }, cube: { hasPopulation: boolean }, form?: string): FpcChoice | undefined {
+  if (!cube.hasPopulation) return claim.finitePopulation === true ? { used: false, why: 'no-population' } : undefined;
+  if (claim.finitePopulation === false) return { used: false, why: 'off' };
+  if (form !== undefined) return { used: false, why: 'no-form', form };
+  return { used: true };
 }
 
 /**
@@ -64,6 +84,11 @@ export function smallExpected(x1: number, n1: number, x2: number, n2: number): b
 }
 
 export interface TwoRates {
+  /** The two rates as used: without the correction when it had to be dropped (Fisher's exact test). */
+  first: RateSummary;
+  second: RateSummary;
+  /** The correction as applied to every figure here (undefined when the rates carry no number eligible). */
+  fpc?: FpcChoice;
   test: TestResult;
   /** One-sided p-value in the direction opposite to the claim (one-sided claims only). */
   pOpposite?: number;
@@ -82,29 +107,57 @@ export interface TwoRates {
  * Test the first rate against the second in the claim's direction: pooled z test, or Fisher's exact test when an
  * expected count is below 5; Newcombe's interval for the difference; Cohen's h; the detectable difference.
  */
-export function compareRates(first: RateSummary, second: RateSummary, expect: CompareExpect, sided: Sided, confidence: number): TwoRates {
+export function compareRates(
+  firstIn: RateSummary,
+  secondIn: RateSummary,
+  expect: CompareExpect,
+  sided: Sided,
+  confidence: number,
+  wanted?: FpcChoice,
+): TwoRates {
   const alternative = alternativeFor(expect, sided);
-  const useFisher = smallExpected(first.agree, first.n, second.agree, second.n);
+  const useFisher = smallExpected(firstIn.agree, firstIn.n, secondIn.agree, secondIn.n);
+  // One decision for every figure: Fisher's exact test has no corrected form, so then nothing is corrected.
+  let fpc = wanted;
+  if (fpc?.used === true && useFisher) fpc = { used: false, why: 'no-form', form: "Fisher's exact test" };
+  const N1 = firstIn.population;
+  const N2 = secondIn.population;
+  const corrected = fpc?.used === true && N1 !== undefined && N2 !== undefined;
+  const plain = (r: RateSummary): RateSummary => {
+    if (r.fpc !== true || corrected) return r;
+    const again = rateSummary(r.label, { n: r.n, agree: r.agree, approximate: r.approximate, cells: 1, ...(r.population !== undefined ? { population: r.population } : {}) }, confidence, false);
+    return { ...again, ...(r.suppressed !== undefined ? { suppressed: r.suppressed } : {}) };
+  };
+  const first = plain(firstIn);
+  const second = plain(secondIn);
   const runTest = (alt: Alternative) =>
     useFisher
       ? fisherExact2x2(first.agree, first.n - first.agree, second.agree, second.n - second.agree, alt)
-      : twoProportionZ(first.agree, first.n, second.agree, second.n, alt);
+      : corrected
+        ? twoProportionZFpc(first.agree, first.n, N1, second.agree, second.n, N2, { alternative: alt, level: confidence })
+        : twoProportionZ(first.agree, first.n, second.agree, second.n, alt);
   const test = runTest(alternative);
   const pOpposite = alternative === 'two-sided' ? undefined : runTest(alternativeFor(expect, sided, true)).p;
   const diff = first.rate - second.rate;
-  const interval = newcombe(first.agree, first.n, second.agree, second.n, confidence);
+  const interval = corrected ? newcombe(first.agree, first.n, second.agree, second.n, confidence, N1, N2) : newcombe(first.agree, first.n, second.agree, second.n, confidence);
   const testSided = alternative === 'two-sided' ? 'two-sided' : 'one-sided';
   // The smallest gap these samples would detect with 80% power, in the direction the claim expects (for an
   // undirected claim, the larger of the two directions). Undefined when no gap in that direction is detectable.
+  // With the correction each group counts as its effective size n / f (Cochran 1977, §3.3).
   let detectable: number | undefined;
   if (second.rate > 0 && second.rate < 1) {
-    const both = minDetectableDifference(first.n, second.n, second.rate, 1 - confidence, 0.8, testSided);
+    const m1 = corrected ? effectiveSize(first.n, N1) : first.n;
+    const m2 = corrected ? effectiveSize(second.n, N2) : second.n;
+    const both = minDetectableDifference(m1, m2, second.rate, 1 - confidence, 0.8, testSided);
     const candidates = expect === 'lower' ? [both.decrease] : expect === 'higher' ? [both.increase] : [both.increase, both.decrease];
     const found = candidates.filter((d): d is number => d !== null);
     if (found.length > 0) detectable = Math.max(...found);
   }
   const rates = [first, second].filter((r) => r.population !== undefined).map((r) => r.n / (r.population as number));
   return {
+    first,
+    second,
+    ...(fpc !== undefined ? { fpc: corrected ? fpc : fpc.used ? { used: false, why: 'no-population' as const } : fpc } : {}),
     test,
     ...(pOpposite !== undefined ? { pOpposite } : {}),
     useFisher,
@@ -113,10 +166,11 @@ export function compareRates(first: RateSummary, second: RateSummary, expect: Co
     ...(detectable !== undefined ? { detectable } : {}),
     ...(rates.length > 0 ? { responseRate: Math.min(...rates) } : {}),
     methods: [
-      useFisher ? 'fisher-exact-2x2' : 'two-proportion-z',
-      first.population !== undefined || second.population !== undefined ? 'wilson-fpc' : 'wilson',
+      useFisher ? 'fisher-exact-2x2' : corrected ? 'two-proportion-z-fpc' : 'two-proportion-z',
+      corrected ? 'wilson-fpc' : 'wilson',
       'newcombe-hybrid',
       'power-two-proportions',
+      ...(corrected ? ['finite-population-correction'] : []),
     ],
   };
 }

@@ -20,7 +20,8 @@ import { minDetectableGap } from '../stats/power-one-proportion.js';
 import type { Alternative, TestResult } from '../stats/result.js';
 import type { CompareContext } from './compare.js';
 import { filterLabel, sign } from './labels.js';
-import { alternativeFor, expectSignOf, rateSummary } from './rates.js';
+import { alternativeFor, expectSignOf, fpcWanted, rateSummary } from './rates.js';
+import { oneSampleScoreFpc } from '../stats/finite-population.js';
 import { shortfall } from './thresholds.js';
 import type { TargetAnalysis } from './types.js';
 
@@ -48,18 +49,24 @@ export function analyseTarget(claim: TargetClaim, cube: Cube, ctx: CompareContex
   const why = shortfall(claim, [{ label, pooled }]);
   if (why !== undefined) return { ...base, status: 'too-little-data', shortfall: why, observedSign: 0 };
 
-  const rate = rateSummary(label, pooled, claim.confidence);
-  const exact = needsExact(rate.n, p0);
+  const exact = needsExact(pooled.n, p0);
+  // One decision for every figure: the exact binomial test has no corrected form, so then nothing is corrected.
+  const wanted = fpcWanted(claim, cube, exact ? 'the exact binomial test' : undefined);
+  const rate = rateSummary(label, pooled, claim.confidence, wanted?.used === true);
+  const corrected = rate.fpc === true && rate.population !== undefined;
+  const fpc = wanted?.used === true && !corrected ? { used: false, why: 'no-population' as const } : wanted;
   const alternative = alternativeFor(claim.expect, claim.sided);
   const run = (alt: Alternative): TestResult =>
     exact
       ? binomialExactTest(rate.agree, rate.n, p0, { alternative: alt, level: claim.confidence })
-      : oneSampleScoreTest(rate.agree, rate.n, p0, { alternative: alt, level: claim.confidence });
+      : corrected
+        ? oneSampleScoreFpc(rate.agree, rate.n, rate.population as number, p0, { alternative: alt, level: claim.confidence })
+        : oneSampleScoreTest(rate.agree, rate.n, p0, { alternative: alt, level: claim.confidence });
   const test = run(alternative);
   const pOpposite = alternative === 'two-sided' ? undefined : run(alternativeFor(claim.expect, claim.sided, true)).p;
   const diff = rate.rate - p0;
   const sided = alternative === 'two-sided' ? 'two-sided' : 'one-sided';
-  const gaps = minDetectableGap(rate.n, p0, 1 - claim.confidence, 0.8, sided, rate.population);
+  const gaps = minDetectableGap(rate.n, p0, 1 - claim.confidence, 0.8, sided, corrected ? rate.population : undefined);
   const candidates = claim.expect === 'lower' ? [gaps.decrease] : claim.expect === 'higher' ? [gaps.increase] : [gaps.increase, gaps.decrease];
   const found = candidates.filter((d): d is number => d !== null);
   const detectable = found.length > 0 ? Math.max(...found) : undefined;
@@ -69,6 +76,7 @@ export function analyseTarget(claim: TargetClaim, cube: Cube, ctx: CompareContex
     ...base,
     status: 'tested',
     rate,
+    ...(fpc !== undefined ? { fpc } : {}),
     test,
     ...(pOpposite !== undefined ? { pOpposite } : {}),
     observedSign: sign(diff),
@@ -79,10 +87,11 @@ export function analyseTarget(claim: TargetClaim, cube: Cube, ctx: CompareContex
     // The smallest difference that matters applies to the gap from the fixed value (src/verdicts/decide.ts).
     ...(claim.smallestDifference !== undefined ? { threshold: { effect: diff, smallest: claim.smallestDifference, unit: 'points' as const } } : {}),
     methods: [
-      exact ? 'binomial-exact' : 'one-sample-score',
-      rate.population !== undefined ? 'wilson-fpc' : 'wilson',
+      exact ? 'binomial-exact' : corrected ? 'one-sample-score-fpc' : 'one-sample-score',
+      corrected ? 'wilson-fpc' : 'wilson',
       ...(exact ? ['clopper-pearson'] : []),
       'power-one-proportion',
+      ...(corrected ? ['finite-population-correction'] : []),
     ],
   };
 }

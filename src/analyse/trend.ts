@@ -25,7 +25,7 @@ import type { CompareContext } from './compare.js';
 import { requirePeriodColumn } from './change.js';
 import { sign } from './labels.js';
 import { resolvePeriods } from './periods.js';
-import { rateSummary } from './rates.js';
+import { fpcWanted, rateSummary } from './rates.js';
 import { shortfall } from './thresholds.js';
 import type { TrendAnalysis } from './types.js';
 
@@ -80,7 +80,9 @@ export function analyseTrend(written: TrendClaim, cube: Cube, ctx: CompareContex
   );
   if (why !== undefined) return { ...base, status: 'too-little-data', shortfall: why, observedSign: 0 };
 
-  const rates = periods.map((p, i) => rateSummary(p, pooled[i] as Pooled, claim.confidence));
+  // The trend test has no corrected form, so no figure of a trend claim carries the finite-population correction.
+  const fpc = fpcWanted(claim, cube, 'the trend test');
+  const rates = periods.map((p, i) => rateSummary(p, pooled[i] as Pooled, claim.confidence, false));
   const x = rates.map((r) => r.agree);
   const n = rates.map((r) => r.n);
   const scores = periods.map((_, i) => i);
@@ -115,6 +117,7 @@ export function analyseTrend(written: TrendClaim, cube: Cube, ctx: CompareContex
     departure: { statistic: departure.statistic.value, df: departure.df, p: departure.p, overall: departure.overall },
     detectable,
     ...(withPop.length > 0 ? { responseRate: Math.min(...withPop.map((r) => r.n / (r.population as number))) } : {}),
-    methods: ['cochran-armitage-trend', 'departure-from-trend', withPop.length > 0 ? 'wilson-fpc' : 'wilson', 'power-trend'],
+    ...(fpc !== undefined ? { fpc } : {}),
+    methods: ['cochran-armitage-trend', 'departure-from-trend', 'wilson', 'power-trend'],
   };
 }

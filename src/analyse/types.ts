@@ -19,6 +19,19 @@ export interface RateSummary {
   approximate: boolean;
   /** Rows of the selection whose counts were withheld in the release, and all its rows (only when some were). */
   suppressed?: { rows: number; of: number };
+  /** True when the interval carries the finite-population correction. */
+  fpc?: true;
+}
+
+/**
+ * The finite-population correction as decided for a claim: used for every figure of its rates, or for none, and
+ * why not: turned off in the claims file, no number eligible in the data, or no corrected form of the claim's test.
+ */
+export interface FpcChoice {
+  used: boolean;
+  why?: 'off' | 'no-population' | 'no-form';
+  /** why 'no-form': the test that has no corrected form, e.g. "the trend test". */
+  form?: string;
 }
 
 /** Sign of an effect in the claim's terms: +1 the way the claim says, -1 the other way, 0 no direction claimed. */
@@ -45,6 +58,8 @@ interface AnalysisBase {
    * units (for mean scores the fraction is read as a share of the scale's range: 0.05 on a 1-5 scale is 0.2).
    */
   threshold?: { effect: number; smallest: number; unit: 'points' | 'scale points' };
+  /** The finite-population correction: used for every figure of the claim's rates or for none (see FpcChoice). */
+  fpc?: FpcChoice;
 }
 
 export interface CompareAnalysis extends AnalysisBase {

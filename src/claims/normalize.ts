@@ -117,6 +117,8 @@ export function normalize(parsed: ParsedYaml, absPath: string, sha256: string, l
     if (rate !== undefined) base.minResponseRate = rate;
     const smallest = c.smallest_difference !== undefined ? points(c.smallest_difference) : topSmallest;
     if (smallest !== undefined) base.smallestDifference = smallest;
+    const fpc = c.finite_population_correction ?? data.finite_population_correction;
+    if (typeof fpc === 'boolean') base.finitePopulation = fpc;
     return claimOfKind(c, base, lenient);
   });
 
@@ -134,6 +136,7 @@ export function normalize(parsed: ParsedYaml, absPath: string, sha256: string, l
   };
   if (topRate !== undefined) out.minResponseRate = topRate;
   if (topSmallest !== undefined) out.smallestDifference = topSmallest;
+  if (typeof data.finite_population_correction === 'boolean') out.finitePopulation = data.finite_population_correction;
   if (typeof data.description === 'string') out.description = data.description.trim();
   if (data.data_date !== undefined) out.dataDate = String(data.data_date);
   return out;

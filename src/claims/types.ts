@@ -126,6 +126,11 @@ interface ClaimBase {
   minResponseRate?: number;
   /** The smallest difference that matters, as a fraction (0.05 = 5 points); a smaller significant one is not "supported". */
   smallestDifference?: number;
+  /**
+   * finite_population_correction as written on the claim, else pack-wide; undefined when neither says: the correction
+   * is then used wherever the source gives the number eligible. Either way it applies to every figure or to none.
+   */
+  finitePopulation?: boolean;
   place: Place;
 }
 
@@ -287,6 +292,8 @@ export interface ClaimsFile {
   minResponseRate?: number;
   /** Pack default for the smallest difference that matters (fraction), if any. */
   smallestDifference?: number;
+  /** Pack default for the finite-population correction (finite_population_correction), if written. */
+  finitePopulation?: boolean;
   sources: SourceSpec[];
   claims: Claim[];
 }

@@ -23,6 +23,21 @@ export const METHODS: Record<string, MethodInfo> = {
     text: 'Where the number eligible is known, the variance is multiplied by (N − n)/(N − 1), so that the interval narrows as the share of the cohort that answered grows and vanishes when everyone answered. It still assumes those who answered are like those who did not.',
     source: 'Wilson (1927); finite-population correction as in Cochran, W. G. (1977). Sampling Techniques, 3rd ed., Wiley, ch. 3.',
   },
+  'finite-population-correction': {
+    name: 'Finite-population correction',
+    text: 'Where the number eligible (N) is known and most of a small cohort answered, each rate’s variance is multiplied by (N − n)/(N − 1). warrant applies it to every figure of a claim (the test, each rate’s interval, the interval for the difference and the smallest detectable difference, each group counting as n divided by that factor) or to none, and the claim’s numbers say which. It assumes those who answered are like those who did not; a low response rate is a caution no correction removes.',
+    source: 'Cochran, W. G. (1977). Sampling Techniques, 3rd ed., Wiley, §2.6 and §3.3.',
+  },
+  'two-proportion-z-fpc': {
+    name: 'Two-proportion z test with the finite-population correction',
+    text: 'The pooled two-proportion z test with each group’s variance multiplied by (N − n)/(N − 1).',
+    source: 'Fleiss, J. L., Levin, B. and Paik, M. C. (2003). Statistical Methods for Rates and Proportions, 3rd ed., §2.5; correction as in Cochran (1977), Sampling Techniques, §3.3.',
+  },
+  'one-sample-score-fpc': {
+    name: 'Score test against a fixed value with the finite-population correction',
+    text: 'The score test of a rate against a fixed value, its variance multiplied by (N − n)/(N − 1).',
+    source: 'Wilson (1927); correction as in Cochran, W. G. (1977). Sampling Techniques, 3rd ed., §3.3.',
+  },
   'two-proportion-z': {
     name: 'Two-proportion z test (pooled)',
     text: 'Tests whether two agreement rates differ, using the pooled rate under the null hypothesis. It assumes the two groups are separate, respondents are independent, and each group has at least about five agreeing and five not agreeing.',

@@ -88,3 +88,65 @@ describe('trends that rise then fall', () => {
     expect(trend.text).toContain(`Departure from a straight line X² = ${R.steady.statistic.toFixed(2)}, ${R.steady.df} degrees of freedom, p = ${R.steady.p.toFixed(3)}`);
   });
 });
+
+describe('the finite-population correction, one decision for every figure', () => {
+  const compare = (extra: string) => `
+  - id: brackenholt-below-vellmoor
+    claim: Fewer Brackenholt students agree on Q01 than Vellmoor students.
+    kind: compare
+    where: { Year: 2026, Question: Q01 }
+    focus: { Institution: Brackenholt College }
+    against: { Institution: Vellmoor Institute }
+    expect: different${extra}
+`;
+  let on: ReturnType<typeof build>;
+  let off: ReturnType<typeof build>;
+  let claimOff: ReturnType<typeof build>;
+  beforeAll(() => {
+    on = build('fpc-on', `${HEAD}claims:${compare('')}`);
+    off = build('fpc-off', `${HEAD.replace('adjust: none', 'adjust: none\nfinite_population_correction: false')}claims:${compare('')}`);
+    claimOff = build('fpc-claim-off', `${HEAD}claims:${compare('\n    finite_population_correction: false')}`);
+  }, 180_000);
+
+  it('by default (the number eligible given) the test, both intervals, the difference interval and the detectable difference all use it', () => {
+    const c = on.results.claims[0] as Record<string, any>;
+    expect(c.method).toBe('two-proportion-z-fpc');
+    expectClose(c.statistic.value, R.fpc.z, 'closed', 'z with f1/n1 + f2/n2, written out in R');
+    expectClose(c.p, R.fpc.p, 'p', 'R 2 * pnorm(-|z|)');
+    expectClose(c.selections[0].interval.lower, R.fpc.lower1, 'closed', 'Wilson with f, roots written out in R');
+    expectClose(c.selections[0].interval.upper, R.fpc.upper1, 'closed', 'Wilson with f');
+    expectClose(c.selections[1].interval.lower, R.fpc.lower2, 'closed', 'Wilson with f');
+    expectClose(c.selections[1].interval.upper, R.fpc.upper2, 'closed', 'Wilson with f');
+    expectClose(c.interval.lower, R.fpc.diff_lower, 'closed', 'Newcombe hybrid from the corrected Wilson limits');
+    expectClose(c.interval.upper, R.fpc.diff_upper, 'closed', 'Newcombe hybrid from the corrected Wilson limits');
+    expectClose(c.detectable, R.fpc.detectable, 1e-9, 'R uniroot on the power formula with n / f');
+    expect(on.text).toContain('Finite-population correction used in every figure: the test, the intervals and the smallest detectable difference');
+    expect(on.text).toContain('the finite-population correction in every figure (test, intervals and detectable difference)');
+    expect(on.text).toContain('Cochran, W. G. (1977). Sampling Techniques');
+  });
+
+  it('turned off pack-wide, no figure uses it: R prop.test and plain Wilson', () => {
+    const c = off.results.claims[0] as Record<string, any>;
+    expect(c.method).toBe('two-proportion-z');
+    expectClose(c.statistic.value, R.plain.z, 'closed', 'pooled z');
+    expectClose(c.p, R.plain.p, 'p', 'R prop.test(correct = FALSE)');
+    expectClose(c.selections[0].interval.lower, R.plain.lower1, 'closed', 'Wilson without f');
+    expectClose(c.interval.lower, R.plain.diff_lower, 'closed', 'Newcombe hybrid');
+    expectClose(c.interval.upper, R.plain.diff_upper, 'closed', 'Newcombe hybrid');
+    expectClose(c.detectable, R.plain.detectable, 1e-9, 'R uniroot on the power formula');
+    expect(off.text).toContain('Finite-population correction not used: turned off in the claims file (finite_population_correction: false)');
+    expect(off.text).not.toContain('the finite-population correction in every figure');
+  });
+
+  it('turned off on the claim only: the same figures as off pack-wide', () => {
+    const c = claimOff.results.claims[0] as Record<string, any>;
+    expectClose(c.p, R.plain.p, 'p', 'R prop.test(correct = FALSE)');
+    expect(claimOff.text).toContain('turned off in the claims file');
+  });
+
+  it('a trend (no corrected form) uses it in no figure and says so', () => {
+    const c = trend.results.claims[0] as Record<string, any>;
+    expect(c.selections.every((s: { interval: { method: string } }) => s.interval.method === 'wilson')).toBe(true);
+    expect(trend.text).toContain('Finite-population correction not used in any figure: the trend test has no corrected form');
+  });
+});
