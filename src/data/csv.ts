@@ -399,6 +399,49 @@ export interface CsvOptions extends ReadOptions {
   onBytes?: (bytes: Buffer) => void;
 }
 
+/**
+ * One line holding quotes, without its line break, split as papaparse splits it, or undefined when the line is not
+ * plainly regular (a quote inside an unquoted value, text after a closing quote, a carriage return): papaparse then
+ * reads it, and reports it if it is wrong. A quoted value ends at a quote not followed by another; "" stands for ".
+ */
+export function splitQuotedLine(text: string, delimiter: string): string[] | undefined {
+  if (text.indexOf('\r') >= 0) return undefined;
+  const d = delimiter.charCodeAt(0);
+  const out: string[] = [];
+  let i = 0;
+  const n = text.length;
+  for (;;) {
+    if (text.charCodeAt(i) === 34) {
+      let value = '';
+      let from = i + 1;
+      for (;;) {
+        const q = text.indexOf('"', from);
+        if (q < 0) return undefined;
+        if (text.charCodeAt(q + 1) === 34) {
+          value += text.slice(from, q + 1);
+          from = q + 2;
+          continue;
+        }
+        value += text.slice(from, q);
+        i = q + 1;
+        break;
+      }
+      out.push(value);
+      if (i === n) return out;
+      if (text.charCodeAt(i) !== d) return undefined;
+      i += 1;
+    } else {
+      let j = text.indexOf(delimiter, i);
+      if (j < 0) j = n;
+      const value = text.slice(i, j);
+      if (value.indexOf('"') >= 0) return undefined;
+      out.push(value);
+      if (j === n) return out;
+      i = j + 1;
+    }
+  }
+}
+
 export async function* readCsvRows(path: string, options: CsvOptions = {}): AsyncGenerator<SheetRow> {
   for await (const batch of readCsvBatches(path, options)) yield* batch;
 }
@@ -532,23 +575,55 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
         }
         if (from >= 0 && pending === '') {
           const last = raw.lastIndexOf(10);
-          if (last >= from) {
-            const region = raw.subarray(from, last + 1);
-            if (region.indexOf(34) < 0 && isUtf8(region)) {
+          // Runs of plain lines are split straight from the bytes; a line with a quote between them is split on its
+          // own (splitQuotedLine, or papaparse for anything unusual), so that a file where some names are quoted
+          // stays on this path. A quote count that is odd (a quoted line break) leaves the rest to textPiece.
+          let at = from;
+          // Valid UTF-8 as a whole, so valid in every part split at a line feed (never inside a character).
+          const valid = last >= from && isUtf8(raw.subarray(from, last + 1));
+          while (valid && at <= last) {
+            const q = raw.indexOf(34, at);
+            const runEnd = q < 0 || q > last ? last + 1 : Math.max(at, raw.lastIndexOf(10, q) + 1);
+            if (runEnd > at) {
               const sink = options.select?.lines;
               if (sink !== undefined) {
                 // The consumer takes these lines itself, in order: the rows before them have been yielded.
-                const taken = sink.lines(raw, from, last + 1, dialect.newline === '\r\n', dialect.delimiter.charCodeAt(0), row + 1);
+                const taken = sink.lines(raw, at, runEnd, dialect.newline === '\r\n', dialect.delimiter.charCodeAt(0), row + 1);
                 row += taken.rows;
-                from = taken.at;
+                if (taken.at < runEnd) {
+                  at = taken.at;
+                  break;
+                }
               } else {
                 const rows: SheetRow[] = [];
-                from = splitByteRows(raw, from, last + 1, dialect.newline === '\r\n', dialect.delimiter.charCodeAt(0), keep, row + 1, byteIntern, rows);
+                const end = splitByteRows(raw, at, runEnd, dialect.newline === '\r\n', dialect.delimiter.charCodeAt(0), keep, row + 1, byteIntern, rows);
                 row += rows.length;
                 if (rows.length > 0) yield rows;
+                if (end < runEnd) {
+                  at = end;
+                  break;
+                }
+              }
+              at = runEnd;
+            }
+            if (at > last) break;
+            const lineEnd = raw.indexOf(10, at) + 1;
+            let quotes = 0;
+            for (let i = at; i < lineEnd; i++) if (raw[i] === 34) quotes += 1;
+            if (quotes % 2 === 1) break;
+            const crlf = dialect.newline === '\r\n' && lineEnd - 2 >= at && raw[lineEnd - 2] === 13;
+            const record = splitQuotedLine(raw.toString('utf8', at, lineEnd - (crlf ? 2 : 1)), dialect.delimiter);
+            if (record !== undefined) yield* emit([record]);
+            else {
+              yield* textPiece(raw.subarray(at, lineEnd));
+              if (pending !== '') {
+                at = lineEnd;
+                break;
               }
             }
+            at = lineEnd;
           }
+          from = at;
         }
         if (from < 0) from = 0;
       }

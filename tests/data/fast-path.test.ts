@@ -138,6 +138,61 @@ describe('CSV reader: fast path against papaparse', () => {
       expect(a.cells).toEqual(b.cells);
     }
   });
+
+  it('lines with quotes among plain lines, columns left out: the kept columns as papaparse reads them, at every chunk size', async () => {
+    // Quoted values with delimiters, doubled quotes and multi-byte letters, and some irregular lines (a quote inside an
+    // unquoted value, a quoted line break) that must go to papaparse; reference: papaparse 5.7 on the whole string.
+    const plain = fc.constantFrom('a', 'Ł', 'ŵ', '🌱', ' ', '1', '');
+    const quoted = fc.array(fc.constantFrom('a', 'ï', ',', '""', ' ', 'ŷ', ';'), { maxLength: 5 }).map((a) => `"${a.join('')}"`);
+    const odd = fc.constantFrom('x"y', '"a\nb"', '"a\r\nb"');
+    const cell = fc.oneof({ weight: 6, arbitrary: fc.array(plain, { maxLength: 3 }).map((a) => a.join('')) }, { weight: 3, arbitrary: quoted }, { weight: 1, arbitrary: odd });
+    await fc.assert(
+      fc.asyncProperty(
+        fc.array(fc.array(cell, { minLength: 4, maxLength: 4 }), { minLength: 1, maxLength: 14 }),
+        fc.array(fc.boolean(), { minLength: 4, maxLength: 4 }),
+        fc.constantFrom('\n', '\r\n'),
+        fc.integer({ min: 1, max: 48 }),
+        async (table, keep, nl, chunkSize) => {
+          const text = ['a,b,c,d', ...table.map((r) => r.join(','))].join(nl) + nl;
+          const path = file('csv', text);
+          const select: { keep?: readonly boolean[] } = {};
+          const rows: SheetRow[] = [];
+          for await (const r of readCsvRows(path, { chunkSize, select })) {
+            rows.push(r);
+            select.keep = keep;
+          }
+          const ref = Papa.parse<string[]>(text, { delimiter: ',', newline: nl }).data;
+          ref.pop();
+          expect(rows.map((r) => r.row)).toEqual(ref.map((_, i) => i + 1));
+          rows.forEach((r, i) => {
+            const want = ref[i]!;
+            expect(r.values.length).toBe(want.length);
+            r.values.forEach((v, c) => {
+              if (i === 0 || r.blank === undefined || keep[c] === true) expect(v).toBe(want[c]);
+              else expect(v).toBe('');
+            });
+          });
+        },
+      ),
+      { numRuns: 300, seed: 20261203 },
+    );
+  });
+
+  it('respondent tallies of a file where one name in three is quoted equal those of the same file read wholly by papaparse', async () => {
+    const names = ['Ashmere', '"Łąka, Tŷ"', 'Brockwell', '"Naïf ""Ŵ"", Cwm"'];
+    const rows = ['ID,Unit,Q01,Q02'];
+    for (let i = 0; i < 500; i++) rows.push(`${i},${names[i % 4]},${1 + ((i * 7) % 5)},${[1, 2, 3, 4, 5, 9, ''][i % 7]}`);
+    const mixed = file('csv', rows.join('\n') + '\n');
+    const allQuoted = file('csv', rows.map((r, i) => (i === 0 ? r : r.replace(/^(\d+),/, '"$1",'))).join('\n') + '\n');
+    const src = (path: string) => respondentsSource(path, { questions: ['Q01', 'Q02'], notApplicableCodes: [9] });
+    for (const chunkSize of [5, 100, 1 << 16]) {
+      const a = await readCube(src(mixed), ['Unit'], 'a.csv', { chunkSize });
+      const b = await readCube(src(allQuoted), ['Unit'], 'b.csv', { chunkSize });
+      expect(a.rows).toBe(500);
+      expect(a.cells).toEqual(b.cells);
+      expect(a.values.Unit).toEqual(['Ashmere', 'Łąka, Tŷ', 'Brockwell', 'Naïf "Ŵ", Cwm']);
+    }
+  });
 });
 
 // ---------------------------------------------------------------------------------------------------------------
