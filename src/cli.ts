@@ -216,7 +216,7 @@ export async function main(argv: string[]): Promise<number> {
           y
             .positional('data', { type: 'string', demandOption: true, describe: 'The data file (.csv or .xlsx)' })
             .option('sheet', { type: 'string', describe: 'Worksheet of an .xlsx file (default: the first visible sheet)' })
-            .option('out', { type: 'string', describe: 'The claims file to write (default: claims.yaml beside the data file)' })
+            .option('out', { type: 'string', describe: 'The claims file to write (default: claims.yaml in the current folder; never an existing file unless --force)' })
             .option('force', { type: 'boolean', describe: 'Replace the claims file if it exists' })
             .example('$0 init data/results.xlsx --out claims.yaml', 'Write claims.yaml with examples using the columns of results.xlsx'),
         async (args) => {

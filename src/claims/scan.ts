@@ -33,6 +33,12 @@ export interface ColumnScan {
   markers: Record<string, number>;
   /** Cells holding a number with a footnote marker ("120*"). */
   footnoted: number;
+  /** Cells holding a number (footnoted or not). */
+  numbers: number;
+  /** Every cell holding a number holds a whole number. */
+  wholeNumbers: boolean;
+  /** Up to five other short texts (neither numbers nor known markers) with how many cells held each. */
+  otherTexts: Record<string, number>;
   /** Wording from a second header row (codes above wording). */
   label?: string;
   /** The other header row's text, which also names this column. */
@@ -93,7 +99,7 @@ export async function scanTable(
       header = h;
       h.names.forEach((name, i) => {
         const other = [...h.aliases].find(([, k]) => k === i)?.[0];
-        columns.push({ name, values: [], counts: [], distinct: 0, more: false, filled: 0, numeric: true, integer: true, markers: {}, footnoted: 0, ...(h.labels[name] !== undefined ? { label: h.labels[name] } : {}), ...(other !== undefined ? { alias: other } : {}) });
+        columns.push({ name, values: [], counts: [], distinct: 0, more: false, filled: 0, numeric: true, integer: true, markers: {}, footnoted: 0, numbers: 0, wholeNumbers: true, otherTexts: {}, ...(h.labels[name] !== undefined ? { label: h.labels[name] } : {}), ...(other !== undefined ? { alias: other } : {}) });
         sets.push(new Map());
         text.push(false);
       });
@@ -110,11 +116,16 @@ export async function scanTable(
           const f = splitFootnote(v);
           const bare = f !== undefined ? f.number : v;
           if (f !== undefined) col.footnoted += 1;
+          const whole = /^[+-]?(\d{1,3}(,\d{3})+|\d+)$/.test(bare);
           if (!(NUMBER.test(bare) && /\d/.test(bare))) {
             col.numeric = false;
             text[i] = true;
+            if (v.length <= 12 && (col.otherTexts[v] !== undefined || Object.keys(col.otherTexts).length < 5)) col.otherTexts[v] = (col.otherTexts[v] ?? 0) + 1;
+          } else {
+            col.numbers += 1;
+            if (!whole) col.wholeNumbers = false;
           }
-          if (!/^[+-]?(\d{1,3}(,\d{3})+|\d+)$/.test(bare)) col.integer = false;
+          if (!whole) col.integer = false;
         }
         const set = sets[i]!;
         const seen = set.get(v);
@@ -127,9 +138,11 @@ export async function scanTable(
     };
     const numberColumns = (): number[] => columns.flatMap((c, i) => (c.filled > 0 && c.numeric && !text[i] ? [i] : []));
     let pendingTop = false;
+    let sawText = false;
     for await (const r of opened.rows) {
       if (header === undefined) {
         if (!pendingTop) {
+          if (!sawText && !isBlankRow(r.values)) sawText = true;
           if (opts.headerRow !== undefined ? r.row !== opts.headerRow : isBlankRow(r.values) || isTitleRow(r.values)) continue;
           top = r;
           if (opts.headerRows === 1) {
@@ -184,7 +197,7 @@ export async function scanTable(
       throw new InputError({
         ...where,
         ...(opts.headerRow !== undefined ? { row: opts.headerRow } : {}),
-        problem: opts.headerRow !== undefined ? 'The file has no such row' : 'The file has no rows with any text',
+        problem: opts.headerRow !== undefined ? 'The file has no such row' : sawText ? 'The file has text only in single cells (a title or notes), no header row naming two or more columns' : 'The file has no rows with any text',
         fix: 'Check that this is the right file, and that it was saved with its data',
       });
     }
@@ -199,7 +212,7 @@ export async function scanTable(
         col.numeric = false;
         col.integer = false;
       }
-      if (text[i]) col.markers = {};
+      if (text[i] && col.numbers < 0.8 * col.filled) col.markers = {};
       // A column of markers only is not a column of numbers.
       if (Object.values(col.markers).reduce((a, b) => a + b, 0) === col.filled) {
         col.numeric = false;

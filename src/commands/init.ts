@@ -17,9 +17,9 @@ import { InputError } from '../errors.js';
 export interface InitOptions {
   /** The data file (.csv or .xlsx). */
   data: string;
-  /** Worksheet of an .xlsx file (default: the first visible sheet). */
+  /** Worksheet of an .xlsx file (default: the sheet that holds the table). */
   sheet?: string;
-  /** The claims file to write (default: claims.yaml beside the data file). */
+  /** The claims file to write (default: claims.yaml in the current folder). */
   out?: string;
   /** Overwrite an existing file. */
   force?: boolean;
@@ -39,6 +39,20 @@ export interface Guess {
   numeric: string[];
   /** Columns to select on, most useful first. */
   dimensions: ColumnScan[];
+  /** Texts in columns of counts that look like the release's own markers for withheld cells (written as suppressed:). */
+  ownMarkers: string[];
+}
+
+/**
+ * The few short texts in a column of whole numbers that are neither numbers nor common markers, when they look like
+ * the release's own markers for withheld cells: at most three of them, each at most six characters, in a column at
+ * least four fifths of whose cells are numbers. Common practice; init says it assumed this.
+ */
+export function ownMarkersOf(c: ColumnScan): string[] | undefined {
+  const others = Object.keys(c.otherTexts);
+  if (others.length === 0 || others.length > 3 || c.numbers === 0 || c.numbers < 0.8 * c.filled) return undefined;
+  if (others.some((t) => t.length > 6)) return undefined;
+  return others.sort();
 }
 
 const RESPONDENTS = /respon|^n$|^base$|answered|^count$|replies/i;
@@ -59,7 +73,8 @@ function answerCodes(c: ColumnScan): { na: number[] } | undefined {
 
 /** Guess measures and dimensions from the scanned columns. */
 export function guessMeasures(scan: TableScan): Guess {
-  const cols = scan.columns;
+  // A column of counts with a few texts of its own (the release's markers for withheld cells) is read as counts.
+  const cols = scan.columns.map((c) => (ownMarkersOf(c) !== undefined && c.wholeNumbers ? { ...c, integer: true, numeric: true } : c));
   const find = (re: RegExp, ok: (c: ColumnScan) => boolean, not: Array<string | undefined> = []): string | undefined =>
     cols.find((c) => re.test(c.name) && ok(c) && !not.includes(c.name))?.name;
   const questions: string[] = [];
@@ -73,7 +88,7 @@ export function guessMeasures(scan: TableScan): Guess {
   }
   const respondents = find(RESPONDENTS, (c) => c.integer);
   const shape = questions.length > 0 && respondents === undefined ? 'respondents' : 'summary';
-  const guess: Guess = { shape, questions: shape === 'respondents' ? questions : [], notApplicable: shape === 'respondents' ? [...na] : [], numeric: [], dimensions: [] };
+  const guess: Guess = { shape, questions: shape === 'respondents' ? questions : [], notApplicable: shape === 'respondents' ? [...na] : [], numeric: [], dimensions: [], ownMarkers: [] };
   const used = new Set<string>();
   if (shape === 'summary') {
     guess.respondents = respondents;
@@ -95,6 +110,9 @@ export function guessMeasures(scan: TableScan): Guess {
     else if (shape === 'summary' && c.numeric) guess.numeric.push(c.name);
   }
   for (const k of ['respondents', 'agree', 'agreePercent', 'population', 'period'] as const) if (guess[k] === undefined) delete guess[k];
+  // Own markers matter only where counts are read (a summary source's measures).
+  const measures = [guess.respondents, guess.agree, guess.agreePercent, guess.population, ...guess.numeric];
+  if (shape === 'summary') guess.ownMarkers = [...new Set(cols.filter((c) => measures.includes(c.name)).flatMap((c) => ownMarkersOf(c) ?? []))].sort();
   return guess;
 }
 
@@ -146,23 +164,50 @@ export function starterText(scan: TableScan, guess: Guess, dataFile: string, sch
     if (guess.agree !== undefined) L.push(`    agree: ${yamlScalar(guess.agree)}`);
     else if (guess.agreePercent !== undefined) L.push(`    agree_percent: ${yamlScalar(guess.agreePercent)}`);
     else L.push('    agree: COLUMN   # the column with the number who agreed: no column looked like it');
-    if (guess.population !== undefined) L.push(`    population: ${yamlScalar(guess.population)}`);
+    if (guess.population !== undefined) {
+      // Not switched on silently: the correction changes every interval and test that uses these rows.
+      L.push(`    # population: ${yamlScalar(guess.population)}   # the number eligible; uncomment to apply the finite-population correction, which narrows intervals where a large share of those eligible answered`);
+    }
     if (guess.numeric.length > 0) L.push(`    numeric: [${guess.numeric.map(yamlScalar).join(', ')}]`);
+    if (guess.ownMarkers.length > 0) {
+      L.push(`    suppressed: [${guess.ownMarkers.map(yamlScalar).join(', ')}]   # assumed: the only texts in the count columns that are not numbers, read as cells withheld in the release`);
+    }
   } else {
     L.push(`    questions: [${guess.questions.map(yamlScalar).join(', ')}]`);
     L.push('    agree_codes: [4, 5]');
     if (guess.notApplicable.length > 0) L.push(`    not_applicable: [${guess.notApplicable.join(', ')}]`);
   }
   if (guess.period !== undefined) L.push(`    period: ${yamlScalar(guess.period)}`);
-  if (scan.headerRow !== 1) L.push(`    header_row: ${scan.headerRow}`);
+  // What init detected about the table's shape, written so that a wrong guess can be corrected in one place.
+  if (scan.headerRow !== 1) L.push(`    header_row: ${scan.headerRow}   # detected: the column names start on row ${scan.headerRow}${scan.headerRow > 1 ? '; the rows above hold a title or nothing' : ''}`);
+  if (scan.headerRows === 2) {
+    const labelled = scan.columns.filter((c) => c.label !== undefined).length;
+    L.push(`    header_rows: 2   # detected: rows ${scan.headerRow} and ${scan.headerRow + 1} are both header rows (${labelled > 0 ? 'codes above their wording; the codes name the columns' : 'group headings above the column names'})`);
+  }
+  if (scan.tableEnd !== undefined) {
+    const e = scan.tableEnd;
+    L.push(`    last_row: ${e.lastRow}   # detected: the table ends at row ${e.lastRow}; the ${e.noteRows} row${e.noteRows === 1 ? '' : 's'} from row ${e.firstNoteRow} (${JSON.stringify(e.firstNote)}) ${e.noteRows === 1 ? 'is a note' : 'are notes'}`);
+  }
+  const withheld = scan.columns.filter((c) => Object.keys(c.markers).length > 0 && (c.name === guess.respondents || c.name === guess.agree || c.name === guess.agreePercent || c.name === guess.population));
+  if (guess.shape === 'summary' && withheld.length > 0) {
+    const cells = (c: ColumnScan) => Object.entries(c.markers).map(([m, k]) => `${JSON.stringify(m)} ${k}`).join(', ');
+    L.push(`    # Read as suppressed (withheld in the release; never given a number): ${withheld.map((c) => `${c.name}: ${cells(c)}`).join('; ')}. A row with a marker is left out of every figure and counted in the pack.`);
+  }
   L.push('');
-  L.push(`# Columns found in ${dataFile}${scan.sheet !== undefined ? `, sheet "${scan.sheet}"` : ''} (${scan.rows} data rows):`);
+  L.push(`# Columns found in ${dataFile}${scan.sheet !== undefined ? `, sheet "${scan.sheet}"` : ''} (${scan.rows} data rows), with their values sorted and the rows holding each:`);
   for (const c of scan.columns) {
     const role =
       c.name === guess.respondents ? 'respondents' : c.name === guess.agree ? 'agreeing' : c.name === guess.agreePercent ? 'percent agreeing' : c.name === guess.population ? 'eligible' : c.name === guess.period ? 'period' : guess.questions.includes(c.name) ? 'answers coded 1-5' : guess.numeric.includes(c.name) ? 'numeric' : undefined;
     const counts = role !== undefined && role !== 'period' && role !== 'answers coded 1-5';
-    const values = c.more ? `more than ${c.distinct} distinct values` : c.distinct > LIST_LIMIT || counts ? `${c.distinct} distinct values` : c.values.join(', ');
-    L.push(`#   ${c.name}${role ? ` (${role})` : ''}: ${values}`);
+    const label = c.label !== undefined ? ` ${JSON.stringify(c.label)}` : '';
+    const named = `${yamlScalar(c.name)}${label}${role ? ` (${role})` : ''}`;
+    if (c.more || c.distinct > LIST_LIMIT || counts || guess.questions.includes(c.name)) {
+      L.push(`#   ${named}: ${c.more ? `more than ${c.distinct}` : c.distinct} distinct values`);
+      continue;
+    }
+    L.push(`#   ${named}:`);
+    const order = c.values.map((v, i) => ({ v, k: c.counts[i] ?? 0 })).sort((a, b) => a.v.localeCompare(b.v, 'en', { numeric: true }));
+    for (const { v, k } of order) L.push(`#     - ${yamlScalar(v)}   # ${k} row${k === 1 ? '' : 's'}`);
   }
   L.push('');
   L.push('claims:');
@@ -258,6 +303,65 @@ export function starterText(scan: TableScan, guess: Guess, dataFile: string, sch
   return L.join('\n') + '\n';
 }
 
+/** Why a scanned sheet does not hold the table (undefined when it does). */
+function notATable(scan: TableScan): string | undefined {
+  if (scan.columns.length < 2) return 'no header row naming two or more columns';
+  if (scan.rows === 0) return 'a header row but no rows below it';
+  if (!scan.columns.some((c) => c.numbers > 0 && c.numbers >= 0.5 * c.filled)) return 'text only, no column of numbers: notes or a cover sheet';
+  return undefined;
+}
+
+/**
+ * The sheet of a workbook that holds the table: of the visible sheets with a header row of names and rows of numbers
+ * below it, the one whose columns look like counts of respondents or answer codes, then the one with more rows (the
+ * first 200 rows of each are looked at). Returns it with the sheets passed over and why.
+ */
+async function chooseSheet(path: string, displayPath: string): Promise<{ sheet: string; skipped: string[] }> {
+  const { openXlsxSheet } = await import('../data/xlsx.js');
+  const opened = await openXlsxSheet(path, { displayPath });
+  const sheets = opened.sheets;
+  opened.close();
+  const skipped: Array<{ name: string; why: string }> = [];
+  const tables: Array<{ name: string; score: number; rows: number }> = [];
+  for (const s of sheets) {
+    if (s.hidden) {
+      skipped.push({ name: s.name, why: 'hidden' });
+      continue;
+    }
+    let probe: TableScan;
+    try {
+      probe = await scanTable(path, 'xlsx', { displayPath, sheet: s.name, maxRows: 200 });
+    } catch (e) {
+      if (!(e instanceof InputError)) throw e;
+      const problem = e.problems[0]?.problem ?? '';
+      const why = /text only/.test(problem) ? 'text in single cells only, no header row of column names: notes or a cover sheet' : /no rows with any text|is empty/.test(problem) ? 'empty' : `unreadable: ${problem}`;
+      skipped.push({ name: s.name, why });
+      continue;
+    }
+    const why = notATable(probe);
+    if (why !== undefined) {
+      skipped.push({ name: s.name, why });
+      continue;
+    }
+    const g = guessMeasures(probe);
+    const score = g.shape === 'respondents' ? 2 : g.respondents !== undefined && (g.agree !== undefined || g.agreePercent !== undefined) ? 2 : g.respondents !== undefined ? 1 : 0;
+    tables.push({ name: s.name, score, rows: probe.rows });
+  }
+  if (tables.length === 0) {
+    throw new InputError({
+      file: displayPath,
+      problem: 'No sheet of the workbook holds a table of survey data (a header row of column names with rows of numbers below it)',
+      found: skipped.map((k) => `"${k.name}": ${k.why}`).join('; '),
+      fix: 'Name the sheet to read with --sheet, or check that this is the right workbook',
+    });
+  }
+  const best = [...tables].sort((a, b) => b.score - a.score || b.rows - a.rows)[0]!;
+  for (const t of tables) if (t !== best) skipped.push({ name: t.name, why: t.score < best.score ? 'a table, but without counts of respondents or answer codes' : 'a smaller table' });
+  const order = sheets.map((s) => s.name);
+  skipped.sort((a, b) => order.indexOf(a.name) - order.indexOf(b.name));
+  return { sheet: best.name, skipped: skipped.map((k) => `"${k.name}" (${k.why})`) };
+}
+
 /** Write the starter claims file; returns the exit code. */
 export async function init(opts: InitOptions): Promise<number> {
   const write = opts.write ?? ((t: string) => void process.stdout.write(t));
@@ -269,20 +373,37 @@ export async function init(opts: InitOptions): Promise<number> {
   if (format === 'csv' && opts.sheet !== undefined) {
     throw new InputError({ file: opts.data, field: 'sheet', found: opts.sheet, problem: 'a .csv file has no sheets', fix: 'Leave out --sheet, or give the .xlsx workbook' });
   }
-  const outPath = resolve(opts.out ?? resolve(dirname(dataPath), 'claims.yaml'));
+  // In the current folder unless --out says otherwise: never beside the data unasked.
+  const outPath = resolve(opts.out ?? 'claims.yaml');
   const outDisplay = displayPathFor(outPath);
   if (existsSync(outPath) && !opts.force) {
     throw new InputError({ file: outDisplay, problem: 'this file already exists, and warrant init does not overwrite it', fix: 'Choose another name with --out, or add --force to replace it' });
   }
-  const scan = await scanTable(dataPath, format, { displayPath: displayPathFor(dataPath), ...(opts.sheet !== undefined ? { sheet: opts.sheet } : {}) });
+  const dataDisplay = displayPathFor(dataPath);
+  let sheet = opts.sheet;
+  let skipped: string[] = [];
+  if (format === 'xlsx' && sheet === undefined) ({ sheet, skipped } = await chooseSheet(dataPath, dataDisplay));
+  const scan = await scanTable(dataPath, format, { displayPath: dataDisplay, ...(sheet !== undefined ? { sheet } : {}) });
   const guess = guessMeasures(scan);
   const outDir = dirname(outPath);
   const rel = (p: string): string => {
     const r = relative(outDir, p).split(sep).join('/');
     return r === '' ? '.' : r;
   };
-  const text = starterText(scan, guess, rel(dataPath), rel(claimsSchemaPath()), format === 'xlsx' ? scan.sheet : undefined);
-  await writeFile(outPath, text, 'utf8');
-  write(`${outDisplay}: written with ${scan.columns.length} columns (${guess.shape} data) and an example of every kind of claim; uncomment one and run warrant check ${outDisplay}\n`);
+  let text = starterText(scan, guess, rel(dataPath), rel(claimsSchemaPath()), format === 'xlsx' ? scan.sheet : undefined);
+  if (skipped.length > 0) {
+    text = text.replace(/\n    sheet: [^\n]*/, (line) => `${line}   # the sheet with the table; passed over: ${skipped.join(', ')}`);
+  }
+  // Written through a new file that is never an existing one (flag wx), unless --force.
+  await writeFile(outPath, text, { encoding: 'utf8', flag: opts.force ? 'w' : 'wx' });
+  const said: string[] = [`${outDisplay}: written with ${scan.columns.length} columns (${guess.shape} data, ${scan.rows} rows) and an example of every kind of claim; uncomment one and run warrant check ${outDisplay}`];
+  if (format === 'xlsx') said.push(`  sheet "${scan.sheet}"${skipped.length > 0 ? `; passed over ${skipped.join(', ')}` : ''}`);
+  if (scan.headerRows === 2) said.push(`  the header spans rows ${scan.headerRow} and ${scan.headerRow + 1} (header_rows: 2)`);
+  if (scan.tableEnd !== undefined) said.push(`  the table ends at row ${scan.tableEnd.lastRow}; ${scan.tableEnd.noteRows} row${scan.tableEnd.noteRows === 1 ? '' : 's'} below it taken as notes (last_row: ${scan.tableEnd.lastRow})`);
+  const markers = scan.columns.reduce((a, c) => a + Object.values(c.markers).reduce((x, y) => x + y, 0), 0);
+  if (markers > 0 && guess.shape === 'summary') said.push(`  ${markers} cell${markers === 1 ? '' : 's'} marked as withheld read as suppressed`);
+  if (guess.ownMarkers.length > 0) said.push(`  assumed ${guess.ownMarkers.map((m) => JSON.stringify(m)).join(', ')} mark withheld cells (suppressed:)`);
+  if (guess.population !== undefined) said.push(`  population column "${guess.population}" written as a comment: uncomment it to apply the finite-population correction`);
+  write(said.join('\n') + '\n');
   return 0;
 }
