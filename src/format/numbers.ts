@@ -9,25 +9,70 @@ function signed(text: string, value: number): string {
   return value < 0 ? MINUS + text : text;
 }
 
-/** A rate as a whole percentage ("61%"); one decimal below 1% or above 99% so that 0.4% is not shown as 0%. */
-export function percent(rate: number): string {
+/** The decimals a rate needs on its own: none, or one below 1% or above 99% so that 0.4% is not shown as 0%. */
+function percentBase(rate: number): number {
   const pct = rate * 100;
-  const digits = pct > 0 && (pct < 1 || pct > 99) && pct !== 100 ? 1 : 0;
-  return `${pct.toFixed(digits)}%`;
+  return pct > 0 && (pct < 1 || pct > 99) && pct !== 100 ? 1 : 0;
 }
 
-/** A difference of two rates in percentage points, one decimal, signed ("−6.2"). */
-export function points(diff: number, options: { sign?: boolean } = {}): string {
-  const rounded = Math.round(Math.abs(diff) * 1000) / 10;
-  const text = rounded.toFixed(1);
-  if (rounded === 0) return '0.0';
+/**
+ * A rate as a whole percentage ("61%"); one decimal below 1% or above 99% so that 0.4% is not shown as 0%. `digits`
+ * (from `percentDigits`) asks for more, so that an interval's ends never print alike.
+ */
+export function percent(rate: number, digits?: number): string {
+  return `${(rate * 100).toFixed(Math.max(digits ?? 0, percentBase(rate)))}%`;
+}
+
+/** A difference of two rates in percentage points, one decimal (or `digits`), signed ("−6.2"). */
+export function points(diff: number, options: { sign?: boolean; digits?: number } = {}): string {
+  const digits = options.digits ?? 1;
+  const text = pointsSize(diff, digits);
+  if (Number(text) === 0) return (0).toFixed(digits);
   if (diff < 0) return MINUS + text;
   return options.sign ? `+${text}` : text;
 }
 
-/** Size of a difference in points without sign ("6.2"). */
-export function pointsSize(diff: number): string {
-  return (Math.round(Math.abs(diff) * 1000) / 10).toFixed(1);
+/** Size of a difference in points without sign ("6.2"), one decimal (or `digits`). */
+export function pointsSize(diff: number, digits = 1): string {
+  return (Math.round(Math.abs(diff) * 10 ** (digits + 2)) / 10 ** digits).toFixed(digits);
+}
+
+/**
+ * The fewest decimals (at least `base`, at most `max`) at which every two of `values` that differ also print
+ * differently: an interval's two ends never collapse ("80% to 80%"), nor does an estimate onto an end it differs from
+ * ("75% (75% to 76%)"). Values closer than the finest step allowed may still print alike.
+ */
+export function distinctDigits(values: readonly number[], write: (v: number, digits: number) => string, base: number, max: number): number {
+  const finite = values.filter((v) => Number.isFinite(v));
+  for (let digits = base; digits < max; digits++) {
+    const texts = finite.map((v) => write(v, digits));
+    let clash = false;
+    for (let i = 0; i < finite.length && !clash; i++) {
+      for (let j = i + 1; j < finite.length; j++) {
+        if (finite[i] !== finite[j] && texts[i] === texts[j]) {
+          clash = true;
+          break;
+        }
+      }
+    }
+    if (!clash) return digits;
+  }
+  return max;
+}
+
+/** Decimals for rates printed together (a rate and its interval's ends): see `distinctDigits`. At most two. */
+export function percentDigits(...rates: number[]): number {
+  return distinctDigits(rates, percent, 0, 2);
+}
+
+/** Decimals for differences in points printed together: one, or more (at most three) where ends would collapse. */
+export function pointsDigits(...diffs: number[]): number {
+  return distinctDigits(diffs, (v, d) => points(v, { sign: true, digits: d }), 1, 3);
+}
+
+/** Decimals for coefficients printed together (r, a mean score): two, or more (at most four) where ends would collapse. */
+export function coefficientDigits(...values: number[]): number {
+  return distinctDigits(values, (v, d) => coefficient(v, d), 2, 4);
 }
 
 /** A p-value: three significant figures, "< 0.001" below a thousandth (with the exact value kept in results.json). */

@@ -1,8 +1,8 @@
 /**
  * Words for the interval at the adjusted level (src/verdicts/adjusted-interval.ts): the headline row of the numbers
- * table names both intervals in one phrase, the verdict paragraph says which is which, and the summary's key figure
- * adds the adjusted interval where the adjustment changes the verdict (where the unadjusted interval alone would
- * suggest a different one).
+ * table names both intervals in one phrase; where the adjustment changes the verdict (where the unadjusted interval
+ * alone would suggest a different one), the verdict paragraph says which is which and the summary's key figure adds
+ * the adjusted interval.
  */
 import type { Analysis } from '../../analyse/types.js';
 import * as fmt from '../../format/numbers.js';
@@ -12,11 +12,14 @@ import { decide, type Decision } from '../decide.js';
 import type { ComposeContext, Composed } from './common.js';
 import { scalePoints } from './means.js';
 
-function bound(v: number, unit: HeadlineUnit): string {
-  if (unit === 'points') return fmt.points(v, { sign: true });
-  if (unit === 'scale points') return scalePoints(v, { sign: true });
-  return fmt.coefficient(v);
+function bound(v: number, unit: HeadlineUnit, digits: number): string {
+  if (unit === 'points') return fmt.points(v, { sign: true, digits });
+  if (unit === 'scale points') return scalePoints(v, { sign: true, digits });
+  return fmt.coefficient(v, digits);
 }
+
+/** Decimals a kind starts from (src/format/numbers.ts): more are used where an interval's ends would collapse. */
+const BASE_DIGITS: Record<HeadlineUnit, number> = { points: 1, 'scale points': 2, coefficient: 2 };
 
 /** A confidence level with enough decimals never to read as 100% ("99.98%"). */
 export function preciseLevel(confidence: number): string {
@@ -33,22 +36,31 @@ export function withAdjustedInterval(built: Composed, a: Analysis, decision: Dec
   const own = headline(a);
   if (!ctx.adjusted || !adjusted || !own) return built;
   const t = ctx.templates;
-  const lower = bound(own.interval.lower, own.unit);
-  const upper = bound(own.interval.upper, own.unit);
+  // The headline row: the first whose value shows the unadjusted interval's two bounds, at the decimals its kind
+  // chose for them (one more at a time from the kind's usual, see fmt.distinctDigits).
+  const base = BASE_DIGITS[own.unit];
+  let digits = base;
+  let at = -1;
+  for (let d = base; d <= base + 2 && at < 0; d++) {
+    const pair = `${bound(own.interval.lower, own.unit, d)} to ${bound(own.interval.upper, own.unit, d)}`;
+    at = built.section.numbers.findIndex((r) => r.value.includes(pair));
+    if (at >= 0) digits = d;
+  }
+  const lower = bound(own.interval.lower, own.unit, digits);
+  const upper = bound(own.interval.upper, own.unit, digits);
+  const adjustedDigits = Math.max(digits, fmt.distinctDigits([adjusted.interval.lower, adjusted.interval.upper], (v, d) => bound(v, adjusted.unit, d), base, base + 2));
   const view = {
     level: fmt.level(own.interval.level),
     lower,
     upper,
     adjustedLevel: preciseLevel(adjusted.interval.level),
-    adjustedLower: bound(adjusted.interval.lower, adjusted.unit),
-    adjustedUpper: bound(adjusted.interval.upper, adjusted.unit),
+    adjustedLower: bound(adjusted.interval.lower, adjusted.unit, adjustedDigits),
+    adjustedUpper: bound(adjusted.interval.upper, adjusted.unit, adjustedDigits),
     claimsTested: ctx.claimsTested,
     unitWord: own.unit === 'coefficient' ? '' : ` ${own.unit}`,
   };
-  // The headline row: the first whose value shows the unadjusted interval's two bounds.
   const pair = `${lower} to ${upper}`;
   const numbers: NumberRow[] = built.section.numbers.slice();
-  const at = numbers.findIndex((r) => r.value.includes(pair));
   if (at >= 0) {
     const row = numbers[at] as NumberRow;
     const bracketed = new RegExp(`\\((?:[0-9.]+% )?interval ${escape(pair)}\\)`);
@@ -61,10 +73,12 @@ export function withAdjustedInterval(built: Composed, a: Analysis, decision: Dec
   } else {
     numbers.push({ label: t.render('interval.adjusted-label', view), value: `${view.adjustedLower} to ${view.adjustedUpper}${view.unitWord} (${view.adjustedLevel})` });
   }
-  const verdictText = `${built.section.verdictText} ${t.render('interval.adjusted-sentence', view)}`;
-  // Where the unadjusted verdict differs from the adjusted one, the summary shows the interval that decided it.
+  // Where the unadjusted verdict differs from the adjusted one (where the interval at the claim's own level alone
+  // would suggest another verdict), the verdict paragraph and the summary also give the interval that decided it.
   const unadjusted = a.test ? decide(a, a.test.p).verdict : decision.verdict;
-  const key = unadjusted !== decision.verdict ? `${built.key}${t.render('interval.adjusted-key', view)}` : built.key;
+  const differs = unadjusted !== decision.verdict;
+  const verdictText = differs ? `${built.section.verdictText} ${t.render('interval.adjusted-sentence', view)}` : built.section.verdictText;
+  const key = differs ? `${built.key}${t.render('interval.adjusted-key', view)}` : built.key;
   return { section: { ...built.section, numbers, verdictText }, key };
 }
 

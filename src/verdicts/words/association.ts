@@ -24,6 +24,7 @@ export function composeAssociation(a: AssociationAnalysis, decision: Decision, c
   }
   const r = a.test.estimate.value;
   const iv = a.test.interval;
+  const rDigits = fmt.coefficientDigits(r, iv?.lower ?? NaN, iv?.upper ?? NaN);
   const view: View = {
     ...labelsOnly,
     unitName,
@@ -37,9 +38,10 @@ export function composeAssociation(a: AssociationAnalysis, decision: Decision, c
     xTotal: fmt.count(a.totals?.x ?? 0),
     yTotal: fmt.count(a.totals?.y ?? 0),
     level: fmt.level(claim.confidence),
-    r: fmt.coefficient(r),
-    rLower: fmt.coefficient(iv?.lower ?? NaN),
-    rUpper: fmt.coefficient(iv?.upper ?? NaN),
+    // Decimals chosen so that r and its interval's ends never print alike (src/format/numbers.ts).
+    r: fmt.coefficient(r, rDigits),
+    rLower: fmt.coefficient(iv?.lower ?? NaN, rDigits),
+    rUpper: fmt.coefficient(iv?.upper ?? NaN, rDigits),
     directionWord: r < 0 ? 'lower' : 'higher',
     detectable: fmt.coefficient(a.detectable ?? NaN),
     adjustName: ctx.adjustName,

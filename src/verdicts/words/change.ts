@@ -61,7 +61,7 @@ export function composeChange(a: ChangeAnalysis, decision: Decision, ctx: Compos
       axisTitle: 'Agreeing (%)',
       bars: [a.earlier, a.later].map((r, i) => ({ label: i === 0 ? a.periods.from : a.periods.to, rate: r.rate, lower: r.interval.lower, upper: r.interval.upper, n: r.n })),
     },
-    alt: `Chart of agreement rates with ${fmt.level(claim.confidence)} intervals${scope ? ` for ${scope}` : ''}: ${a.periods.from} ${fmt.percent(a.earlier.rate)} (${fmt.percent(a.earlier.interval.lower)} to ${fmt.percent(a.earlier.interval.upper)}), ${a.periods.to} ${fmt.percent(a.later.rate)} (${fmt.percent(a.later.interval.lower)} to ${fmt.percent(a.later.interval.upper)}).`,
+    alt: `Chart of agreement rates with ${fmt.level(claim.confidence)} intervals${scope ? ` for ${scope}` : ''}: ${a.periods.from} ${rateView(a.earlier).rate} (${rateView(a.earlier).lower} to ${rateView(a.earlier).upper}), ${a.periods.to} ${rateView(a.later).rate} (${rateView(a.later).lower} to ${rateView(a.later).upper}).`,
   };
   return {
     section: {

@@ -29,7 +29,9 @@ export interface Composed {
 }
 
 export function rateView(r: RateSummary) {
-  return { label: r.label, n: fmt.count(r.n), rate: fmt.percent(r.rate), lower: fmt.percent(r.interval.lower), upper: fmt.percent(r.interval.upper) };
+  // Decimals chosen so that the rate and its interval's ends never print alike (src/format/numbers.ts).
+  const dg = fmt.percentDigits(r.rate, r.interval.lower, r.interval.upper);
+  return { label: r.label, n: fmt.count(r.n), rate: fmt.percent(r.rate, dg), lower: fmt.percent(r.interval.lower, dg), upper: fmt.percent(r.interval.upper, dg) };
 }
 
 /**
@@ -124,7 +126,8 @@ export function plural(units: string): string {
 
 /** A rate's row in the numbers table: "61% agreed of 840 (interval 58% to 64%)". */
 export function rateRow(r: RateSummary, label: string = r.label): NumberRow {
-  return { label, value: `${fmt.percent(r.rate)} agreed of ${fmt.count(r.n)} (interval ${fmt.percent(r.interval.lower)} to ${fmt.percent(r.interval.upper)})` };
+  const v = rateView(r);
+  return { label, value: `${v.rate} agreed of ${v.n} (interval ${v.lower} to ${v.upper})` };
 }
 
 /**
@@ -132,13 +135,14 @@ export function rateRow(r: RateSummary, label: string = r.label): NumberRow {
  * ("6.2", interval "3.3" to "9.1": the bounds swapped for a negative difference so that they read low to high).
  */
 export function differenceView(d: { value: number; interval: { lower: number; upper: number } }, observedSign: number) {
+  const digits = fmt.pointsDigits(d.value, d.interval.lower, d.interval.upper);
   return {
-    signed: fmt.points(d.value, { sign: true }),
-    signedLower: fmt.points(d.interval.lower, { sign: true }),
-    signedUpper: fmt.points(d.interval.upper, { sign: true }),
-    size: fmt.pointsSize(d.value),
-    sizeLower: fmt.pointsSize(observedSign < 0 ? d.interval.upper : d.interval.lower),
-    sizeUpper: fmt.pointsSize(observedSign < 0 ? d.interval.lower : d.interval.upper),
+    signed: fmt.points(d.value, { sign: true, digits }),
+    signedLower: fmt.points(d.interval.lower, { sign: true, digits }),
+    signedUpper: fmt.points(d.interval.upper, { sign: true, digits }),
+    size: fmt.pointsSize(d.value, digits),
+    sizeLower: fmt.pointsSize(observedSign < 0 ? d.interval.upper : d.interval.lower, digits),
+    sizeUpper: fmt.pointsSize(observedSign < 0 ? d.interval.lower : d.interval.upper, digits),
   };
 }
 

@@ -60,7 +60,7 @@ export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: Comp
       axisTitle: 'Agreeing (%)',
       bars: [a.focus, a.against].map((r) => ({ label: r.label, rate: r.rate, lower: r.interval.lower, upper: r.interval.upper, n: r.n })),
     },
-    alt: `Chart of agreement rates with ${fmt.level(claim.confidence)} intervals: ${a.focus.label} ${fmt.percent(a.focus.rate)} (${fmt.percent(a.focus.interval.lower)} to ${fmt.percent(a.focus.interval.upper)}), ${a.against.label} ${fmt.percent(a.against.rate)} (${fmt.percent(a.against.interval.lower)} to ${fmt.percent(a.against.interval.upper)}).`,
+    alt: `Chart of agreement rates with ${fmt.level(claim.confidence)} intervals: ${a.focus.label} ${rateView(a.focus).rate} (${rateView(a.focus).lower} to ${rateView(a.focus).upper}), ${a.against.label} ${rateView(a.against).rate} (${rateView(a.against).lower} to ${rateView(a.against).upper}).`,
   };
   return {
     section: {

@@ -21,6 +21,7 @@ export function composeEquivalence(a: EquivalenceAnalysis, decision: Decision, c
   const d = a.difference;
   const e = a.equivalenceInterval;
   const alpha = 1 - claim.confidence;
+  const digits = fmt.pointsDigits(d.value, d.interval.lower, d.interval.upper, e.lower, e.upper);
   const view: View = {
     focus: rateView(a.focus),
     against: rateView(a.against),
@@ -29,11 +30,12 @@ export function composeEquivalence(a: EquivalenceAnalysis, decision: Decision, c
     level: fmt.level(claim.confidence),
     tostLevel: fmt.level(e.level),
     alpha: fmt.level(alpha),
-    diff: fmt.points(d.value, { sign: true }),
-    diffLower: fmt.points(d.interval.lower, { sign: true }),
-    diffUpper: fmt.points(d.interval.upper, { sign: true }),
-    tostLower: fmt.points(e.lower, { sign: true }),
-    tostUpper: fmt.points(e.upper, { sign: true }),
+    // Decimals chosen so that neither interval's ends print alike, nor the difference onto an end (src/format).
+    diff: fmt.points(d.value, { sign: true, digits }),
+    diffLower: fmt.points(d.interval.lower, { sign: true, digits }),
+    diffUpper: fmt.points(d.interval.upper, { sign: true, digits }),
+    tostLower: fmt.points(e.lower, { sign: true, digits }),
+    tostUpper: fmt.points(e.upper, { sign: true, digits }),
     adjustName: ctx.adjustName,
     ...pView(decision, ctx),
   };

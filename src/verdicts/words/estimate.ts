@@ -5,7 +5,7 @@ import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { rateCautions, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { rateCautions, rateView, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 /** A mean score, two decimals. */
 function score(v: number): string {
@@ -29,7 +29,7 @@ export function composeEstimate(a: EstimateAnalysis, _decision: Decision, ctx: C
   if (a.rate) {
     const r = a.rate;
     const margin = Math.max(r.rate - r.interval.lower, r.interval.upper - r.rate);
-    view = { label, measureRate: true, n: fmt.count(r.n), value: fmt.percent(r.rate), lower: fmt.percent(r.interval.lower), upper: fmt.percent(r.interval.upper), margin: fmt.pointsSize(margin), level, fpc: r.population !== undefined, population: r.population !== undefined ? fmt.count(r.population) : '' };
+    view = { label, measureRate: true, n: fmt.count(r.n), value: rateView(r).rate, lower: rateView(r).lower, upper: rateView(r).upper, margin: fmt.pointsSize(margin), level, fpc: r.population !== undefined, population: r.population !== undefined ? fmt.count(r.population) : '' };
     numbers = [
       { label: 'Agreement rate', value: `${view.value} of ${view.n} respondents` },
       { label: `${level} interval`, value: `${view.lower} to ${view.upper} (up to ${view.margin} points either side)` },

@@ -8,13 +8,15 @@ import type { View } from '../templates.js';
 import { commonRows, pView, restOfGroupCaution, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 /** A mean score or a difference in scale points: two decimals, proper minus sign. */
-export function scalePoints(value: number, options: { sign?: boolean } = {}): string {
-  const text = fmt.coefficient(value, 2);
+export function scalePoints(value: number, options: { sign?: boolean; digits?: number } = {}): string {
+  const text = fmt.coefficient(value, options.digits ?? 2);
   return options.sign && value > 0 && Number(text) !== 0 ? `+${text}` : text;
 }
 
 function meanView(m: MeanSummary) {
-  return { label: m.label, n: fmt.count(m.n), mean: scalePoints(m.mean), lower: scalePoints(m.interval.lower), upper: scalePoints(m.interval.upper) };
+  // Decimals chosen so that the mean and its interval's ends never print alike (src/format/numbers.ts).
+  const digits = fmt.coefficientDigits(m.mean, m.interval.lower, m.interval.upper);
+  return { label: m.label, n: fmt.count(m.n), mean: scalePoints(m.mean, { digits }), lower: scalePoints(m.interval.lower, { digits }), upper: scalePoints(m.interval.upper, { digits }) };
 }
 
 const TEST_NAMES: Record<string, string> = {
@@ -36,6 +38,7 @@ export function composeMeans(a: MeansAnalysis, decision: Decision, ctx: ComposeC
     return tooLittle(a, ctx, `${focusLabel} against ${againstLabel}, mean scores${scopeText(claim.where) ? `, for ${scopeText(claim.where)}` : ''}.`, hypotheses);
   }
   const d = a.difference;
+  const dDigits = fmt.coefficientDigits(d.value, d.interval.lower, d.interval.upper);
   const view: View = {
     focus: meanView(a.focus),
     against: meanView(a.against),
@@ -44,10 +47,10 @@ export function composeMeans(a: MeansAnalysis, decision: Decision, ctx: ComposeC
     oneSided,
     rank: claim.test === 'rank',
     level: fmt.level(claim.confidence),
-    diff: scalePoints(d.value, { sign: true }),
-    diffLower: scalePoints(d.interval.lower, { sign: true }),
-    diffUpper: scalePoints(d.interval.upper, { sign: true }),
-    gap: scalePoints(Math.abs(d.value)),
+    diff: scalePoints(d.value, { sign: true, digits: dDigits }),
+    diffLower: scalePoints(d.interval.lower, { sign: true, digits: dDigits }),
+    diffUpper: scalePoints(d.interval.upper, { sign: true, digits: dDigits }),
+    gap: scalePoints(Math.abs(d.value), { digits: dDigits }),
     diffWord: d.value < 0 ? 'lower' : 'higher',
     testName: TEST_NAMES[claim.test] ?? claim.test,
     adjustName: ctx.adjustName,
@@ -55,8 +58,8 @@ export function composeMeans(a: MeansAnalysis, decision: Decision, ctx: ComposeC
   };
   const scale = a.scale ? ` on a scale of ${a.scale[0]} to ${a.scale[1]}` : '';
   const numbers: NumberRow[] = [
-    { label: a.focus.label, value: `mean ${scalePoints(a.focus.mean)}${scale} of ${fmt.count(a.focus.n)} (interval ${scalePoints(a.focus.interval.lower)} to ${scalePoints(a.focus.interval.upper)}; SD ${scalePoints(a.focus.sd)})` },
-    { label: a.against.label, value: `mean ${scalePoints(a.against.mean)}${scale} of ${fmt.count(a.against.n)} (interval ${scalePoints(a.against.interval.lower)} to ${scalePoints(a.against.interval.upper)}; SD ${scalePoints(a.against.sd)})` },
+    { label: a.focus.label, value: `mean ${meanView(a.focus).mean}${scale} of ${fmt.count(a.focus.n)} (interval ${meanView(a.focus).lower} to ${meanView(a.focus).upper}; SD ${scalePoints(a.focus.sd)})` },
+    { label: a.against.label, value: `mean ${meanView(a.against).mean}${scale} of ${fmt.count(a.against.n)} (interval ${meanView(a.against).lower} to ${meanView(a.against).upper}; SD ${scalePoints(a.against.sd)})` },
     { label: 'Difference in means', value: `${view.diff} scale points (interval ${view.diffLower} to ${view.diffUpper})` },
     ...commonRows(a, decision, ctx),
     ...(a.superiority !== undefined

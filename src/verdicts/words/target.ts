@@ -50,7 +50,7 @@ export function composeTarget(a: TargetAnalysis, decision: Decision, ctx: Compos
   const numbers: NumberRow[] = [
     rateRow(a.rate),
     ...(a.exactInterval
-      ? [{ label: 'Exact interval for the rate (Clopper–Pearson)', value: `${fmt.percent(a.exactInterval.lower)} to ${fmt.percent(a.exactInterval.upper)}${a.rate.population !== undefined ? ', without the finite-population correction' : ''}` }]
+      ? [{ label: 'Exact interval for the rate (Clopper–Pearson)', value: `${fmt.percent(a.exactInterval.lower, fmt.percentDigits(a.exactInterval.lower, a.exactInterval.upper))} to ${fmt.percent(a.exactInterval.upper, fmt.percentDigits(a.exactInterval.lower, a.exactInterval.upper))}${a.rate.population !== undefined ? ', without the finite-population correction' : ''}` }]
       : []),
     { label: claim.valueLabel ?? 'Fixed value', value: claim.valueWritten && claim.valueWritten !== target ? `${target} (written as ${claim.valueWritten})` : target },
     { label: 'Gap to the value', value: `${view.gap} points (interval ${view.gapLower} to ${view.gapUpper})` },
@@ -67,7 +67,7 @@ export function composeTarget(a: TargetAnalysis, decision: Decision, ctx: Compos
       bars: [{ label: a.rate.label, rate: a.rate.rate, lower: a.rate.interval.lower, upper: a.rate.interval.upper, n: a.rate.n }],
       reference: { value: claim.value, label: claim.valueLabel ?? target },
     },
-    alt: `Chart of the agreement rate in ${a.rate.label}, ${fmt.percent(a.rate.rate)} with a ${fmt.level(claim.confidence)} interval of ${fmt.percent(a.rate.interval.lower)} to ${fmt.percent(a.rate.interval.upper)}, against a line at ${target} for ${valueLabel}.`,
+    alt: `Chart of the agreement rate in ${a.rate.label}, ${rateView(a.rate).rate} with a ${fmt.level(claim.confidence)} interval of ${rateView(a.rate).lower} to ${rateView(a.rate).upper}, against a line at ${target} for ${valueLabel}.`,
   };
   return {
     section: {
