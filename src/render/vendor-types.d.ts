@@ -115,6 +115,8 @@ declare namespace PDFKit {
     fill(color?: string): this;
     stroke(color?: string): this;
     fillAndStroke(fill?: string, stroke?: string): this;
+    dash(length: number, options?: { space?: number; phase?: number }): this;
+    undash(): this;
     save(): this;
     restore(): this;
     struct(type: string, options?: { alt?: string; lang?: string; actual?: string; bbox?: number[]; placement?: string }, children?: (() => void) | StructureElement[]): StructureElement;

@@ -160,11 +160,11 @@ describe('renderPdf on the sample model', () => {
     expect((tree.match(/"NOTES?"/g) ?? []).length).toBe(1);
   });
 
-  it('shows the verdict tally on the summary page, each verdict word with its count', () => {
+  it('lists each verdict word on the summary page with its count of claims', () => {
     const page = run('pdftotext', ['-enc', 'UTF-8', '-f', '2', '-l', '2', pdfPath, '-']).replace(/\s+/g, ' ');
     for (const label of new Set(sampleModel.summary.map((r) => r.verdictLabel))) {
       const n = sampleModel.summary.filter((r) => r.verdictLabel === label).length;
-      expect(page).toContain(`${label}: ${n}`);
+      expect(page).toContain(`${label} ${n} ${n === 1 ? 'claim' : 'claims'}`);
     }
   });
 
@@ -244,6 +244,6 @@ describe('renderPdf with a long summary and a many-row chart', () => {
   it('tags the repeated header rows as page furniture, so the structure tree has one header row', () => {
     const tree = run('pdfinfo', ['-struct-text', path]);
     const summaryTable = tree.slice(tree.indexOf('Summary'), tree.indexOf('CLAIM C1'));
-    expect((summaryTable.match(/"Key figure"/g) ?? []).length).toBe(1);
+    expect((summaryTable.match(/"Key figure \(interval\)"/g) ?? []).length).toBe(1);
   });
 });

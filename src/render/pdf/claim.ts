@@ -101,7 +101,7 @@ function claimBlocks(
   // Heading: the "Claim C1" label with the verdict badge at the right of the same line, then the statement in the
   // user's words. The label and statement form one H2; the verdict word follows it in reading order.
   const label = `Claim ${claim.id}`.toUpperCase();
-  const badgeW = (): number => badgeWidth(L, claim.verdictLabel);
+  const badgeW = (): number => badgeWidth(L, claim.verdictLabel, claim.verdict);
   const labelWidth = (): number => CONTENT_WIDTH - badgeW() - 12;
   const labelH = (): number => Math.max(BADGE.height, L.textHeight(label, 'bold', SIZE.small, labelWidth(), 1));
   const statementHeight = (): number => L.textHeight(claim.statement, 'bold', SIZE.h3, CONTENT_WIDTH, 1.5);

@@ -2,11 +2,10 @@
  * The front of the pack: the cover (title, organisation, settings, data sources), the summary (a tally of verdicts
  * and one row per claim) and, when there is an earlier pack, what changed since it.
  */
-import type { PackModel } from '../model.js';
+import type { ClaimAction, PackModel, SummaryRow, VerdictKind } from '../model.js';
 import { blocksHeight, type Layout } from './layout.js';
-import { tally } from './marks.js';
 import { table } from './tables.js';
-import { COLOR, MARGIN, PAGE_ROOM, SIZE, shortHash, shorten, type Block, type Struct } from './style.js';
+import { COLOR, MARGIN, PAGE_ROOM, SIZE, shortHash, shorten, type Block, type Cell, type Struct } from './style.js';
 
 type Bookmark = (title: string) => PDFKit.OutlineItem;
 
@@ -46,15 +45,18 @@ export function drawCover(L: Layout, model: PackModel, root: Struct, bookmark: B
         L,
         [
           { header: 'Source', width: 150 },
-          { header: 'File', width: 150 },
-          { header: 'Rows', width: 55 },
-          { header: 'SHA-256 (first 12)', width: 112 },
+          { header: 'Years', width: 62 },
+          { header: 'Respondents', width: 135 },
+          { header: 'File', width: 120 },
         ],
         model.sources.map((s) => [
-          { text: s.description ? `${s.id}: ${s.description}` : s.id },
-          { text: s.file },
-          { text: s.rows.toLocaleString('en-GB') },
-          { text: shortHash(s.sha256) },
+          { text: s.title ?? s.id, sub: s.origin ? `${s.id}: ${s.origin}` : s.title ? s.id : undefined },
+          { text: s.periods && s.periods.length > 0 ? s.periods.join(', ') : 'not stated' },
+          { text: s.respondentsText ?? 'not counted' },
+          {
+            text: s.file,
+            sub: `${s.description ? `${s.description}; ` : ''}${s.rows.toLocaleString('en-GB')} rows; SHA-256 ${shortHash(s.sha256)}`,
+          },
         ]),
       ),
     );
@@ -66,40 +68,141 @@ export function drawCover(L: Layout, model: PackModel, root: Struct, bookmark: B
   cover.end();
 }
 
-/** The summary, on a new page. */
+/** The order of the summary's rows by what to do with each claim: claims that must not be made first. */
+const ACTION_ORDER: ClaimAction[] = ['must-not-make', 'reword', 'drop', 'quote', 'quote-with-interval'];
+
+/** A verdict word split into the badge's word and its refinement ("Not supported: ruled out"). */
+function splitLabel(label: string): { word: string; detail?: string } {
+  const at = label.indexOf(': ');
+  return at < 0 ? { word: label } : { word: label.slice(0, at), detail: label.slice(at + 2) };
+}
+
+/** Summary rows in the order drawn: by advice (must not make first), else by file order with opposite first. */
+export function summaryOrder(rows: SummaryRow[]): SummaryRow[] {
+  const rank = (r: SummaryRow): number =>
+    r.advice ? ACTION_ORDER.indexOf(r.advice.action) : r.verdict === 'opposite' ? 0 : ACTION_ORDER.length;
+  return rows
+    .map((r, i) => ({ r, i }))
+    .sort((a, b) => rank(a.r) - rank(b.r) || a.i - b.i)
+    .map((x) => x.r);
+}
+
+/** Type size of the badges in the summary's tables. */
+const SUMMARY_BADGE = 9;
+
+/**
+ * The summary, on a new page: how to read it, what each verdict word means (with its badge and how many claims got
+ * it), one row per claim (claims that must not be made first, shaded, then those to reword, drop and quote), with
+ * the claim's verdict badge, what to do with it, whether the verdict depends on the confidence level chosen, and
+ * its key figure with the interval's level; then what each piece of advice means.
+ */
 export function drawSummary(L: Layout, model: PackModel, root: Struct, bookmark: Bookmark): void {
   const doc = L.doc;
   L.newPage();
   const summary = doc.struct('Sect');
   root.add(summary);
   bookmark('Summary');
-  // At a glance: each verdict's mark, word and count, in the order a committee asks (holds up first).
-  const tallyItems = (['supported', 'opposite', 'not-supported', 'too-little-data', 'estimate'] as const).flatMap((k) => {
-    const rows = model.summary.filter((r) => r.verdict === k);
-    return rows.length > 0 ? [{ kind: k, label: rows[0]!.verdictLabel, count: rows.length }] : [];
+  const blocks: Block[] = [L.heading('H2', 'Summary'), L.paragraph(model.summaryIntro, { size: SIZE.table + 0.5, spaceAfter: 10 })];
+
+  // What the verdict words mean: every word the pack uses, with its badge and count, in the model's order.
+  const used = new Map<string, { kind: VerdictKind; count: number }>();
+  for (const r of model.summary) {
+    const u = used.get(r.verdictLabel);
+    if (u) u.count++;
+    else used.set(r.verdictLabel, { kind: r.verdict, count: 1 });
+  }
+  const defs = (model.verdictDefinitions ?? []).filter((d) => used.has(d.label));
+  const undefinedLabels = [...used.keys()].filter((l) => !defs.some((d) => d.label === l));
+  const defRows = [...defs, ...undefinedLabels.map((label) => ({ label, text: '' }))].map((d) => {
+    const u = used.get(d.label)!;
+    const { word, detail } = splitLabel(d.label);
+    return [
+      { text: word, badge: u.kind, ...(detail ? { more: [{ text: detail, face: 'bold' as const, size: SIZE.small, color: COLOR.ink }] } : {}) },
+      { text: `${u.count} ${u.count === 1 ? 'claim' : 'claims'}` },
+      { text: d.text },
+    ];
   });
-  L.flow(
-    [
-      L.heading('H2', 'Summary'),
-      L.paragraph(model.summaryIntro, { size: SIZE.table + 0.5, spaceAfter: 10 }),
-      ...(tallyItems.length > 0 ? [tally(L, tallyItems)] : []),
+  if (defRows.length > 0) {
+    blocks.push(L.heading('H3', 'What the verdicts mean', { spaceAfter: 4 }));
+    blocks.push(
       table(
         L,
         [
-          { header: 'Claim', width: 210 },
-          { header: 'Verdict', width: 128 },
-          { header: 'Key figure', width: 129 },
+          { header: 'Verdict', width: 140 },
+          { header: 'Claims', width: 52 },
+          { header: 'What it means', width: 275 },
         ],
-        model.summary.map((r) => [
-          { text: r.statement, sub: r.id },
-          { text: r.verdictLabel, mark: r.verdict, face: 'bold' as const },
-          { text: r.keyFigure },
-        ]),
-        { padY: 2.8 },
+        defRows,
+        { padY: 2.6, badgeSize: SUMMARY_BADGE, spaceAfter: 14 },
       ),
-    ],
-    summary,
+    );
+  }
+
+  // The claims, must-not-make first.
+  const rows = summaryOrder(model.summary);
+  blocks.push(L.heading('H3', 'The claims, and what to do with each', { spaceAfter: 4 }));
+  blocks.push(
+    table(
+      L,
+      [
+        { header: 'Claim', width: 192 },
+        { header: 'Verdict and what to do', width: 130 },
+        { header: 'Key figure (interval)', width: 145 },
+      ],
+      rows.map((r) => {
+        const { word, detail } = splitLabel(r.verdictLabel);
+        const verdictLines: NonNullable<Cell['more']> = [];
+        if (detail) verdictLines.push({ text: detail, face: 'bold', size: SIZE.small, gap: 1 });
+        if (r.advice) {
+          verdictLines.push({
+            text: r.advice.label,
+            face: 'bold',
+            color: r.advice.action === 'must-not-make' ? COLOR.noticeInk : COLOR.ink,
+            gap: 3,
+          });
+        }
+        if (r.dependsOnLevel) {
+          verdictLines.push({ text: 'Depends on the confidence level chosen: see its page', face: 'italic', size: SIZE.small, color: COLOR.muted, gap: 2 });
+        }
+        const claimLines: NonNullable<Cell['more']> =
+          r.advice?.action === 'reword' && r.advice.wording
+            ? [{ text: `Suggested wording: ${r.advice.wording}`, face: 'italic', size: SIZE.small, gap: 3 }]
+            : [];
+        return [
+          { text: r.statement, sub: r.id, more: claimLines },
+          { text: word, badge: r.verdict, more: verdictLines },
+          { text: r.keyFigure, ...(r.intervalLevel ? { sub: `${r.intervalLevel} interval` } : {}) },
+        ];
+      }),
+      {
+        padY: 3.4,
+        badgeSize: SUMMARY_BADGE,
+        rowStyle: rows.map((r) =>
+          r.advice?.action === 'must-not-make' || (!r.advice && r.verdict === 'opposite')
+            ? { shade: COLOR.noticeShade, rule: COLOR.opposite }
+            : undefined,
+        ),
+      },
+    ),
   );
+
+  // What each piece of advice means, for the advice the summary gives.
+  const actions = (model.actionDefinitions ?? []).filter((d) => rows.some((r) => r.advice?.label === d.label));
+  if (actions.length > 0) {
+    blocks.push(L.heading('H3', 'What the advice means', { spaceAfter: 4 }));
+    blocks.push(
+      table(
+        L,
+        [
+          { header: 'Advice', width: 120, face: 'bold' },
+          { header: 'What it means', width: 347 },
+        ],
+        actions.map((d) => [{ text: d.label }, { text: d.text }]),
+        { padY: 2.6, keepTogether: true },
+      ),
+    );
+  }
+  L.flow(blocks, summary);
   summary.end();
 }
 

@@ -31,6 +31,10 @@ export const COLOR = {
   notice: '#c4620f',
   noticeShade: '#fbf1e6',
   noticeInk: '#7a3a05',
+  /** The badge of a claim that points the other way: white on this dark amber-brown (contrast about 7.7:1). */
+  opposite: '#8c3b00',
+  /** The tint inside a "supported" badge. */
+  supportedShade: '#e4ecf6',
 } as const;
 export const SIZE = { title: 24, h2: 16, h3: 13, sub: 10.5, body: 10.5, table: 9.5, small: 8.5, furniture: 8 } as const;
 export const LINE_GAP = 2.2;
@@ -54,6 +58,10 @@ export interface Cell {
   sub?: string;
   face?: Face;
   mark?: VerdictKind;
+  /** Draw the text as a verdict badge of this kind (one line). */
+  badge?: VerdictKind;
+  /** Further lines under the text (and its sub line), each its own paragraph. */
+  more?: Array<{ text: string; face?: Face; size?: number; color?: string; gap?: number }>;
 }
 
 export interface Column {

@@ -4,15 +4,28 @@
  */
 import { FONT_NAME, type Face } from '../fonts.js';
 import type { Layout } from './layout.js';
-import { drawMark } from './marks.js';
+import type { VerdictKind } from '../model.js';
+import { BADGE_STYLE, badgeHeight, drawBadgeBox, drawMark } from './marks.js';
 import {
   COLOR, CONTENT_WIDTH, MARGIN, NUMBER_LABEL_WIDTH, PAGE_ROOM, SIZE,
   type Block, type Cell, type Column, type Struct,
 } from './style.js';
 
+/** One line block of a cell: its text and how it is set. */
+interface Part {
+  text: string;
+  face: Face;
+  size: number;
+  color: string;
+  /** Space above this part. */
+  gap: number;
+  badge?: VerdictKind;
+}
+
 /**
  * A table with a header row repeated on each page it continues on. Rows never split across pages and cell text
- * always wraps inside its column.
+ * always wraps inside its column. A cell may be drawn as a verdict badge and carry further lines under its text;
+ * a row may be shaded with a rule at its left edge (drawn as Artifacts) to give it weight.
  */
 export function table(
   L: Layout,
@@ -25,10 +38,15 @@ export function table(
     padY?: number;
     /** Move the whole table to the next page rather than split it, when it fits on one page. */
     keepTogether?: boolean;
+    /** Per data row: a shade behind the row and a coloured rule at its left edge. */
+    rowStyle?: Array<{ shade: string; rule: string } | undefined>;
+    /** Type size of badges drawn in cells (defaults to the table's size). */
+    badgeSize?: number;
   } = {},
 ): Block {
   const showHeader = opts.header ?? true;
   const size = opts.size ?? SIZE.table;
+  const badgeSize = opts.badgeSize ?? size;
   const padX = 5;
   const padY = opts.padY ?? 3.6;
   const after = opts.spaceAfter ?? 12;
@@ -37,60 +55,88 @@ export function table(
   const widths = columns.map((c) => c.width * scale);
   const markRoom = 13;
   const cellTextWidth = (i: number, cell?: Cell): number => widths[i]! - 2 * padX - (cell?.mark ? markRoom : 0);
-  const subHeight = (cell: Cell, i: number): number =>
-    cell.sub ? 1.5 + L.textHeight(cell.sub, 'regular', SIZE.small, cellTextWidth(i, cell), 1.5) : 0;
-  const rowHeight = (cells: Cell[], face?: Face): number =>
-    Math.max(
-      ...cells.map(
-        (cell, i) =>
-          L.textHeight(cell.text, face ?? cell.face ?? columns[i]!.face ?? 'regular', size, cellTextWidth(i, cell), 1.5) +
-          subHeight(cell, i),
-      ),
-    ) +
-    2 * padY -
-    1.5;
+  const parts = (cell: Cell, i: number, header: boolean): Part[] => {
+    const face: Face = header ? 'bold' : (cell.face ?? columns[i]!.face ?? 'regular');
+    const out: Part[] = [
+      { text: cell.text, face, size, color: header ? COLOR.muted : COLOR.ink, gap: 0, ...(cell.badge ? { badge: cell.badge } : {}) },
+    ];
+    if (cell.sub) out.push({ text: cell.sub, face: 'regular', size: SIZE.small, color: COLOR.muted, gap: 1.5 });
+    for (const m of cell.more ?? []) {
+      out.push({ text: m.text, face: m.face ?? 'regular', size: m.size ?? size, color: m.color ?? COLOR.ink, gap: m.gap ?? 2 });
+    }
+    return out;
+  };
+  const partHeight = (p: Part, width: number): number =>
+    p.badge ? badgeHeight(badgeSize) + 1.5 : L.textHeight(p.text, p.face, p.size, width, 1.5);
+  const cellHeight = (cell: Cell, i: number, header: boolean): number =>
+    parts(cell, i, header).reduce((a, p) => a + p.gap + partHeight(p, cellTextWidth(i, cell)), 0);
+  const rowHeight = (cells: Cell[], header = false): number =>
+    Math.max(...cells.map((cell, i) => cellHeight(cell, i, header))) + 2 * padY - 1.5;
   const headerCells: Cell[] = columns.map((c) => ({ text: c.header, face: 'bold' }));
-  const headerHeight = (): number => (showHeader ? rowHeight(headerCells, 'bold') : 0);
+  const headerHeight = (): number => (showHeader ? rowHeight(headerCells, true) : 0);
 
-  const drawRow = (cells: Cell[], top: number, height: number, tag: 'TH' | 'TD' | null, parent: Struct | null): void => {
+  const drawRow = (
+    cells: Cell[],
+    top: number,
+    height: number,
+    tag: 'TH' | 'TD' | null,
+    parent: Struct | null,
+    style?: { shade: string; rule: string },
+  ): void => {
+    if (style) {
+      L.artifact(() => {
+        L.doc.rect(MARGIN.left, top, CONTENT_WIDTH, height).fill(style.shade);
+        L.doc.rect(MARGIN.left, top, 3, height).fill(style.rule);
+      });
+    }
     let x = MARGIN.left;
     cells.forEach((cell, i) => {
-      const face = tag === 'TH' || tag === null ? 'bold' : (cell.face ?? columns[i]!.face ?? 'regular');
-      let textX = x + padX;
+      const header = tag === 'TH' || tag === null;
+      let textX = x + padX + (style && i === 0 ? 2 : 0);
       if (cell.mark) {
         const mark = cell.mark;
         const mx = x + padX + 4.5;
         L.artifact(() => drawMark(L, mark, mx, top + padY + size * 0.68, 3.8));
         textX += markRoom;
       }
-      const drawMain = (): void => {
-        L.setFont(face, size, tag === 'TH' || tag === null ? COLOR.muted : COLOR.ink);
-        L.doc.text(cell.text, textX, top + padY, { width: cellTextWidth(i, cell), lineGap: 1.5 });
-      };
-      const drawSub = (): void => {
-        if (!cell.sub) return;
-        const subTop = top + padY + L.textHeight(cell.text, face, size, cellTextWidth(i, cell), 1.5) + 1.5;
-        L.setFont('regular', SIZE.small, COLOR.muted);
-        L.doc.text(cell.sub, textX, subTop, { width: cellTextWidth(i, cell), lineGap: 1.5 });
-      };
+      const width = cellTextWidth(i, cell);
+      const ps = parts(cell, i, header);
+      const draws: Array<() => void> = [];
+      let y = top + padY;
+      for (const p of ps) {
+        y += p.gap;
+        const at = y;
+        if (p.badge) {
+          const kind = p.badge;
+          // The badge's box is page furniture, drawn now (outside the cell's marked content); its word is the text.
+          const box = drawBadgeBox(L, kind, p.text, textX, at, badgeSize, width);
+          draws.push(() => {
+            const bs = BADGE_STYLE[kind];
+            L.setFont(bs.face, badgeSize, bs.ink);
+            L.doc.text(p.text, box.textX, box.textY, { width: box.width + 2, lineBreak: false });
+          });
+        } else {
+          draws.push(() => {
+            L.setFont(p.face, p.size, p.color);
+            L.doc.text(p.text, textX, at, { width, lineGap: 1.5 });
+          });
+        }
+        y += partHeight(p, width);
+      }
       // In a table without a header row, a bold first column labels its row: tag it as a row header.
       const cellTag = tag === 'TD' && !showHeader && i === 0 && columns[0]!.face === 'bold' ? 'TH' : tag;
       if (parent && cellTag) {
-        if (cell.sub) {
-          // Text and its small second line are separate paragraphs, so they are read as two phrases.
+        if (draws.length > 1) {
+          // Each line of a cell is its own paragraph, so they are read as separate phrases.
           const el = L.doc.struct(cellTag);
           parent.add(el);
-          el.add(L.doc.struct('P', {}, drawMain));
-          el.add(L.doc.struct('P', {}, drawSub));
+          for (const d of draws) el.add(L.doc.struct('P', {}, d));
           el.end();
         } else {
-          parent.add(L.doc.struct(cellTag, {}, drawMain));
+          parent.add(L.doc.struct(cellTag, {}, draws[0]!));
         }
       } else {
-        L.artifact(() => {
-          drawMain();
-          drawSub();
-        });
+        L.artifact(() => draws.forEach((d) => d()));
       }
       x += widths[i]!;
     });
@@ -137,7 +183,7 @@ export function table(
         const top = L.y;
         const tr = L.doc.struct('TR');
         tableEl.add(tr);
-        drawRow(row, top, h, 'TD', tr);
+        drawRow(row, top, h, 'TD', tr, opts.rowStyle?.[i]);
         L.y = top + h;
       });
       tableEl.end();
