@@ -25,6 +25,7 @@ import { effectiveThresholds } from './stats/p-adjust-thresholds.js';
 import { alphaOf, decide, type Decision } from './verdicts/decide.js';
 import { composeClaims } from './verdicts/compose.js';
 import { sourceLine } from './verdicts/source.js';
+import { atThreshold } from './analyse/detectable.js';
 import { verdictStability, type Stability } from './verdicts/stability.js';
 import { adjustedConfidence, headline } from './verdicts/adjusted-interval.js';
 import { stabilityView } from './verdicts/words/stability.js';
@@ -141,6 +142,10 @@ export function testClaims(
   );
   const threshold = new Map(testedIdx.map((i, k) => [i, thresholds[k] as number]));
   const decisions = analyses.map((a, i) => decide(a, pAdj.get(i), threshold.get(i)));
+  // The smallest detectable effect at the threshold that decided each verdict, not at the unadjusted level.
+  analyses.forEach((a, i) => {
+    analyses[i] = atThreshold(a, threshold.get(i));
+  });
   // The verdict at 90, 95 and 99% confidence, with and without the adjustment: each claim analysed again at each level.
   const stability = verdictStability(claims, analyses, (i, confidence) => {
     const { claim } = resolved[i]!;

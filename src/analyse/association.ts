@@ -137,6 +137,12 @@ export function analyseAssociation(claim: AssociationClaim, cube: Cube, ctx: Com
   const test = run(alternative);
   const pOpposite = alternative === 'two-sided' ? undefined : run(alternativeFor(claim, true)).p;
   const line = simpleLinearFit(x, y);
+  // When unit sizes differ a lot (the largest at least three times the smallest: common practice), the correlation
+  // weighted by respondents is shown beside the unweighted one, so a reader can see whether small units drive it.
+  const sizes = points.map((p) => Math.min(p.nx, p.ny));
+  const uneven = Math.max(...sizes) >= 3 * Math.min(...sizes);
+  const weightedCheck =
+    !claim.weighted && controls.length === 0 && uneven ? pearson(x, y, { alternative, level: claim.confidence, weights: sizes }) : undefined;
   const sided = alternative === 'two-sided' ? 'two-sided' : 'one-sided';
   let rho: TestResult | undefined;
   try {
@@ -157,6 +163,7 @@ export function analyseAssociation(claim: AssociationClaim, cube: Cube, ctx: Com
     ...(pOpposite !== undefined ? { pOpposite } : {}),
     observedSign: sign(test.estimate.value),
     fit: { intercept: line.intercept, slope: line.slope, rSquared: line.rSquared },
+    ...(weightedCheck ? { weightedCheck } : {}),
     detectable: minDetectableCorrelation(points.length - controls.length, 1 - claim.confidence, 0.8, sided),
     totals: {
       x: points.reduce((s, p) => s + p.nx, 0),

@@ -24,9 +24,15 @@ import { InputError } from '../errors.js';
 import { cellsByUnit, poolCells } from '../data/select.js';
 import { shortfall } from './thresholds.js';
 import type { CrosstabAnalysis } from './types.js';
+import { normalSfQuantile } from '../stats/distributions/normal.js';
 
-/** Adjusted residuals beyond this are named (two-sided 5% point of the standard normal; common practice). */
+/** Adjusted residuals beyond this are named at 95% confidence (two-sided 5% point of the standard normal; common practice). */
 export const RESIDUAL_CUTOFF = 1.96;
+
+/** The cutoff at a claim's confidence level: the two-sided normal critical value (1.96 at 95%, 2.58 at 99%). */
+export function residualCutoff(confidence: number): number {
+  return Math.abs(confidence - 0.95) < 1e-12 ? RESIDUAL_CUTOFF : normalSfQuantile((1 - confidence) / 2);
+}
 
 export interface CrosstabOptions {
   /** Yates' continuity correction for a 2 × 2 table (default false). */
@@ -110,11 +116,12 @@ export function analyseCrosstab(claim: CrosstabClaim, cube: Cube, ctx: CompareCo
     }
   }
   const notable: CrosstabAnalysis['notable'] = [];
+  const cutoff = residualCutoff(claim.confidence);
   chi.adjustedResiduals.forEach((r, i) =>
     r.forEach((res, j) => {
       // With agreeing / not agreeing the two cells of a row mirror each other: name the agreeing one only.
       if (agreement && j > 0) return;
-      if (Math.abs(res) > RESIDUAL_CUTOFF) notable.push({ row: rowLabels[i] as string, column: cols[j] as string, residual: res });
+      if (Math.abs(res) > cutoff) notable.push({ row: rowLabels[i] as string, column: cols[j] as string, residual: res });
     }),
   );
   notable.sort((a, b) => Math.abs(b.residual) - Math.abs(a.residual));
@@ -126,8 +133,9 @@ export function analyseCrosstab(claim: CrosstabClaim, cube: Cube, ctx: CompareCo
     cramersV: chi.cramersV,
     minExpected: chi.minExpected,
     notable,
+    residualCutoff: cutoff,
     ...(fisherTooLarge ? { fisherTooLarge } : {}),
-    methods: method === chi.method ? [chi.method] : [method, chi.method],
+    methods: [...(method === chi.method ? [chi.method] : [method, chi.method]), 'power-chi-square'],
   };
 }
 

@@ -119,6 +119,14 @@ export function analyseMeans(claim: MeansClaim, cube: Cube, ctx: CompareContext)
       ? { effect: diff, smallest: claim.smallestDifference * (scale[1] - scale[0]), unit: 'scale points' as const }
       : undefined;
   const intervalMethod = claim.test === 'student' ? 'student-t' : 'welch-t';
+  // The other family of test as a check, in the claim's own direction: the rank-sum test beside a t test (it does not
+  // treat the codes as evenly spaced), Welch's t test beside the rank-sum test.
+  const check =
+    claim.test === 'rank'
+      ? { method: 'welch-t' as const, test: welchT(gf, ga, opts(alternative)) }
+      : { method: 'mann-whitney' as const, test: mannWhitneyCounts(fp.codes as Record<string, number>, ap.codes as Record<string, number>, { alternative }) };
+  // Cohen's d: the difference in means over the pooled standard deviation (Cohen 1988, ch. 2).
+  const pooledSd = Math.sqrt(((gf.n - 1) * gf.sd * gf.sd + (ga.n - 1) * ga.sd * ga.sd) / (gf.n + ga.n - 2));
   return {
     ...base,
     status: 'tested',
@@ -130,7 +138,9 @@ export function analyseMeans(claim: MeansClaim, cube: Cube, ctx: CompareContext)
     difference: { value: diff, interval: { ...two.interval, method: intervalMethod } },
     ...(scale !== undefined ? { scale } : {}),
     ...(claim.test === 'rank' ? { superiority: test.estimate.value } : {}),
+    check,
+    ...(pooledSd > 0 ? { cohensD: diff / pooledSd } : {}),
     ...(threshold !== undefined ? { threshold } : {}),
-    methods: claim.test === 'rank' ? ['mann-whitney', 'welch-t'] : [intervalMethod],
+    methods: claim.test === 'rank' ? ['mann-whitney', 'welch-t', 'power-two-means'] : [intervalMethod, 'mann-whitney', 'power-two-means'],
   };
 }

@@ -60,6 +60,11 @@ interface AnalysisBase {
   threshold?: { effect: number; smallest: number; unit: 'points' | 'scale points' };
   /** The finite-population correction: used for every figure of the claim's rates or for none (see FpcChoice). */
   fpc?: FpcChoice;
+  /**
+   * The significance level the kind's `detectable` effect is computed at: the threshold that decided the verdict
+   * after adjustment for many claims (src/analyse/detectable.ts). Absent: 1 − confidence.
+   */
+  detectableAlpha?: number;
 }
 
 export interface CompareAnalysis extends AnalysisBase {
@@ -109,6 +114,12 @@ export interface AssociationAnalysis extends AnalysisBase {
   controlled?: string[];
   /** True when units were weighted by their respondents. */
   weighted?: boolean;
+  /**
+   * The Pearson correlation weighted by each unit's respondents (the fewer of its two measures'), given beside the
+   * unweighted one when unit sizes differ a lot (largest at least three times the smallest) and the claim is neither
+   * weighted nor controlled.
+   */
+  weightedCheck?: TestResult;
 }
 
 /** Claim kind "crosstab": a table of counts, rows by columns. */
@@ -124,8 +135,12 @@ export interface CrosstabAnalysis extends AnalysisBase {
   cramersV?: number;
   /** Smallest expected count under independence. */
   minExpected?: number;
-  /** Cells whose adjusted standardized residual lies beyond ±1.96, largest first. */
+  /** Cells whose adjusted standardized residual lies beyond ±residualCutoff, largest first. */
   notable: Array<{ row: string; column: string; residual: number }>;
+  /** The cutoff for naming cells: the two-sided normal critical value at the claim's confidence (1.96 at 95%). */
+  residualCutoff?: number;
+  /** Smallest Cramér's V the chi-square test would detect 80% of the time (src/stats/power-chi-square.ts). */
+  detectable?: number;
   /** True when Fisher's exact test was called for but the table was too large, so chi-square was used. */
   fisherTooLarge?: boolean;
   /**
@@ -157,6 +172,15 @@ export interface MeansAnalysis extends AnalysisBase {
   scale?: [number, number];
   /** Rank test only: probability that a focus answer exceeds an against answer (ties count half). */
   superiority?: number;
+  /** Smallest difference in mean scores (scale points) detectable with 80% power (src/stats/power-two-means.ts). */
+  detectable?: number;
+  /**
+   * The other family of test on the same answers, in the claim's direction, as a check: Mann–Whitney beside a t test,
+   * Welch's t test beside Mann–Whitney. The words say when the two disagree about the verdict.
+   */
+  check?: { method: 'mann-whitney' | 'welch-t'; test: TestResult };
+  /** Cohen's d: difference in means over the pooled standard deviation. */
+  cohensD?: number;
 }
 
 /** Claim kind "equivalence": two rates within a margin of each other. */

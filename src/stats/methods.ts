@@ -55,7 +55,7 @@ export const METHODS: Record<string, MethodInfo> = {
   },
   'power-two-proportions': {
     name: 'Smallest detectable difference',
-    text: 'The smallest difference between two rates that a test of this kind, with these group sizes, would find 80% of the time. It tells how large a difference a claim that is not supported could still hide.',
+    text: 'The smallest difference between two rates that a test of this kind, with these group sizes, would find 80% of the time, at the threshold that actually decided the verdict (after the adjustment for many claims, the threshold each claim was held to is smaller than one minus the confidence level, so the detectable difference is larger). It tells how large a difference a claim that is not supported could still hide.',
     source: 'Fleiss, J. L., Levin, B. and Paik, M. C. (2003). Statistical Methods for Rates and Proportions, 3rd ed., Wiley, ch. 4.',
   },
   pearson: {
@@ -70,12 +70,12 @@ export const METHODS: Record<string, MethodInfo> = {
   },
   'power-correlation': {
     name: 'Smallest detectable correlation',
-    text: 'The weakest correlation that a test with this number of units would find 80% of the time, from the Fisher z approximation.',
+    text: 'The weakest correlation that a test with this number of units would find 80% of the time at the threshold that decided the verdict (after the adjustment for many claims), from the Fisher z approximation.',
     source: 'Cohen, J. (1988). Statistical Power Analysis for the Behavioral Sciences, 2nd ed., Erlbaum, ch. 3.',
   },
   holm: {
     name: "Holm's step-down adjustment",
-    text: 'Adjusts the p-values of all claims tested together so that the chance of any false finding in the pack stays within the stated level, without assuming how the claims relate to each other.',
+    text: 'Adjusts the p-values of all claims tested together so that the chance of even one false finding anywhere in the pack is kept at 5% or less at 95% confidence (in general, at one minus the confidence level), without assuming how the claims relate to each other. Each claim is in effect held to a stricter threshold: 0.05 divided by the number of claims not yet settled at its step.',
     source: 'Holm, S. (1979). A simple sequentially rejective multiple test procedure. Scandinavian Journal of Statistics 6, 65–70.',
   },
   'benjamini-hochberg': {
@@ -160,12 +160,12 @@ export const METHODS: Record<string, MethodInfo> = {
   },
   'power-trend': {
     name: 'Smallest detectable trend',
-    text: 'The smallest steady change per period that the trend test would find 80% of the time with these numbers of respondents, from the normal approximation to the trend statistic with its spread under no trend.',
+    text: 'The smallest steady change per period that the trend test would find 80% of the time with these numbers of respondents, at the threshold that decided the verdict (after the adjustment for many claims), from the normal approximation to the trend statistic with its spread under no trend.',
     source: 'Armitage, P. (1955). Tests for linear trends in proportions and frequencies. Biometrics 11, 375–386.',
   },
   'power-one-proportion': {
     name: 'Smallest detectable gap from a fixed value',
-    text: 'The smallest gap between a rate and a fixed value (a target or benchmark) that the test against that value would find 80% of the time with this many respondents.',
+    text: 'The smallest gap between a rate and a fixed value (a target or benchmark) that the test against that value would find 80% of the time with this many respondents, at the threshold that decided the verdict (after the adjustment for many claims).',
     source: 'Lachin, J. M. (1981). Introduction to sample size determination and power analysis for clinical trials. Controlled Clinical Trials 2, 93–113.',
   },
   't-interval-mean': {
@@ -182,6 +182,21 @@ export const METHODS: Record<string, MethodInfo> = {
     name: 'Chi-square for departure from a straight-line trend',
     text: 'Pearson’s chi-square over the periods minus the trend test’s, on two fewer degrees of freedom than periods: whether the rates stray from the fitted straight line (a rise then a fall) more than chance would explain.',
     source: 'Armitage, P. (1955). Tests for linear trends in proportions and frequencies. Biometrics 11, 375–386.',
+  },
+  'power-chi-square': {
+    name: "Smallest detectable Cramér's V",
+    text: 'The weakest relation (as Cramér’s V) that the chi-square test of a table this size would find 80% of the time at the threshold that decided the verdict, from the noncentral chi-square distribution of the test statistic.',
+    source: 'Cohen, J. (1988). Statistical Power Analysis for the Behavioral Sciences, 2nd ed., Erlbaum, ch. 7.',
+  },
+  'power-two-means': {
+    name: 'Smallest detectable difference in mean scores',
+    text: 'The smallest difference in mean scores that the test would find 80% of the time with these group sizes and spreads, at the threshold that decided the verdict, by the normal approximation to the t test with each group’s own spread.',
+    source: 'Cohen, J. (1988). Statistical Power Analysis for the Behavioral Sciences, 2nd ed., Erlbaum, ch. 2.',
+  },
+  'worth-reporting': {
+    name: 'Splitting "not supported"',
+    text: 'A claim that is not supported is called inconclusive when its interval holds both no difference and a difference worth reporting, and ruled out when its interval excludes a difference worth reporting in the claimed direction. Worth reporting means the claim’s own smallest difference that matters where it sets one; else the margin of an equivalence claim in the pack on the same data; else a default fixed in advance (common practice): 5 percentage points for rates, 0.2 standard deviations (Cohen’s “small” d) for mean scores, a correlation of 0.3 across units. The smallest detectable difference is not used for this: it shrinks with the sample as the interval does, so the split would follow the sample size alone.',
+    source: 'Cohen, J. (1988). Statistical Power Analysis for the Behavioral Sciences, 2nd ed., Erlbaum, ch. 2–3 (conventional effect sizes); the logic of the split as in Schuirmann (1987).',
   },
   'welch-t': {
     name: 'Welch t test',

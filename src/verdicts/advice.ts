@@ -11,10 +11,13 @@
  *   worth reporting.
  *
  * "Worth reporting" is, in this order: the claim's own smallest difference that matters (`smallest_difference`); the
- * margin of an equivalence claim in the pack that tests the same two selections on the same data; else the smallest
- * difference (or correlation) the test would detect 80% of the time at the threshold that decided the verdict. The
- * method notes say so ("worth-reporting" in src/stats/methods.ts). Crosstab and trend claims have no interval for
- * their effect, so their "not supported" is not split.
+ * margin of an equivalence claim in the pack that tests the same two selections on the same data; else a stated
+ * default (common practice, fixed before any data are seen): 5 percentage points for rates, a standardized difference
+ * of 0.2 (Cohen's "small" d) for mean scores, a correlation of 0.3 (Cohen's "medium" r) across units. The smallest
+ * detectable difference is not used: it shrinks with the same standard error as the interval, so comparing the two
+ * would decide the split by the sample size alone. The method notes say so ("worth-reporting" in
+ * src/stats/methods.ts). Crosstab and trend claims have no interval for their effect, so their "not supported" is not
+ * split.
  *
  * The advice follows from the verdict: supported -> quote as written; estimate -> quote with its interval; points
  * the other way -> must not make; ruled out or too small -> reword to what the interval supports (a suggested
@@ -31,7 +34,7 @@ import { unitWords } from './words/association.js';
 /** A difference worth reporting, in the units of the claim's interval, and where it comes from. */
 export interface Worth {
   value: number;
-  basis: 'threshold' | 'linked-margin' | 'detectable';
+  basis: 'threshold' | 'linked-margin' | 'default';
   /** For 'linked-margin': the equivalence claim whose margin is used. */
   linkedId?: string;
 }
@@ -78,8 +81,11 @@ export function linkedClaims(analyses: Analysis[]): number[][] {
   return keys.map((k, i) => (k === undefined ? [] : keys.flatMap((other, j) => (j !== i && other === k ? [j] : []))));
 }
 
+/** Defaults for a difference worth reporting when the claim sets none (common practice; see the file comment). */
+export const WORTH_DEFAULTS = { points: 0.05, standardized: 0.2, correlation: 0.3 } as const;
+
 /** The difference worth reporting for a claim (see the file comment), or undefined when none can be named. */
-export function worthReporting(a: Analysis, decision: Decision, linked: Analysis[], detectable: number | undefined): Worth | undefined {
+export function worthReporting(a: Analysis, decision: Decision, linked: Analysis[]): Worth | undefined {
   if (decision.belowThreshold) return { value: decision.belowThreshold.smallest, basis: 'threshold' };
   if (a.threshold) return { value: a.threshold.smallest, basis: 'threshold' };
   if (a.claim.smallestDifference !== undefined && a.kind !== 'means' && a.kind !== 'association') return { value: a.claim.smallestDifference, basis: 'threshold' };
@@ -88,7 +94,16 @@ export function worthReporting(a: Analysis, decision: Decision, linked: Analysis
     if (eq && eq.kind === 'equivalence') return { value: eq.claim.margin, basis: 'linked-margin', linkedId: eq.claim.id };
   }
   if (a.kind === 'equivalence') return { value: a.claim.margin, basis: 'threshold' };
-  return detectable !== undefined && detectable > 0 ? { value: detectable, basis: 'detectable' } : undefined;
+  if (a.status !== 'tested') return undefined;
+  if (a.kind === 'compare' || a.kind === 'change' || a.kind === 'target') return { value: WORTH_DEFAULTS.points, basis: 'default' };
+  if (a.kind === 'association') return { value: WORTH_DEFAULTS.correlation, basis: 'default' };
+  if (a.kind === 'means' && a.focus && a.against) {
+    // Cohen's d of 0.2 in scale points, with the pooled standard deviation of the two groups.
+    const { focus: f, against: g } = a;
+    const pooled = Math.sqrt(((f.n - 1) * f.sd * f.sd + (g.n - 1) * g.sd * g.sd) / (f.n + g.n - 2));
+    return pooled > 0 ? { value: WORTH_DEFAULTS.standardized * pooled, basis: 'default' } : undefined;
+  }
+  return undefined;
 }
 
 /** Which kind of "not supported" this is, or undefined for other verdicts and kinds that cannot be split. */
@@ -137,8 +152,10 @@ export function worthView(worth: Worth | undefined, unit: EffectInterval['unit']
       : worth.basis === 'linked-margin'
         ? `the margin of claim ${worth.linkedId ?? ''}, which tests the same data`
         : unit === 'r'
-          ? 'the weakest correlation this test would detect 80% of the time'
-          : 'the smallest difference this test would detect 80% of the time';
+          ? "the pack's default for a correlation worth reporting"
+          : unit === 'scale points'
+            ? "the pack's default for a difference in mean scores worth reporting: 0.2 standard deviations"
+            : "the pack's default for a difference worth reporting";
   return { worth: unit === 'r' ? `a correlation of ${amount(worth.value, unit)}` : amount(worth.value, unit), worthBasis: basis };
 }
 

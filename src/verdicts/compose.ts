@@ -102,17 +102,17 @@ export function composeClaims(
   decisions: Decision[],
   ctx: ComposeContext,
   sourceLines: string[],
-  detectables: Array<number | undefined> = analyses.map((a) => (a as { detectable?: number }).detectable),
 ): Array<{ section: ClaimSection; summary: SummaryRow; worth?: Worth }> {
   const links = linkedClaims(analyses);
   const composed = analyses.map((a, i) => {
     const decision = decisions[i] as Decision;
     const linked = (links[i] ?? []).map((j) => analyses[j] as Analysis);
-    const worth = worthReporting(a, decision, linked, detectables[i]);
+    const worth = worthReporting(a, decision, linked);
     const detail = notSupportedAs(a, decision, worth);
     const built = composeClaim(a, decision, ctx, { ...(detail ? { detail } : {}), ...(worth ? { worth } : {}), ...(sourceLines[i] ? { sourceLine: sourceLines[i] } : {}) });
     return { ...built, ...(worth && detail ? { worth } : {}) };
   });
+  addTerms(composed.map((c) => c.section), ctx.templates);
   composed.forEach((c, i) => {
     const notes = (links[i] ?? []).map((j) => linkNote({ id: composed[j]!.section.id, verdictLabel: composed[j]!.section.verdictLabel, kind: analyses[j]!.kind }, ctx.templates));
     if (notes.length > 0) {
@@ -121,4 +121,33 @@ export function composeClaims(
     }
   });
   return composed;
+}
+
+/** Terms of the trade with their plain explanations (templates/terms.mustache: "Term | meaning" lines). */
+export function termDefinitions(templates: ComposeContext['templates']): Array<{ term: string; text: string }> {
+  return templates.renderLines('terms', {}).map((line) => {
+    const at = line.indexOf('|');
+    const text = line.slice(at + 1).trim();
+    return { term: line.slice(0, at).trim(), text: text.length > 0 ? text[0]!.toUpperCase() + text.slice(1) : text };
+  });
+}
+
+/** How each term may be written on a page, where that differs from the term itself. */
+const TERM_PATTERNS: Record<string, RegExp> = {
+  'degrees of freedom': /\bdegrees? of freedom\b/i,
+  'Adjusted residual': /\badjusted (standardized )?residuals?\b/i,
+  TOST: /\bTOST\b|two one-sided tests/i,
+  'Mann–Whitney': /Mann[–-]Whitney/,
+};
+
+/** Each term is explained on the first claim page where it appears (and in the glossary). */
+function addTerms(sections: ClaimSection[], templates: ComposeContext['templates']): void {
+  const terms = termDefinitions(templates);
+  const seen = new Set<string>();
+  for (const section of sections) {
+    const text = [section.compared, section.verdictText, section.methodLine, ...section.numbers.flatMap((r) => [r.label, r.value])].join('\n');
+    const found = terms.filter((t) => !seen.has(t.term) && (TERM_PATTERNS[t.term] ?? new RegExp(t.term.replace(/[.*+?^${}()|[\]\\]/g, '\\$&'), 'i')).test(text));
+    for (const t of found) seen.add(t.term);
+    if (found.length > 0) section.terms = found;
+  }
 }

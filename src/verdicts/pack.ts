@@ -13,6 +13,7 @@ import type { ClaimSection, PackModel, SummaryRow } from '../render/model.js';
 import { METHODS, methodInfo } from '../stats/methods.js';
 import { withCommonShareRange } from '../render/chart-scales.js';
 import type { Templates } from './templates.js';
+import { termDefinitions } from './compose.js';
 import { originText, respondentsByPeriod, respondentsText } from './source.js';
 
 /** A template of "Label | meaning" lines (verdict and action definitions). */
@@ -72,7 +73,6 @@ export function composePack(input: {
   const methodIds = [...new Set(input.analyses.flatMap((a) => a.methods))];
   if (claims.adjust !== 'none' && input.claimsTested > 1) methodIds.push(claims.adjust);
   if (input.sections.some((s) => s.chart)) methodIds.push('chart-scales');
-  const ordered = Object.keys(METHODS).filter((id) => methodIds.includes(id));
   const view = {
     claimsTested: input.claimsTested,
     minRespondents: claims.minRespondents,
@@ -80,7 +80,9 @@ export function composePack(input: {
     level: fmt.level(claims.confidence),
     alphaPercent: fmt.level(1 - claims.confidence),
   };
-  const glossary = templates.renderLines('glossary', view).map((line) => {
+  if (input.sections.some((s) => s.verdictDetail === 'inconclusive' || s.verdictDetail === 'ruled-out')) methodIds.push('worth-reporting');
+  const ordered = Object.keys(METHODS).filter((id) => methodIds.includes(id));
+  const glossary = templates.renderLines('glossary', { ...view, terms: termDefinitions(templates) }).map((line) => {
     const at = line.indexOf(':');
     const text = line.slice(at + 1).trim();
     return { term: line.slice(0, at).trim(), text: text.length > 0 ? text[0]!.toUpperCase() + text.slice(1) : text };

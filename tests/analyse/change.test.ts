@@ -67,7 +67,7 @@ describe('change claims: later period against the earlier one', () => {
     expect(a.difference?.value).toBeCloseTo(-0.15, 12);
     expect(d.verdict).toBe('supported');
     expect(w.section.verdictText).toMatch(/^Supported\. The agreement rate fell from 75% in 2025 .* to 60% in 2026/);
-    expect(w.section.cautions.join(' ')).toMatch(/Different people answered/);
+    expect(w.section.cautions.join(' ')).toMatch(/may have answered both surveys, and respondents cannot be linked/);
     expect(w.section.chart?.data.kind).toBe('rates');
     expect(w.section.chart?.alt).toMatch(/2025 75%.*2026 60%/);
   });
@@ -85,7 +85,7 @@ describe('change claims: later period against the earlier one', () => {
     expectClose(a.test?.p as number, ref(140, 145, 'two-sided').p_value, 'p', 'p two-sided'); // R prop.test
     expect(d.verdict).toBe('not-supported');
     expect(a.detectable).toBeGreaterThan(0.1);
-    expect(w.section.verdictText).toMatch(/^Not supported\..*could reliably detect a change of about \d+\.\d points/);
+    expect(w.section.verdictText).toMatch(/^Not supported\..*a change of about \d+\.\d points or more would be detected 80% of the time/);
   });
 
   it('a rise when a fall was claimed points the other way, two-sided and one-sided (R prop.test)', () => {

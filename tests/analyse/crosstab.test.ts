@@ -68,7 +68,7 @@ describe('crosstab: chi-square, Fisher and residuals against R', () => {
     expect(a.test?.method).toBe('fisher-exact-rxc');
     expectClose(a.test?.p ?? NaN, c.fisher_p as number, 'p', 'Fisher p');
     expectClose(a.cramersV ?? NaN, c.cramers_v, 'closed', "Cramér's V");
-    expect(a.methods).toEqual(['fisher-exact-rxc', 'chi-square-independence']);
+    expect(a.methods).toEqual(['fisher-exact-rxc', 'chi-square-independence', 'power-chi-square']);
     expect(decide(a, a.test?.p).verdict).toBe('not-supported');
   });
 

@@ -68,7 +68,7 @@ describe('trend claims: Cochran–Armitage over periods scored 0..k-1', () => {
     expect(w.section.verdictText).toMatch(/^Supported\. Over 4 periods the agreement rate rose by about 8\.\d points a period/);
     expect(w.section.chart?.data.kind).toBe('periods');
     expect(w.section.cautions.join(' ')).toMatch(/straight-line change/);
-    expect(w.section.cautions.join(' ')).toMatch(/Different people answered in each period/);
+    expect(w.section.cautions.join(' ')).toMatch(/may have answered in more than one period, and respondents cannot be linked/);
   });
 
   it('one-sided: p from the signed z, and the opposite direction (R pnorm of the signed root of X-squared)', () => {
@@ -83,7 +83,7 @@ describe('trend claims: Cochran–Armitage over periods scored 0..k-1', () => {
     const { a, d, w } = run(claim('Flat', 'rising'));
     expectClose(a.test?.p as number, FLAT.p_value, 'p', 'p'); // R prop.trend.test
     expect(d.verdict).toBe('not-supported');
-    expect(w.section.verdictText).toMatch(/steady change of about \d\.\d points a period or more would reliably have been detected/);
+    expect(w.section.verdictText).toMatch(/steady change of about \d\.\d points a period or more would be detected 80% of the time/);
   });
 
   it('a fall when a rise was claimed points the other way (three periods named as words)', () => {

@@ -64,9 +64,9 @@ describe('verdict words and what to do with each claim', () => {
     expect(byId('campuses-equally-reachable').linkedClaims).toEqual(['campuses-reach-staff-differently']);
 
     const ceramics = byId('ceramics-clearer-than-music');
-    // Interval −9.4 to +21.3 points holds 0 and the detectable difference (about 19 points) in the claimed direction.
+    // Interval −9.4 to +21.3 points holds 0 and the default 5 points worth reporting in the claimed direction.
     expect(ceramics.verdictDetail).toBe('inconclusive');
-    expect(ceramics.worthReporting!.basis).toBe('detectable');
+    expect(ceramics.worthReporting).toEqual({ value: 0.05, basis: 'default' });
     expect(ceramics.interval!.lower).toBeLessThan(0);
     expect(ceramics.interval!.upper).toBeGreaterThan(ceramics.worthReporting!.value);
     expect(ceramics.advice.action).toBe('drop');

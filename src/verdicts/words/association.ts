@@ -6,7 +6,7 @@ import { filterLabel } from '../../analyse/labels.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, plural, pView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, detectableLabel, plural, pView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 export function composeAssociation(a: AssociationAnalysis, decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
@@ -67,10 +67,22 @@ export function composeAssociation(a: AssociationAnalysis, decision: Decision, c
         ? `${yLabel} = ${fmt.plain(a.fit.intercept * 100, 1)} + ${fmt.plain(a.fit.slope, 2)} × ${xLabel} (in %); R² = ${fmt.coefficient(a.fit.rSquared)}`
         : `${yLabel} = ${fmt.plain(a.fit.intercept, 3)} + ${fmt.plain(a.fit.slope, 3)} × ${xLabel}; R² = ${fmt.coefficient(a.fit.rSquared)}`,
     },
+    ...(a.weightedCheck
+      ? [{ label: 'Correlation weighted by respondents (check)', value: `${fmt.coefficient(a.weightedCheck.estimate.value)} (interval ${fmt.coefficient(a.weightedCheck.interval?.lower ?? NaN)} to ${fmt.coefficient(a.weightedCheck.interval?.upper ?? NaN)}; ${fmt.pPhrase(a.weightedCheck.p)})` }]
+      : []),
     ...commonRows(a, decision, ctx),
-    { label: 'Smallest correlation detectable (80% power)', value: `about ${view.detectable}` },
+    { label: detectableLabel('correlation', decision), value: `about ${view.detectable}` },
   ];
-  const cautions = [t.render('caution.causation', view), t.render('caution.ecological', view)];
+  // Cautions follow the result: no "tend to have" when no association was shown.
+  const found = decision.verdict === 'supported' || decision.verdict === 'opposite';
+  const sizes = a.points.map((p) => Math.min(p.nx, p.ny));
+  const fewest = Math.min(...sizes);
+  const cview = { ...view, found, fewest: fmt.count(fewest), most: fmt.count(Math.max(...sizes)), weightedR: a.weightedCheck ? fmt.coefficient(a.weightedCheck.estimate.value) : '' };
+  const cautions = [t.render('caution.causation', cview), t.render('caution.ecological', cview)];
+  // Both measures come from the same respondents in each unit (one source, one scope): a general tendency to agree
+  // lifts both together and can create or inflate a correlation across units.
+  cautions.push(t.render('association.caution-same-respondents', cview));
+  if (fewest < 50 || a.weightedCheck) cautions.push(t.render('association.caution-small-units', cview));
   if (controlled) cautions.push(t.render('association.caution-controls', view));
   if (a.weighted) cautions.push(t.render('association.caution-weighted', view));
   if (a.points.length < 10) cautions.push(t.render('caution.few-units', view));

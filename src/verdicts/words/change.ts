@@ -4,7 +4,7 @@ import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, differenceView, pView, rateCautions, rateRow, rateView, scopeText, tooLittle, twoRateTestName, type ComposeContext, type Composed } from './common.js';
+import { commonRows, detectableLabel, differenceView, pView, rateCautions, rateRow, rateView, scopeText, tooLittle, twoRateTestName, type ComposeContext, type Composed } from './common.js';
 
 /** Where-filters other than the period column, as a phrase ("Tarnquill, Q09"). */
 export function scopeOf(a: { claim: { where: ChangeAnalysis['claim']['where'] }; periodColumn: string }): string {
@@ -50,7 +50,7 @@ export function composeChange(a: ChangeAnalysis, decision: Decision, ctx: Compos
     { label: 'Change', value: `${view.change} points (interval ${view.changeLower} to ${view.changeUpper})` },
     ...commonRows(a, decision, ctx),
     { label: "Effect size (Cohen's h)", value: fmt.coefficient(a.cohensH ?? NaN) },
-    { label: 'Smallest change detectable (80% power)', value: view.detectable ? `about ${view.detectable} points` : 'none within reach of these samples' },
+    { label: detectableLabel('change', decision), value: view.detectable ? `about ${view.detectable} points` : 'none within reach of these samples' },
   ];
   const cautions: string[] = [t.render('caution.cohorts', {})];
   cautions.push(...rateCautions([a.later, a.earlier], a.responseRate, t));

@@ -57,8 +57,32 @@ export function scopeText(where: Filter): string {
   return Object.keys(where).length > 0 ? filterLabel(where) : '';
 }
 
+/** A significance threshold in two significant figures: 0.05, 0.0038, 0.017. */
+export function thresholdText(alpha: number): string {
+  return String(Number(alpha.toPrecision(2)));
+}
+
+/**
+ * Where the detectable effect was computed: at the threshold that decided the verdict (after the adjustment for many
+ * claims, when one was made), e.g. " at the threshold that decided this verdict (p below 0.0038 after adjusting for
+ * 13 claims)". Empty when the claim was not tested.
+ */
+export function detectAtPhrase(decision: Decision, ctx: ComposeContext): string {
+  const at = decision.effectiveAlpha;
+  if (at === undefined) return '';
+  const adjusted = ctx.adjusted && at < decision.alpha;
+  return ` at the threshold that decided this verdict (p below ${thresholdText(at)}${adjusted ? ` after adjusting for ${ctx.claimsTested} claims` : ''})`;
+}
+
+/** The numbers-table label for a detectable effect: "Smallest difference detected 80% of the time (p below 0.0038)". */
+export function detectableLabel(what: string, decision: Decision): string {
+  const at = decision.effectiveAlpha;
+  return `Smallest ${what} detected 80% of the time${at !== undefined ? ` (at p below ${thresholdText(at)})` : ''}`;
+}
+
 export function pView(decision: Decision, ctx: ComposeContext) {
   return {
+    detectAt: detectAtPhrase(decision, ctx),
     pPhrase: fmt.pPhrase(decision.p ?? NaN),
     pAdjustedPhrase: `adjusted ${fmt.pPhrase(decision.pAdjusted ?? NaN)}`,
     adjusted: ctx.adjusted,

@@ -5,7 +5,7 @@ import { filterLabel } from '../../analyse/labels.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, differenceView, pView, rateCautions, rateRow, rateView, restOfGroupCaution, scopeText, tooLittle, twoRateTestName, type ComposeContext, type Composed } from './common.js';
+import { commonRows, detectableLabel, differenceView, pView, rateCautions, rateRow, rateView, restOfGroupCaution, scopeText, tooLittle, twoRateTestName, type ComposeContext, type Composed } from './common.js';
 
 export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
@@ -48,7 +48,7 @@ export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: Comp
     { label: 'Difference', value: `${view.diff} points (interval ${view.diffLower} to ${view.diffUpper})` },
     ...commonRows(a, decision, ctx),
     { label: "Effect size (Cohen's h)", value: fmt.coefficient(a.cohensH ?? NaN) },
-    { label: 'Smallest difference detectable (80% power)', value: view.detectable ? `about ${view.detectable} points` : 'none within reach of these samples' },
+    { label: detectableLabel('difference', decision), value: view.detectable ? `about ${view.detectable} points` : 'none within reach of these samples' },
   ];
   const cautions: string[] = restOfGroupCaution(a.relation, claim, { focus: a.focus.n, against: a.against.n }, t);
   if (ctx.periodColumns.some((c) => c in claim.focus && c in claim.against)) cautions.push(t.render('caution.cohorts', {}));

@@ -5,7 +5,7 @@ import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
 import { unitWords } from './association.js';
-import { commonRows, pView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, detectableLabel, pView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 /** Test names for people, by method machine name. */
 const TEST_NAMES: Record<string, string> = {
@@ -38,6 +38,8 @@ export function composeCrosstab(a: CrosstabAnalysis, decision: Decision, ctx: Co
     scope: scopeText(claim.where),
     v: fmt.coefficient(a.cramersV ?? NaN),
     notableText: notableText ? `${notableText.charAt(0).toUpperCase()}${notableText.slice(1)}.` : '',
+    cutoff: fmt.plain(a.residualCutoff ?? 1.96, 2),
+    detectable: a.detectable !== undefined ? fmt.coefficient(a.detectable) : '',
     testName,
     chiAlso: a.test.method.startsWith('fisher'),
     level: fmt.level(claim.confidence),
@@ -56,6 +58,11 @@ export function composeCrosstab(a: CrosstabAnalysis, decision: Decision, ctx: Co
     ...commonRows(a, decision, ctx),
     { label: "Cramér's V", value: view.v as string },
     { label: 'Smallest expected count', value: fmt.plain(a.minExpected ?? NaN, 1) },
+    {
+      label: `Cells beyond ±${view.cutoff as string} (adjusted residual)`,
+      value: a.notable.length > 0 ? a.notable.map((c) => `${c.row}, ${c.column}: ${fmt.statistic(c.residual)}`).join('; ') : 'none',
+    },
+    ...(a.detectable !== undefined ? [{ label: detectableLabel("Cramér's V", decision), value: `about ${view.detectable as string}` }] : []),
   ];
   const cautions: string[] = [];
   const left = a.answers !== undefined ? answersLeftOut(a.answers) : '';

@@ -40,7 +40,21 @@ export function composeEstimate(a: EstimateAnalysis, _decision: Decision, ctx: C
       data: { kind: 'rates', axisTitle: 'Agreeing (%)', bars: [{ label: r.label, rate: r.rate, lower: r.interval.lower, upper: r.interval.upper, n: r.n }] },
       alt: `Chart of the agreement rate in ${r.label}: ${view.value} with a ${level} interval of ${view.lower} to ${view.upper}.`,
     };
-    cautions.push(...rateCautions([r], a.responseRate, t));
+    // An estimate is a level, so non-response bears on it directly: say how many did not answer whenever any did not
+    // (or that the number eligible is unknown), not only below the 50% response rate the other kinds use.
+    const rr = r.population !== undefined && r.population > 0 ? r.n / r.population : undefined;
+    if (rr === undefined || rr < 1) {
+      cautions.push(
+        t.render('estimate.caution-nonresponse', {
+          known: rr !== undefined,
+          missing: rr !== undefined ? fmt.percent(1 - rr) : '',
+          answered: fmt.count(r.n),
+          population: r.population !== undefined ? fmt.count(r.population) : '',
+          fpc: r.population !== undefined,
+        }),
+      );
+    }
+    cautions.push(...rateCautions([r], undefined, t));
   } else if (a.mean) {
     const m = a.mean;
     view = { label, measureMean: true, n: fmt.count(m.n), value: score(m.mean), lower: score(m.interval.lower), upper: score(m.interval.upper), margin: score((m.interval.upper - m.interval.lower) / 2), sd: score(m.sd), level };

@@ -5,7 +5,7 @@ import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, pView, restOfGroupCaution, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, detectableLabel, pView, thresholdText, restOfGroupCaution, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 /** A mean score or a difference in scale points: two decimals, proper minus sign. */
 export function scalePoints(value: number, options: { sign?: boolean; digits?: number } = {}): string {
@@ -39,7 +39,19 @@ export function composeMeans(a: MeansAnalysis, decision: Decision, ctx: ComposeC
   }
   const d = a.difference;
   const dDigits = fmt.coefficientDigits(d.value, d.interval.lower, d.interval.upper);
+  // The other family of test as a check: does it reach the same verdict at the threshold that decided this one?
+  const threshold = decision.effectiveAlpha ?? decision.alpha;
+  const check = a.check
+    ? {
+        test: a.check.test,
+        name: a.check.method === 'mann-whitney' ? 'Mann–Whitney rank-sum test' : "Welch's t test",
+        agrees: a.check.test.p < threshold === a.test.p < threshold,
+      }
+    : undefined;
   const view: View = {
+    check: check ? { name: check.name, pPhrase: fmt.pPhrase(check.test.p), agrees: check.agrees, threshold: thresholdText(threshold) } : false,
+    checkDisagrees: check !== undefined && !check.agrees,
+    detectable: a.detectable !== undefined ? scalePoints(a.detectable) : '',
     focus: meanView(a.focus),
     against: meanView(a.against),
     scope: scopeText(claim.where),
@@ -56,18 +68,29 @@ export function composeMeans(a: MeansAnalysis, decision: Decision, ctx: ComposeC
     adjustName: ctx.adjustName,
     ...pView(decision, ctx),
   };
-  const scale = a.scale ? ` on a scale of ${a.scale[0]} to ${a.scale[1]}` : '';
+  const scale = a.scale ? ` (scale ${a.scale[0]} to ${a.scale[1]})` : '';
+  const meanRow = (m: MeanSummary) => ({
+    label: m.label,
+    value: `mean ${meanView(m).mean}${scale}, ${fmt.count(m.n)} respondents (interval ${meanView(m).lower} to ${meanView(m).upper}; SD ${scalePoints(m.sd)})`,
+  });
   const numbers: NumberRow[] = [
-    { label: a.focus.label, value: `mean ${meanView(a.focus).mean}${scale} of ${fmt.count(a.focus.n)} (interval ${meanView(a.focus).lower} to ${meanView(a.focus).upper}; SD ${scalePoints(a.focus.sd)})` },
-    { label: a.against.label, value: `mean ${meanView(a.against).mean}${scale} of ${fmt.count(a.against.n)} (interval ${meanView(a.against).lower} to ${meanView(a.against).upper}; SD ${scalePoints(a.against.sd)})` },
+    meanRow(a.focus),
+    meanRow(a.against),
     { label: 'Difference in means', value: `${view.diff} scale points (interval ${view.diffLower} to ${view.diffUpper})` },
     ...commonRows(a, decision, ctx),
+    ...(a.cohensD !== undefined ? [{ label: "Effect size (Cohen's d)", value: fmt.coefficient(a.cohensD) }] : []),
+    ...(check ? [{ label: `${check.name} (check)`, value: `${fmt.pPhrase(check.test.p)}: ${check.agrees ? 'the same verdict' : 'a different verdict'} at p below ${thresholdText(threshold)}` }] : []),
+    {
+      label: detectableLabel('difference', decision),
+      value: a.detectable !== undefined ? `about ${scalePoints(a.detectable)} scale points` : 'not computed',
+    },
     ...(a.superiority !== undefined
       ? [{ label: 'Chance a respondent in the first group answers higher', value: `${fmt.percent(a.superiority)} (ties count half)` }]
       : []),
   ];
   const cautions: string[] = restOfGroupCaution(a.relation, claim, { focus: a.focus.n, against: a.against.n }, t);
-  if (claim.test !== 'rank') cautions.push(t.render('means.caution-scale', {}));
+  if (claim.test !== 'rank') cautions.push(t.render('means.caution-scale', view));
+  if (check && !check.agrees) cautions.push(t.render('means.caution-disagree', view));
   for (const m of [a.focus, a.against]) {
     if (m.n < 30) cautions.push(t.render('means.caution-small', meanView(m)));
   }

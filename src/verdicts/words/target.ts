@@ -5,7 +5,7 @@ import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, differenceView, pView, rateCautions, rateRow, rateView, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, detectableLabel, differenceView, pView, rateCautions, rateRow, rateView, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 /** True when the fixed value's label says it is a benchmark from elsewhere rather than a target set locally. */
 function isBenchmark(label: string | undefined): boolean {
@@ -55,7 +55,7 @@ export function composeTarget(a: TargetAnalysis, decision: Decision, ctx: Compos
     { label: claim.valueLabel ?? 'Fixed value', value: claim.valueWritten && claim.valueWritten !== target ? `${target} (written as ${claim.valueWritten})` : target },
     { label: 'Gap to the value', value: `${view.gap} points (interval ${view.gapLower} to ${view.gapUpper})` },
     ...commonRows(a, decision, ctx),
-    { label: 'Smallest gap detectable (80% power)', value: view.detectable ? `about ${view.detectable} points` : 'none within reach of this sample' },
+    { label: detectableLabel('gap', decision), value: view.detectable ? `about ${view.detectable} points` : 'none within reach of this sample' },
   ];
   const cautions: string[] = [t.render(isBenchmark(claim.valueLabel) ? 'target.caution-benchmark' : 'target.caution-target', view)];
   cautions.push(...rateCautions([a.rate], a.responseRate, t));

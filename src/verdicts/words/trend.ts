@@ -5,7 +5,7 @@ import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
 import { scopeOf } from './change.js';
-import { commonRows, pView, rateCautions, rateRow, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, detectableLabel, pView, rateCautions, rateRow, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
@@ -48,7 +48,7 @@ export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeC
     { label: 'Fitted change per period', value: `${view.slope} points` },
     { label: `Fitted rate, ${first} to ${last}`, value: `${view.fittedFirst} to ${view.fittedLast} (${view.fittedChange} points)` },
     ...commonRows(a, decision, ctx),
-    { label: 'Smallest steady change detectable (80% power)', value: `about ${view.detectable} points per period` },
+    { label: detectableLabel('steady change', decision), value: `about ${view.detectable} points per period` },
     ...(a.departure !== undefined
       ? [{ label: 'Departure from a straight line', value: `X² = ${fmt.statistic(a.departure.statistic)}, ${a.departure.df} ${a.departure.df === 1 ? 'degree' : 'degrees'} of freedom, ${fmt.pPhrase(a.departure.p)}` }]
       : []),
