@@ -47,6 +47,19 @@ export interface EffectInterval {
   unit: 'points' | 'scale points' | 'r';
 }
 
+/**
+ * The interval the split and the rewording are judged by: the one at the level that decided the verdict (after the
+ * adjustment for many claims, decision.adjustedInterval) where there is one, else the claim's own. Ruling a
+ * difference out is itself a finding, so it is held to the same threshold as the verdict.
+ */
+export function judgedInterval(a: Analysis, decision: Decision): (EffectInterval & { level: number }) | undefined {
+  const e = effectInterval(a);
+  if (!e) return undefined;
+  const adj = decision.adjustedInterval;
+  if (adj && a.kind !== 'equivalence') return { ...e, lower: adj.interval.lower, upper: adj.interval.upper, level: adj.interval.level };
+  return { ...e, level: a.claim.confidence };
+}
+
 export function effectInterval(a: Analysis): EffectInterval | undefined {
   if (a.status !== 'tested') return undefined;
   switch (a.kind) {
@@ -110,7 +123,7 @@ export function worthReporting(a: Analysis, decision: Decision, linked: Analysis
 export function notSupportedAs(a: Analysis, decision: Decision, worth: Worth | undefined): NotSupportedAs | undefined {
   if (decision.verdict !== 'not-supported') return undefined;
   if (decision.belowThreshold) return 'too-small';
-  const e = effectInterval(a);
+  const e = judgedInterval(a, decision);
   if (!e) return undefined;
   // Equivalence not shown: the interval crosses the margin, so it holds both a gap inside and one beyond it.
   if (a.kind === 'equivalence') return 'inconclusive';
@@ -169,7 +182,7 @@ function labelsOf(a: Analysis): { focus: string; against: string; subject: strin
 }
 
 /** The suggested rewording of a claim whose size is ruled out: what the interval supports. */
-function rewording(a: Analysis, e: EffectInterval, t: Templates): string {
+function rewording(a: Analysis, e: EffectInterval & { level: number }, t: Templates): string {
   const direction = a.expectSign;
   // The bound the interval puts on an effect in the claimed direction(s), never below zero.
   const bound = direction > 0 ? Math.max(e.upper, 0) : direction < 0 ? Math.max(-e.lower, 0) : Math.max(Math.abs(e.lower), Math.abs(e.upper));
@@ -184,7 +197,7 @@ function rewording(a: Analysis, e: EffectInterval, t: Templates): string {
     unitWord: e.unit,
     lower: signedAmount(e.lower, e.unit),
     upper: signedAmount(e.upper, e.unit),
-    level: fmt.level(c.confidence),
+    level: fmt.level(e.level),
     twoSided: direction === 0,
     higher: direction > 0,
     lower_: direction < 0,
@@ -201,10 +214,11 @@ function rewording(a: Analysis, e: EffectInterval, t: Templates): string {
 
 export function adviseClaim(input: AdviceInput): ClaimAdvice {
   const { analysis: a, decision, detail, worth, key, templates: t } = input;
-  const e = effectInterval(a);
+  const e = judgedInterval(a, decision);
   const view = {
     key,
-    level: fmt.level(a.claim.confidence),
+    level: fmt.level(e?.level ?? a.claim.confidence),
+    claimLevel: fmt.level(a.claim.confidence),
     lower: e ? signedAmount(e.lower, e.unit) : '',
     upper: e ? signedAmount(e.upper, e.unit) : '',
     unitWord: e?.unit === 'r' ? '' : ` ${e?.unit ?? ''}`,

@@ -22,6 +22,7 @@ interface Claim {
   verdictDetail: string | null;
   worthReporting: { value: number; basis: string } | null;
   interval: { lower: number; upper: number } | null;
+  adjustedInterval: { lower: number; upper: number; level: number } | null;
   advice: { action: string; label: string; reason: string; wording?: string };
   linkedClaims: string[];
   responseRate: number | null;
@@ -52,23 +53,24 @@ describe('verdict words and what to do with each claim', () => {
 
   it('splits "not supported": the campuses gap is ruled out by the 6-point margin of the linked claim, ceramics is inconclusive', () => {
     const campuses = byId('campuses-reach-staff-differently');
-    // Interval −4.4 to +3.3 points lies inside ±6 points (margin of campuses-equally-reachable): ruled out.
+    // The interval at the level that decided the verdict (Holm's threshold 0.05/6: 99.2%), −5.7 to +4.7 points, lies
+    // inside ±6 points (the margin of campuses-equally-reachable): ruled out.
     expect(campuses.verdictDetail).toBe('ruled-out');
     expect(campuses.worthReporting).toEqual({ value: 0.06, basis: 'linked-margin' });
-    expect(campuses.interval!.lower).toBeGreaterThan(-0.06);
-    expect(campuses.interval!.upper).toBeLessThan(0.06);
+    expect(campuses.adjustedInterval!.lower).toBeGreaterThan(-0.06);
+    expect(campuses.adjustedInterval!.upper).toBeLessThan(0.06);
     expect(campuses.verdictLabel).toBe('Not supported: ruled out');
     expect(campuses.advice.action).toBe('reword');
-    expect(campuses.advice.wording).toMatch(/differ by less than 4\.4 points \(95% interval for the difference −4\.4 to \+3\.3 points\)/);
+    expect(campuses.advice.wording).toMatch(/differ by less than 5\.7 points \(99\.2% interval for the difference −5\.7 to \+4\.7 points\)/);
     expect(campuses.linkedClaims).toEqual(['campuses-equally-reachable']);
     expect(byId('campuses-equally-reachable').linkedClaims).toEqual(['campuses-reach-staff-differently']);
 
     const ceramics = byId('ceramics-clearer-than-music');
-    // Interval −9.4 to +21.3 points holds 0 and the default 5 points worth reporting in the claimed direction.
+    // Its 99.2% interval (−14.6 to +26.4 points) holds 0 and the default 5 points worth reporting in the claimed direction.
     expect(ceramics.verdictDetail).toBe('inconclusive');
     expect(ceramics.worthReporting).toEqual({ value: 0.05, basis: 'default' });
-    expect(ceramics.interval!.lower).toBeLessThan(0);
-    expect(ceramics.interval!.upper).toBeGreaterThan(ceramics.worthReporting!.value);
+    expect(ceramics.adjustedInterval!.lower).toBeLessThan(0);
+    expect(ceramics.adjustedInterval!.upper).toBeGreaterThan(ceramics.worthReporting!.value);
     expect(ceramics.advice.action).toBe('drop');
   });
 
