@@ -23,6 +23,7 @@ import { minDetectableGap } from '../stats/power-one-proportion.js';
 import { minDetectableCorrelation } from '../stats/power-correlation.js';
 import { minDetectableMeanDifference } from '../stats/power-two-means.js';
 import { detectableSlope } from './trend.js';
+import { effectiveSize } from '../stats/finite-population.js';
 import { minDetectableCramersV } from '../stats/power-chi-square.js';
 
 const POWER = 0.8;
@@ -38,17 +39,20 @@ export function detectableAt(a: Analysis, alpha: number): number | undefined {
   if (a.status !== 'tested' || !a.test) return undefined;
   const sided = a.test.alternative === 'two-sided' ? 'two-sided' : 'one-sided';
   switch (a.kind) {
-    case 'compare': {
-      if (!a.focus || !a.against || !(a.against.rate > 0 && a.against.rate < 1)) return undefined;
-      return pick(a.claim.expect, minDetectableDifference(a.focus.n, a.against.n, a.against.rate, alpha, POWER, sided));
-    }
+    case 'compare':
     case 'change': {
-      if (!a.later || !a.earlier || !(a.earlier.rate > 0 && a.earlier.rate < 1)) return undefined;
-      return pick(a.claim.expect, minDetectableDifference(a.later.n, a.earlier.n, a.earlier.rate, alpha, POWER, sided));
+      const [first, second] = a.kind === 'compare' ? [a.focus, a.against] : [a.later, a.earlier];
+      if (!first || !second || !(second.rate > 0 && second.rate < 1)) return undefined;
+      // As src/analyse/rates.ts: with the finite-population correction each group counts as its effective size n / f.
+      const corrected = a.fpc?.used === true && first.population !== undefined && second.population !== undefined;
+      const m1 = corrected ? effectiveSize(first.n, first.population as number) : first.n;
+      const m2 = corrected ? effectiveSize(second.n, second.population as number) : second.n;
+      return pick(a.claim.expect, minDetectableDifference(m1, m2, second.rate, alpha, POWER, sided));
     }
     case 'target': {
       if (!a.rate) return undefined;
-      return pick(a.claim.expect, minDetectableGap(a.rate.n, a.claim.value, alpha, POWER, sided, a.rate.population));
+      const corrected = a.rate.fpc === true && a.rate.population !== undefined;
+      return pick(a.claim.expect, minDetectableGap(a.rate.n, a.claim.value, alpha, POWER, sided, corrected ? a.rate.population : undefined));
     }
     case 'trend': {
       if (!a.rates) return undefined;

@@ -79,6 +79,15 @@ export interface ClaimResult {
   linkedClaims?: string[];
   /** Lowest response rate among the selections (0-1), null when unknown. */
   responseRate?: number | null;
+  /**
+   * A second test printed beside the main one: Mann–Whitney beside a t test (or Welch beside the rank test) for mean
+   * scores; the respondent-weighted correlation beside the unweighted one for associations. Null when none.
+   */
+  check?: { method: string; estimate: number | null; p: number } | null;
+  /** Cohen's d for mean scores (difference over the pooled standard deviation); null for other kinds. */
+  cohensD?: number | null;
+  /** Crosstab cells whose adjusted residual lies beyond the level's critical value, largest first. */
+  notableCells?: Array<{ row: string; column: string; residual: number }>;
 }
 
 export interface ResultsFile {
@@ -181,6 +190,14 @@ export function claimResult(a: Analysis, decision: Decision, section: ClaimSecti
     ...(section.advice ? { advice: section.advice } : {}),
     linkedClaims: (section.linked ?? []).map((l) => l.id),
     responseRate: tested ? responseRateOf(a)?.rate ?? null : null,
+    check:
+      a.kind === 'means' && a.check
+        ? { method: a.check.method, estimate: null, p: a.check.test.p }
+        : a.kind === 'association' && a.weightedCheck
+          ? { method: 'pearson-weighted', estimate: a.weightedCheck.estimate.value, p: a.weightedCheck.p }
+          : null,
+    cohensD: a.kind === 'means' ? a.cohensD ?? null : null,
+    ...(a.kind === 'crosstab' ? { notableCells: a.notable } : {}),
   };
 }
 

@@ -26,6 +26,10 @@ interface Claim {
   advice: { action: string; label: string; reason: string; wording?: string };
   linkedClaims: string[];
   responseRate: number | null;
+  cautions: string[];
+  verdictText: string;
+  check: { method: string; estimate: number | null; p: number } | null;
+  notableCells?: Array<{ row: string; column: string; residual: number }>;
 }
 let claims: Claim[];
 const byId = (id: string) => claims.find((c) => c.id === id) as Claim;
@@ -88,5 +92,40 @@ describe('verdict words and what to do with each claim', () => {
     expect(byId('overall-contentment-estimate').responseRate).toBeCloseTo(2079 / 3358, 12);
     // pulse (the union's own survey) has no eligible column.
     expect(byId('library-fell').responseRate).toBeNull();
+  });
+});
+
+describe('cautions follow the result', () => {
+  it('says "tend to have" only where an association was shown', () => {
+    const shown = byId('resources-go-with-contentment');
+    const none = byId('challenge-goes-with-arrangements');
+    expect(shown.verdict).toBe('supported');
+    expect(shown.cautions.join(' ')).toMatch(/tend to have a higher overall contentment/);
+    expect(none.verdict).toBe('not-supported');
+    expect(none.cautions.join(' ')).not.toMatch(/tend to have/);
+    expect(none.cautions.join(' ')).toMatch(/No association was shown/);
+    // Same respondents answer both questions: the caution names the inflation of a unit-level correlation.
+    for (const c of [shown, none]) expect(c.cautions.join(' ')).toMatch(/same respondents in each department/);
+  });
+
+  it('says cohorts may overlap and that treating years as independent is conservative, not that different people answered', () => {
+    const change = byId('wellbeing-up-this-year');
+    const text = change.cautions.join(' ');
+    expect(text).toMatch(/may have answered both surveys, and respondents cannot be linked/);
+    expect(text).toMatch(/makes the test conservative/);
+    expect(text).not.toMatch(/Different people answered/);
+  });
+
+  it('gives the estimate page its non-response caution: 38% of those eligible did not answer (2,079 of 3,358)', () => {
+    const est = byId('overall-contentment-estimate');
+    // 1 - 2079/3358 = 0.3809, printed as a whole percentage.
+    expect(est.cautions.join(' ')).toContain('38% of those eligible did not answer (2,079 of 3,358 answered)');
+  });
+
+  it('names crosstab cells beyond ±1.96, or says none passed', () => {
+    const table = byId('arrangements-by-campus');
+    expect(table.notableCells).toEqual([]);
+    expect(table.verdictText).toContain("No cell's adjusted residual lies beyond ±1.96.");
+    expect(table.verdictText).toMatch(/would detect a relation of Cramér's V = 0\.08 or stronger 80% of the time/);
   });
 });

@@ -57,14 +57,14 @@ export function scopeText(where: Filter): string {
   return Object.keys(where).length > 0 ? filterLabel(where) : '';
 }
 
-/** A significance threshold in two significant figures: 0.05, 0.0038, 0.017. */
+/** A significance threshold in three significant figures, trailing zeros dropped: 0.05, 0.0125, 0.00833. */
 export function thresholdText(alpha: number): string {
-  return String(Number(alpha.toPrecision(2)));
+  return String(Number(alpha.toPrecision(3)));
 }
 
 /**
  * Where the detectable effect was computed: at the threshold that decided the verdict (after the adjustment for many
- * claims, when one was made), e.g. " at the threshold that decided this verdict (p below 0.0038 after adjusting for
+ * claims, when one was made), e.g. " at the threshold that decided this verdict (p below 0.00385 after adjusting for
  * 13 claims)". Empty when the claim was not tested.
  */
 export function detectAtPhrase(decision: Decision, ctx: ComposeContext): string {
