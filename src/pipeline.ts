@@ -308,7 +308,7 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
 
   // 1. claims
   // An earlier pack named with --since must exist: checked before any work is done.
-  const since = options.since !== undefined ? openPack(resolve(cwd, options.since)) : undefined;
+  const since = options.since !== undefined ? openPack(resolve(cwd, options.since), options.since) : undefined;
   if (options.since !== undefined && !since) {
     throw new InputError({ file: options.since, field: '--since', problem: 'no pack was found there (a pack folder holds results.json)', fix: 'give a pack folder, its results.json, or a history folder with a latest pack' });
   }

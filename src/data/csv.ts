@@ -177,6 +177,38 @@ export function sniff(text: string, final: boolean): { delimiter: Delimiter; new
   }
 }
 
+/**
+ * A zero byte never occurs in CSV text (RFC 4180 allows printable characters only): the file is damaged, binary, or
+ * a sparse file of zeros. Refused at the first piece that holds one, so such a file is not read to its end.
+ */
+function nulInText(file: string, rowsRead: number): InputError {
+  return new InputError({
+    file,
+    ...(rowsRead > 0 ? { row: rowsRead + 1 } : {}),
+    found: 'a zero byte (NUL)',
+    problem: `The file holds a zero byte ${rowsRead > 0 ? `at or after row ${rowsRead + 1}` : 'near its start'}, which CSV text never does: it is damaged, or a binary file with a .csv name`,
+    fix: 'Open it in a spreadsheet program and save it again as CSV UTF-8, or point the claims file at the right file',
+  });
+}
+
+/**
+ * The longest record (one row, with any quoted line breaks) read: four million characters, far beyond any survey row
+ * even with long comments (a spreadsheet cell holds at most 32,767).
+ * A file with no line breaks where rows should end would otherwise be carried whole, in time and memory that grow
+ * with the square of its size.
+ */
+const MAX_RECORD_CHARS = 4 * 1024 * 1024;
+
+function recordTooLong(file: string, rowsRead: number, headerRead: boolean): InputError {
+  return new InputError({
+    file,
+    row: rowsRead + 1,
+    found: `more than ${MAX_RECORD_CHARS} characters`,
+    problem: `Row ${rowsRead + 1} of the file runs on for more than 4 million characters without ending: the file has no line breaks where rows should end${headerRead ? ', or a quote is never closed' : ''}`,
+    fix: 'Check that this is a CSV file with one row per line; if a value opens a quote, close it with a double quote',
+  });
+}
+
 function openFailure(e: unknown, file: string): InputError | undefined {
   const code = (e as { code?: string } | null)?.code;
   if (code === 'ENOENT') {
@@ -530,6 +562,7 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
         }
       }
       pending += text;
+      if (pending.length > MAX_RECORD_CHARS) throw recordTooLong(file, row, dialectSet);
       if (!dialectSet) {
         const found = sniff(pending, pending.length >= PEEK_LIMIT);
         if (found === undefined) return;
@@ -561,6 +594,7 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
     const onBytes = options.onBytes;
     for await (const raw of stream as AsyncIterable<Buffer>) {
       onBytes?.(raw);
+      if (raw.indexOf(0) >= 0) throw nulInText(file, row);
       const keep = options.select?.keep;
       let from = 0;
       if (keep !== undefined && dialect !== undefined && !first && dialect.newline !== '\r') {

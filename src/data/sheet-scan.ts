@@ -179,6 +179,9 @@ export function serialToIso(serial: number, date1904: boolean): string {
  * Scanner state for one worksheet. `feed` takes the next piece of decoded XML and returns the rows completed by it;
  * `finish` checks that the part ended cleanly and returns any last rows.
  */
+/** The most text carried between pieces of a sheet part (one unfinished tag or value). */
+const MAX_CARRIED = 4 * 1024 * 1024;
+
 export class SheetScanner {
   private pending = '';
   private out: SheetRow[] = [];
@@ -340,6 +343,8 @@ export class SheetScanner {
   feed(text: string): SheetRow[] {
     this.pending = this.pending.length === 0 ? text : this.pending + text;
     this.scan(false);
+    // What is carried is at most one unfinished tag or value: a spreadsheet cell holds at most 32,767 characters.
+    if (this.pending.length > MAX_CARRIED) throw this.ctx.damaged('a value or a tag runs on for more than 4 million characters');
     return this.out.splice(0);
   }
 
@@ -359,7 +364,11 @@ export class SheetScanner {
       if (s.charCodeAt(i) !== LT) {
         let j = s.indexOf('<', i);
         if (j < 0) {
-          if (!final) break;
+          if (!final) {
+            // Text outside any value is passed over now rather than carried (a run of filler would be rescanned).
+            if (this.collect === 0) i = n;
+            break;
+          }
           j = n;
         }
         if (this.collect !== 0) this.text(decodeEntities(s.slice(i, j), damaged));

@@ -111,7 +111,7 @@ export function latestOrUnreadable(root: string): StoredPack | UnreadablePack | 
 }
 
 /** A pack folder given on the command line: a pack folder, its results.json, or a history folder (its latest). */
-export function openPack(path: string): StoredPack | undefined {
+export function openPack(path: string, shown: string = path): StoredPack | undefined {
   const given = path.endsWith('.json') ? join(path, '..') : path;
   // The `latest` link (or any link) is followed, so the pack is named by its real folder.
   let folder = given;
@@ -123,11 +123,11 @@ export function openPack(path: string): StoredPack | undefined {
   const direct = readResultsOf(folder);
   if (direct !== undefined) {
     if ('results' in direct) return { name: basename(folder), path: folder, results: direct.results };
-    throw new InputError({ file: path, problem: `the pack ${basename(folder)} cannot be read: ${direct.unreadable}`, fix: 'Name another pack, or build this one again from its claims file and data' });
+    throw new InputError({ file: shown, problem: `the pack ${basename(folder)} cannot be read: ${direct.unreadable}`, fix: 'Name another pack, or build this one again from its claims file and data' });
   }
   const latest = latestOrUnreadable(folder);
   if (latest !== undefined && 'reason' in latest) {
-    throw new InputError({ file: path, problem: `the latest pack ${latest.name} cannot be read: ${latest.reason}`, fix: 'Name another pack, or build this one again from its claims file and data' });
+    throw new InputError({ file: shown, problem: `the latest pack ${latest.name} cannot be read: ${latest.reason}`, fix: 'Name another pack, or build this one again from its claims file and data' });
   }
   return latest;
 }

@@ -119,6 +119,24 @@ export class Templates {
         fix: 'check that every {{#section}} has a matching {{/section}}',
       });
     }
+    // A partial ({{> name}}) would be looked up among partials warrant never passes, and leave a hole.
+    const partial = (function find(tokens: Token[]): string | undefined {
+      for (const t of tokens) {
+        if (t[0] === '>') return t[1];
+        const inner = Array.isArray(t[4]) ? find(t[4]) : undefined;
+        if (inner !== undefined) return inner;
+      }
+      return undefined;
+    })(Mustache.parse(text) as Token[]);
+    if (partial !== undefined) {
+      throw new InputError({
+        file: shown,
+        field: `{{> ${partial}}}`,
+        found: partial,
+        problem: 'the template includes another template, which warrant templates cannot do, so the sentence would have a hole in it',
+        fix: 'Write the words out in this template instead of {{> ...}}',
+      });
+    }
     this.cache.set(name, text);
     if (replaced) this.unchecked.add(name);
     return text;
