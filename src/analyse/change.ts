@@ -65,8 +65,9 @@ export function analyseChange(written: ChangeClaim, cube: Cube, ctx: CompareCont
     expectSign: expectSignOf(claim.expect),
     methods: [] as string[],
   };
-  const laterLabel = `${scopeLabel}${to}`;
-  const earlierLabel = `${scopeLabel}${from}`;
+  const naming = { ...claim.naming, period: column };
+  const laterLabel = claim.naming !== undefined ? filterLabel({ ...Object.fromEntries(scope), [column]: to }, naming) : `${scopeLabel}${to}`;
+  const earlierLabel = claim.naming !== undefined ? filterLabel({ ...Object.fromEntries(scope), [column]: from }, naming) : `${scopeLabel}${from}`;
   const why = shortfall(claim, [
     { label: to, pooled: laterPooled },
     { label: from, pooled: earlierPooled },

@@ -66,8 +66,8 @@ export function analyseCompare(claim: CompareClaim, cube: Cube, ctx: CompareCont
   const related = relate(cube, focusFilter, againstFilter);
   const expectSign = expectSignOf(claim.expect);
   refuseOverlap(related.relation, claim, ctx, ' (e.g. two different departments)');
-  const focusLabel = claim.focusLabel ?? filterLabel(claim.focus);
-  const againstName = claim.againstLabel ?? filterLabel(claim.against);
+  const focusLabel = claim.focusLabel ?? filterLabel(claim.focus, claim.naming);
+  const againstName = claim.againstLabel ?? filterLabel(claim.against, claim.naming);
   let focusPooled = related.focus;
   let againstPooled = related.against;
   let againstLabel = againstName;

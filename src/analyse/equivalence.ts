@@ -46,8 +46,8 @@ export function analyseEquivalence(claim: EquivalenceClaim, cube: Cube, ctx: Com
   refuseOverlap(related.relation, claim, ctx);
   let focusPooled = related.focus;
   let againstPooled = related.against;
-  let focusLabel = claim.focusLabel ?? filterLabel(claim.focus);
-  let againstLabel = claim.againstLabel ?? filterLabel(claim.against);
+  let focusLabel = claim.focusLabel ?? filterLabel(claim.focus, claim.naming);
+  let againstLabel = claim.againstLabel ?? filterLabel(claim.against, claim.naming);
   if (related.relation === 'focus-inside' && related.rest) {
     againstPooled = related.rest;
     againstLabel = restLabel(claim);

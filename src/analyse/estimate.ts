@@ -65,7 +65,7 @@ function poolCodes(cube: Cube, filter: EstimateClaim['where']): Record<string, n
 
 export function analyseEstimate(claim: EstimateClaim, cube: Cube, ctx: CompareContext): EstimateAnalysis {
   const filter = { ...claim.where, ...claim.select };
-  const label = claim.selectLabel ?? filterLabel(filter);
+  const label = claim.selectLabel ?? filterLabel(filter, claim.naming);
   const pooled = pool(cube, filter);
   const base = { kind: 'estimate' as const, claim, expectSign: 0 as const, observedSign: 0 as const, methods: [] as string[] };
   const measure = claim.measure;

@@ -68,8 +68,8 @@ export function analyseMeans(claim: MeansClaim, cube: Cube, ctx: CompareContext)
   const without = (big: Cell[], small: Cell[]) => big.filter((c) => !small.includes(c));
   let focusCells = fCells;
   let againstCells = aCells;
-  let focusLabel = claim.focusLabel ?? filterLabel(claim.focus);
-  let againstLabel = claim.againstLabel ?? filterLabel(claim.against);
+  let focusLabel = claim.focusLabel ?? filterLabel(claim.focus, claim.naming);
+  let againstLabel = claim.againstLabel ?? filterLabel(claim.against, claim.naming);
   if (related.relation === 'focus-inside') {
     againstCells = without(aCells, fCells);
     againstLabel = restLabel(claim);

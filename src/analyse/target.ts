@@ -43,7 +43,7 @@ export function analyseTarget(claim: TargetClaim, cube: Cube, ctx: CompareContex
       fix: 'give the value as a percentage between 0% and 100%, e.g. `value: 80%`',
     });
   }
-  const label = claim.selectLabel ?? filterLabel({ ...claim.where, ...claim.select });
+  const label = claim.selectLabel ?? filterLabel({ ...claim.where, ...claim.select }, claim.naming);
   const pooled = pool(cube, { ...claim.where, ...claim.select });
   const base = { kind: 'target' as const, claim, expectSign: expectSignOf(claim.expect), methods: [] as string[] };
   const why = shortfall(claim, [{ label, pooled }]);

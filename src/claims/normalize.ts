@@ -93,6 +93,7 @@ export function normalize(parsed: ParsedYaml, absPath: string, sha256: string, l
     if (typeof s.period === 'string') spec.period = s.period;
     if (Array.isArray(s.numeric)) spec.numeric = [...(s.numeric as string[])];
     if (typeof s.header_row === 'number') spec.headerRow = s.header_row;
+    if (s.wording !== null && typeof s.wording === 'object') spec.wording = Object.fromEntries(Object.entries(s.wording as Record<string, unknown>).map(([k, v]) => [k.trim(), String(v).trim()]));
     if (s.header_rows === 1 || s.header_rows === 2) spec.headerRows = s.header_rows;
     if (typeof s.last_row === 'number') spec.lastRow = s.last_row;
     if (Array.isArray(s.suppressed)) spec.suppressed = (s.suppressed as unknown[]).map(String);
@@ -117,6 +118,14 @@ export function normalize(parsed: ParsedYaml, absPath: string, sha256: string, l
     if (rate !== undefined) base.minResponseRate = rate;
     const smallest = c.smallest_difference !== undefined ? points(c.smallest_difference) : topSmallest;
     if (smallest !== undefined) base.smallestDifference = smallest;
+    const src = sources.find((x) => x.id === base.source);
+    if (src !== undefined && (src.period !== undefined || src.wording !== undefined || src.shape === 'respondents')) {
+      base.naming = {
+        ...(src.period !== undefined ? { period: src.period } : {}),
+        ...(src.shape === 'respondents' ? { question: src.questionColumn } : {}),
+        ...(src.wording !== undefined ? { wording: src.wording } : {}),
+      };
+    }
     const fpc = c.finite_population_correction ?? data.finite_population_correction;
     if (typeof fpc === 'boolean') base.finitePopulation = fpc;
     return claimOfKind(c, base, lenient);

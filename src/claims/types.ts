@@ -37,6 +37,17 @@ export type FilterValue = FilterScalar | FilterScalar[] | { not: FilterScalar | 
 /** Filters on several columns at once; a row is selected when every column matches. */
 export type Filter = Record<string, FilterValue>;
 
+/**
+ * How a claim's selections are named in the pack: the period column (named last, "in 2026"), the question column,
+ * and each question's wording (from the source's `wording`), so that labels say the group, then the question, then
+ * the period, and speak in the wording with the code beside it.
+ */
+export interface Naming {
+  period?: string;
+  question?: string;
+  wording?: Record<string, string>;
+}
+
 /** Where something was written in the claims file (1-based), for error messages and the pack. */
 export interface Place {
   line: number;
@@ -93,6 +104,8 @@ export interface SourceSpec {
   lastRow?: number;
   /** summary: markers this release uses for withheld cells, read as suppressed besides the common ones. */
   suppressed?: string[];
+  /** Question code -> its wording, as the pack should say it (`wording` in the claims file). */
+  wording?: Record<string, string>;
   place: Place;
 }
 
@@ -131,6 +144,8 @@ interface ClaimBase {
    * is then used wherever the source gives the number eligible. Either way it applies to every figure or to none.
    */
   finitePopulation?: boolean;
+  /** How selections are named (from the claim's source); display only, not part of what the claim commits to. */
+  naming?: Naming;
   place: Place;
 }
 

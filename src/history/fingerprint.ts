@@ -9,7 +9,7 @@
 import { createHash } from 'node:crypto';
 import type { Claim } from '../claims/types.js';
 
-const COSMETIC = new Set(['place', 'confidenceWritten', 'focusLabel', 'againstLabel', 'xLabel', 'yLabel', 'selectLabel', 'valueLabel', 'valueWritten']);
+const COSMETIC = new Set(['place', 'naming', 'confidenceWritten', 'focusLabel', 'againstLabel', 'xLabel', 'yLabel', 'selectLabel', 'valueLabel', 'valueWritten']);
 
 /** JSON with object keys sorted, so that key order never changes a digest. */
 export function canonicalJson(value: unknown): string {

@@ -35,6 +35,9 @@ sources:
     question_column: Question
     period: Year
     not_applicable: [9]
+    wording:
+      Q01: Teaching staff explain things clearly
+      Q02: My timetable works well for me
 claims:
 `;
 
@@ -178,7 +181,7 @@ describe('the spread of answers to one question', () => {
       expect(text).toContain(`${row} ${counts.map((k, j) => `${j + 1}: ${k}`).join(', ')}`);
     });
     expect(text).toContain(`left out: ${R.answers_by_campus.not_applicable} answers of "not applicable" and ${R.answers_by_campus.blank} blank answers`);
-    expect(text).toContain('The answer to Q02 is spread the same way in every campus');
+    expect(text).toContain('The answer to “My timetable works well for me” (Q02) is spread the same way in every campus');
   });
 
   it('year by answer code: the spread changed between the two years, as R chisq.test finds', () => {
@@ -199,6 +202,20 @@ describe('everyone else as the comparison group', () => {
     expect(c.selections[1].label).toBe('the rest of the college');
     expect(text).toContain(`against the rest of the college (${R.rest.rest_n} respondents)`);
     expect(text).not.toMatch(/2025 or 2026|Harrowfen is part of/);
+  });
+});
+
+describe('question wording', () => {
+  it('speaks in the wording with the code beside it, and names the group, then the question, then the period', () => {
+    expect(text).toContain('the answer to “My timetable works well for me” (Q02) is spread the same way in every campus'.replace(/^t/, 'T'));
+    // The comparison: the group, the question in its wording with its code, then the period, in a sentence.
+    expect(text).toContain('Harrowfen (379 respondents) against the rest of the college (362 respondents), for “Teaching staff explain things clearly” (Q01) in 2026.');
+    // Never a label gluing the period and the code into the group's name.
+    expect(text).not.toMatch(/Harrowfen, (Q01|2026)|2026, Q0\d|Q0\d, 2026/);
+  });
+
+  it('a summary source without wording keeps the codes, still in that order', () => {
+    expect(text).toContain('Q01 against Q02 across 16 department and institution combinations, for 2026');
   });
 });
 

@@ -13,8 +13,8 @@ export function composeAssociation(a: AssociationAnalysis, decision: Decision, c
   const claim = a.claim;
   const expectWord = claim.expect === 'positive' ? 'higher' : claim.expect === 'negative' ? 'lower' : '';
   const oneSided = a.test ? a.test.alternative !== 'two-sided' : claim.sided === 'one-sided' && claim.expect !== 'any';
-  const xLabel = claim.xLabel ?? filterLabel(claim.x);
-  const yLabel = claim.yLabel ?? filterLabel(claim.y);
+  const xLabel = claim.xLabel ?? filterLabel(claim.x, claim.naming);
+  const yLabel = claim.yLabel ?? filterLabel(claim.y, claim.naming);
   const { unitName, unitsName } = unitWords(claim.units);
   const controlled = claim.controls && claim.controls.length > 0 ? listWords(claim.controls.map((c) => c.label)) : '';
   const labelsOnly = { xLabel, yLabel, unitsName, expectWord, oneSided, controlled };
@@ -34,7 +34,7 @@ export function composeAssociation(a: AssociationAnalysis, decision: Decision, c
     controlPronoun: (claim.controls?.length ?? 0) > 1 ? 'their' : 'its',
     weighted: a.weighted === true,
     unitCount: a.points.length,
-    scope: scopeText(claim.where),
+    scope: scopeText(claim.where, claim.naming),
     xTotal: fmt.count(a.totals?.x ?? 0),
     yTotal: fmt.count(a.totals?.y ?? 0),
     level: fmt.level(claim.confidence),

@@ -1,5 +1,6 @@
 /** Words for the "change" kind: one selection's agreement rate in an earlier and a later period. */
 import type { ChangeAnalysis } from '../../analyse/types.js';
+import type { Naming } from '../../claims/types.js';
 import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
@@ -7,8 +8,8 @@ import type { View } from '../templates.js';
 import { commonRows, detectableLabel, differenceView, pView, rateCautions, rateRow, rateView, scopeText, tooLittle, twoRateTestName, type ComposeContext, type Composed } from './common.js';
 
 /** Where-filters other than the period column, as a phrase ("Tarnquill, Q09"). */
-export function scopeOf(a: { claim: { where: ChangeAnalysis['claim']['where'] }; periodColumn: string }): string {
-  return scopeText(Object.fromEntries(Object.entries(a.claim.where).filter(([k]) => k !== a.periodColumn)));
+export function scopeOf(a: { claim: { where: ChangeAnalysis['claim']['where']; naming?: Naming }; periodColumn: string }): string {
+  return scopeText(Object.fromEntries(Object.entries(a.claim.where).filter(([k]) => k !== a.periodColumn)), a.claim.naming);
 }
 
 export function composeChange(a: ChangeAnalysis, decision: Decision, ctx: ComposeContext): Composed {

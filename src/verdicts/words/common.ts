@@ -3,7 +3,7 @@
  */
 import type { Analysis, RateSummary } from '../../analyse/types.js';
 import { filterLabel } from '../../analyse/labels.js';
-import type { Filter } from '../../claims/types.js';
+import type { Filter, Naming } from '../../claims/types.js';
 import * as fmt from '../../format/numbers.js';
 import type { ClaimSection, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
@@ -41,20 +41,20 @@ export function rateView(r: RateSummary) {
  */
 export function restOfGroupCaution(
   relation: 'separate' | 'focus-inside' | 'against-inside',
-  claim: { focus: Filter; against: Filter; focusLabel?: string; againstLabel?: string; againstRest?: true },
+  claim: { focus: Filter; against: Filter; focusLabel?: string; againstLabel?: string; againstRest?: true; naming?: Naming },
   sizes: { focus: number; against: number },
   t: Templates,
 ): string[] {
   // `against: rest` asked for everyone else in so many words: the label already says so.
   if (relation === 'separate' || claim.againstRest === true) return [];
-  const inner = relation === 'focus-inside' ? claim.focusLabel ?? filterLabel(claim.focus) : claim.againstLabel ?? filterLabel(claim.against);
-  const outer = relation === 'focus-inside' ? claim.againstLabel ?? filterLabel(claim.against) : claim.focusLabel ?? filterLabel(claim.focus);
+  const inner = relation === 'focus-inside' ? claim.focusLabel ?? filterLabel(claim.focus, claim.naming) : claim.againstLabel ?? filterLabel(claim.against, claim.naming);
+  const outer = relation === 'focus-inside' ? claim.againstLabel ?? filterLabel(claim.against, claim.naming) : claim.focusLabel ?? filterLabel(claim.focus, claim.naming);
   const restN = relation === 'focus-inside' ? sizes.against : sizes.focus;
   return [t.render('caution.rest-of-group', { inner, outer, restN: fmt.count(restN) })];
 }
 
-export function scopeText(where: Filter): string {
-  return Object.keys(where).length > 0 ? filterLabel(where) : '';
+export function scopeText(where: Filter, naming?: Naming): string {
+  return Object.keys(where).length > 0 ? filterLabel(where, naming) : '';
 }
 
 /** A significance threshold in three significant figures, trailing zeros dropped: 0.05, 0.0125, 0.00833. */

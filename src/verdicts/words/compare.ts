@@ -12,12 +12,12 @@ export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: Comp
   const claim = a.claim;
   const expectWord = claim.expect === 'lower' ? 'lower' : claim.expect === 'higher' ? 'higher' : '';
   const oneSided = a.test ? a.test.alternative !== 'two-sided' : claim.sided === 'one-sided' && claim.expect !== 'different';
-  const focusLabel = a.focus?.label ?? claim.focusLabel ?? filterLabel(claim.focus);
-  const againstLabel = a.against?.label ?? claim.againstLabel ?? filterLabel(claim.against);
+  const focusLabel = a.focus?.label ?? claim.focusLabel ?? filterLabel(claim.focus, claim.naming);
+  const againstLabel = a.against?.label ?? claim.againstLabel ?? filterLabel(claim.against, claim.naming);
   const labelsOnly = { focus: { label: focusLabel }, against: { label: againstLabel }, expectWord, oneSided };
   const hypotheses = { null: t.render('compare.null', labelsOnly), alternative: t.render('compare.alternative', labelsOnly) };
   if (a.status === 'too-little-data' || !a.focus || !a.against || !a.difference || !a.test) {
-    const compared = `${focusLabel} against ${againstLabel}${scopeText(claim.where) ? `, for ${scopeText(claim.where)}` : ''}.`;
+    const compared = `${focusLabel} against ${againstLabel}${scopeText(claim.where, claim.naming) ? `, for ${scopeText(claim.where, claim.naming)}` : ''}.`;
     return tooLittle(a, ctx, compared, hypotheses);
   }
   const d = a.difference;
@@ -25,7 +25,7 @@ export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: Comp
   const view: View = {
     focus: rateView(a.focus),
     against: rateView(a.against),
-    scope: scopeText(claim.where),
+    scope: scopeText(claim.where, claim.naming),
     expectWord,
     oneSided,
     level: fmt.level(claim.confidence),

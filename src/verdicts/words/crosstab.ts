@@ -5,6 +5,7 @@ import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
 import { unitWords } from './association.js';
+import { questionWords } from '../../analyse/labels.js';
 import { commonRows, detectableLabel, pView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 /** Test names for people, by method machine name. */
@@ -20,11 +21,11 @@ export function composeCrosstab(a: CrosstabAnalysis, decision: Decision, ctx: Co
   const claim = a.claim;
   const rowsName = [claim.rows].flat().join(', ');
   const rowWords = unitWords(claim.rows);
-  const columnsName = a.answers !== undefined ? `the answer to ${a.answers.question}` : Array.isArray(claim.columns) ? claim.columns.join(', ') : claim.columns;
+  const columnsName = a.answers !== undefined ? `the answer to ${questionWords(a.answers.question, claim.naming)}` : Array.isArray(claim.columns) ? claim.columns.join(', ') : claim.columns;
   const labels = { rowsName, columnsName, rowsOne: rowWords.unitName, rowsPlural: rowWords.unitsName };
   const hypotheses = { null: t.render('crosstab.null', labels), alternative: t.render('crosstab.alternative', labels) };
   if (a.status === 'too-little-data' || !a.test) {
-    return tooLittle(a, ctx, `${rowsName} by ${columnsName}${scopeText(claim.where) ? `, for ${scopeText(claim.where)}` : ''}.`, hypotheses);
+    return tooLittle(a, ctx, `${rowsName} by ${columnsName}${scopeText(claim.where, claim.naming) ? `, for ${scopeText(claim.where, claim.naming)}` : ''}.`, hypotheses);
   }
   const total = a.counts.reduce((s, r) => s + r.reduce((u, v) => u + v, 0), 0);
   const notableText = a.notable
@@ -35,7 +36,8 @@ export function composeCrosstab(a: CrosstabAnalysis, decision: Decision, ctx: Co
     ...labels,
     rowCount: a.rowLabels.length,
     total: fmt.count(total),
-    scope: scopeText(claim.where),
+    // With the answers to one question as the columns, the question is named there, not again in the scope.
+    scope: scopeText(a.answers !== undefined && claim.naming?.question !== undefined ? Object.fromEntries(Object.entries(claim.where).filter(([k]) => k !== claim.naming?.question)) : claim.where, claim.naming),
     v: fmt.coefficient(a.cramersV ?? NaN),
     notableText: notableText ? `${notableText.charAt(0).toUpperCase()}${notableText.slice(1)}.` : '',
     cutoff: fmt.plain(a.residualCutoff ?? 1.96, 2),

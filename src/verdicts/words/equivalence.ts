@@ -11,12 +11,12 @@ export function composeEquivalence(a: EquivalenceAnalysis, decision: Decision, c
   const t = ctx.templates;
   const claim = a.claim;
   const margin = fmt.pointsSize(claim.margin);
-  const focusLabel = a.focus?.label ?? claim.focusLabel ?? filterLabel(claim.focus);
-  const againstLabel = a.against?.label ?? claim.againstLabel ?? filterLabel(claim.against);
+  const focusLabel = a.focus?.label ?? claim.focusLabel ?? filterLabel(claim.focus, claim.naming);
+  const againstLabel = a.against?.label ?? claim.againstLabel ?? filterLabel(claim.against, claim.naming);
   const labelsOnly = { focus: { label: focusLabel }, against: { label: againstLabel }, margin };
   const hypotheses = { null: t.render('equivalence.null', labelsOnly), alternative: t.render('equivalence.alternative', labelsOnly) };
   if (a.status === 'too-little-data' || !a.focus || !a.against || !a.difference || !a.test || !a.equivalenceInterval) {
-    return tooLittle(a, ctx, `${focusLabel} against ${againstLabel}, within ±${margin} points${scopeText(claim.where) ? `, for ${scopeText(claim.where)}` : ''}.`, hypotheses);
+    return tooLittle(a, ctx, `${focusLabel} against ${againstLabel}, within ±${margin} points${scopeText(claim.where, claim.naming) ? `, for ${scopeText(claim.where, claim.naming)}` : ''}.`, hypotheses);
   }
   const d = a.difference;
   const e = a.equivalenceInterval;
@@ -25,7 +25,7 @@ export function composeEquivalence(a: EquivalenceAnalysis, decision: Decision, c
   const view: View = {
     focus: rateView(a.focus),
     against: rateView(a.against),
-    scope: scopeText(claim.where),
+    scope: scopeText(claim.where, claim.naming),
     margin,
     level: fmt.level(claim.confidence),
     tostLevel: fmt.level(e.level),

@@ -15,7 +15,7 @@ function score(v: number): string {
 export function composeEstimate(a: EstimateAnalysis, _decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
   const claim = a.claim;
-  const label = a.rate?.label ?? a.mean?.label ?? a.value?.label ?? claim.selectLabel ?? filterLabel({ ...claim.where, ...claim.select });
+  const label = a.rate?.label ?? a.mean?.label ?? a.value?.label ?? claim.selectLabel ?? filterLabel({ ...claim.where, ...claim.select }, claim.naming);
   const hypotheses = { null: t.render('estimate.null', {}), alternative: t.render('estimate.alternative', {}) };
   if (a.status === 'too-little-data' || (!a.rate && !a.mean && !a.value)) {
     return tooLittle(a, ctx, `${label}.`, hypotheses);

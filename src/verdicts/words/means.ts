@@ -30,12 +30,12 @@ export function composeMeans(a: MeansAnalysis, decision: Decision, ctx: ComposeC
   const claim = a.claim;
   const expectWord = claim.expect === 'lower' ? 'lower' : claim.expect === 'higher' ? 'higher' : '';
   const oneSided = a.test ? a.test.alternative !== 'two-sided' : claim.sided === 'one-sided' && claim.expect !== 'different';
-  const focusLabel = a.focus?.label ?? claim.focusLabel ?? filterLabel(claim.focus);
-  const againstLabel = a.against?.label ?? claim.againstLabel ?? filterLabel(claim.against);
+  const focusLabel = a.focus?.label ?? claim.focusLabel ?? filterLabel(claim.focus, claim.naming);
+  const againstLabel = a.against?.label ?? claim.againstLabel ?? filterLabel(claim.against, claim.naming);
   const labelsOnly = { focus: { label: focusLabel }, against: { label: againstLabel }, expectWord, oneSided };
   const hypotheses = { null: t.render('means.null', labelsOnly), alternative: t.render('means.alternative', labelsOnly) };
   if (a.status === 'too-little-data' || !a.focus || !a.against || !a.difference || !a.test) {
-    return tooLittle(a, ctx, `${focusLabel} against ${againstLabel}, mean scores${scopeText(claim.where) ? `, for ${scopeText(claim.where)}` : ''}.`, hypotheses);
+    return tooLittle(a, ctx, `${focusLabel} against ${againstLabel}, mean scores${scopeText(claim.where, claim.naming) ? `, for ${scopeText(claim.where, claim.naming)}` : ''}.`, hypotheses);
   }
   const d = a.difference;
   const dDigits = fmt.coefficientDigits(d.value, d.interval.lower, d.interval.upper);
@@ -54,7 +54,7 @@ export function composeMeans(a: MeansAnalysis, decision: Decision, ctx: ComposeC
     detectable: a.detectable !== undefined ? scalePoints(a.detectable) : '',
     focus: meanView(a.focus),
     against: meanView(a.against),
-    scope: scopeText(claim.where),
+    scope: scopeText(claim.where, claim.naming),
     expectWord,
     oneSided,
     rank: claim.test === 'rank',

@@ -17,7 +17,7 @@ export function composeTarget(a: TargetAnalysis, decision: Decision, ctx: Compos
   const claim = a.claim;
   const expectWord = claim.expect === 'lower' ? 'below' : claim.expect === 'higher' ? 'above' : '';
   const oneSided = a.test ? a.test.alternative !== 'two-sided' : claim.sided === 'one-sided' && claim.expect !== 'different';
-  const label = a.rate?.label ?? claim.selectLabel ?? filterLabel({ ...claim.where, ...claim.select });
+  const label = a.rate?.label ?? claim.selectLabel ?? filterLabel({ ...claim.where, ...claim.select }, claim.naming);
   const target = fmt.percent(claim.value);
   const valueLabel = claim.valueLabel ?? `the value of ${target}`;
   // "the 80% target" already names the value; "the national benchmark" gets it added: "the national benchmark (72%)".
