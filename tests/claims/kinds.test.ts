@@ -38,6 +38,7 @@ describe('every kind of claim normalizes', async () => {
     expect(c).toEqual({
       ...common,
       id: 'compare-not',
+      naming: { period: 'year' },
       statement: 'Tarnquill agrees less on feedback than the other providers.',
       kind: 'compare',
       source: 'results',
@@ -71,6 +72,7 @@ describe('every kind of claim normalizes', async () => {
     expect(c).toEqual({
       ...common,
       id: 'fell-since-last-year',
+      naming: { period: 'year' },
       kind: 'change',
       source: 'results',
       where: { question: 'Q09' },

@@ -130,6 +130,7 @@ describe('valid files normalize to the expected object', () => {
     expect(got.claims).toEqual([
       {
         id: 'resources-go-with-overall',
+        naming: { question: 'question' },
         statement: 'Departments whose students rate resources higher also rate the course higher overall.',
         kind: 'association',
         source: 'people',
