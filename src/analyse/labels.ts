@@ -23,7 +23,7 @@ export function filterLabel(filter: Filter, naming?: Naming): string {
     return parts.length > 0 ? parts.join(', ') : 'all respondents';
   }
   const isQuestion = (col: string, v: FilterValue): boolean => {
-    if (col === naming.question) return true;
+    if (col === naming.question || /^question( ?code)?$/i.test(col)) return true;
     const values = Array.isArray(v) ? v : typeof v === 'object' ? [] : [v];
     return values.length > 0 && values.every((x) => naming.wording?.[String(x).trim()] !== undefined);
   };

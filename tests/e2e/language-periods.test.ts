@@ -120,8 +120,7 @@ describe('the finite-population correction, one decision for every figure', () =
     expectClose(c.interval.lower, R.fpc.diff_lower, 'closed', 'Newcombe hybrid from the corrected Wilson limits');
     expectClose(c.interval.upper, R.fpc.diff_upper, 'closed', 'Newcombe hybrid from the corrected Wilson limits');
     expectClose(c.detectable, R.fpc.detectable, 1e-9, 'R uniroot on the power formula with n / f');
-    expect(on.text).toContain('Finite-population correction used in every figure: the test, the intervals and the smallest detectable difference');
-    expect(on.text).toContain('the finite-population correction in every figure (test, intervals and detectable difference)');
+    expect(on.text).toMatch(/; finite-? ?population correction in every figure; 95% confidence/);
     expect(on.text).toContain('Cochran, W. G. (1977). Sampling Techniques');
   });
 
@@ -134,19 +133,19 @@ describe('the finite-population correction, one decision for every figure', () =
     expectClose(c.interval.lower, R.plain.diff_lower, 'closed', 'Newcombe hybrid');
     expectClose(c.interval.upper, R.plain.diff_upper, 'closed', 'Newcombe hybrid');
     expectClose(c.detectable, R.plain.detectable, 1e-9, 'R uniroot on the power formula');
-    expect(off.text).toContain('Finite-population correction not used: turned off in the claims file (finite_population_correction: false)');
-    expect(off.text).not.toContain('the finite-population correction in every figure');
+    expect(off.text).toContain('Finite-population correction not used (turned off)');
+    expect(off.text).not.toMatch(/finite-? ?population correction in every figure/);
   });
 
   it('turned off on the claim only: the same figures as off pack-wide', () => {
     const c = claimOff.results.claims[0] as Record<string, any>;
     expectClose(c.p, R.plain.p, 'p', 'R prop.test(correct = FALSE)');
-    expect(claimOff.text).toContain('turned off in the claims file');
+    expect(claimOff.text).toContain('Finite-population correction not used (turned off)');
   });
 
   it('a trend (no corrected form) uses it in no figure and says so', () => {
     const c = trend.results.claims[0] as Record<string, any>;
     expect(c.selections.every((s: { interval: { method: string } }) => s.interval.method === 'wilson')).toBe(true);
-    expect(trend.text).toContain('Finite-population correction not used in any figure: the trend test has no corrected form');
+    expect(trend.text).toContain('Finite-population correction in no figure (the trend test has no corrected form)');
   });
 });

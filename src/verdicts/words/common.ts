@@ -110,7 +110,8 @@ export function commonRows(a: Analysis, decision: Decision, ctx: ComposeContext)
   // Say what was understood when the claims file wrote the level another way (0.95, 95), so nobody is surprised.
   const understood = written === 'default' ? ' (the default)' : written.replace(/\s+/g, '') === level ? '' : ` (written as ${written})`;
   rows.push({ label: 'Confidence level', value: `${level}${understood}` });
-  if (a.fpc !== undefined) rows.push({ label: 'Finite-population correction', value: fpcWords(a.fpc) });
+  // Where the correction was used, the claim's method line says so (in every figure); where it was not, this row.
+  if (a.fpc !== undefined && !a.fpc.used) rows.push({ label: 'Finite-population correction', value: fpcWords(a.fpc) });
   return rows;
 }
 
@@ -119,10 +120,10 @@ export function commonRows(a: Analysis, decision: Decision, ctx: ComposeContext)
  * words say "every figure" or "no figure".
  */
 export function fpcWords(fpc: NonNullable<Analysis['fpc']>): string {
-  if (fpc.used) return 'used in every figure: the test, the intervals and the smallest detectable difference';
-  if (fpc.why === 'off') return 'not used: turned off in the claims file (finite_population_correction: false)';
-  if (fpc.why === 'no-form') return `not used in any figure: ${fpc.form ?? 'the test'} has no corrected form`;
-  return 'not used: the data give no number eligible for these selections';
+  if (fpc.used) return 'used in every figure';
+  if (fpc.why === 'off') return 'not used (turned off)';
+  if (fpc.why === 'no-form') return `in no figure (${fpc.form ?? 'the test'} has no corrected form)`;
+  return 'not used (no number eligible)';
 }
 
 export function tooLittle(a: Analysis, ctx: ComposeContext, compared: string, hypotheses: ClaimSection['hypotheses']): Composed {
