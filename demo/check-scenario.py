@@ -100,7 +100,13 @@ def load_source(base, spec):
         rows = read_xlsx_sheet(path, spec['sheet'])
         header = rows[0]
         for row in rows[1:]:
+            # Notes under the table hold text in one cell; a withheld row has a marker instead of its counts and
+            # is left out of every figure (no number guessed for it).
+            if sum(1 for v in row if v not in (None, '')) < 2:
+                continue
             rec = {h: as_text(row[i]) if i < len(row) else '' for i, h in enumerate(header)}
+            if not re.fullmatch(r'\d+(\.0+)?', rec[spec['respondents']]):
+                continue
             rec['_n'] = int(float(rec[spec['respondents']]))
             rec['_agree'] = int(float(rec[spec['agree']]))
             records.append(rec)

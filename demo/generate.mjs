@@ -428,6 +428,34 @@ const RESULT_COLUMNS = [
 /** The fixed date stamped on each release's workbook (so the bytes never depend on the clock). */
 const RELEASE_DATE = { 2025: new Date(Date.UTC(2025, 2, 4, 9, 0, 0)), 2026: new Date(Date.UTC(2026, 2, 3, 9, 0, 0)) };
 
+/**
+ * Rows the newest release withholds, as releases do for small groups: their counts are replaced by a marker (the
+ * number eligible stays). Only rows of the release year itself, so a year's figures in an earlier release are never
+ * contradicted. Chosen among the smallest groups of that year.
+ */
+const WITHHELD = {
+  2026: [
+    { Institution: 'Quarrendell University', Department: 'Ceramics and Glass', Question: 'Q08', marker: '[c]' },
+    { Institution: 'Ferrowick College', Department: 'Ceramics and Glass', Question: 'Q04', marker: '[c]' },
+    { Institution: 'Ferrowick College', Department: 'Ceramics and Glass', Question: 'Q07', marker: '*' },
+  ],
+};
+
+/** The notes a release prints under its table (after a blank row), when it withholds any rows. */
+const TABLE_NOTES = {
+  2026: [
+    'Notes:',
+    '[c] and * mark figures withheld to protect confidentiality: too few students answered for the figures to be published.',
+    'Eligible is shown for every group, including those withheld.',
+    'Source: Lanternfield Survey Office (invented for demonstrating warrant).',
+  ],
+};
+
+function withheldMarker(release, row) {
+  const w = (WITHHELD[release] ?? []).find((x) => row.Year === release && x.Institution === row.Institution && x.Department === row.Department && x.Question === row.Question);
+  return w?.marker;
+}
+
 async function writeWorkbook(path, release, rows) {
   const wb = new ExcelJS.Workbook();
   wb.creator = OFFICE;
@@ -470,14 +498,24 @@ async function writeWorkbook(path, release, rows) {
   notes.mergeCells(`A${foot}:D${foot}`);
   notes.getCell(`A${foot}`).value =
     '¹ Five-point scale: 1 strongly disagree, 2 disagree, 3 neither, 4 agree, 5 strongly agree. ' +
-    'Groups with fewer than 10 respondents would be withheld; none are in this release.';
+    ((WITHHELD[release] ?? []).length > 0
+      ? 'Groups too small to publish are withheld and marked [c] or * in the Results sheet; see the notes under its table.'
+      : 'Groups with fewer than 10 respondents would be withheld; none are in this release.');
   notes.getCell(`A${foot}`).font = { size: 9 };
 
   const results = wb.addWorksheet('Results', { views: [{ state: 'frozen', ySplit: 1 }] });
   results.columns = RESULT_COLUMNS.map(([header, width]) => ({ header, key: header, width }));
   results.getRow(1).font = { bold: true };
-  for (const row of rows) results.addRow(row);
+  for (const row of rows) {
+    const marker = withheldMarker(release, row);
+    results.addRow(marker === undefined ? row : { ...row, Respondents: marker, Agreeing: marker });
+  }
   results.autoFilter = { from: 'A1', to: `H${rows.length + 1}` };
+  const tableNotes = TABLE_NOTES[release] ?? [];
+  if (tableNotes.length > 0) {
+    results.addRow([]);
+    for (const line of tableNotes) results.addRow([line]);
+  }
 
   const buffer = Buffer.from(await wb.xlsx.writeBuffer());
   writeFileSync(path, fixZipTimes(buffer, RELEASE_DATE[release]));

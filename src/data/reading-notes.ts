@@ -21,10 +21,10 @@ export function readingNotes(cube: Cube, t: Templates): string[] {
     out.push(
       t.render('data.notes-under-table', {
         rows: count(cube.rows),
-        lastRow: count(end.lastRow),
+        lastRow: String(end.lastRow),
         noteRows: count(end.noteRows),
         one: end.noteRows === 1,
-        firstNoteRow: count(end.firstNoteRow),
+        firstNoteRow: String(end.firstNoteRow),
         firstNote: end.firstNote,
         bySource: end.by === 'source',
       }),
@@ -35,7 +35,7 @@ export function readingNotes(cube: Cube, t: Templates): string[] {
     out.push(t.render('data.suppressed-rows', { rows: count(cube.suppressedRows), one: cube.suppressedRows === 1, of: count(cube.rows), markers: quoteList(markers) }));
   }
   for (const f of cube.footnotes ?? []) {
-    out.push(t.render('data.footnote-marker', { marker: f.marker, cells: count(f.cells), one: f.cells === 1, example: f.example, row: count(f.row) }));
+    out.push(t.render('data.footnote-marker', { marker: f.marker, cells: count(f.cells), one: f.cells === 1, example: f.example, row: String(f.row) }));
   }
   out.push(...(cube.notes ?? []));
   return out;

@@ -34,6 +34,9 @@ export function markerSet(own: readonly string[] | undefined): ReadonlySet<strin
 /** True when the (trimmed) text is a suppression marker. */
 export function isSuppressedMarker(text: string, markers: ReadonlySet<string>): boolean {
   if (text === '' || text.length > 12) return false;
+  // Fast refusal for the common case, a number: no marker starts with a digit.
+  const c0 = text.charCodeAt(0);
+  if (c0 >= 48 && c0 <= 57) return false;
   const t = text.toLowerCase();
   return markers.has(t) || SMALL_COUNT.test(t);
 }
