@@ -166,7 +166,7 @@ export function starterText(scan: TableScan, guess: Guess, dataFile: string, sch
     else L.push('    agree: COLUMN   # the column with the number who agreed: no column looked like it');
     if (guess.population !== undefined) {
       // Not switched on silently: the correction changes every interval and test that uses these rows.
-      L.push(`    # population: ${yamlScalar(guess.population)}   # the number eligible; uncomment to apply the finite-population correction, which narrows intervals where a large share of those eligible answered`);
+      L.push(`    # population: ${yamlScalar(guess.population)}   # the number eligible; uncomment to apply the finite-population correction to every figure from these rows (tests, intervals, detectable difference)`);
     }
     if (guess.numeric.length > 0) L.push(`    numeric: [${guess.numeric.map(yamlScalar).join(', ')}]`);
     if (guess.ownMarkers.length > 0) {
