@@ -108,6 +108,7 @@ async function runDiff(args: DiffArgs): Promise<number> {
 const COMMANDS: Record<string, string> = {
   build: 'the claims file: warrant build <claims.yaml>',
   check: 'the claims file: warrant check <claims.yaml>',
+  seal: 'the claims file: warrant seal <claims.yaml>',
   init: 'the data file: warrant init <data.csv or data.xlsx>',
   diff: 'two pack folders: warrant diff <earlier pack> <later pack>',
   demo: 'a folder to write the demo into: warrant demo <folder>',
@@ -118,6 +119,7 @@ const COMMANDS: Record<string, string> = {
 const OPTIONS: Record<string, string[]> = {
   build: ['out', 'date', 'data', 'since', 'templates', 'json', 'quiet', 'debug', 'help'],
   check: ['json', 'debug', 'help'],
+  seal: ['date', 'debug', 'help'],
   init: ['sheet', 'out', 'force', 'debug', 'help'],
   diff: ['json', 'debug', 'help'],
   demo: ['force', 'no-build', 'debug', 'help'],
@@ -210,6 +212,20 @@ export async function main(argv: string[]): Promise<number> {
         },
       )
       .command(
+        'seal <claims>',
+        'Record each claim\'s fingerprint and today\'s date in a file beside the claims file, before the data are opened; packs then say when the claims were sealed',
+        (y) =>
+          y
+            .positional('claims', { type: 'string', demandOption: true, describe: 'The claims file (YAML)' })
+            .option('date', { type: 'string', describe: 'The day to record, e.g. 2026-02-12 (default: today)' })
+            .example('$0 seal claims.yaml', 'Write claims.seal.json beside claims.yaml'),
+        async (args) => {
+          const { seal } = await import('./commands/seal.js');
+          const a = args as unknown as { claims: string; date?: string };
+          code = await seal({ claims: a.claims, ...(a.date !== undefined ? { date: a.date } : {}) });
+        },
+      )
+      .command(
         'init <data>',
         'Write a starter claims file for a data file (.csv or .xlsx): its columns and values, and an example of every kind of claim',
         (y) =>
@@ -242,7 +258,7 @@ export async function main(argv: string[]): Promise<number> {
         },
       )
       .option('debug', { type: 'boolean', describe: 'Show internal details (stack traces) when something fails' })
-      .demandCommand(1, 'Name a command: warrant build <claims.yaml>, warrant check <claims.yaml>, warrant init <data file>, warrant diff <old> <new> or warrant demo <folder>')
+      .demandCommand(1, 'Name a command: warrant build <claims.yaml>, warrant check <claims.yaml>, warrant seal <claims.yaml>, warrant init <data file>, warrant diff <old> <new> or warrant demo <folder>')
       .strict()
       .help()
       .alias('h', 'help')

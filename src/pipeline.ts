@@ -29,6 +29,8 @@ import { atThreshold } from './analyse/detectable.js';
 import { verdictStability, type Stability } from './verdicts/stability.js';
 import { adjustedConfidence, headline } from './verdicts/adjusted-interval.js';
 import { stabilityView } from './verdicts/words/stability.js';
+import { sealStatus } from './verdicts/words/seal.js';
+import { readSeal, sealPath } from './commands/seal.js';
 import { ADJUST_NAMES, composePack } from './verdicts/pack.js';
 import { Templates } from './verdicts/templates.js';
 import { claimResult, resultsFile, type ResultsFile } from './results/results.js';
@@ -37,7 +39,7 @@ import { packageRoot } from './paths.js';
 import { InputError } from './errors.js';
 import { fsFailure, readOrdinaryFile, requireOrdinaryFile } from './files.js';
 import { impossibleDate } from './claims/dates.js';
-import { packFingerprint, sha256Hex } from './history/fingerprint.js';
+import { canonicalJson, packFingerprint, sha256Hex } from './history/fingerprint.js';
 import { latestInTheWay, latestOrUnreadable, latestProblem, listPacks, openPack, packFolderName, storePack, today, type StoredPack, type WriteHooks } from './history/store.js';
 import { diffPacks, type PackDiff } from './history/diff.js';
 import { changeSection, editedNotice, folderDay, verdictNotice } from './history/words.js';
@@ -314,6 +316,9 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
   }
   say('Reading the claims file');
   let claims = await readClaims(claimsPath, claimsDisplay);
+  // The seal beside the claims file, if any (warrant seal): read now, so a damaged seal stops the build before any work.
+  const sealDisplay = displayPath(sealPath(claimsPath), cwd);
+  const seal = readSeal(claimsPath, sealDisplay);
   if (options.data) claims = overrideSources(claims, options.data, cwd);
   // 2. data
   say('Reading the data');
@@ -346,7 +351,7 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
     claims: claims.sha256,
     data: cubes.map((c) => `${c.sourceId}:${c.sha256}`),
     version,
-    options: { date, templates: templatesDigest(templatesDir) },
+    options: { date, templates: templatesDigest(templatesDir), ...(seal ? { seal: sha256Hex(canonicalJson(seal)) } : {}) },
   });
   const ctx = {
     templates,
@@ -363,6 +368,7 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
     const stability = stabilityView(decision.stability, (analyses[i] as Analysis).claim.confidence, claimsTested, templates);
     return { ...c, section: { ...c.section, stability }, summary: { ...c.summary, dependsOnLevel: stability.dependsOnLevel } };
   });
+  const sealed = sealStatus(claims, claims.claims, seal, sealDisplay, templates);
   const results = resultsFile({
     version,
     fingerprint,
@@ -370,6 +376,7 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
     claimsDisplay,
     date,
     cubes,
+    seal: sealed.facts,
     results: analyses.map((a, i) => claimResult(a, decisions[i] as Decision, (composed[i] as (typeof composed)[number]).section, claims.claims[i], composed[i]?.worth)),
   });
 
@@ -382,6 +389,8 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
   const edited = editedSince(listPacks(root), results, name);
   const sections = composed.map((c) => {
     const notices: string[] = [];
+    const afterSeal = sealed.notices.get(c.section.id);
+    if (afterSeal !== undefined) notices.push(afterSeal);
     const day = edited.get(c.section.id);
     if (day !== undefined) notices.push(editedNotice(day, templates));
     const change = diff?.verdicts.find((v) => v.id === c.section.id);
@@ -400,6 +409,7 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
     version,
     command: options.command ?? `warrant build ${claimsDisplay}`,
     templates,
+    sealText: sealed.text,
   });
   if (diff) model.changes = changeSection(diff, templates);
   if (unreadable) {

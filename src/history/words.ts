@@ -67,7 +67,7 @@ export function sinceName(d: PackDiff): string {
   return day !== undefined ? `the pack built on ${day}` : longDate(d.before.date);
 }
 
-function longDate(date: string): string {
+export function longDate(date: string): string {
   const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(date);
   if (!m) return date;
   return new Date(Date.UTC(Number(m[1]), Number(m[2]) - 1, Number(m[3]))).toLocaleDateString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' });

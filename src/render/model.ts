@@ -258,6 +258,11 @@ export interface PackModel {
   verdictDefinitions?: Array<{ label: string; text: string }>;
   /** Every action word the summary may advise (ClaimAdvice.label), with its meaning. */
   actionDefinitions?: Array<{ label: string; text: string }>;
+  /**
+   * What the pack can prove about when the claims were written: "These 15 claims were sealed on 12 February 2026, before
+   * the data file dated 3 March 2026; ..." or that it cannot confirm it (no seal). Also the summary intro's first sentence.
+   */
+  sealText?: string;
   /** A short paragraph under the summary table: how to read it and the overall cautions. */
   summaryIntro: string;
   summary: SummaryRow[];

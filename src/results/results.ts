@@ -9,6 +9,9 @@ import type { ClaimSection } from '../render/model.js';
 import type { Interval, TestResult } from '../stats/result.js';
 import type { Decision } from '../verdicts/decide.js';
 import { claimFingerprint } from '../history/fingerprint.js';
+import type { SealStatus } from '../verdicts/words/seal.js';
+
+type SealFacts = SealStatus['facts'];
 import type { Worth } from '../verdicts/advice.js';
 import { responseRateOf } from '../verdicts/source.js';
 
@@ -101,6 +104,8 @@ export interface ResultsFile {
   claimsFile: { file: string; sha256: string };
   settings: { confidence: number; adjust: string; minRespondents: number };
   sources: Array<{ id: string; file: string; sheet?: string; shape: string; sha256: string; rows: number }>;
+  /** What the seal beside the claims file proves (src/commands/seal.ts); null when there is none. */
+  seal: SealFacts;
   claims: ClaimResult[];
 }
 
@@ -209,6 +214,7 @@ export function resultsFile(input: {
   date: string;
   cubes: Cube[];
   results: ClaimResult[];
+  seal?: SealFacts;
 }): ResultsFile {
   const { claims } = input;
   return {
@@ -225,6 +231,7 @@ export function resultsFile(input: {
       const sheet = spec?.sheet ?? c.sheet;
       return { id: c.sourceId, file: c.file, ...(sheet ? { sheet } : {}), shape: spec?.shape ?? 'summary', sha256: c.sha256, rows: c.rows };
     }),
+    seal: input.seal ?? null,
     claims: input.results,
   };
 }

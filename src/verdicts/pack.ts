@@ -66,6 +66,8 @@ export function composePack(input: {
   version: string;
   command: string;
   templates: Templates;
+  /** What the seal beside the claims file proves about when the claims were written (src/verdicts/words/seal.ts). */
+  sealText?: string;
 }): PackModel {
   const { claims, templates } = input;
   const adjustName = ADJUST_NAMES[claims.adjust];
@@ -79,6 +81,7 @@ export function composePack(input: {
     adjustName,
     level: fmt.level(claims.confidence),
     alphaPercent: fmt.level(1 - claims.confidence),
+    sealSentence: input.sealText ?? '',
   };
   if (input.sections.some((s) => s.verdictDetail === 'inconclusive' || s.verdictDetail === 'ruled-out')) methodIds.push('worth-reporting');
   const ordered = Object.keys(METHODS).filter((id) => methodIds.includes(id));
@@ -118,6 +121,7 @@ export function composePack(input: {
       };
     }),
     summaryIntro: templates.render('summary.intro', view),
+    ...(input.sealText !== undefined ? { sealText: input.sealText } : {}),
     verdictDefinitions: definitions(templates, 'verdict-definitions', view),
     actionDefinitions: definitions(templates, 'action-definitions', view),
     summary: input.summary,
