@@ -64,6 +64,12 @@ export interface ClaimResult {
   n: number[];
   /** Selections (compare) with their rates; empty when data were too few (nothing suppressed is shown). */
   selections: SelectionResult[];
+  /** Mean scores (means: each group; estimate of a mean: one) with SD, n and t interval; empty otherwise. */
+  means: Array<{ label: string; n: number; mean: number; sd: number; interval: Interval }>;
+  /** Trend: the fitted change in the rate per period (proportion per period); null otherwise. */
+  slope: number | null;
+  /** The difference the pack prints with its interval at the claim's own level (proportion or scale points); null otherwise. */
+  difference: { value: number; interval: Interval } | null;
   /** Units (association) with their two measures; empty when data were too few. */
   units: Array<{ unit: string; x: number; y: number; nx: number; ny: number }>;
   /** Smallest difference (proportion) or correlation detectable with 80% power. */
@@ -142,9 +148,22 @@ export function claimResult(a: Analysis, decision: Decision, section: ClaimSecti
   // `difference` (the interval of interest for two-rate kinds), `relation` (compared with the rest of a group).
   const claim = a.claim as unknown as Record<string, unknown>;
   const extra = a as unknown as Record<string, unknown>;
+  // Every rate the pack prints: two selections (compare, equivalence), two periods (change, earlier first), each
+  // period (trend), one selection (target, estimate), or a list of selections.
   const rates: RateSummary[] = [];
   if (extra.focus && extra.against) rates.push(extra.focus as RateSummary, extra.against as RateSummary);
+  else if (extra.earlier && extra.later) rates.push(extra.earlier as RateSummary, extra.later as RateSummary);
+  else if (Array.isArray(extra.rates)) rates.push(...(extra.rates as RateSummary[]));
+  else if (extra.rate && typeof extra.rate === 'object') rates.push(extra.rate as RateSummary);
   else if (Array.isArray(extra.selections)) rates.push(...(extra.selections as RateSummary[]));
+  // Mean scores (means: two groups; estimate: one), each with its SD, n and t interval.
+  const meanGroups = (a.kind === 'means' && extra.focus && extra.against ? [extra.focus, extra.against] : extra.mean ? [extra.mean] : []) as Array<{
+    label: string;
+    n: number;
+    mean: number;
+    sd: number;
+    interval: Interval;
+  }>;
   const points = Array.isArray(extra.points) ? (extra.points as ClaimResult['units']) : [];
   // Where a kind reports a difference (two rates, a rate against a fixed value), the estimate and the interval in
   // results.json are both the difference's, so that they always describe the same quantity.
@@ -187,6 +206,9 @@ export function claimResult(a: Analysis, decision: Decision, section: ClaimSecti
     // Equivalence: the 1 - 2 alpha interval the pack sets against the margin (the one its verdict rests on).
     interval: (a.kind === 'equivalence' ? a.equivalenceInterval : undefined) ?? difference?.interval ?? a.test?.interval ?? null,
     selections: tested ? rates.filter((r) => typeof r.rate === 'number').map(selection) : [],
+    means: tested ? meanGroups.map((m) => ({ label: m.label, n: m.n, mean: m.mean, sd: m.sd, interval: m.interval })) : [],
+    slope: tested && a.kind === 'trend' && typeof extra.slope === 'number' ? extra.slope : null,
+    difference: tested && difference && typeof difference.value === 'number' && difference.interval ? { value: difference.value, interval: difference.interval } : null,
     units: tested ? points.map((p) => ({ unit: p.unit, x: p.x, y: p.y, nx: p.nx, ny: p.ny })) : [],
     comparedWithRest: extra.relation !== undefined && extra.relation !== 'separate',
     verdictLabel: section.verdictLabel,
