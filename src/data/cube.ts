@@ -179,9 +179,13 @@ async function findHeader(
   where: Where,
 ): Promise<SheetRow> {
   let seenAny = false;
+  let title: SheetRow | undefined;
   for (;;) {
     const next = await rows.next();
     if (next.done) {
+      // Only single-cell rows: the first of them is the header after all (a notes sheet read by mistake is then
+      // reported by its missing columns, with the other sheets named).
+      if (title !== undefined) return title;
       if (headerRow !== undefined && seenAny) {
         throw new InputError({ ...where, row: headerRow, field: 'header_row', found: String(headerRow), problem: 'The file has no such row, or it is empty', fix: 'Give the number of the row that holds the column names' });
       }
@@ -197,7 +201,10 @@ async function findHeader(
       return r;
     }
     // A title line above the table (one cell of text) is passed over; the header names at least two columns.
-    if (!isBlankRow(r.values) && !isTitleRow(r.values)) return r;
+    if (!isBlankRow(r.values)) {
+      if (!isTitleRow(r.values)) return r;
+      title ??= r;
+    }
   }
 }
 

@@ -198,7 +198,7 @@ const failures: Case[] = [
   {
     what: 'a group row with blank counts',
     folder: 'data-blank-group-row',
-    message: 'blank-group.csv, row 3: This row names a group but has no counts (field "Respondents", found ""). Fix: Fill in the counts for this row, or delete the row.',
+    message: 'blank-group.csv, row 3: This row names a group but has no counts (field "Respondents", found ""). Fix: Fill in the counts for this row, or delete the row; if the table ends above it and the rows from here on are notes, set the table\'s last row with "last_row: 2" in the source.',
   },
   {
     what: 'duplicate rows for the same group, both rows named',
