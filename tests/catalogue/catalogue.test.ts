@@ -377,7 +377,7 @@ const failures: Case[] = [
     what: 'a misspelt command, with the one meant',
     folder: 'command-line',
     argv: ['biuld', 'claims.yaml'],
-    message: 'command line: warrant has no command with this name (found "biuld"). Fix: Did you mean warrant build? The commands are build, check, init, diff, demo; run "warrant --help" to see what each does.',
+    message: 'command line: warrant has no command with this name (found "biuld"). Fix: Did you mean warrant build? The commands are build, check, seal, init, diff, demo; run "warrant --help" to see what each does.',
   },
   {
     what: 'warrant diff on folders that are not packs',
