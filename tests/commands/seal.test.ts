@@ -31,6 +31,9 @@ async function cli(...args: string[]): Promise<{ code: number; out: string; err:
   }
 }
 
+// How many claims the demo holds, counted from its claims file (so the test follows the demo as it grows).
+const n = (readFileSync(join(root, 'demo/claims.yaml'), 'utf8').match(/^  - id: /gm) ?? []).length;
+
 beforeAll(() => {
   cpSync(join(root, 'demo/data'), join(work, 'data'), { recursive: true });
   cpSync(join(root, 'demo/claims.yaml'), claims);
@@ -49,17 +52,17 @@ describe('warrant seal', () => {
   it('records every claim and the date given, and the pack states it against the data date', async () => {
     const r = await cli('seal', claims, '--date', '2026-02-12');
     expect(r.code).toBe(0);
-    expect(r.out).toContain('Sealed 15 claims on 2026-02-12');
+    expect(r.out).toContain(`Sealed ${n} claims on 2026-02-12`);
     const file = JSON.parse(readFileSync(sealPath(claims), 'utf8'));
-    expect(file.claims).toHaveLength(15);
+    expect(file.claims).toHaveLength(n);
     expect(new Set(file.claims.map((c: { sealed: string }) => c.sealed))).toEqual(new Set(['2026-02-12']));
     const pack = await build({ claimsPath: claims, outDir: join(work, 'out1'), cwd: work });
     // The demo's data_date is 2026-03-03.
-    expect(pack.model.sealText).toBe('These 15 claims were sealed on 12 February 2026, before the data file dated 3 March 2026.');
+    expect(pack.model.sealText).toBe(`These ${n} claims were sealed on 12 February 2026, before the data file dated 3 March 2026.`);
     expect(pdfText(pack.files.pdf)).toContain(pack.model.sealText);
     const results = JSON.parse(readFileSync(pack.files.results, 'utf8'));
     expect(results.seal).toMatchObject({ firstSealed: '2026-02-12', lastSealed: '2026-02-12', beforeData: true, addedOrEdited: [] });
-    expect(results.seal.sealed).toHaveLength(15);
+    expect(results.seal.sealed).toHaveLength(n);
   });
 
   it('counts claims edited or added after sealing, marks them, and keeps the first date on a second seal', async () => {
@@ -70,8 +73,8 @@ describe('warrant seal', () => {
     expect(added).not.toBe(text);
     writeFileSync(claims, added);
     const pack = await build({ claimsPath: claims, outDir: join(work, 'out2'), cwd: work });
-    // 15 sealed, one of them edited, one added: 14 of 16 as sealed.
-    expect(pack.model.sealText).toBe('14 of these 16 claims were sealed on 12 February 2026, before the data file dated 3 March 2026; 2 claims were added or edited after sealing.');
+    // n sealed, one of them edited, one added: n - 1 of n + 1 as sealed.
+    expect(pack.model.sealText).toBe(`${n - 1} of these ${n + 1} claims were sealed on 12 February 2026, before the data file dated 3 March 2026; 2 claims were added or edited after sealing.`);
     const results = JSON.parse(readFileSync(pack.files.results, 'utf8'));
     expect(results.seal.addedOrEdited.sort()).toEqual(['feedback-below-region-copy', 'wellbeing-up-this-year']);
     const notice = pack.model.claims.find((c) => c.id === 'wellbeing-up-this-year')?.notices ?? [];
@@ -84,7 +87,7 @@ describe('warrant seal', () => {
     expect(days['wellbeing-up-this-year']).toBe('2026-03-05');
     expect(days['feedback-below-region']).toBe('2026-02-12');
     const again = await build({ claimsPath: claims, outDir: join(work, 'out3'), cwd: work });
-    expect(again.model.sealText).toBe('These 16 claims were sealed between 12 February 2026 and 5 March 2026, not before the data file dated 3 March 2026, so the seal does not show they were written before the data were seen.');
+    expect(again.model.sealText).toBe(`These ${n + 1} claims were sealed between 12 February 2026 and 5 March 2026, not before the data file dated 3 March 2026, so the seal does not show they were written before the data were seen.`);
   });
 
   it('refuses a date that is not a day, and a damaged seal, with exit code 2 and one paragraph', async () => {
