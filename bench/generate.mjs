@@ -5,17 +5,8 @@ import { createWriteStream, mkdirSync } from 'node:fs';
 import { once } from 'node:events';
 import { createDeflateRaw, crc32 } from 'node:zlib';
 import { join } from 'node:path';
+import { mulberry32 } from '../scripts/seeded-random.mjs';
 
-function mulberry32(seed) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 export const DEPARTMENTS = Array.from({ length: 40 }, (_, i) => ['Hanes', 'Cerddoriaeth', 'Łacina', 'Gŵyddoniaeth', 'Naïve Studies', 'Mathemateg', 'Ffiseg', 'Szkoła Łąkowa'][i % 8] + ` ${Math.floor(i / 8) + 1}`);
 export const CAMPUSES = ['Central', 'Tŷ Gwyn', 'North', 'Riverside', 'Łąka'];

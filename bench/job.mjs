@@ -8,17 +8,8 @@
 import { createWriteStream, mkdirSync, writeFileSync } from 'node:fs';
 import { once } from 'node:events';
 import { join } from 'node:path';
+import { mulberry32 } from '../scripts/seeded-random.mjs';
 
-function mulberry32(seed) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 const PLAIN = ['Ashmere', 'Brockwell', 'Calderby', 'Dunholt', 'Evenlode', 'Farrowdale', 'Grisby', 'Hollinmoor', 'Ivelwick', 'Kestrelford'];
 const QUOTED = ['Pant-yr-ŵyn, Tŷ Łąka', 'Llyn Naïf, Tŷ Ŵern', 'Łąkowo, Cwm-ŷd Naïve', 'Bryn Ŵyth, Ïsa Łąg'];

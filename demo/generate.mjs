@@ -19,6 +19,7 @@ import { mkdirSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import ExcelJS from 'exceljs';
+import { mulberry32 } from '../scripts/seeded-random.mjs';
 
 const SEED = 0x51a7e26;
 const HERE = dirname(fileURLToPath(import.meta.url));
@@ -29,16 +30,6 @@ const RELEASES = [2025, 2026];
 // ---------------------------------------------------------------------------------------------------------------
 
 /** mulberry32: a 32-bit generator, uniform on [0, 1). */
-function mulberry32(seed) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** FNV-1a hash of text (UTF-16 code units), mixed with the fixed seed: one independent stream per name. */
 function streamFor(name) {
