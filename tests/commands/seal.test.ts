@@ -44,7 +44,7 @@ describe('warrant seal', () => {
   it('says, with no seal, that it cannot confirm when the claims were written (and no longer claims it knows)', async () => {
     const pack = await build({ claimsPath: claims, outDir: join(work, 'out0'), cwd: work });
     const text = pdfText(pack.files.pdf);
-    expect(text).toContain('warrant cannot confirm when these claims were written: no seal was found beside the claims file');
+    expect(text).toContain('This pack cannot confirm when these claims were written: no seal was found beside the claims file');
     expect(text).not.toContain('written before the results were seen');
     expect(JSON.parse(readFileSync(pack.files.results, 'utf8')).seal).toBeNull();
   });
