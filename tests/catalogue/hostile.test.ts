@@ -21,6 +21,7 @@ import { cpus, loadavg, tmpdir } from 'node:os';
 import { join, relative, resolve } from 'node:path';
 import { crc32, deflateRawSync } from 'node:zlib';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { zipParts, type ZipPart } from '../helpers/zip.js';
 
 const root = resolve(import.meta.dirname, '../..');
 const fixtures = join(root, 'tests/fixtures/catalogue');
@@ -115,59 +116,6 @@ const ASSOCIATION = (y: string): string => `claims:
     expect: positive
 `;
 
-interface ZipPart {
-  name: string;
-  /** The part's bytes, stored deflated (method 8). */
-  data?: Buffer;
-  /** Already deflated bytes, with the CRC and size of what they inflate to. */
-  deflated?: { bytes: Buffer; crc: number; size: number };
-  /** The uncompressed size written in the zip's directory, when it should lie. */
-  claimedSize?: number;
-}
-
-/** A zip archive (APPNOTE.TXT 4.3: local headers, central directory, end record), every part deflated. */
-function zip(parts: ZipPart[]): Buffer {
-  const locals: Buffer[] = [];
-  const central: Buffer[] = [];
-  let offset = 0;
-  for (const p of parts) {
-    const name = Buffer.from(p.name, 'utf8');
-    const body = p.deflated ?? { bytes: deflateRawSync(p.data ?? Buffer.alloc(0)), crc: crc32(p.data ?? Buffer.alloc(0)), size: (p.data ?? Buffer.alloc(0)).length };
-    const size = p.claimedSize ?? body.size;
-    const local = Buffer.alloc(30);
-    local.writeUInt32LE(0x04034b50, 0);
-    local.writeUInt16LE(20, 4);
-    local.writeUInt16LE(0x0800, 6); // names in UTF-8
-    local.writeUInt16LE(8, 8);
-    local.writeUInt32LE(body.crc >>> 0, 14);
-    local.writeUInt32LE(body.bytes.length, 18);
-    local.writeUInt32LE(size, 22);
-    local.writeUInt16LE(name.length, 26);
-    locals.push(local, name, body.bytes);
-    const c = Buffer.alloc(46);
-    c.writeUInt32LE(0x02014b50, 0);
-    c.writeUInt16LE(20, 4);
-    c.writeUInt16LE(20, 6);
-    c.writeUInt16LE(0x0800, 8);
-    c.writeUInt16LE(8, 10);
-    c.writeUInt32LE(body.crc >>> 0, 16);
-    c.writeUInt32LE(body.bytes.length, 20);
-    c.writeUInt32LE(size, 24);
-    c.writeUInt16LE(name.length, 28);
-    c.writeUInt32LE(offset, 42);
-    central.push(c, name);
-    offset += 30 + name.length + body.bytes.length;
-  }
-  const cd = Buffer.concat(central);
-  const end = Buffer.alloc(22);
-  end.writeUInt32LE(0x06054b50, 0);
-  end.writeUInt16LE(parts.length, 8);
-  end.writeUInt16LE(parts.length, 10);
-  end.writeUInt32LE(cd.length, 12);
-  end.writeUInt32LE(offset, 16);
-  return Buffer.concat([...locals, cd, end]);
-}
-
 const NS = 'http://schemas.openxmlformats.org/spreadsheetml/2006/main';
 const RNS = 'http://schemas.openxmlformats.org/officeDocument/2006/relationships';
 const SHEET_HEAD = `<?xml version="1.0" encoding="UTF-8" standalone="yes"?><worksheet xmlns="${NS}"><sheetData>`;
@@ -207,7 +155,7 @@ const XLSX_CLAIMS = HEAD + SUMMARY_SOURCE('data.xlsx', '    sheet: Results\n') +
 
 function writeXlsxCase(dir: string, parts: ZipPart[]): void {
   writeFileSync(join(dir, 'claims.yaml'), XLSX_CLAIMS);
-  writeFileSync(join(dir, 'data.xlsx'), zip(parts));
+  writeFileSync(join(dir, 'data.xlsx'), zipParts(parts));
 }
 
 /** A history folder `out` holding one earlier pack, built for real, and the same inputs changed to build again. */
