@@ -31,7 +31,7 @@
  *   (0, 1) or the list of alphas does not match the p-values.
  * @example effectiveThresholds([0.01, 0.04, 0.03], 0.05, 'holm') // [0.05/3, 0.05/2, 0.05/2]
  */
-import type { AdjustMethod, AdjustOptions } from './p-adjust.js';
+import { presentPValues, type AdjustMethod, type AdjustOptions } from './p-adjust.js';
 
 export function effectiveThresholds(
   p: readonly number[],
@@ -43,22 +43,13 @@ export function effectiveThresholds(
   if (alphas.length !== p.length) {
     throw new Error(`effectiveThresholds: ${alphas.length} alphas given for ${p.length} p-values; give one alpha or one per p-value`);
   }
-  const present: number[] = [];
-  p.forEach((v, i) => {
-    if (Number.isNaN(v)) return;
-    if (!(v >= 0 && v <= 1)) {
-      throw new Error(`effectiveThresholds: p-value ${i + 1} is ${v}; every p-value must lie in [0, 1] (or be NaN when absent)`);
-    }
+  const { present, m } = presentPValues(p, options, 'effectiveThresholds');
+  for (const i of present) {
     const a = alphas[i] as number;
     if (!(a > 0 && a < 1)) throw new Error(`effectiveThresholds: alpha ${i + 1} is ${a}; alpha must lie strictly between 0 and 1`);
-    present.push(i);
-  });
+  }
   const out = p.map(() => Number.NaN);
   const lp = present.length;
-  const m = options.n ?? lp;
-  if (!Number.isInteger(m) || m < lp) {
-    throw new Error(`effectiveThresholds: n = ${m} is smaller than the ${lp} p-values given; n must be a whole number >= ${lp}`);
-  }
   if (lp === 0) return out;
 
   // Ascending order, ties in input order; rank k = 1..lp. `critical(k)` is the divisor of alpha at step k.

@@ -50,21 +50,33 @@ export interface AdjustOptions {
   n?: number;
 }
 
-export function adjustP(p: readonly number[], method: AdjustMethod, options: AdjustOptions = {}): number[] {
+/**
+ * The positions of the p-values present (NaN marks a claim not tested) and the number of tests m (options.n, or the
+ * count present), after checking both; shared by `adjustP` and `effectiveThresholds`, whose name `who` gives the
+ * messages.
+ * @throws Error for a p-value outside [0, 1] or an n smaller than the count present.
+ */
+export function presentPValues(p: readonly number[], options: AdjustOptions, who: string): { present: number[]; m: number } {
   const present: number[] = [];
   p.forEach((v, i) => {
     if (Number.isNaN(v)) return;
     if (!(v >= 0 && v <= 1)) {
-      throw new Error(`adjustP: p-value ${i + 1} is ${v}; every p-value must lie in [0, 1] (or be NaN when absent)`);
+      throw new Error(`${who}: p-value ${i + 1} is ${v}; every p-value must lie in [0, 1] (or be NaN when absent)`);
     }
     present.push(i);
   });
-  const out = p.map(() => Number.NaN);
   const lp = present.length;
   const m = options.n ?? lp;
   if (!Number.isInteger(m) || m < lp) {
-    throw new Error(`adjustP: n = ${m} is smaller than the ${lp} p-values given; n must be a whole number >= ${lp}`);
+    throw new Error(`${who}: n = ${m} is smaller than the ${lp} p-values given; n must be a whole number >= ${lp}`);
   }
+  return { present, m };
+}
+
+export function adjustP(p: readonly number[], method: AdjustMethod, options: AdjustOptions = {}): number[] {
+  const { present, m } = presentPValues(p, options, 'adjustP');
+  const out = p.map(() => Number.NaN);
+  const lp = present.length;
   if (lp === 0) return out;
   const values = present.map((i) => p[i] as number);
 
