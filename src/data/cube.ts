@@ -436,6 +436,15 @@ async function summaryCube(
     dimIdx.forEach((i, k) => {
       dims[dimensions[k]!] = text(i);
     });
+    /** This row's group key, or undefined (with the problem noted) when an earlier row already gave the group. */
+    const newGroupKey = (): string | undefined => {
+      const key = JSON.stringify(dimIdx.map((i) => text(i)));
+      const earlier = cells.get(key);
+      if (earlier === undefined) return key;
+      const label = dimensions.map((d) => `${d} = ${dims[d]}`).join(', ');
+      problems.add({ row: r.row, field: dimensions.join(', '), found: label, problem: `This row repeats the group of row ${earlier.firstRow}`, fix: `Keep one row per group: remove or merge rows ${earlier.firstRow} and ${r.row}, or add the column that tells them apart` });
+      return undefined;
+    };
     const measureTexts = [nCol, agreeCol ?? pctCol, popCol].filter((i): i is number => i !== undefined).map(text);
     if (measureTexts.every((t) => t === '')) {
       problems.add({
@@ -451,13 +460,8 @@ async function summaryCube(
     const withheld = countColumns.map(text).filter((t) => isSuppressedMarker(t, markers));
     if (withheld.length > 0) {
       for (const m of withheld) markerCounts.set(m, (markerCounts.get(m) ?? 0) + 1);
-      const key = JSON.stringify(dimIdx.map((i) => text(i)));
-      const earlier = cells.get(key);
-      if (earlier !== undefined) {
-        const label = dimensions.map((d) => `${d} = ${dims[d]}`).join(', ');
-        problems.add({ row: r.row, field: dimensions.join(', '), found: label, problem: `This row repeats the group of row ${earlier.firstRow}`, fix: `Keep one row per group: remove or merge rows ${earlier.firstRow} and ${r.row}, or add the column that tells them apart` });
-        return;
-      }
+      const key = newGroupKey();
+      if (key === undefined) return;
       const cell: Cell = { dims, n: 0, agree: 0, approximate: false, firstRow: r.row, suppressed: true };
       if (numericNames.length > 0) cell.numeric = Object.fromEntries(numericNames.map((name) => [name, { weightedSum: 0, weight: 0 }]));
       cells.set(key, cell);
@@ -507,13 +511,8 @@ async function summaryCube(
       problems.add({ row: r.row, field: popName!, found: String(population), problem: `More people answered than were eligible (${n} respondents, population ${population})`, fix: 'Check the population column: it should hold the number eligible to answer' });
       return;
     }
-    const key = JSON.stringify(dimIdx.map((i) => text(i)));
-    const earlier = cells.get(key);
-    if (earlier !== undefined) {
-      const label = dimensions.map((d) => `${d} = ${dims[d]}`).join(', ');
-      problems.add({ row: r.row, field: dimensions.join(', '), found: label, problem: `This row repeats the group of row ${earlier.firstRow}`, fix: `Keep one row per group: remove or merge rows ${earlier.firstRow} and ${r.row}, or add the column that tells them apart` });
-      return;
-    }
+    const key = newGroupKey();
+    if (key === undefined) return;
     const cell: Cell = { dims, n, agree: agree ?? 0, approximate: pct !== undefined, firstRow: r.row };
     if (population !== undefined) cell.population = population;
     if (populationWithheld) cell.populationSuppressed = true;
