@@ -377,6 +377,7 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
     date,
     cubes,
     seal: sealed.facts,
+    claimsTested,
     results: analyses.map((a, i) => claimResult(a, decisions[i] as Decision, (composed[i] as (typeof composed)[number]).section, claims.claims[i], composed[i]?.worth)),
   });
 

@@ -26,7 +26,8 @@ import { detectableSlope } from './trend.js';
 import { effectiveSize } from '../stats/finite-population.js';
 import { minDetectableCramersV } from '../stats/power-chi-square.js';
 
-const POWER = 0.8;
+/** The power every smallest detectable effect is computed at ("detected 80% of the time"). */
+export const POWER = 0.8;
 
 function pick(expect: string | undefined, both: { increase: number | null; decrease: number | null }): number | undefined {
   const candidates = expect === 'lower' ? [both.decrease] : expect === 'higher' ? [both.increase] : [both.increase, both.decrease];

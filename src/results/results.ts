@@ -14,6 +14,7 @@ import type { SealStatus } from '../verdicts/words/seal.js';
 type SealFacts = SealStatus['facts'];
 import type { Worth } from '../verdicts/advice.js';
 import { responseRateOf } from '../verdicts/source.js';
+import { POWER } from '../analyse/detectable.js';
 
 export const RESULTS_FORMAT = 1;
 
@@ -92,11 +93,37 @@ export interface ClaimResult {
    * A second test printed beside the main one: Mann–Whitney beside a t test (or Welch beside the rank test) for mean
    * scores; the respondent-weighted correlation beside the unweighted one for associations. Null when none.
    */
-  check?: { method: string; estimate: number | null; p: number } | null;
+  check?: { method: string; estimate: number | null; p: number; interval?: Interval } | null;
   /** Cohen's d for mean scores (difference over the pooled standard deviation); null for other kinds. */
   cohensD?: number | null;
   /** Crosstab cells whose adjusted residual lies beyond the level's critical value, largest first. */
   notableCells?: Array<{ row: string; column: string; residual: number }>;
+  /** Compare and change: Cohen's h for the two rates. */
+  cohensH?: number | null;
+  /** Target: the fixed value the rate is held to (proportion). */
+  comparisonValue?: number;
+  /** Equivalence: the margin (proportion; 0.06 = 6 percentage points). */
+  margin?: number;
+  /** Estimate: the larger distance from the estimate to an end of its interval (proportion, or scale points for a mean). */
+  marginOfError?: number;
+  /** Target with the exact test: the rate's Clopper–Pearson interval. */
+  exactInterval?: Interval;
+  /** Means: the answer scale's lowest and highest code. */
+  scale?: [number, number];
+  /** Means with the rank test: probability that a focus answer exceeds an against answer (ties count half). */
+  superiority?: number;
+  /** Trend: the fitted rate per period (same order as selections) and the fitted change first to last period (proportions). */
+  fitted?: { rates: number[]; change: number };
+  /** Trend: the chi-square for departure from a straight line. */
+  departure?: { statistic: number; df: number; p: number } | null;
+  /** Association: the least-squares line y = intercept + slope x (in the measures' units: proportions for rates) and R². */
+  line?: { intercept: number; slope: number; rSquared: number } | null;
+  /** Association: the checks on ranks printed beside r (Spearman's rho, Kendall's tau-b), each with its p-value. */
+  rankChecks?: Array<{ method: string; estimate: number; p: number }>;
+  /** Association and crosstab: units (rows) tested, all units (rows) found, and those left out for too few respondents. */
+  unitCounts?: { tested: number; all: number; leftOut: number };
+  /** Crosstab: the table of counts (rows × columns, rows with enough respondents), its smallest expected count and the residual cutoff. */
+  table?: { rows: string[]; columns: string[]; counts: number[][]; smallestExpected: number | null; residualCutoff: number | null };
 }
 
 export interface ResultsFile {
@@ -108,7 +135,7 @@ export interface ResultsFile {
   organisation: string;
   date: string;
   claimsFile: { file: string; sha256: string };
-  settings: { confidence: number; adjust: string; minRespondents: number };
+  settings: { confidence: number; adjust: string; minRespondents: number; claimsTested: number; detectablePower: number };
   sources: Array<{ id: string; file: string; sheet?: string; shape: string; sha256: string; rows: number }>;
   /** What the seal beside the claims file proves (src/commands/seal.ts); null when there is none. */
   seal: SealFacts;
@@ -221,11 +248,52 @@ export function claimResult(a: Analysis, decision: Decision, section: ClaimSecti
       a.kind === 'means' && a.check
         ? { method: a.check.method, estimate: null, p: a.check.test.p }
         : a.kind === 'association' && a.weightedCheck
-          ? { method: 'pearson-weighted', estimate: a.weightedCheck.estimate.value, p: a.weightedCheck.p }
+          ? { method: 'pearson-weighted', estimate: a.weightedCheck.estimate.value, p: a.weightedCheck.p, ...(a.weightedCheck.interval ? { interval: a.weightedCheck.interval } : {}) }
           : null,
     cohensD: a.kind === 'means' ? a.cohensD ?? null : null,
     ...(a.kind === 'crosstab' ? { notableCells: a.notable } : {}),
+    ...(tested ? kindFigures(a) : {}),
   };
+}
+
+/** The figures one kind's numbers table prints beyond the fields every claim has (see schema/results.schema.json). */
+function kindFigures(a: Analysis): Partial<ClaimResult> {
+  switch (a.kind) {
+    case 'compare':
+    case 'change':
+      return { cohensH: a.cohensH ?? null };
+    case 'target':
+      return { comparisonValue: a.claim.value, ...(a.exactInterval ? { exactInterval: a.exactInterval } : {}) };
+    case 'equivalence':
+      return { margin: a.claim.margin };
+    case 'estimate': {
+      const est = a.rate ? { value: a.rate.rate, interval: a.rate.interval } : a.mean ? { value: a.mean.mean, interval: a.mean.interval } : undefined;
+      return est ? { marginOfError: Math.max(est.value - est.interval.lower, est.interval.upper - est.value) } : {};
+    }
+    case 'means':
+      return { ...(a.scale ? { scale: a.scale } : {}), ...(a.superiority !== undefined ? { superiority: a.superiority } : {}) };
+    case 'trend':
+      return a.fitted && a.fitted.length > 0
+        ? {
+            fitted: { rates: a.fitted.slice(), change: (a.fitted[a.fitted.length - 1] as number) - (a.fitted[0] as number) },
+            departure: a.departure ? { statistic: a.departure.statistic, df: a.departure.df, p: a.departure.p } : null,
+          }
+        : {};
+    case 'association':
+      return {
+        line: a.fit ? { intercept: a.fit.intercept, slope: a.fit.slope, rSquared: a.fit.rSquared } : null,
+        rankChecks: [
+          ...(a.spearman ? [{ method: 'spearman', estimate: a.spearman.estimate.value, p: a.spearman.p }] : []),
+          ...(a.kendall ? [{ method: 'kendall-tau-b', estimate: a.kendall.estimate.value, p: a.kendall.p }] : []),
+        ],
+        unitCounts: { tested: a.points.length, all: a.points.length + a.suppressedUnits.length, leftOut: a.suppressedUnits.length },
+      };
+    case 'crosstab':
+      return {
+        table: { rows: a.rowLabels, columns: a.columnLabels, counts: a.counts, smallestExpected: a.minExpected ?? null, residualCutoff: a.residualCutoff ?? null },
+        unitCounts: { tested: a.rowLabels.length, all: a.rowLabels.length + a.suppressedRows.length, leftOut: a.suppressedRows.length },
+      };
+  }
 }
 
 export function resultsFile(input: {
@@ -237,6 +305,8 @@ export function resultsFile(input: {
   cubes: Cube[];
   results: ClaimResult[];
   seal?: SealFacts;
+  /** Claims tested together: the family the adjustment for many claims counts. */
+  claimsTested: number;
 }): ResultsFile {
   const { claims } = input;
   return {
@@ -247,7 +317,7 @@ export function resultsFile(input: {
     organisation: claims.organisation,
     date: input.date,
     claimsFile: { file: input.claimsDisplay, sha256: claims.sha256 },
-    settings: { confidence: claims.confidence, adjust: claims.adjust, minRespondents: claims.minRespondents },
+    settings: { confidence: claims.confidence, adjust: claims.adjust, minRespondents: claims.minRespondents, claimsTested: input.claimsTested, detectablePower: POWER },
     sources: input.cubes.map((c) => {
       const spec = claims.sources.find((s) => s.id === c.sourceId);
       const sheet = spec?.sheet ?? c.sheet;

@@ -1,0 +1,124 @@
+/**
+ * Every figure the pack prints in a claim's numbers table is in results.json. The demo pack is built through the
+ * command line (`node bin/warrant.js build`), its pages are read back with poppler's `pdftotext -layout` (a tool
+ * outside the project), each numbers table is parsed as labelled rows (tests/helpers/pdf-figures.ts), and every
+ * number in a row's label or value is looked up in that claim's results.json entry at the precision it was printed
+ * with: nothing printed that the JSON lacks.
+ */
+import { execFileSync, spawnSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { checkFigures, figureIn, numbersTables, rowFigures, tableRows } from '../helpers/pdf-figures.js';
+
+const root = resolve(__dirname, '../..');
+const work = mkdtempSync(join(tmpdir(), 'warrant-figures-'));
+let layout: string;
+let results: { settings: Record<string, unknown>; claims: Array<Record<string, any> & { id: string }> };
+
+beforeAll(() => {
+  const run = spawnSync(process.execPath, [join(root, 'bin/warrant.js'), 'build', join(root, 'demo/claims.yaml'), '--out', join(work, 'out'), '--json'], { encoding: 'utf8', cwd: root });
+  expect(run.stderr).toBe('');
+  expect(run.status).toBe(0);
+  const folder = (JSON.parse(run.stdout) as { folder: string }).folder;
+  results = JSON.parse(readFileSync(join(folder, 'results.json'), 'utf8'));
+  layout = execFileSync('pdftotext', ['-enc', 'UTF-8', '-layout', join(folder, 'pack.pdf'), '-'], { encoding: 'utf8' });
+}, 180_000);
+
+afterAll(() => rmSync(work, { recursive: true, force: true }));
+
+describe('every figure in a numbers table is in results.json', () => {
+  it('finds a numbers table for every claim in the demo', () => {
+    const tables = numbersTables(layout);
+    expect([...tables.keys()].sort()).toEqual(results.claims.map((c) => c.id).sort());
+  });
+
+  it('finds each printed figure in the claim’s results.json entry at the printed precision', () => {
+    const { rows, figures } = checkFigures(layout, results);
+    const missing = figures.filter((f) => !f.found).map((f) => `${f.claim} | ${f.label} | ${f.text}`);
+    expect(missing).toEqual([]);
+    // Every claim's table has rows, and the demo prints a good number of figures (printed for the closing note).
+    expect(rows.length).toBeGreaterThan(results.claims.length * 3);
+    expect(figures.length).toBeGreaterThan(200);
+    console.info(`figures checked against results.json: ${figures.length} in ${rows.length} rows of ${new Set(rows.map((r) => r.claim)).size} numbers tables`);
+  });
+
+  it('can fail: each field taken out of results.json leaves figures of the table unfound', () => {
+    const before = checkFigures(layout, results).figures.filter((f) => !f.found).length;
+    expect(before).toBe(0);
+    // Each of these fields is the only place its figures live; without it the check must miss some. (Not
+    // comparisonValue: the demo's 80% target is also the 80% power every detectable figure is computed at.)
+    const fields = ['selections', 'means', 'statistic', 'df', 'detectable', 'adjustedInterval', 'cohensH', 'cohensD', 'check', 'margin', 'marginOfError', 'scale', 'fitted', 'departure', 'line', 'rankChecks', 'table', 'unitCounts'];
+    for (const field of fields) {
+      const cut = { ...results, claims: results.claims.map(({ [field]: _gone, ...rest }) => ({ ...rest, id: rest.id as string })) };
+      const missing = checkFigures(layout, cut).figures.filter((f) => !f.found);
+      expect(missing.length, `without ${field}`).toBeGreaterThan(0);
+    }
+    const noCount = { ...results, settings: { ...results.settings, claimsTested: undefined } };
+    expect(checkFigures(layout, noCount).figures.filter((f) => !f.found && f.text === String(results.settings.claimsTested)).length).toBeGreaterThan(10);
+  });
+});
+
+describe('reading a numbers table as labelled rows', () => {
+  // The same table laid out two ways: other column widths, a second pair on a line, wrapped labels and values.
+  const wide = [
+    ' Quarrendell University             60% agreed of 2,052 (interval 59% to 62%)',
+    ' Difference                         −11.9 points (95% interval −13.4 to −10.4, unadjusted; 99.6% interval',
+    '                                    −14.1 to −9.7, adjusted for 14 claims)',
+    ' Test statistic                     z = −16.31                  p-value (two-sided)                 < 0.001',
+    ' p-value adjusted for 14            < 0.001                     Confidence level                    95%',
+    ' claims',
+    ' Interval set against the           −3.7 to +2.7 points (unadjusted; 98.8% interval, adjusted for 14 claims:',
+    ' margin (90%)                       −5.4 to +4.4)',
+  ];
+  const narrow = [
+    '   Quarrendell           60% agreed of 2,052 (interval 59% to',
+    '   University            62%)',
+    '   Difference            −11.9 points (95% interval −13.4 to',
+    '                         −10.4, unadjusted; 99.6% interval −14.1',
+    '                         to −9.7, adjusted for 14 claims)',
+    '   Test statistic        z = −16.31',
+    '   p-value (two-sided)   < 0.001',
+    '   p-value adjusted      < 0.001',
+    '   for 14 claims',
+    '   Confidence level      95%',
+    '   Interval set          −3.7 to +2.7 points (unadjusted; 98.8%',
+    '   against the margin    interval, adjusted for 14 claims: −5.4 to',
+    '   (90%)                 +4.4)',
+  ];
+  const norm = (rows: Array<{ label: string; value: string }>) => rows.map((r) => ({ label: r.label, value: r.value })).sort((a, b) => a.label.localeCompare(b.label));
+
+  it('finds the same labelled rows whatever the column widths', () => {
+    const a = norm(tableRows('x', wide));
+    const b = norm(tableRows('x', narrow));
+    expect(a.map((r) => r.label)).toEqual(['Confidence level', 'Difference', 'Interval set against the margin (90%)', 'p-value (two-sided)', 'p-value adjusted for 14 claims', 'Quarrendell University', 'Test statistic']);
+    expect(b).toEqual(a);
+    expect(a.find((r) => r.label === 'Difference')!.value).toBe('−11.9 points (95% interval −13.4 to −10.4, unadjusted; 99.6% interval −14.1 to −9.7, adjusted for 14 claims)');
+  });
+
+  it('reads each figure with its precision and scale, and a name as a name', () => {
+    const figs = rowFigures({ claim: 'x', label: 'Difference', value: '−11.9 points (95% interval −13.4 to −10.4, adjusted for 14 claims)' }, new Set());
+    expect(figs.map((f) => [f.text, f.scales])).toEqual([
+      ['−11.9', [100, 1]],
+      ['95%', [100]],
+      ['−13.4', [100, 1]],
+      ['−10.4', [100, 1]],
+      ['14', [1]],
+    ]);
+    expect(rowFigures({ claim: 'x', label: '2025', value: '66% agreed of 1,939' }, new Set(['2025'])).map((f) => f.text)).toEqual(['66%', '1,939']);
+  });
+
+  it('matches at the printed precision only', () => {
+    expect(figureIn('72.2%', [100], [0.7219445706497046])).toBe(true);
+    expect(figureIn('72.3%', [100], [0.7219445706497046])).toBe(false);
+    expect(figureIn('72%', [100], [0.7219445706497046])).toBe(true);
+    expect(figureIn('−11.9', [100], [-0.11863073049375916])).toBe(true);
+    expect(figureIn('+11.9', [100], [-0.11863073049375916])).toBe(false);
+    expect(figureIn('11.9', [100], [-0.11863073049375916])).toBe(true);
+    expect(figureIn('< 0.001', [1], [8.5e-60])).toBe(true);
+    expect(figureIn('< 0.001', [1], [0.0012])).toBe(false);
+    expect(figureIn('2,052', [1], [2052])).toBe(true);
+    expect(figureIn('2,052', [1], [2051])).toBe(false);
+  });
+});
