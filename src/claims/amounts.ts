@@ -68,3 +68,50 @@ export function periodsBack(value: unknown): number | undefined {
   if (word === 'previous') return 1;
   return Number(m[2]);
 }
+
+/**
+ * The three measures a "difference worth reporting" is set for (`worth_reporting`), each in its own unit: rates in
+ * percentage points (as `smallest_difference`), mean scores in standard deviations (Cohen's d), correlations as r.
+ */
+export type WorthMeasure = 'rates' | 'mean_scores' | 'correlations';
+
+/** Which measure a claim kind's "not supported" is split on; undefined for kinds that are not split. */
+export function worthMeasureOf(kind: unknown): WorthMeasure | undefined {
+  if (kind === 'compare' || kind === 'change' || kind === 'target') return 'rates';
+  if (kind === 'means') return 'mean_scores';
+  if (kind === 'association') return 'correlations';
+  return undefined;
+}
+
+/** How each measure's size is written, for messages and the schema's descriptions. */
+export const WORTH_FORMS: Record<WorthMeasure, string> = {
+  rates: '5 or "5 points" (percentage points, above 0 and below 100)',
+  mean_scores: '0.2 or "0.2 SD" (standard deviations, above 0 and at most 2)',
+  correlations: '0.3 (a correlation, above 0 and below 1)',
+};
+
+/**
+ * A difference worth reporting in a measure's unit: points (as readPoints, 5 -> 0.05), standard deviations
+ * (0.2, "0.2 SD", "0.2 standard deviations"; above 0, at most 2: Cohen's "large" d is 0.8) or a correlation (0.3,
+ * "r 0.3", "r = 0.3"; above 0 and below 1). A size is a distance from no difference: a sign is refused.
+ */
+export function readWorth(raw: unknown, measure: WorthMeasure): AmountReading {
+  const written = writtenOf(raw);
+  if (written !== undefined && /^[-−]/.test(written)) {
+    return { ok: false, written, reason: 'is negative; a difference worth reporting is a distance from no difference, the same in either direction' };
+  }
+  if (measure === 'rates') return readPoints(raw);
+  if (written === undefined) return { ok: false, written: JSON.stringify(raw) ?? String(raw), reason: `is not ${measure === 'mean_scores' ? 'a number of standard deviations' : 'a correlation'}` };
+  if (measure === 'mean_scores') {
+    const m = /^([0-9]+(?:\.[0-9]+)?)\s*(sd|sds|standard deviations?)?$/i.exec(written);
+    if (m === null) return { ok: false, written, reason: 'is not a number of standard deviations' };
+    const n = Number(m[1]);
+    if (!(n > 0 && n <= 2)) return { ok: false, written, reason: 'is outside the accepted range (above 0 and at most 2 standard deviations; 0.2 is a small difference, 0.8 a large one)' };
+    return { ok: true, value: n, written };
+  }
+  const m = /^(?:r\s*=?\s*)?([0-9]+(?:\.[0-9]+)?)$/i.exec(written);
+  if (m === null) return { ok: false, written, reason: 'is not a correlation' };
+  const n = Number(m[1]);
+  if (!(n > 0 && n < 1)) return { ok: false, written, reason: 'is outside the accepted range (a correlation above 0 and below 1)' };
+  return { ok: true, value: n, written };
+}

@@ -5,7 +5,7 @@
 import { extname, resolve } from 'node:path';
 import { readConfidence } from './confidence.js';
 import { DATA_EXTENSIONS, DEFAULT_AGREE_CODES } from './rules.js';
-import { readPoints, readShare, type AmountReading } from './amounts.js';
+import { readPoints, readShare, readWorth, worthMeasureOf, type AmountReading, type WorthMeasure } from './amounts.js';
 import type {
   AssociationClaim,
   AssociationExpect,
@@ -67,6 +67,13 @@ export function normalize(parsed: ParsedYaml, absPath: string, sha256: string, l
   const points = (raw: unknown): number | undefined => amount(readPoints(raw), lenient);
   const topRate = data.min_response_rate !== undefined ? share(data.min_response_rate) : undefined;
   const topSmallest = data.smallest_difference !== undefined ? points(data.smallest_difference) : undefined;
+  const worthOf = (raw: unknown, measure: WorthMeasure): number | undefined => amount(readWorth(raw, measure), lenient);
+  const topWorthRaw = data.worth_reporting !== null && typeof data.worth_reporting === 'object' && !Array.isArray(data.worth_reporting) ? (data.worth_reporting as Rec) : {};
+  const topWorth: Partial<Record<WorthMeasure, number>> = {};
+  for (const m of ['rates', 'mean_scores', 'correlations'] as const) {
+    const v = topWorthRaw[m] !== undefined ? worthOf(topWorthRaw[m], m) : undefined;
+    if (v !== undefined) topWorth[m] = v;
+  }
 
   const sourcesRaw = data.sources as Record<string, Rec>;
   const sources: SourceSpec[] = Object.entries(sourcesRaw).map(([id, s]) => {
@@ -118,6 +125,11 @@ export function normalize(parsed: ParsedYaml, absPath: string, sha256: string, l
     if (rate !== undefined) base.minResponseRate = rate;
     const smallest = c.smallest_difference !== undefined ? points(c.smallest_difference) : topSmallest;
     if (smallest !== undefined) base.smallestDifference = smallest;
+    const measure = worthMeasureOf(c.kind);
+    const ownWorth = measure !== undefined && c.worth_reporting !== undefined ? worthOf(c.worth_reporting, measure) : undefined;
+    const fileWorth = measure !== undefined ? topWorth[measure] : undefined;
+    if (ownWorth !== undefined) base.worthReporting = { value: ownWorth, from: 'claim' };
+    else if (fileWorth !== undefined) base.worthReporting = { value: fileWorth, from: 'file' };
     const src = sources.find((x) => x.id === base.source);
     if (src !== undefined && (src.period !== undefined || src.wording !== undefined || src.shape === 'respondents')) {
       base.naming = {
@@ -145,6 +157,13 @@ export function normalize(parsed: ParsedYaml, absPath: string, sha256: string, l
   };
   if (topRate !== undefined) out.minResponseRate = topRate;
   if (topSmallest !== undefined) out.smallestDifference = topSmallest;
+  if (Object.keys(topWorth).length > 0) {
+    out.worthReporting = {
+      ...(topWorth.rates !== undefined ? { rates: topWorth.rates } : {}),
+      ...(topWorth.mean_scores !== undefined ? { meanScores: topWorth.mean_scores } : {}),
+      ...(topWorth.correlations !== undefined ? { correlations: topWorth.correlations } : {}),
+    };
+  }
   if (typeof data.finite_population_correction === 'boolean') out.finitePopulation = data.finite_population_correction;
   if (typeof data.description === 'string') out.description = data.description.trim();
   if (data.data_date !== undefined) out.dataDate = String(data.data_date);

@@ -7,7 +7,7 @@ import { readdirSync, statSync } from 'node:fs';
 import { basename, dirname, extname, resolve } from 'node:path';
 import type { Problem } from '../errors.js';
 import { CONFIDENCE_FORMS, readConfidence } from './confidence.js';
-import { POINTS_FORMS, readPoints, readShare, SHARE_FORMS, periodsBack } from './amounts.js';
+import { POINTS_FORMS, readPoints, readShare, readWorth, SHARE_FORMS, periodsBack, WORTH_FORMS, worthMeasureOf, type WorthMeasure } from './amounts.js';
 import { closest } from '../suggest.js';
 import { impossibleDate } from './dates.js';
 import { samenessProblems } from './sameness.js';
@@ -67,6 +67,7 @@ export function crossFieldProblems(parsed: ParsedYaml, file: string, claimsDir: 
   };
   checkAmount(data, ['min_response_rate'], 'share', 'the minimum response rate');
   checkAmount(data, ['smallest_difference'], 'points', 'the smallest difference that matters,');
+  problems.push(...worthProblems(data, file, at));
   if (typeof data.data_date === 'string' && impossibleDate(data.data_date) !== undefined) {
     problems.push({
       file,
@@ -386,4 +387,108 @@ function fileProblems(written: string, claimsDir: string, file: string, place: {
     ];
   }
   return [];
+}
+
+const WORTH_WORDS: Record<WorthMeasure, string> = {
+  rates: 'a gap between rates',
+  mean_scores: 'a difference in mean scores',
+  correlations: 'a correlation',
+};
+
+/**
+ * `worth_reporting`: at the top of the file, a mapping of sizes per measure (rates, mean_scores, correlations); on a
+ * claim, one size in the unit of the claim's measure. Each size is range-checked with its own message; a claim kind
+ * whose "not supported" is not split (trend, crosstab, equivalence, estimate) is told so; a claim may not set both
+ * its own smallest_difference and worth_reporting, and the file may not set a rates size that its smallest_difference
+ * would always override.
+ */
+function worthProblems(data: Rec, file: string, at: (path: Array<string | number>, prefer?: 'key' | 'value') => { line: number; column: number }): Problem[] {
+  const problems: Problem[] = [];
+  const example = 'worth_reporting: { rates: 5 points, mean_scores: 0.2, correlations: 0.3 }';
+  const size = (raw: unknown, measure: WorthMeasure, path: Array<string | number>, owner: string): void => {
+    const r = readWorth(raw, measure);
+    if (r.ok) return;
+    problems.push({
+      file,
+      ...at(path),
+      field: 'worth_reporting',
+      found: r.written,
+      problem: `the size of ${WORTH_WORDS[measure]} worth reporting ${r.written} ${r.reason}, in ${owner}`,
+      fix: `Write it as ${WORTH_FORMS[measure]}, e.g. ${measure === 'rates' ? '5 points' : measure === 'mean_scores' ? '0.2' : '0.3'}`,
+    });
+  };
+  if ('worth_reporting' in data) {
+    const top = data.worth_reporting;
+    if (!isRec(top)) {
+      problems.push({
+        file,
+        ...at(['worth_reporting']),
+        field: 'worth_reporting',
+        found: typeof top === 'string' || typeof top === 'number' ? String(top) : JSON.stringify(top) ?? String(top),
+        problem: 'at the top of the claims file, worth_reporting gives a size for each measure, not one size',
+        fix: `Write ${example} (any of the three), or move the single size onto a claim`,
+      });
+    } else {
+      for (const m of ['rates', 'mean_scores', 'correlations'] as const) {
+        if (typeof top[m] === 'number' || typeof top[m] === 'string') size(top[m], m, ['worth_reporting', m], 'the claims file');
+      }
+      if ('smallest_difference' in data && 'rates' in top) {
+        problems.push({
+          file,
+          ...at(['worth_reporting', 'rates'], 'key'),
+          field: 'worth_reporting',
+          found: String(top.rates),
+          problem: `worth_reporting gives a size for rates, but smallest_difference (line ${at(['smallest_difference']).line}) already sets the size that counts for every claim on rates, so it would never be used`,
+          fix: 'Remove rates from worth_reporting, or remove smallest_difference if a smaller significant gap should still count as support',
+        });
+      }
+    }
+  }
+  const claims = Array.isArray(data.claims) ? data.claims : [];
+  claims.forEach((c, i) => {
+    if (!isRec(c) || !('worth_reporting' in c)) return;
+    const path = ['claims', i, 'worth_reporting'];
+    const owner = describeOwner(data, ['claims', i]);
+    const measure = worthMeasureOf(c.kind);
+    const raw = c.worth_reporting;
+    if (isRec(raw)) {
+      problems.push({
+        file,
+        ...at(path),
+        field: 'worth_reporting',
+        found: 'a mapping',
+        problem: `on a claim, worth_reporting is one size in the claim's own measure, but ${owner} gives a mapping`,
+        fix: measure ? `Write one size, e.g. worth_reporting: ${measure === 'rates' ? '5 points' : measure === 'mean_scores' ? '0.2' : '0.3'}, or move the mapping to the top of the file` : 'Move the mapping to the top of the file',
+      });
+      return;
+    }
+    if (typeof c.kind === 'string' && measure === undefined) {
+      const why: Record<string, string> = {
+        equivalence: 'its margin already sets the size that counts',
+        estimate: 'an estimate tests no claim',
+        trend: 'a trend claim has no interval for its size, so its "not supported" is not split',
+        crosstab: 'a crosstab claim has no interval for its size, so its "not supported" is not split',
+      };
+      problems.push({
+        file,
+        ...at(path, 'key'),
+        field: 'worth_reporting',
+        problem: `worth_reporting does not apply to ${owner} (kind ${c.kind}): ${why[c.kind] ?? 'its verdict is not split'}`,
+        fix: 'Remove worth_reporting from this claim',
+      });
+      return;
+    }
+    if ('smallest_difference' in c) {
+      problems.push({
+        file,
+        ...at(path, 'key'),
+        field: 'worth_reporting',
+        problem: `${owner} sets both smallest_difference (line ${at(['claims', i, 'smallest_difference']).line}) and worth_reporting; the smallest difference that matters is already the size worth reporting`,
+        fix: 'Keep one: smallest_difference when a smaller significant difference should not count as support, worth_reporting when it only decides between ruled out and inconclusive',
+      });
+      return;
+    }
+    if (measure !== undefined) size(raw, measure, path, owner);
+  });
+  return problems;
 }

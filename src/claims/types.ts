@@ -140,6 +140,13 @@ interface ClaimBase {
   /** The smallest difference that matters, as a fraction (0.05 = 5 points); a smaller significant one is not "supported". */
   smallestDifference?: number;
   /**
+   * The difference worth reporting (`worth_reporting`), in the unit of the claim's measure: a fraction for rates
+   * (0.05 = 5 points), standard deviations for mean scores, r for correlations. `from` says whether the claim set it or
+   * the file's `worth_reporting` did for the claim's measure. It only splits "not supported" into ruled out and
+   * inconclusive (src/verdicts/advice.ts); unset, the pack's default for the measure is used.
+   */
+  worthReporting?: { value: number; from: 'claim' | 'file' };
+  /**
    * finite_population_correction as written on the claim, else pack-wide; undefined when neither says: the correction
    * is then used wherever the source gives the number eligible. Either way it applies to every figure or to none.
    */
@@ -307,6 +314,8 @@ export interface ClaimsFile {
   minResponseRate?: number;
   /** Pack default for the smallest difference that matters (fraction), if any. */
   smallestDifference?: number;
+  /** Pack-wide sizes of a difference worth reporting, per measure, as written (`worth_reporting`); unset ones use the defaults. */
+  worthReporting?: { rates?: number; meanScores?: number; correlations?: number };
   /** Pack default for the finite-population correction (finite_population_correction), if written. */
   finitePopulation?: boolean;
   sources: SourceSpec[];

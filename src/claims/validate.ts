@@ -39,7 +39,7 @@ const EXAMPLE: Record<string, string> = {
 };
 
 /** Keys whose values are read with their own messages by the cross-field rules (amounts written several ways). */
-const READ_BY_RULES = new Set(['confidence', 'value', 'margin', 'smallest_difference', 'min_response_rate']);
+const READ_BY_RULES = new Set(['confidence', 'value', 'margin', 'smallest_difference', 'min_response_rate', 'worth_reporting']);
 
 function typeWords(t: unknown): string {
   const one = (s: string): string =>

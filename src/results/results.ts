@@ -12,7 +12,7 @@ import { claimFingerprint } from '../history/fingerprint.js';
 import type { SealStatus } from '../verdicts/words/seal.js';
 
 type SealFacts = SealStatus['facts'];
-import type { Worth } from '../verdicts/advice.js';
+import { WORTH_DEFAULTS, type Worth } from '../verdicts/advice.js';
 import { responseRateOf } from '../verdicts/source.js';
 import { POWER } from '../analyse/detectable.js';
 
@@ -81,8 +81,11 @@ export interface ClaimResult {
   verdictLabel?: string;
   /** For not-supported: inconclusive, ruled-out or too-small; null otherwise (see src/verdicts/advice.ts). */
   verdictDetail?: string | null;
-  /** The difference worth reporting that split not-supported, in the interval's units, and its basis. */
-  worthReporting?: { value: number; basis: string } | null;
+  /**
+   * The difference worth reporting that split not-supported, in the interval's units, and its basis; for mean scores
+   * set in standard deviations, that size too (`standardized`).
+   */
+  worthReporting?: { value: number; basis: string; standardized?: number } | null;
   /** What the summary advises doing with the claim. */
   advice?: { action: string; label: string; reason: string; wording?: string };
   /** Other claims tested on the same data. */
@@ -135,7 +138,15 @@ export interface ResultsFile {
   organisation: string;
   date: string;
   claimsFile: { file: string; sha256: string };
-  settings: { confidence: number; adjust: string; minRespondents: number; claimsTested: number; detectablePower: number };
+  settings: {
+    confidence: number;
+    adjust: string;
+    minRespondents: number;
+    claimsTested: number;
+    detectablePower: number;
+    /** The pack-wide sizes worth reporting (rates as proportions, mean scores in standard deviations, r) and which the claims file set. */
+    worthReporting: { rates: number; meanScores: number; correlations: number; fromClaimsFile: string[] };
+  };
   sources: Array<{ id: string; file: string; sheet?: string; shape: string; sha256: string; rows: number }>;
   /** What the seal beside the claims file proves (src/commands/seal.ts); null when there is none. */
   seal: SealFacts;
@@ -240,7 +251,7 @@ export function claimResult(a: Analysis, decision: Decision, section: ClaimSecti
     comparedWithRest: extra.relation !== undefined && extra.relation !== 'separate',
     verdictLabel: section.verdictLabel,
     verdictDetail: section.verdictDetail ?? null,
-    worthReporting: worth ? { value: worth.value, basis: worth.basis } : null,
+    worthReporting: worth ? { value: worth.value, basis: worth.basis, ...(worth.standardized !== undefined ? { standardized: worth.standardized } : {}) } : null,
     ...(section.advice ? { advice: section.advice } : {}),
     linkedClaims: (section.linked ?? []).map((l) => l.id),
     responseRate: tested ? responseRateOf(a)?.rate ?? null : null,
@@ -317,7 +328,19 @@ export function resultsFile(input: {
     organisation: claims.organisation,
     date: input.date,
     claimsFile: { file: input.claimsDisplay, sha256: claims.sha256 },
-    settings: { confidence: claims.confidence, adjust: claims.adjust, minRespondents: claims.minRespondents, claimsTested: input.claimsTested, detectablePower: POWER },
+    settings: {
+      confidence: claims.confidence,
+      adjust: claims.adjust,
+      minRespondents: claims.minRespondents,
+      claimsTested: input.claimsTested,
+      detectablePower: POWER,
+      worthReporting: {
+        rates: claims.worthReporting?.rates ?? WORTH_DEFAULTS.points,
+        meanScores: claims.worthReporting?.meanScores ?? WORTH_DEFAULTS.standardized,
+        correlations: claims.worthReporting?.correlations ?? WORTH_DEFAULTS.correlation,
+        fromClaimsFile: Object.keys(claims.worthReporting ?? {}),
+      },
+    },
     sources: input.cubes.map((c) => {
       const spec = claims.sources.find((s) => s.id === c.sourceId);
       const sheet = spec?.sheet ?? c.sheet;

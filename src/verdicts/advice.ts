@@ -10,10 +10,11 @@
  * - inconclusive: otherwise: the interval holds both no difference (or too little to count) and a difference
  *   worth reporting.
  *
- * "Worth reporting" is, in this order: the claim's own smallest difference that matters (`smallest_difference`); the
- * margin of an equivalence claim in the pack that tests the same two selections on the same data; else a stated
- * default (common practice, fixed before any data are seen): 5 percentage points for rates, a standardized difference
- * of 0.2 (Cohen's "small" d) for mean scores, a correlation of 0.3 (Cohen's "medium" r) across units. The smallest
+ * "Worth reporting" is, in this order: the claim's own `worth_reporting`; the smallest difference that matters
+ * (`smallest_difference`, the claim's or the file's); the margin of an equivalence claim in the pack that tests the
+ * same two selections on the same data; the file's `worth_reporting` for the claim's measure; else a stated default
+ * (common practice, fixed before any data are seen): 5 percentage points for rates, a standardized difference of 0.2
+ * (Cohen's "small" d) for mean scores, a correlation of 0.3 (Cohen's "medium" r) across units. The smallest
  * detectable difference is not used: it shrinks with the same standard error as the interval, so comparing the two
  * would decide the split by the sample size alone. The method notes say so ("worth-reporting" in
  * src/stats/methods.ts). Crosstab and trend claims have no interval for their effect, so their "not supported" is not
@@ -24,6 +25,7 @@
  * wording is given); inconclusive, too little data -> drop.
  */
 import type { Analysis } from '../analyse/types.js';
+import type { ClaimsFile } from '../claims/types.js';
 import { filterLabel } from '../analyse/labels.js';
 import * as fmt from '../format/numbers.js';
 import type { ClaimAdvice, LinkedClaim, NotSupportedAs } from '../render/model.js';
@@ -34,9 +36,15 @@ import { unitWords } from './words/association.js';
 /** A difference worth reporting, in the units of the claim's interval, and where it comes from. */
 export interface Worth {
   value: number;
-  basis: 'threshold' | 'linked-margin' | 'default';
+  /**
+   * claim: the claim's own worth_reporting; threshold: its smallest difference that matters; linked-margin: an
+   * equivalence margin on the same data; file: the claims file's worth_reporting; default: the pack's default.
+   */
+  basis: 'claim' | 'threshold' | 'linked-margin' | 'file' | 'default';
   /** For 'linked-margin': the equivalence claim whose margin is used. */
   linkedId?: string;
+  /** For mean scores set in standard deviations (claim, file, default): that size; `value` is it in scale points. */
+  standardized?: number;
 }
 
 /** The effect and its interval in the claim's own units, for the kinds whose "not supported" can be split. */
@@ -100,6 +108,16 @@ export const WORTH_DEFAULTS = { points: 0.05, standardized: 0.2, correlation: 0.
 /** The difference worth reporting for a claim (see the file comment), or undefined when none can be named. */
 export function worthReporting(a: Analysis, decision: Decision, linked: Analysis[]): Worth | undefined {
   if (decision.belowThreshold) return { value: decision.belowThreshold.smallest, basis: 'threshold' };
+  const set = a.claim.worthReporting;
+  // A size in standard deviations, in scale points: times the pooled standard deviation of the two groups.
+  const standardized = (sd: number, basis: Worth['basis']): Worth | undefined => {
+    if (a.kind !== 'means' || a.status !== 'tested' || !a.focus || !a.against) return undefined;
+    const { focus: f, against: g } = a;
+    const pooled = Math.sqrt(((f.n - 1) * f.sd * f.sd + (g.n - 1) * g.sd * g.sd) / (f.n + g.n - 2));
+    return pooled > 0 ? { value: sd * pooled, basis, standardized: sd } : undefined;
+  };
+  const own = (value: number, basis: Worth['basis']): Worth | undefined => (a.kind === 'means' ? standardized(value, basis) : { value, basis });
+  if (set?.from === 'claim') return own(set.value, 'claim');
   if (a.threshold) return { value: a.threshold.smallest, basis: 'threshold' };
   if (a.claim.smallestDifference !== undefined && a.kind !== 'means' && a.kind !== 'association') return { value: a.claim.smallestDifference, basis: 'threshold' };
   if (a.kind === 'compare') {
@@ -108,15 +126,35 @@ export function worthReporting(a: Analysis, decision: Decision, linked: Analysis
   }
   if (a.kind === 'equivalence') return { value: a.claim.margin, basis: 'threshold' };
   if (a.status !== 'tested') return undefined;
+  if (set?.from === 'file') return own(set.value, 'file');
   if (a.kind === 'compare' || a.kind === 'change' || a.kind === 'target') return { value: WORTH_DEFAULTS.points, basis: 'default' };
   if (a.kind === 'association') return { value: WORTH_DEFAULTS.correlation, basis: 'default' };
-  if (a.kind === 'means' && a.focus && a.against) {
-    // Cohen's d of 0.2 in scale points, with the pooled standard deviation of the two groups.
-    const { focus: f, against: g } = a;
-    const pooled = Math.sqrt(((f.n - 1) * f.sd * f.sd + (g.n - 1) * g.sd * g.sd) / (f.n + g.n - 2));
-    return pooled > 0 ? { value: WORTH_DEFAULTS.standardized * pooled, basis: 'default' } : undefined;
-  }
+  if (a.kind === 'means') return standardized(WORTH_DEFAULTS.standardized, 'default');
   return undefined;
+}
+
+/**
+ * The pack-wide sizes worth reporting for the measures its claims use, in words, for the verdict definitions and the
+ * method notes: "5 points for rates, 0.2 standard deviations for mean scores and a correlation of 0.3 across units",
+ * each size the claims file set marked "(set in the claims file)". Empty when no claim's kind is split.
+ */
+export function packWorthSizes(claims: ClaimsFile): string {
+  const kinds = new Set(claims.claims.map((c) => c.kind));
+  const set = claims.worthReporting ?? {};
+  const parts: string[] = [];
+  const mark = (v: number | undefined): string => (v !== undefined ? ' (set in the claims file)' : '');
+  // As written: "5 points", "2.5 points", "0.2 standard deviations" (no trailing zeros).
+  const plain = (v: number): string => String(Number(v.toPrecision(12)));
+  if (['compare', 'change', 'target'].some((k) => kinds.has(k as never))) {
+    parts.push(`${plain((set.rates ?? WORTH_DEFAULTS.points) * 100)} points for rates${mark(set.rates)}`);
+  }
+  if (kinds.has('means')) parts.push(`${plain(set.meanScores ?? WORTH_DEFAULTS.standardized)} standard deviations for mean scores${mark(set.meanScores)}`);
+  if (kinds.has('association')) parts.push(`a correlation of ${plain(set.correlations ?? WORTH_DEFAULTS.correlation)} across units${mark(set.correlations)}`);
+  // Every size named set in the claims file: one mark at the end instead of one each.
+  const allSet = parts.length > 0 && parts.every((p) => p.endsWith(mark(0)));
+  const shown = allSet ? parts.map((p) => p.slice(0, -mark(0).length)) : parts;
+  const list = shown.length > 1 ? `${shown.slice(0, -1).join(', ')} and ${shown[shown.length - 1]}` : (shown[0] ?? '');
+  return allSet ? `${list}${mark(0)}` : list;
 }
 
 /** Which kind of "not supported" this is, or undefined for other verdicts and kinds that cannot be split. */
@@ -159,16 +197,21 @@ export interface AdviceInput {
 /** The words of the worth-reporting threshold and where it came from, for templates. */
 export function worthView(worth: Worth | undefined, unit: EffectInterval['unit'] | undefined) {
   if (!worth || !unit) return { worth: '', worthBasis: '' };
+  const sd = worth.standardized !== undefined ? `${fmt.coefficient(worth.standardized, 2)} standard deviations` : '';
   const basis =
-    worth.basis === 'threshold'
-      ? 'the smallest difference that matters set by the claim'
-      : worth.basis === 'linked-margin'
-        ? `the margin of claim ${worth.linkedId ?? ''}, which tests the same data`
-        : unit === 'r'
-          ? "the pack's default for a correlation worth reporting"
-          : unit === 'scale points'
-            ? "the pack's default for a difference in mean scores worth reporting: 0.2 standard deviations"
-            : "the pack's default for a difference worth reporting";
+    worth.basis === 'claim'
+      ? `the size worth reporting set by the claim${sd ? `: ${sd}` : ''}`
+      : worth.basis === 'threshold'
+        ? 'the smallest difference that matters set by the claim'
+        : worth.basis === 'linked-margin'
+          ? `the margin of claim ${worth.linkedId ?? ''}, which tests the same data`
+          : worth.basis === 'file'
+            ? `the claims file's size worth reporting for ${unit === 'r' ? 'correlations' : unit === 'scale points' ? 'mean scores' : 'rates'}${sd ? `: ${sd}` : ''}`
+            : unit === 'r'
+              ? "the pack's default for a correlation worth reporting"
+              : unit === 'scale points'
+                ? `the pack's default for a difference in mean scores worth reporting: ${sd || '0.2 standard deviations'}`
+                : "the pack's default for a difference worth reporting";
   return { worth: unit === 'r' ? `a correlation of ${amount(worth.value, unit)}` : amount(worth.value, unit), worthBasis: basis };
 }
 

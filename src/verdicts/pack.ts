@@ -15,6 +15,7 @@ import { withCommonShareRange } from '../render/chart-scales.js';
 import type { Templates } from './templates.js';
 import { termDefinitions } from './compose.js';
 import { originText, respondentsByPeriod, respondentsText } from './source.js';
+import { packWorthSizes } from './advice.js';
 
 /** A template of "Label | meaning" lines (verdict and action definitions). */
 function definitions(templates: Templates, name: string, view: Record<string, unknown>): Array<{ label: string; text: string }> {
@@ -82,6 +83,7 @@ export function composePack(input: {
     level: fmt.level(claims.confidence),
     alphaPercent: fmt.level(1 - claims.confidence),
     sealSentence: input.sealText ?? '',
+    worthSizes: packWorthSizes(claims),
   };
   if (input.sections.some((s) => s.verdictDetail === 'inconclusive' || s.verdictDetail === 'ruled-out')) methodIds.push('worth-reporting');
   const ordered = Object.keys(METHODS).filter((id) => methodIds.includes(id));
@@ -128,7 +130,9 @@ export function composePack(input: {
     claims: withCommonShareRange(input.sections),
     methods: ordered.map((id) => {
       const info = methodInfo(id);
-      return { name: info.name, text: info.text, source: info.source };
+      // The split of "not supported" names the sizes this pack used (the claims file's or the defaults).
+      const text = id === 'worth-reporting' && view.worthSizes ? `${info.text} ${templates.render('worth-sizes', view)}` : info.text;
+      return { name: info.name, text, source: info.source };
     }),
     glossary,
     reproducibility: [

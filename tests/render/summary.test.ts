@@ -11,6 +11,7 @@ import { execFileSync } from 'node:child_process';
 import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+import Mustache from 'mustache';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 const root = resolve(__dirname, '../..');
@@ -62,7 +63,9 @@ afterAll(() => rmSync(work, { recursive: true, force: true }));
 
 describe('summary page (demo pack, built with the CLI)', () => {
   it('defines every verdict word the pack uses, with the count of claims that got it', () => {
-    const definitions = readFileSync(join(root, 'templates/verdict-definitions.mustache'), 'utf8')
+    // The demo sets no worth_reporting: the definitions name the defaults for the measures its claims use.
+    const worthSizes = '5 points for rates, 0.2 standard deviations for mean scores and a correlation of 0.3 across units';
+    const definitions = Mustache.render(readFileSync(join(root, 'templates/verdict-definitions.mustache'), 'utf8'), { worthSizes })
       .trim()
       .split('\n')
       .map((line) => line.split(' | '));

@@ -1,0 +1,142 @@
+/**
+ * Through the command line: the size of a difference worth reporting (`worth_reporting`, pack-wide and per claim)
+ * decides between "ruled out" and "inconclusive" for the same data, and only that. The demo's claims file is built
+ * as shipped and again with sizes set; results.json of both runs is compared claim by claim.
+ *
+ * Each expected flip is worked by hand from the demo's printed intervals at the level that decided the verdict
+ * (results.json adjustedInterval, the pack's Newcombe, Welch and Fisher-z intervals, checked against R in
+ * tests/stats): a claim is ruled out when that interval excludes the size in the claimed direction.
+ */
+import { spawnSync } from 'node:child_process';
+import { cpSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
+const root = resolve(__dirname, '../..');
+const bin = join(root, 'bin/warrant.js');
+const work = mkdtempSync(join(tmpdir(), 'warrant-worth-'));
+
+interface Claim {
+  id: string;
+  verdict: string;
+  verdictLabel: string;
+  verdictDetail: string | null;
+  worthReporting: { value: number; basis: string; standardized?: number } | null;
+  adjustedInterval: { lower: number; upper: number; level: number } | null;
+  interval: { lower: number; upper: number } | null;
+  advice: { action: string; reason: string };
+  p: number | null;
+  pAdjusted: number | null;
+}
+interface Results {
+  settings: { worthReporting: { rates: number; meanScores: number; correlations: number; fromClaimsFile: string[] } };
+  claims: Claim[];
+}
+
+/** Insert `line` as the first key after a claim's id line. */
+function onClaim(yaml: string, id: string, line: string): string {
+  const at = yaml.indexOf(`  - id: ${id}\n`);
+  expect(at, id).toBeGreaterThanOrEqual(0);
+  const end = yaml.indexOf('\n', at) + 1;
+  return `${yaml.slice(0, end)}    ${line}\n${yaml.slice(end)}`;
+}
+
+function build(name: string, yaml: string): { results: Results; text: string } {
+  const dir = join(work, name);
+  cpSync(join(root, 'demo/data'), join(dir, 'data'), { recursive: true });
+  writeFileSync(join(dir, 'claims.yaml'), yaml);
+  const run = spawnSync(process.execPath, [bin, 'build', join(dir, 'claims.yaml'), '--out', join(dir, 'out'), '--json'], { encoding: 'utf8', cwd: dir });
+  expect(run.status, run.stderr).toBe(0);
+  const folder = (JSON.parse(run.stdout) as { folder: string }).folder;
+  const text = spawnSync('pdftotext', ['-enc', 'UTF-8', join(folder, 'pack.pdf'), '-'], { encoding: 'utf8' }).stdout.replace(/\s+/g, ' ');
+  return { results: JSON.parse(readFileSync(join(folder, 'results.json'), 'utf8')) as Results, text };
+}
+
+const shipped = readFileSync(join(root, 'demo/claims.yaml'), 'utf8');
+let before: { results: Results; text: string };
+let after: { results: Results; text: string };
+const claimOf = (r: { results: Results }, id: string): Claim => r.results.claims.find((c) => c.id === id) as Claim;
+
+beforeAll(() => {
+  before = build('shipped', shipped);
+  // Pack-wide: 30 points for rates, 0.1 SD for mean scores, r = 0.8 for correlations. Per claim: 5 points on the
+  // campuses gap (over the linked 6-point margin), 0.35 SD on the mean-score claim (over the file's 0.1).
+  let yaml = shipped.replace('\nmin_respondents: 10\n', '\nmin_respondents: 10\nworth_reporting: { rates: 30 points, mean_scores: 0.1, correlations: 0.8 }\n');
+  expect(yaml).not.toBe(shipped);
+  yaml = onClaim(yaml, 'campuses-reach-staff-differently', 'worth_reporting: 5 points');
+  yaml = onClaim(yaml, 'part-time-challenge-scores', 'worth_reporting: 0.35 SD');
+  after = build('sized', yaml);
+}, 240_000);
+
+afterAll(() => rmSync(work, { recursive: true, force: true }));
+
+describe('worth_reporting through the CLI', () => {
+  it('records the pack-wide sizes in results.json: the defaults as shipped, the claims file its own when set', () => {
+    expect(before.results.settings.worthReporting).toEqual({ rates: 0.05, meanScores: 0.2, correlations: 0.3, fromClaimsFile: [] });
+    expect(after.results.settings.worthReporting).toEqual({ rates: 0.3, meanScores: 0.1, correlations: 0.8, fromClaimsFile: ['rates', 'meanScores', 'correlations'] });
+  });
+
+  it('a rate gap inconclusive at 5 points is ruled out at 30: the interval reaches past 5 points but not 30', () => {
+    const b = claimOf(before, 'ceramics-clearer-than-music');
+    const a = claimOf(after, 'ceramics-clearer-than-music');
+    expect(b.adjustedInterval!.upper).toBeGreaterThan(0.05);
+    expect(b.adjustedInterval!.upper).toBeLessThan(0.3);
+    expect([b.verdictDetail, b.worthReporting]).toEqual(['inconclusive', { value: 0.05, basis: 'default' }]);
+    expect([a.verdictDetail, a.worthReporting]).toEqual(['ruled-out', { value: 0.3, basis: 'file' }]);
+    expect(a.advice.action).toBe('reword');
+    expect(a.advice.reason).toContain("excludes 30.0 points in the claimed direction (the claims file's size worth reporting for rates)");
+  });
+
+  it('the campuses gap ruled out by the linked 6-point margin is inconclusive at 5 points set on the claim', () => {
+    const b = claimOf(before, 'campuses-reach-staff-differently');
+    const a = claimOf(after, 'campuses-reach-staff-differently');
+    // Two-sided: ruled out needs the whole interval inside ±size; its lower end lies between −6 and −5 points.
+    expect(b.adjustedInterval!.lower).toBeGreaterThan(-0.06);
+    expect(b.adjustedInterval!.lower).toBeLessThan(-0.05);
+    expect([b.verdictDetail, b.worthReporting]).toEqual(['ruled-out', { value: 0.06, basis: 'linked-margin' }]);
+    expect([a.verdictDetail, a.worthReporting]).toEqual(['inconclusive', { value: 0.05, basis: 'claim' }]);
+    expect(a.advice.action).toBe('drop');
+    expect(a.advice.reason).toContain('holds both no difference and 5.0 points (the size worth reporting set by the claim)');
+  });
+
+  it('mean scores: 0.2 SD (default) inconclusive, 0.35 SD set on the claim ruled out; the size in scale points uses the pooled SD', () => {
+    const b = claimOf(before, 'part-time-challenge-scores');
+    const a = claimOf(after, 'part-time-challenge-scores');
+    // The same pooled standard deviation converts both sizes: value / standardized is the same in both runs.
+    const pooled = b.worthReporting!.value / 0.2;
+    expect(b.worthReporting).toEqual({ value: expect.closeTo(0.2 * pooled, 12), basis: 'default', standardized: 0.2 });
+    expect(a.worthReporting).toEqual({ value: expect.closeTo(0.35 * pooled, 12), basis: 'claim', standardized: 0.35 });
+    // Claimed lower: ruled out when the interval's lower end lies above −size.
+    expect(b.adjustedInterval!.lower).toBeLessThan(-0.2 * pooled);
+    expect(b.adjustedInterval!.lower).toBeGreaterThan(-0.35 * pooled);
+    expect(b.verdictDetail).toBe('inconclusive');
+    expect(a.verdictDetail).toBe('ruled-out');
+    expect(a.advice.reason).toContain('(the size worth reporting set by the claim: 0.35 standard deviations)');
+  });
+
+  it('a correlation inconclusive at r = 0.3 is ruled out at r = 0.8', () => {
+    const b = claimOf(before, 'challenge-goes-with-arrangements');
+    const a = claimOf(after, 'challenge-goes-with-arrangements');
+    expect(b.adjustedInterval!.upper).toBeGreaterThan(0.3);
+    expect(b.adjustedInterval!.upper).toBeLessThan(0.8);
+    expect([b.verdictDetail, a.verdictDetail]).toEqual(['inconclusive', 'ruled-out']);
+    expect(a.worthReporting).toEqual({ value: 0.8, basis: 'file' });
+  });
+
+  it('changes nothing else: the same verdicts, p-values and intervals for every claim', () => {
+    for (const b of before.results.claims) {
+      const a = claimOf(after, b.id);
+      expect([a.verdict, a.p, a.pAdjusted, a.interval, a.adjustedInterval], b.id).toEqual([b.verdict, b.p, b.pAdjusted, b.interval, b.adjustedInterval]);
+    }
+  });
+
+  it('states the sizes used in the verdict definitions and the method notes', () => {
+    const shippedSizes = 'Worth reporting: 5 points for rates, 0.2 standard deviations for mean scores and a correlation of 0.3 across units, unless the claim\'s page names another size.';
+    expect(before.text).toContain(shippedSizes);
+    expect(after.text).toContain(
+      "Worth reporting: 30 points for rates, 0.1 standard deviations for mean scores and a correlation of 0.8 across units (set in the claims file), unless the claim's page names another size.",
+    );
+    expect(after.text).toContain('In this pack, a difference worth reporting is 30 points for rates, 0.1 standard deviations for mean scores and a correlation of 0.8 across units (set in the claims file)');
+  });
+});
