@@ -246,7 +246,9 @@ def main():
         r = {'id': claim['id'], 'kind': claim['kind'], 'expect': claim['expect']}
         if claim['kind'] == 'compare':
             n1, a1 = pool(records, where, claim['focus'])
-            n2, a2 = pool(records, where, claim['against'], exclude=claim['focus'])
+            # against: rest is everyone within where outside the focus.
+            against = {} if claim['against'] == 'rest' else claim['against']
+            n2, a2 = pool(records, where, against, exclude=claim['focus'])
             r['detail'] = f'{a1}/{n1} vs {a2}/{n2}'
             if min(n1, n2) < minimum:
                 r['tested'] = False
@@ -259,14 +261,15 @@ def main():
                 r['p'] = 2 * normal_upper(abs(z)) if sided == 'two-sided' else \
                     normal_upper(-z if claim['expect'] == 'lower' else z)
         else:
-            units = claim['units']
+            # A unit is one value of a column, or a combination of values of several columns.
+            units = claim['units'] if isinstance(claim['units'], list) else [claim['units']]
             rates = {}
             for axis in ('x', 'y'):
                 cells = defaultdict(lambda: [0, 0])
                 for rec in records:
                     if matches(rec, where) and matches(rec, claim[axis]):
-                        cells[rec[units]][0] += rec['_n']
-                        cells[rec[units]][1] += rec['_agree']
+                        cells[tuple(rec[u] for u in units)][0] += rec['_n']
+                        cells[tuple(rec[u] for u in units)][1] += rec['_agree']
                 rates[axis] = cells
             keep = sorted(u for u in rates['x'] if u in rates['y']
                           and rates['x'][u][0] >= minimum and rates['y'][u][0] >= minimum)

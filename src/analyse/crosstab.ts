@@ -40,7 +40,7 @@ export interface CrosstabOptions {
 }
 
 export function analyseCrosstab(claim: CrosstabClaim, cube: Cube, ctx: CompareContext, options: CrosstabOptions = {}): CrosstabAnalysis {
-  const byRow = cellsByUnit(cube, claim.where, claim.rows);
+  const byRow = periodOrder(cellsByUnit(cube, claim.where, claim.rows), claim);
   const agreement = claim.columns === 'agreement';
   const answers = claim.columns === 'answers' ? answerColumns(claim, cube, ctx) : undefined;
   const splitBy = Array.isArray(claim.columns) ? claim.columns : undefined;
@@ -137,6 +137,16 @@ export function analyseCrosstab(claim: CrosstabClaim, cube: Cube, ctx: CompareCo
     ...(fisherTooLarge ? { fisherTooLarge } : {}),
     methods: [...(method === chi.method ? [chi.method] : [method, chi.method]), 'power-chi-square'],
   };
+}
+
+/**
+ * Rows that are the source's periods go in time order (2025 before 2026), whatever order the file holds them in, so
+ * the table reads forward and a table of two periods names the later one. Other rows keep the file's order.
+ */
+function periodOrder<T>(byRow: Map<string, T>, claim: CrosstabClaim): Map<string, T> {
+  const rows = [claim.rows].flat();
+  if (rows.length !== 1 || claim.naming?.period === undefined || rows[0] !== claim.naming.period) return byRow;
+  return new Map([...byRow].sort(([x], [y]) => x.localeCompare(y, 'en', { numeric: true })));
 }
 
 /** The answer scale when none is written: the five points of the usual agreement scale. */

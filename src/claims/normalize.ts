@@ -101,6 +101,7 @@ export function normalize(parsed: ParsedYaml, absPath: string, sha256: string, l
     if (Array.isArray(s.numeric)) spec.numeric = [...(s.numeric as string[])];
     if (typeof s.header_row === 'number') spec.headerRow = s.header_row;
     if (s.wording !== null && typeof s.wording === 'object') spec.wording = Object.fromEntries(Object.entries(s.wording as Record<string, unknown>).map(([k, v]) => [k.trim(), String(v).trim()]));
+    if (s.answer_wording !== null && typeof s.answer_wording === 'object') spec.answerWording = Object.fromEntries(Object.entries(s.answer_wording as Record<string, unknown>).map(([k, v]) => [String(Number(k.trim())), String(v).trim()]));
     if (s.header_rows === 1 || s.header_rows === 2) spec.headerRows = s.header_rows;
     if (typeof s.last_row === 'number') spec.lastRow = s.last_row;
     if (Array.isArray(s.suppressed)) spec.suppressed = (s.suppressed as unknown[]).map(String);
@@ -136,6 +137,7 @@ export function normalize(parsed: ParsedYaml, absPath: string, sha256: string, l
         ...(src.period !== undefined ? { period: src.period } : {}),
         ...(src.shape === 'respondents' ? { question: src.questionColumn } : {}),
         ...(src.wording !== undefined ? { wording: src.wording } : {}),
+        ...(src.answerWording !== undefined ? { answers: src.answerWording } : {}),
       };
     }
     const fpc = c.finite_population_correction ?? data.finite_population_correction;

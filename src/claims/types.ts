@@ -46,6 +46,8 @@ export interface Naming {
   period?: string;
   question?: string;
   wording?: Record<string, string>;
+  /** Answer code -> its wording (the source's `answer_wording`). */
+  answers?: Record<string, string>;
 }
 
 /** Where something was written in the claims file (1-based), for error messages and the pack. */
@@ -106,6 +108,8 @@ export interface SourceSpec {
   suppressed?: string[];
   /** Question code -> its wording, as the pack should say it (`wording` in the claims file). */
   wording?: Record<string, string>;
+  /** respondents: answer code -> its wording (`answer_wording`), used where answers are named (crosstab of answers). */
+  answerWording?: Record<string, string>;
   place: Place;
 }
 

@@ -46,8 +46,8 @@ describe('crosstab: chi-square, Fisher and residuals against R', () => {
     const d = decide(a, a.test?.p);
     expect(d.verdict).toBe('supported');
     const words = composeClaim(a, d, { templates: new Templates(), claimsTested: 1, adjustName: 'no adjustment', adjusted: false, minRespondents: 10, periodColumns: [] });
-    expect(words.section.verdictText).toMatch(/Campus A has more agreeing than independence would give/);
-    expect(words.section.verdictText).toMatch(/Campus B has fewer agreeing/);
+    expect(words.section.verdictText).toMatch(/Campus A has more respondents agreeing than independence would give/);
+    expect(words.section.verdictText).toMatch(/Campus B has fewer respondents agreeing/);
     expect(words.section.cautions.join(' ')).toMatch(/Campus D/);
     expect(JSON.stringify(words)).not.toMatch(/\b3 agreeing|\b7 respondents/);
     expect(words.section.chart?.data.kind).toBe('stacked');

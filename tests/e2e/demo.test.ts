@@ -180,12 +180,13 @@ describe('rerun on a new release', () => {
     // Both data files are new releases; the claims file is the same, so no claim counts as edited.
     expect(d?.data.map((x) => x.id).sort()).toEqual(['lanternfield', 'pulse']);
     expect(d?.edited).toEqual([]);
-    // The same claims, run on the 2025 release, give these verdicts; on 2026 these four change (invented data).
+    // The same claims, run on the 2025 release, give these verdicts; on 2026 these five change (invented data).
     const changed = Object.fromEntries((d?.verdicts ?? []).map((v) => [v.id, `${v.before} -> ${v.after} (${v.reasons.join(', ')})`]));
     expect(changed).toEqual({
       'wellbeing-up-this-year': 'not-supported -> supported (new data)',
       'library-fell': 'not-supported -> opposite (new data)',
       'arrangements-by-campus': 'supported -> not-supported (new data)',
+      'library-answers-shifted': 'not-supported -> supported (new data)',
       'campuses-equally-reachable': 'not-supported -> supported (new data)',
     });
     // The PDF's document ID follows the content, so two different packs never share one.

@@ -38,6 +38,7 @@ sources:
     wording:
       Q01: Teaching staff explain things clearly
       Q02: My timetable works well for me
+    answer_wording: { 1: Strongly disagree, 4: Agree, 5: Strongly agree }
 claims:
 `;
 
@@ -181,7 +182,10 @@ describe('the spread of answers to one question', () => {
       expect(text).toContain(`${row} ${counts.map((k, j) => `${j + 1}: ${k}`).join(', ')}`);
     });
     expect(text).toContain(`left out: ${R.answers_by_campus.not_applicable} answers of "not applicable" and ${R.answers_by_campus.blank} blank answers`);
-    expect(text).toContain('The answer to “My timetable works well for me” (Q02) is spread the same way in every campus');
+    expect(text).toContain('Campus by the answer to “My timetable works well for me” (Q02): 3 campuses');
+    expect(text).toContain('The answer to Q02 is spread the same way in every campus');
+    // The source's answer_wording is shown beside the codes it names.
+    expect(text).toContain('codes 1, 2, 3, 4, 5, number answering each (1 Strongly disagree, 4 Agree, 5 Strongly agree)');
   });
 
   it('year by answer code: the spread changed between the two years, as R chisq.test finds', () => {
@@ -189,6 +193,31 @@ describe('the spread of answers to one question', () => {
     expectClose(c.statistic.value, R.answers_by_year.statistic, 'statistic', 'R chisq.test statistic');
     expectClose(c.p, R.answers_by_year.p, 'p', 'R chisq.test p-value');
     expect(c.verdict).toBe('supported');
+  });
+
+  it('names the cells beyond ±1.96 as R chisq.test()$stdres does, as answers with their wording, the later year first', () => {
+    const c = claim('answers-by-year');
+    const [first, later] = R.answers_by_year.rows as string[];
+    const res = (R.answers_by_year.stdres as number[][])[1] as number[];
+    const codes = R.answers_by_year.codes as string[];
+    const words: Record<string, string> = { '1': 'strongly disagree', '4': 'agree', '5': 'strongly agree' };
+    const named = (pick: (r: number) => boolean) =>
+      codes.filter((_, j) => pick(res[j] as number)).map((k) => (words[k] ? `${k} (${words[k]})` : k));
+    const list = (xs: string[]) => (xs.length > 1 ? `${xs.slice(0, -1).join(', ')} and ${xs.at(-1)}` : xs[0]);
+    const more = named((r) => r > 1.96);
+    const fewer = named((r) => r < -1.96);
+    expect(more.length + fewer.length).toBeGreaterThan(0);
+    const what = more.length > 0 && fewer.length > 0 ? `more answers of ${list(more)}, and fewer of ${list(fewer)},` : more.length > 0 ? `more answers of ${list(more)}` : `fewer answers of ${list(fewer)}`;
+    const sentence = `${later} has ${what} than independence would give, and ${first} the reverse`;
+    expect(c.verdictText).toContain(sentence);
+    expect(text).toContain(sentence);
+    expect(text).not.toMatch(/has (more|fewer) \d/);
+    // results.json keeps every cell with its residual, both rows.
+    for (const cell of c.notableCells as Array<{ row: string; column: string; residual: number }>) {
+      const i = (R.answers_by_year.rows as string[]).indexOf(cell.row);
+      expectClose(cell.residual, (R.answers_by_year.stdres as number[][])[i]![codes.indexOf(cell.column)] as number, 'statistic', 'R chisq.test stdres');
+    }
+    expect(c.notableCells).toHaveLength(2 * (more.length + fewer.length));
   });
 });
 
@@ -207,7 +236,7 @@ describe('everyone else as the comparison group', () => {
 
 describe('question wording', () => {
   it('speaks in the wording with the code beside it, and names the group, then the question, then the period', () => {
-    expect(text).toContain('the answer to “My timetable works well for me” (Q02) is spread the same way in every campus'.replace(/^t/, 'T'));
+    expect(text).toContain('the differences in the answer to “My timetable works well for me” (Q02) between campuses');
     // The comparison: the group, the question in its wording with its code, then the period, in a sentence.
     expect(text).toContain('Harrowfen (379 respondents) against the rest of the college (362 respondents), for “Teaching staff explain things clearly” (Q01) in 2026.');
     // Never a label gluing the period and the code into the group's name.

@@ -22,15 +22,15 @@ export function composeCrosstab(a: CrosstabAnalysis, decision: Decision, ctx: Co
   const rowsName = [claim.rows].flat().join(', ');
   const rowWords = unitWords(claim.rows);
   const columnsName = a.answers !== undefined ? `the answer to ${questionWords(a.answers.question, claim.naming)}` : Array.isArray(claim.columns) ? claim.columns.join(', ') : claim.columns;
-  const labels = { rowsName, columnsName, rowsOne: rowWords.unitName, rowsPlural: rowWords.unitsName };
+  // The hypotheses name the question by its code; what was compared has it in its wording.
+  const columnsShort = a.answers !== undefined ? `the answer to ${a.answers.question}` : columnsName;
+  const labels = { rowsName, columnsName, columnsShort, rowsOne: rowWords.unitName, rowsPlural: rowWords.unitsName };
   const hypotheses = { null: t.render('crosstab.null', labels), alternative: t.render('crosstab.alternative', labels) };
   if (a.status === 'too-little-data' || !a.test) {
     return tooLittle(a, ctx, `${rowsName} by ${columnsName}${scopeText(claim.where, claim.naming) ? `, for ${scopeText(claim.where, claim.naming)}` : ''}.`, hypotheses);
   }
   const total = a.counts.reduce((s, r) => s + r.reduce((u, v) => u + v, 0), 0);
-  const notableText = a.notable
-    .map((c) => t.render(c.residual > 0 ? 'crosstab.cell-more' : 'crosstab.cell-fewer', { row: c.row, column: c.column }))
-    .join('; ');
+  const notableText = notableCells(a, columnsName, t);
   const testName = TEST_NAMES[a.test.method] ?? a.test.method;
   const view: View = {
     ...labels,
@@ -39,7 +39,7 @@ export function composeCrosstab(a: CrosstabAnalysis, decision: Decision, ctx: Co
     // With the answers to one question as the columns, the question is named there, not again in the scope.
     scope: scopeText(a.answers !== undefined && claim.naming?.question !== undefined ? Object.fromEntries(Object.entries(claim.where).filter(([k]) => k !== claim.naming?.question)) : claim.where, claim.naming),
     v: fmt.coefficient(a.cramersV ?? NaN),
-    notableText: notableText ? `${notableText.charAt(0).toUpperCase()}${notableText.slice(1)}.` : '',
+    notableText,
     cutoff: fmt.plain(a.residualCutoff ?? 1.96, 2),
     detectable: a.detectable !== undefined ? fmt.coefficient(a.detectable) : '',
     testName,
@@ -49,7 +49,7 @@ export function composeCrosstab(a: CrosstabAnalysis, decision: Decision, ctx: Co
     ...pView(decision, ctx),
   };
   const numbers: NumberRow[] = [
-    ...(a.answers !== undefined ? [{ label: `Answers to ${a.answers.question}`, value: `codes ${a.columnLabels.join(', ')}, number answering each` }] : []),
+    ...(a.answers !== undefined ? [{ label: `Answers to ${a.answers.question}`, value: `codes ${a.columnLabels.join(', ')}, number answering each${answerKey(a.columnLabels, claim.naming?.answers)}` }] : []),
     ...a.rowLabels.map((row, i) => ({
       label: row,
       value: a.columnLabels.map((col, j) => `${a.answers !== undefined ? `${col}:` : col} ${fmt.count((a.counts[i] as number[])[j] as number)}`).join(', '),
@@ -62,7 +62,7 @@ export function composeCrosstab(a: CrosstabAnalysis, decision: Decision, ctx: Co
     { label: 'Smallest expected count', value: fmt.plain(a.minExpected ?? NaN, 1) },
     {
       label: `Cells beyond ±${view.cutoff as string} (adjusted residual)`,
-      value: a.notable.length > 0 ? a.notable.map((c) => `${c.row}, ${c.column}: ${fmt.statistic(c.residual)}`).join('; ') : 'none',
+      value: notableValue(a),
     },
     ...(a.detectable !== undefined ? [{ label: detectableLabel("Cramér's V", decision), value: `about ${view.detectable as string}` }] : []),
   ];
@@ -98,6 +98,81 @@ export function composeCrosstab(a: CrosstabAnalysis, decision: Decision, ctx: Co
     },
     key: t.render('crosstab.key', view),
   };
+}
+
+/** The wording of the answer codes shown, when the source gives it: " (1 strongly disagree, 5 strongly agree)". */
+function answerKey(codes: string[], words?: Record<string, string>): string {
+  const named = codes.flatMap((c) => (words?.[c] !== undefined ? [`${c} ${words[c] as string}`] : []));
+  return named.length > 0 ? ` (${named.join(', ')})` : '';
+}
+
+/**
+ * The cells beyond the cutoff with their adjusted residuals ("2026, 4: 3.76; 2026, 3: −4.38"). In a table of two rows
+ * the other row's residuals are the same with the opposite sign, so only the second row (named in the verdict) is listed.
+ */
+function notableValue(a: CrosstabAnalysis): string {
+  if (a.notable.length === 0) return 'none';
+  const two = a.rowLabels.length === 2 ? a.rowLabels[1]! : undefined;
+  const rows = two !== undefined ? [two] : [...new Set(a.notable.map((c) => c.row))];
+  const sign = (x: number): string => (x > 0 ? `+${fmt.statistic(x)}` : fmt.statistic(x));
+  const text = rows
+    .map((row) => {
+      const cells = a.notable.filter((c) => c.row === row).sort((x, y) => a.columnLabels.indexOf(x.column) - a.columnLabels.indexOf(y.column));
+      return `${row}: ${cells.map((c) => `${c.column} ${sign(c.residual)}`).join(', ')}`;
+    })
+    .join('; ');
+  const other = two !== undefined ? a.rowLabels.find((r) => r !== two) : undefined;
+  return other !== undefined ? `${text}; ${other}: the same with opposite signs` : text;
+}
+
+/** A list for people: "a", "a and b", "a, b and c". */
+function list(items: string[]): string {
+  return items.length <= 1 ? (items[0] ?? '') : `${items.slice(0, -1).join(', ')} and ${items[items.length - 1]}`;
+}
+
+/**
+ * The cells beyond the residual cutoff, one clause per row, naming the columns as a reader would: "2026 has more
+ * answers of 4 (agree) and 5 (strongly agree), and fewer of 1 (strongly disagree), than independence would give".
+ * Answers are named by their code with the source's answer wording beside it; agreement columns as respondents
+ * agreeing; other columns by their value. In a table of two rows each cell mirrors the other row's, so only the row
+ * is named (the later period, when the rows are periods), with the other said to be the reverse.
+ */
+export function notableCells(a: CrosstabAnalysis, columnsName: string, t: ComposeContext['templates']): string {
+  if (a.notable.length === 0) return '';
+  const words = a.claim.naming?.answers;
+  const kind: 'answers' | 'agreement' | 'other' = a.answers !== undefined ? 'answers' : a.claim.columns === 'agreement' ? 'agreement' : 'other';
+  const name = (col: string): string => {
+    if (kind === 'answers') {
+      const w = words?.[col];
+      return w !== undefined ? `${col} (${w.charAt(0).toLowerCase()}${w.slice(1)})` : col;
+    }
+    return col;
+  };
+  const phrase = (cols: string[], first: boolean): string => {
+    const named = list(cols.map(name));
+    if (kind === 'answers') return first ? `answers of ${named}` : `of ${named}`;
+    if (kind === 'agreement') return `respondents ${named}`;
+    return first ? `respondents with ${columnsName} ${named}` : `with ${named}`;
+  };
+  const two = a.rowLabels.length === 2;
+  // Of two rows, the second is named (for periods, the later one).
+  const rows = two ? [a.rowLabels[1]!] : [...new Set(a.notable.map((c) => c.row))];
+  return rows
+    .map((row) => {
+      // Columns in the table's order (the scale's order for answers), not by the size of the residual.
+      const cells = a.notable.filter((c) => c.row === row).sort((x, y) => a.columnLabels.indexOf(x.column) - a.columnLabels.indexOf(y.column));
+      const more = cells.filter((c) => c.residual > 0).map((c) => c.column);
+      const fewer = cells.filter((c) => c.residual < 0).map((c) => c.column);
+      const what =
+        more.length > 0 && fewer.length > 0
+          ? `more ${phrase(more, true)}, and fewer ${phrase(fewer, false)},`
+          : more.length > 0
+            ? `more ${phrase(more, true)}`
+            : `fewer ${phrase(fewer, true)}`;
+      const other = two ? a.rowLabels.find((r) => r !== row) : undefined;
+      return t.render('crosstab.cells', { row, what, reverse: other ?? '' });
+    })
+    .join('; ');
 }
 
 /**
