@@ -16,6 +16,7 @@
  */
 import { isDeepStrictEqual } from 'node:util';
 import { faceFor, textWidth } from './fonts.js';
+import { recordScene, type ChartDrawing } from './chart-pdf.js';
 
 type VegaModule = typeof import('vega');
 type VegaLiteModule = typeof import('vega-lite');
@@ -327,13 +328,43 @@ async function runtimeSpecOf(spec: object): Promise<object> {
   return own;
 }
 
-/** Draw a Vega-Lite spec headless (no canvas) as an SVG string. */
+/** Drawings of the charts drawn lately, by their SVG: the PDF draws a chart from its scene rather than its SVG. */
+const DRAWINGS_KEPT = 512;
+const drawings = new Map<string, ChartDrawing>();
+
+/** The chart drawn as this SVG, as paint operations for the PDF (undefined when it must be drawn from the SVG). */
+export function chartDrawing(svg: string): ChartDrawing | undefined {
+  return drawings.get(svg);
+}
+
+/**
+ * Draw a Vega-Lite spec headless (no canvas) as an SVG string, and record the same scene as paint operations for the
+ * PDF (chartDrawing).
+ */
 export async function specSvg(spec: object): Promise<string> {
   const { vega } = await loadChartLibs();
   const runtime = await runtimeSpecOf(spec);
   const view = new vega.View(runtime as ReturnType<VegaModule['parse']>, { renderer: 'none' });
   try {
-    return await view.toSVG();
+    const svg = await view.toSVG();
+    const root = /<svg\b[^>]*>/.exec(svg)?.[0] ?? '';
+    const width = Number(/\swidth="([\d.]+)"/.exec(root)?.[1]);
+    const height = Number(/\sheight="([\d.]+)"/.exec(root)?.[1]);
+    const padding = view.padding() as { left: number; top: number };
+    const origin = view.origin();
+    const drawing =
+      width > 0 && height > 0
+        ? recordScene(
+            (vega as unknown as { Marks: Parameters<typeof recordScene>[0] }).Marks,
+            (view.scenegraph() as unknown as { root: unknown }).root as Parameters<typeof recordScene>[1],
+            { width, height, origin: [padding.left + origin[0], padding.top + origin[1]], background: view.background() as string | null },
+          )
+        : undefined;
+    if (drawing && !drawings.has(svg)) {
+      if (drawings.size >= DRAWINGS_KEPT) drawings.delete(drawings.keys().next().value as string);
+      drawings.set(svg, drawing);
+    }
+    return svg;
   } finally {
     view.finalize();
   }

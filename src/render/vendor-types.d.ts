@@ -47,6 +47,8 @@ declare namespace PDFKit {
     characterSpacing?: number;
     destination?: string;
     goTo?: string;
+    /** Where y is: 'alphabetic' puts the baseline there (the default is the top of the line). */
+    baseline?: 'alphabetic' | 'top' | 'middle' | 'bottom' | 'hanging' | 'ideographic' | number;
   }
   interface StructureElement {
     add(child: StructureElement | (() => void)): StructureElement;
@@ -94,9 +96,17 @@ declare namespace PDFKit {
     registerFont(name: string, src: string | Buffer): this;
     font(name: string): this;
     fontSize(size: number): this;
-    fillColor(color: string, opacity?: number): this;
-    strokeColor(color: string, opacity?: number): this;
+    fillColor(color: string | [number, number, number], opacity?: number): this;
+    strokeColor(color: string | [number, number, number], opacity?: number): this;
     lineWidth(w: number): this;
+    lineCap(cap: string): this;
+    lineJoin(join: string): this;
+    miterLimit(m: number): this;
+    bezierCurveTo(cp1x: number, cp1y: number, cp2x: number, cp2y: number, x: number, y: number): this;
+    transform(a: number, b: number, c: number, d: number, e: number, f: number): this;
+    translate(x: number, y: number): this;
+    scale(s: number): this;
+    clip(rule?: string): this;
     text(text: string, x?: number, y?: number, options?: TextOptions): this;
     widthOfString(text: string, options?: TextOptions): number;
     heightOfString(text: string, options?: TextOptions): number;
@@ -115,7 +125,7 @@ declare namespace PDFKit {
     fill(color?: string): this;
     stroke(color?: string): this;
     fillAndStroke(fill?: string, stroke?: string): this;
-    dash(length: number, options?: { space?: number; phase?: number }): this;
+    dash(length: number | number[], options?: { space?: number; phase?: number }): this;
     undash(): this;
     save(): this;
     restore(): this;

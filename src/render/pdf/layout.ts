@@ -3,6 +3,8 @@
  * and the general blocks (headings, paragraphs, ruled boxes, bulleted lists, figures, space).
  */
 import SVGtoPDF from 'svg-to-pdfkit';
+import { drawChart } from '../chart-pdf.js';
+import { chartDrawing } from '../chart-runtime.js';
 import { FONT_NAME, type Face } from '../fonts.js';
 import {
   COLOR, CONTENT_BOTTOM, CONTENT_WIDTH, CONTINUATION_HEIGHT, LINE_GAP, MARGIN, SPACED_CAPS, PARA_GAP, SIZE, SLACK, svgSize,
@@ -252,6 +254,8 @@ export class Layout {
         const x = MARGIN.left + (CONTENT_WIDTH - w) / 2;
         parent.add(
           this.doc.struct('Figure', { alt, bbox: [x, top, x + w, top + h], placement: 'Block' }, () => {
+            const drawing = chartDrawing(svg);
+            if (drawing) return drawChart(this.doc, drawing, x, top, scale);
             SVGtoPDF(this.doc, svg, x, top, {
               width: w,
               height: h,
