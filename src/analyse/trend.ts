@@ -4,8 +4,10 @@
  * Test: the Cochran–Armitage test for a linear trend in proportions (Cochran 1954, Biometrics 10, 417–451; Armitage
  * 1955, Biometrics 11, 375–386), with the periods scored 0, 1, ..., k − 1 in order, so that the slope of its weighted
  * least-squares line is the fitted change in the rate per period. Two-sided claims use z² against chi-square(1), as
- * R's prop.trend.test; a one-sided claim uses the normal tail of the signed z in its direction. Wilson interval per
- * period (with the finite-population correction where the number eligible is known).
+ * R's prop.trend.test; a one-sided claim uses the normal tail of the signed z in its direction. The fitted change per
+ * period has a two-sided Wald interval at the claim's confidence with the test's own standard error, so it excludes
+ * no change exactly when the two-sided test rejects (src/stats/cochran-armitage.ts). Wilson interval per period
+ * (with the finite-population correction where the number eligible is known).
  *
  * Smallest detectable change per period (80% power), by the normal approximation with the variance of the trend
  * statistic under the null hypothesis (Armitage 1955): the slope estimate b has standard error
@@ -98,7 +100,8 @@ export function analyseTrend(written: TrendClaim, cube: Cube, ctx: CompareContex
       fix: 'remove the claim, or choose a question whose answers vary',
     });
   }
-  const test = cochranArmitage(x, n, { scores, alternative });
+  // The slope's interval is two-sided at the claim's confidence, as every kind's interval is.
+  const test = cochranArmitage(x, n, { scores, alternative, level: claim.confidence });
   const pOpposite = alternative === 'two-sided' ? undefined : cochranArmitage(x, n, { scores, alternative: alternativeFor(claim.expect, claim.sided, true) }).p;
   const fitted = scores.map((s) => test.intercept + test.slope * s);
   // How far the periods stray from that line (overall chi-square minus the trend's, k - 2 df): a rise then a fall.
@@ -118,6 +121,6 @@ export function analyseTrend(written: TrendClaim, cube: Cube, ctx: CompareContex
     detectable,
     ...(withPop.length > 0 ? { responseRate: Math.min(...withPop.map((r) => r.n / (r.population as number))) } : {}),
     ...(fpc !== undefined ? { fpc } : {}),
-    methods: ['cochran-armitage-trend', 'departure-from-trend', 'wilson', 'power-trend'],
+    methods: ['cochran-armitage-trend', 'trend-wald', 'departure-from-trend', 'wilson', 'power-trend'],
   };
 }

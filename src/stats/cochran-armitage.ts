@@ -17,18 +17,28 @@
  * Alternatives: 'two-sided' uses z² against chi-square(1) as R does; 'greater' (rate rises with score) and 'less'
  * (rate falls) use the one-sided normal tail of z.
  *
+ * Interval for the slope (given `level`): the Wald interval slope ± z_{(1+level)/2} · se with the test's own standard
+ * error se = sqrt(p̄ (1 − p̄) / Σ n_i (s_i − s̄)²): the weighted least-squares line above with its weights' scale taken
+ * as known (R: summary(glm(freq ~ score, weights = n / (p̄ (1 − p̄))), dispersion = 1)), so that (slope / se)² is the
+ * test statistic and the two-sided interval excludes 0 exactly when the two-sided test rejects at 1 − level (a
+ * test-based interval, Miettinen 1976, Am J Epidemiol 103, 226–235). It uses the spread at the pooled rate, which is
+ * accurate for the modest changes survey rates show; with rates near 0 or 1 in some periods and far from them in
+ * others, each period's own spread would give a somewhat different width.
+ *
  * @throws Error when fewer than 2 groups, lengths differ, a count is not a whole number with 0 <= x <= n and n > 0,
  *   a score is not finite, all scores are equal, or the pooled rate is 0 or 1 (no variation to test).
  * @example cochranArmitage([83, 90, 129, 70], [86, 93, 136, 82]).statistic.value // 8.2249 (R ?prop.trend.test)
  */
 import { chisqSf } from './distributions/chisq.js';
-import { normalCdf, normalSf } from './distributions/normal.js';
+import { normalCdf, normalSf, normalSfQuantile } from './distributions/normal.js';
 import type { Alternative, TestResult } from './result.js';
 
 export interface TrendOptions {
   /** Score of each group (default 1, 2, ..., k), e.g. the survey years. */
   scores?: readonly number[];
   alternative?: Alternative;
+  /** Confidence level of the two-sided interval for the slope (see above); no interval when absent. */
+  level?: number;
 }
 
 export interface TrendResult extends TestResult {
@@ -42,6 +52,8 @@ export interface TrendResult extends TestResult {
   intercept: number;
   /** Pooled rate over all groups. */
   pooledRate: number;
+  /** Standard error of the slope at the pooled rate (the test's own): slope / se is z. */
+  se: number;
 }
 
 export function cochranArmitage(
@@ -96,6 +108,10 @@ export function cochranArmitage(
   const z = sxy / Math.sqrt(pBar * (1 - pBar) * sxx);
   const chi2 = z * z;
   const p = alternative === 'two-sided' ? chisqSf(chi2, 1) : alternative === 'greater' ? normalSf(z) : normalCdf(z);
+  const level = options.level;
+  if (level !== undefined && !(level > 0 && level < 1)) throw new Error(`cochranArmitage: level ${level} must lie strictly between 0 and 1`);
+  const se = Math.sqrt((pBar * (1 - pBar)) / sxx);
+  const half = level === undefined ? 0 : normalSfQuantile((1 - level) / 2) * se;
   const warnings: string[] = [];
   const smallest = Math.min(...respondents.map((n) => Math.min(n * pBar, n * (1 - pBar))));
   if (smallest < 5) {
@@ -111,11 +127,13 @@ export function cochranArmitage(
     alternative,
     nullValue: 0,
     estimate: { name: 'change in rate per unit of score', value: slope },
+    ...(level !== undefined ? { interval: { lower: slope - half, upper: slope + half, level, method: 'trend-wald' } } : {}),
     n: respondents.slice(),
     warnings,
     z,
     slope,
     intercept: pBar - slope * sBar,
     pooledRate: pBar,
+    se,
   };
 }

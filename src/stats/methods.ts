@@ -178,6 +178,11 @@ export const METHODS: Record<string, MethodInfo> = {
     text: 'Tests whether a rate rises or falls steadily across ordered periods, with the fitted change per period. It looks for a straight-line trend and can miss a rise followed by a fall.',
     source: 'Armitage, P. (1955). Tests for linear trends in proportions and frequencies. Biometrics 11, 375–386.',
   },
+  'trend-wald': {
+    name: 'Interval for the fitted change per period',
+    text: 'The fitted change per period plus or minus a normal quantile times the trend test’s own standard error (the spread of the slope at the pooled rate), so the interval leaves out no change exactly when the two-sided trend test finds one at the same level: the interval and the verdict cannot disagree. With every period’s rate near the pooled rate, as in most surveys, this is the usual Wald interval; with some periods near 0% or 100% and others far from them, each period’s own spread would give a somewhat different width.',
+    source: 'Armitage, P. (1955). Tests for linear trends in proportions and frequencies. Biometrics 11, 375–386; Miettinen, O. S. (1976). Estimability and estimation in case-referent studies. American Journal of Epidemiology 103, 226–235 (test-based interval).',
+  },
   'departure-from-trend': {
     name: 'Chi-square for departure from a straight-line trend',
     text: 'Pearson’s chi-square over the periods minus the trend test’s, on two fewer degrees of freedom than periods: whether the rates stray from the fitted straight line (a rise then a fall) more than chance would explain.',

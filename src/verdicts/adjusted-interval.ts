@@ -19,7 +19,7 @@ export interface Headline {
   unit: HeadlineUnit;
 }
 
-/** The interval a claim's result is reported with, or undefined for kinds without one (crosstab, estimate). */
+/** The interval a claim's result is reported with (trend: the fitted change per period's), or undefined for kinds without one (crosstab, estimate). */
 export function headline(a: Analysis): Headline | undefined {
   if (a.status !== 'tested') return undefined;
   switch (a.kind) {
@@ -33,6 +33,8 @@ export function headline(a: Analysis): Headline | undefined {
       return a.difference ? { interval: a.difference.interval, unit: 'scale points' } : undefined;
     case 'association':
       return a.test?.interval ? { interval: a.test.interval, unit: 'coefficient' } : undefined;
+    case 'trend':
+      return a.test?.interval ? { interval: a.test.interval, unit: 'points' } : undefined;
     default:
       return undefined;
   }

@@ -17,8 +17,8 @@
  * (Cohen's "small" d) for mean scores, a correlation of 0.3 (Cohen's "medium" r) across units. The smallest
  * detectable difference is not used: it shrinks with the same standard error as the interval, so comparing the two
  * would decide the split by the sample size alone. The method notes say so ("worth-reporting" in
- * src/stats/methods.ts). Crosstab and trend claims have no interval for their effect, so their "not supported" is not
- * split.
+ * src/stats/methods.ts). Crosstab claims have no interval for their effect, and trend claims (whose fitted change per
+ * period has one) no size worth reporting per period, so their "not supported" is not split.
  *
  * The advice follows from the verdict: supported -> quote as written; estimate -> quote with its interval; points
  * the other way -> must not make; ruled out or too small -> reword to what the interval supports (a suggested

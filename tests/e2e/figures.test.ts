@@ -4,6 +4,10 @@
  * outside the project), each numbers table is parsed as labelled rows (tests/helpers/pdf-figures.ts), and every
  * number in a row's label or value is looked up in that claim's results.json entry at the precision it was printed
  * with: nothing printed that the JSON lacks.
+ *
+ * The same build checks the trend claim's fitted change per period and its interval (results.json and the numbers
+ * table) against R 4.2.2 (tests/fixtures/r/trend-slope.R: prop.trend.test's weighted least-squares slope with its
+ * standard error at known dispersion, summary(glm(...), dispersion = 1)).
  */
 import { execFileSync, spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
@@ -11,10 +15,13 @@ import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { checkFigures, figureIn, numbersTables, rowFigures, tableRows } from '../helpers/pdf-figures.js';
+import { expectClose } from '../helpers/tolerance.js';
 
 const root = resolve(__dirname, '../..');
 const work = mkdtempSync(join(tmpdir(), 'warrant-figures-'));
 let layout: string;
+/** The PDF's text in reading order (no -layout), white space folded: for sentences that wrap inside a cell. */
+let flat: string;
 let results: { settings: Record<string, unknown>; claims: Array<Record<string, any> & { id: string }> };
 
 beforeAll(() => {
@@ -24,6 +31,7 @@ beforeAll(() => {
   const folder = (JSON.parse(run.stdout) as { folder: string }).folder;
   results = JSON.parse(readFileSync(join(folder, 'results.json'), 'utf8'));
   layout = execFileSync('pdftotext', ['-enc', 'UTF-8', '-layout', join(folder, 'pack.pdf'), '-'], { encoding: 'utf8' });
+  flat = execFileSync('pdftotext', ['-enc', 'UTF-8', join(folder, 'pack.pdf'), '-'], { encoding: 'utf8' }).replace(/\s+/g, ' ');
 }, 180_000);
 
 afterAll(() => rmSync(work, { recursive: true, force: true }));
@@ -57,6 +65,41 @@ describe('every figure in a numbers table is in results.json', () => {
     }
     const noCount = { ...results, settings: { ...results.settings, claimsTested: undefined } };
     expect(checkFigures(layout, noCount).figures.filter((f) => !f.found && f.text === String(results.settings.claimsTested)).length).toBeGreaterThan(10);
+  });
+});
+
+describe('the trend claim: fitted change per period with its interval', () => {
+  const R = JSON.parse(readFileSync(join(root, 'tests/fixtures/r/trend-slope.json'), 'utf8')) as {
+    cases: Array<{ name: string; x: number[]; n: number[]; level: number; slope: number; lower: number; upper: number }>;
+  };
+  const own = R.cases.find((c) => c.name === 'demo feedback-trend')!;
+  const adjusted = R.cases.find((c) => c.name === 'demo feedback-trend adjusted')!;
+
+  it('gives the slope and its interval in results.json as R computes them, unadjusted and at the adjusted level', () => {
+    const c = results.claims.find((x) => x.id === 'feedback-trend')!;
+    expect(c.selections.map((s: { agree: number; n: number }) => [s.agree, s.n])).toEqual(own.x.map((x, i) => [x, own.n[i]]));
+    expectClose(c.slope, own.slope, 'closed', 'slope');
+    expect(c.estimate.value).toBe(c.slope);
+    expect(c.interval.method).toBe('trend-wald');
+    expect(c.interval.level).toBe(own.level);
+    expectClose(c.interval.lower, own.lower, 'bound', 'lower');
+    expectClose(c.interval.upper, own.upper, 'bound', 'upper');
+    expectClose(c.effectiveAlpha, 1 - adjusted.level, 'closed', 'effective threshold 0.05 / 7');
+    expectClose(c.adjustedInterval.lower, adjusted.lower, 1e-9, 'adjusted lower');
+    expectClose(c.adjustedInterval.upper, adjusted.upper, 1e-9, 'adjusted upper');
+  });
+
+  it('prints them in the numbers table, the verdict and the summary, and names the method', () => {
+    const row = tableRows('feedback-trend', numbersTables(layout).get('feedback-trend')!).find((r) => r.label === 'Fitted change per period')!;
+    const pts = (v: number) => `${v < 0 ? '\u2212' : '+'}${Math.abs(v * 100).toFixed(1)}`;
+    expect(row.value).toBe(`${pts(own.slope)} points (95% interval ${pts(own.lower)} to ${pts(own.upper)}, unadjusted; 99.3% interval ${pts(adjusted.lower)} to ${pts(adjusted.upper)}, adjusted for 14 claims)`);
+    for (const sentence of [
+      `changes by ${pts(own.slope)} points a period (95% interval ${pts(own.lower)} to ${pts(own.upper)})`,
+      `fitted ${pts(own.slope)} points a period (${pts(own.lower)} to ${pts(own.upper)})`,
+      "Wald interval for the fitted change per period with the test's standard error",
+    ]) {
+      expect(flat.includes(sentence), sentence).toBe(true);
+    }
   });
 });
 
@@ -100,10 +143,10 @@ describe('reading a numbers table as labelled rows', () => {
   it('reads each figure with its precision and scale, and a name as a name', () => {
     const figs = rowFigures({ claim: 'x', label: 'Difference', value: '−11.9 points (95% interval −13.4 to −10.4, adjusted for 14 claims)' }, new Set());
     expect(figs.map((f) => [f.text, f.scales])).toEqual([
-      ['−11.9', [100, 1]],
+      ['−11.9', [100]],
       ['95%', [100]],
-      ['−13.4', [100, 1]],
-      ['−10.4', [100, 1]],
+      ['−13.4', [100]],
+      ['−10.4', [100]],
       ['14', [1]],
     ]);
     expect(rowFigures({ claim: 'x', label: '2025', value: '66% agreed of 1,939' }, new Set(['2025'])).map((f) => f.text)).toEqual(['66%', '1,939']);

@@ -148,8 +148,10 @@ const RATE_WORDS = new Set(['points', 'to', 'per', 'either', 'agreed', 'of', 'sc
 export function rowFigures(row: TableRow, names: ReadonlySet<string>): Array<Omit<Figure, 'found'>> {
   const out: Array<Omit<Figure, 'found'>> = [];
   const text = `${row.label} | ${row.value}`;
-  // A row whose figures are in percentage points (not "scale points") or percentages carries proportions × 100.
-  const rateRow = /(?<!scale )points|\(in %\)/.test(text);
+  // A row whose figures are in percentage points (not "scale points") carries proportions × 100; a line "(in %)"
+  // mixes percentages (its intercept) with plain numbers (its slope, R²).
+  const pointsRow = /(?<!scale )points/.test(text);
+  const percentRow = /\(in %\)/.test(text);
   let m: RegExpExecArray | null;
   NUMBER.lastIndex = 0;
   while ((m = NUMBER.exec(text))) {
@@ -161,7 +163,9 @@ export function rowFigures(row: TableRow, names: ReadonlySet<string>): Array<Omi
     const after = text.slice(m.index + m[0].length);
     const nextWord = /^\s*([A-Za-z]+)/.exec(after)?.[1];
     const pct = m[4] === '%';
-    const scales = pct ? [100] : nextWord && !RATE_WORDS.has(nextWord) ? [1] : rateRow ? [100, 1] : [1];
+    // A p-value or threshold ("p below 0.00357", "p = 0.385") is a probability whatever the row's unit.
+    const probability = /\bp (?:below |=\s*|<\s*)$/.test(before);
+    const scales = pct ? [100] : probability || (nextWord && !RATE_WORDS.has(nextWord)) ? [1] : pointsRow ? [100] : percentRow ? [100, 1] : [1];
     out.push({ claim: row.claim, label: row.label, text: m[0].trim(), scales });
   }
   return out;

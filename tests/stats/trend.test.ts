@@ -68,3 +68,38 @@ describe('cochranArmitage against R prop.trend.test', () => {
     expect(() => cochranArmitage([3, 4], [10, 12], { scores: [1, Number.NaN] })).toThrow(/finite/);
   });
 });
+
+describe('interval for the fitted change per period, against R', () => {
+  // Source: GNU R 4.2.2, tests/fixtures/r/trend-slope.R: the slope of prop.trend.test's weighted least-squares line
+  // with its standard error from summary(glm(freq ~ score, weights = n / (p̄ (1 − p̄))), dispersion = 1), and the
+  // normal quantile; (slope / se)² is prop.trend.test's statistic.
+  const R = JSON.parse(readFileSync(new URL('../fixtures/r/trend-slope.json', import.meta.url), 'utf8')) as {
+    r_version: string;
+    cases: Array<{ name: string; x: number[]; n: number[]; level: number; slope: number; se: number; lower: number; upper: number; statistic: number; p: number }>;
+  };
+
+  it('was made with R 4.2.2', () => {
+    expect(R.r_version).toBe('4.2.2');
+  });
+
+  for (const c of R.cases) {
+    it(`${c.name}: slope, standard error and interval`, () => {
+      const scores = c.x.map((_, i) => i);
+      const r = cochranArmitage(c.x, c.n, { scores, level: c.level });
+      expectClose(r.slope, c.slope, 'closed', 'slope');
+      expectClose(r.se, c.se, 'closed', 'standard error');
+      expect(r.interval?.level).toBe(c.level);
+      expect(r.interval?.method).toBe('trend-wald');
+      expectClose(r.interval!.lower, c.lower, 'bound', 'lower');
+      expectClose(r.interval!.upper, c.upper, 'bound', 'upper');
+      expectClose(r.statistic.value, c.statistic, 'closed', 'X²');
+      // The interval leaves out no change exactly when the two-sided test rejects at the same level.
+      expect(r.interval!.lower > 0 || r.interval!.upper < 0).toBe(c.p < 1 - c.level);
+    });
+  }
+
+  it('gives no interval unless a level is asked for, and refuses a level outside (0, 1)', () => {
+    expect(cochranArmitage([110, 125, 140], [200, 200, 200]).interval).toBeUndefined();
+    expect(() => cochranArmitage([110, 125, 140], [200, 200, 200], { level: 95 })).toThrow(/level 95/);
+  });
+});

@@ -22,6 +22,9 @@ export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeC
   }
   const rates = a.rates;
   const totalN = rates.reduce((s, r) => s + r.n, 0);
+  // The fitted change per period with its interval, at decimals that keep the three apart (src/format/numbers.ts).
+  const iv = a.test.interval;
+  const slopeDigits = iv ? fmt.pointsDigits(a.slope, iv.lower, iv.upper) : 1;
   const fittedFirst = a.fitted[0] as number;
   const fittedLast = a.fitted[a.fitted.length - 1] as number;
   const view: View = {
@@ -32,8 +35,14 @@ export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeC
     maxN: fmt.count(Math.max(...rates.map((r) => r.n))),
     firstRate: fmt.percent((rates[0] as (typeof rates)[number]).rate),
     lastRate: fmt.percent((rates[rates.length - 1] as (typeof rates)[number]).rate),
-    slope: fmt.points(a.slope, { sign: true }),
-    slopeSize: fmt.pointsSize(a.slope),
+    slope: fmt.points(a.slope, { sign: true, digits: slopeDigits }),
+    slopeSize: fmt.pointsSize(a.slope, slopeDigits),
+    slopeLower: iv ? fmt.points(iv.lower, { sign: true, digits: slopeDigits }) : '',
+    slopeUpper: iv ? fmt.points(iv.upper, { sign: true, digits: slopeDigits }) : '',
+    // As sizes, low to high, for a sentence that has already said "rose" or "fell".
+    sizeLower: iv ? fmt.pointsSize(a.slope < 0 ? iv.upper : iv.lower, slopeDigits) : '',
+    sizeUpper: iv ? fmt.pointsSize(a.slope < 0 ? iv.lower : iv.upper, slopeDigits) : '',
+    hasInterval: iv !== undefined,
     fittedFirst: fmt.percent(fittedFirst),
     fittedLast: fmt.percent(fittedLast),
     fittedChange: fmt.points(fittedLast - fittedFirst, { sign: true }),
@@ -45,7 +54,7 @@ export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeC
   };
   const numbers: NumberRow[] = [
     ...rates.map((r) => rateRow(r)),
-    { label: 'Fitted change per period', value: `${view.slope} points` },
+    { label: 'Fitted change per period', value: iv ? `${view.slope} points (interval ${view.slopeLower} to ${view.slopeUpper})` : `${view.slope} points` },
     { label: `Fitted rate, ${first} to ${last}`, value: `${view.fittedFirst} to ${view.fittedLast} (${view.fittedChange} points)` },
     ...commonRows(a, decision, ctx),
     { label: detectableLabel('steady change', decision), value: `about ${view.detectable} points per period` },
