@@ -6,7 +6,8 @@
  * compare. Test: Welch's t test (default; Welch 1947), Student's pooled t test, or the Mann–Whitney rank-sum test on
  * the answers' ranks computed from the counts (normal approximation with tie and continuity corrections). The
  * difference in means is given in scale points with its two-sided Welch (or Student) t interval at the claim's
- * confidence, whatever the test, so the reader always sees the size of the gap.
+ * confidence, whatever the test, so the reader always sees the size of the gap; and as Cohen's d (over the pooled
+ * standard deviation) with its interval by inverting the noncentral t (Steiger and Fouladi 1997).
  *
  * A numeric column of a summary source gives only a mean per group, not the spread a t test needs: such a claim is
  * refused with an InputError.
@@ -18,9 +19,10 @@ import type { MeansClaim } from '../claims/types.js';
 import type { Cell, Cube, Pooled } from '../data/types.js';
 import { matching, poolCells, relate } from '../data/select.js';
 import { InputError } from '../errors.js';
+import { cohensDInterval } from '../stats/cohens-d-interval.js';
 import { tQuantile } from '../stats/distributions/t.js';
 import { mannWhitneyCounts } from '../stats/mann-whitney-counts.js';
-import type { Alternative, TestResult } from '../stats/result.js';
+import type { Alternative, Interval, TestResult } from '../stats/result.js';
 import { studentT, type GroupSummary, type TTestOptions } from '../stats/student-t.js';
 import { summaryFromCounts } from '../stats/summary-counts.js';
 import { welchT } from '../stats/welch-t.js';
@@ -125,8 +127,9 @@ export function analyseMeans(claim: MeansClaim, cube: Cube, ctx: CompareContext)
     claim.test === 'rank'
       ? { method: 'welch-t' as const, test: welchT(gf, ga, opts(alternative)) }
       : { method: 'mann-whitney' as const, test: mannWhitneyCounts(fp.codes as Record<string, number>, ap.codes as Record<string, number>, { alternative }) };
-  // Cohen's d: the difference in means over the pooled standard deviation (Cohen 1988, ch. 2).
+  // Cohen's d: the difference in means over the pooled standard deviation (Cohen 1988, ch. 2), with its interval.
   const pooledSd = Math.sqrt(((gf.n - 1) * gf.sd * gf.sd + (ga.n - 1) * ga.sd * ga.sd) / (gf.n + ga.n - 2));
+  const d = pooledSd > 0 ? diff / pooledSd : undefined;
   return {
     ...base,
     status: 'tested',
@@ -139,8 +142,17 @@ export function analyseMeans(claim: MeansClaim, cube: Cube, ctx: CompareContext)
     ...(scale !== undefined ? { scale } : {}),
     ...(claim.test === 'rank' ? { superiority: test.estimate.value } : {}),
     check,
-    ...(pooledSd > 0 ? { cohensD: diff / pooledSd } : {}),
+    ...(d !== undefined ? { cohensD: d, cohensDInterval: cohensDInterval(d, gf.n, ga.n, claim.confidence) } : {}),
     ...(threshold !== undefined ? { threshold } : {}),
-    methods: claim.test === 'rank' ? ['mann-whitney', 'welch-t', 'power-two-means'] : [intervalMethod, 'mann-whitney', 'power-two-means'],
+    methods: [...(claim.test === 'rank' ? ['mann-whitney', 'welch-t'] : [intervalMethod, 'mann-whitney']), ...(d !== undefined ? ['cohens-d-noncentral-t'] : []), 'power-two-means'],
   };
+}
+
+/**
+ * Cohen's d's interval at another level than the claim's (the level that decided an adjusted verdict), from the same
+ * method as `cohensDInterval`; undefined when d could not be computed.
+ */
+export function cohensDIntervalAt(a: MeansAnalysis, confidence: number): Interval | undefined {
+  if (a.cohensD === undefined || !a.focus || !a.against) return undefined;
+  return cohensDInterval(a.cohensD, a.focus.n, a.against.n, confidence);
 }

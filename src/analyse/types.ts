@@ -181,6 +181,8 @@ export interface MeansAnalysis extends AnalysisBase {
   check?: { method: 'mann-whitney' | 'welch-t'; test: TestResult };
   /** Cohen's d: difference in means over the pooled standard deviation. */
   cohensD?: number;
+  /** Cohen's d's two-sided interval at the claim's confidence (noncentral t inversion, src/stats/cohens-d-interval.ts). */
+  cohensDInterval?: Interval;
 }
 
 /** Claim kind "equivalence": two rates within a margin of each other. */

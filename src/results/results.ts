@@ -14,6 +14,8 @@ import type { SealStatus } from '../verdicts/words/seal.js';
 type SealFacts = SealStatus['facts'];
 import { WORTH_DEFAULTS, type Worth } from '../verdicts/advice.js';
 import { responseRateOf } from '../verdicts/source.js';
+import { cohensDIntervalAt } from '../analyse/means.js';
+import { adjustedConfidence } from '../verdicts/adjusted-interval.js';
 import { POWER } from '../analyse/detectable.js';
 
 export const RESULTS_FORMAT = 1;
@@ -99,6 +101,12 @@ export interface ClaimResult {
   check?: { method: string; estimate: number | null; p: number; interval?: Interval } | null;
   /** Cohen's d for mean scores (difference over the pooled standard deviation); null for other kinds. */
   cohensD?: number | null;
+  /**
+   * Mean-score claims: Cohen's d's interval at the claim's level and, where the adjustment for many claims lowered the
+   * threshold, at the level that decided the verdict (noncentral t inversion); null otherwise.
+   */
+  cohensDInterval?: Interval | null;
+  cohensDAdjustedInterval?: Interval | null;
   /** Crosstab cells whose adjusted residual lies beyond the level's critical value, largest first. */
   notableCells?: Array<{ row: string; column: string; residual: number }>;
   /** Compare and change: Cohen's h for the two rates. */
@@ -262,6 +270,11 @@ export function claimResult(a: Analysis, decision: Decision, section: ClaimSecti
           ? { method: 'pearson-weighted', estimate: a.weightedCheck.estimate.value, p: a.weightedCheck.p, ...(a.weightedCheck.interval ? { interval: a.weightedCheck.interval } : {}) }
           : null,
     cohensD: a.kind === 'means' ? a.cohensD ?? null : null,
+    cohensDInterval: a.kind === 'means' ? a.cohensDInterval ?? null : null,
+    cohensDAdjustedInterval:
+      a.kind === 'means' && a.cohensDInterval && decision.adjustedInterval && decision.effectiveAlpha !== undefined
+        ? cohensDIntervalAt(a, adjustedConfidence(decision.effectiveAlpha)) ?? null
+        : null,
     ...(a.kind === 'crosstab' ? { notableCells: a.notable } : {}),
     ...(tested ? kindFigures(a) : {}),
   };

@@ -198,6 +198,11 @@ export const METHODS: Record<string, MethodInfo> = {
     text: 'The smallest difference in mean scores that the test would find 80% of the time with these group sizes and spreads, at the threshold that decided the verdict, by the normal approximation to the t test with each group’s own spread.',
     source: 'Cohen, J. (1988). Statistical Power Analysis for the Behavioral Sciences, 2nd ed., Erlbaum, ch. 2.',
   },
+  'cohens-d-noncentral-t': {
+    name: "Interval for Cohen's d",
+    text: 'Cohen’s d is the difference in mean scores divided by the two groups’ pooled standard deviation, so that differences on different scales can be compared (0.2 is conventionally small, 0.5 medium, 0.8 large). Its interval holds the values of d under which the observed t statistic would not be in either tail of its noncentral t distribution. It assumes the two groups have the same spread, as Student’s t test does.',
+    source: 'Steiger, J. H. and Fouladi, R. T. (1997). Noncentrality interval estimation and the evaluation of statistical models. In Harlow, Mulaik and Steiger (eds), What If There Were No Significance Tests?, Erlbaum, 221–257.',
+  },
   'worth-reporting': {
     name: 'Splitting "not supported"',
     text: 'A claim that is not supported is called inconclusive when its interval holds both no difference and a difference worth reporting, and ruled out when its interval excludes a difference worth reporting in the claimed direction. Worth reporting means the size the claim sets for it (worth_reporting) or its smallest difference that matters; else the margin of an equivalence claim in the pack on the same data; else the size the claims file sets for the measure (worth_reporting); else a default fixed in advance (common practice): 5 percentage points for rates, 0.2 standard deviations (Cohen’s “small” d) for mean scores, a correlation of 0.3 across units. The smallest detectable difference is not used for this: it shrinks with the sample as the interval does, so the split would follow the sample size alone.',

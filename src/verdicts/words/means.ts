@@ -1,5 +1,9 @@
 /** Words for the "means" kind: two selections' mean scores. */
 import type { MeanSummary, MeansAnalysis } from '../../analyse/types.js';
+import { cohensDIntervalAt } from '../../analyse/means.js';
+import type { Interval } from '../../stats/result.js';
+import { adjustedConfidence } from '../adjusted-interval.js';
+import { preciseLevel } from './adjusted.js';
 import { filterLabel } from '../../analyse/labels.js';
 import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
@@ -25,6 +29,30 @@ const TEST_NAMES: Record<string, string> = {
   rank: 'Mann–Whitney rank-sum test (normal approximation, corrected for ties and continuity)',
 };
 
+function excludesZero(i: Interval): boolean {
+  return i.lower > 0 || i.upper < 0;
+}
+
+/** Cohen's d with its interval, and the interval at the adjusted level where there is one, for means.cohens-d-row. */
+function cohensDView(value: number, own: Interval, adjusted: Interval | undefined, ctx: ComposeContext) {
+  const bounds = [own.lower, own.upper, ...(adjusted ? [adjusted.lower, adjusted.upper] : [])];
+  let digits = fmt.coefficientDigits(value, ...bounds);
+  // A bound that is not zero never prints as 0.00: whether no difference is inside must be readable.
+  while (digits < 4 && bounds.some((b) => b !== 0 && Number(fmt.coefficient(b, digits)) === 0)) digits++;
+  const signed = (v: number) => scalePoints(v, { sign: true, digits });
+  return {
+    d: scalePoints(value, { digits }),
+    level: fmt.level(own.level),
+    lower: signed(own.lower),
+    upper: signed(own.upper),
+    adjusted: adjusted !== undefined,
+    adjustedLevel: adjusted ? preciseLevel(adjusted.level) : '',
+    adjustedLower: adjusted ? signed(adjusted.lower) : '',
+    adjustedUpper: adjusted ? signed(adjusted.upper) : '',
+    claimsTested: ctx.claimsTested,
+  };
+}
+
 export function composeMeans(a: MeansAnalysis, decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
   const claim = a.claim;
@@ -38,6 +66,8 @@ export function composeMeans(a: MeansAnalysis, decision: Decision, ctx: ComposeC
     return tooLittle(a, ctx, `${focusLabel} against ${againstLabel}, mean scores${scopeText(claim.where, claim.naming) ? `, for ${scopeText(claim.where, claim.naming)}` : ''}.`, hypotheses);
   }
   const d = a.difference;
+  // Cohen's d's interval also at the level that decided an adjusted verdict, beside the difference's.
+  const dAdjusted = decision.adjustedInterval && a.cohensDInterval ? cohensDIntervalAt(a, adjustedConfidence(decision.effectiveAlpha as number)) : undefined;
   const dDigits = fmt.coefficientDigits(d.value, d.interval.lower, d.interval.upper);
   // The other family of test as a check: does it reach the same verdict at the threshold that decided this one?
   const threshold = decision.effectiveAlpha ?? decision.alpha;
@@ -78,7 +108,7 @@ export function composeMeans(a: MeansAnalysis, decision: Decision, ctx: ComposeC
     meanRow(a.against),
     { label: 'Difference in means', value: `${view.diff} scale points (interval ${view.diffLower} to ${view.diffUpper})` },
     ...commonRows(a, decision, ctx),
-    ...(a.cohensD !== undefined ? [{ label: "Effect size (Cohen's d)", value: fmt.coefficient(a.cohensD) }] : []),
+    ...(a.cohensD !== undefined ? [{ label: "Effect size (Cohen's d)", value: a.cohensDInterval ? t.render('means.cohens-d-row', cohensDView(a.cohensD, a.cohensDInterval, dAdjusted, ctx)) : fmt.coefficient(a.cohensD) }] : []),
     ...(check ? [{ label: `${check.name} (check)`, value: `${fmt.pPhrase(check.test.p)}: ${check.agrees ? 'the same verdict' : 'a different verdict'} at p below ${thresholdText(threshold)}` }] : []),
     {
       label: detectableLabel('difference', decision),
@@ -89,6 +119,13 @@ export function composeMeans(a: MeansAnalysis, decision: Decision, ctx: ComposeC
       : []),
   ];
   const cautions: string[] = restOfGroupCaution(a.relation, claim, { focus: a.focus.n, against: a.against.n }, t);
+  // Cohen's d's interval assumes equal spreads (Student's t); where, at the level that decided the verdict, it and the
+  // interval for the difference disagree about whether no difference is inside, say which one goes with the verdict.
+  const dDecisive = dAdjusted ?? a.cohensDInterval;
+  const diffDecisive = decision.adjustedInterval?.interval ?? d.interval;
+  if (dDecisive && excludesZero(dDecisive) !== excludesZero(diffDecisive)) {
+    cautions.push(t.render('means.caution-d-interval', { ...view, dExcludes: excludesZero(dDecisive), dLevel: preciseLevel(dDecisive.level) }));
+  }
   if (claim.test !== 'rank') cautions.push(t.render('means.caution-scale', view));
   if (check && !check.agrees) cautions.push(t.render('means.caution-disagree', view));
   for (const m of [a.focus, a.against]) {
