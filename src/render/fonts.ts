@@ -63,7 +63,11 @@ export function fontBytes(face: Face): Buffer {
   return bytes;
 }
 
-function fontFor(face: Face): fontkit.Font {
+/**
+ * The parsed face (fontkit). pdfkit is given this same object (registerFont takes a parsed font), so the font's
+ * tables are read once, and its glyph and shaping caches, warmed by measuring chart labels, serve the PDF too.
+ */
+export function fontFor(face: Face): fontkit.Font {
   let font = fontCache.get(face);
   if (font === undefined) {
     font = fontkit.create(fontBytes(face));
@@ -72,11 +76,37 @@ function fontFor(face: Face): fontkit.Font {
   return font;
 }
 
-/** Width in points of `text` set in `face` at `size` points, with the font's own advances and kerning. */
+/** Widths remembered per face and word before a table is emptied. */
+const WORDS_KEPT = 50_000;
+const wordWidths: Record<Face, Map<string, number>> = { regular: new Map(), bold: new Map(), italic: new Map() };
+
+/**
+ * Width in points of `text` set in `face` at `size` points, with the font's own advances and kerning. Measured word by
+ * word (each word with the spaces or tabs after it), as pdfkit lays out what it draws, and each word's width in font
+ * units remembered: shaping a new string is slow, and a pack's labels repeat their words. The sum is exact: these
+ * faces have no kerning or substitution across a space (checked pair by pair in tests/render/fonts.test.ts).
+ */
 export function textWidth(text: string, size: number, face: Face = 'regular'): number {
   if (text.length === 0 || size <= 0) return 0;
   const font = fontFor(face);
-  return (font.layout(text).advanceWidth / font.unitsPerEm) * size;
+  const widths = wordWidths[face];
+  let units = 0;
+  let from = 0;
+  for (let i = 0; i <= text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (i < text.length && c !== 32 && c !== 9) continue;
+    if (i === text.length && from === i) break;
+    const word = text.slice(from, i + 1);
+    let w = widths.get(word);
+    if (w === undefined) {
+      w = font.layout(word).advanceWidth;
+      if (widths.size >= WORDS_KEPT) widths.clear();
+      widths.set(word, w);
+    }
+    units += w;
+    from = i + 1;
+  }
+  return (units / font.unitsPerEm) * size;
 }
 
 /** The face that a CSS-like weight and style select: bold for weights of 600 and over or "bold", else italic or regular. */

@@ -18,7 +18,7 @@
 import { createHash } from 'node:crypto';
 import PDFDocument from 'pdfkit';
 import type { ChartData, PackModel } from './model.js';
-import { FONT_NAME, fontBytes } from './fonts.js';
+import { FONT_NAME, fontFor } from './fonts.js';
 import { chartSvg } from './charts.js';
 import { Layout } from './pdf/layout.js';
 import { drawCover, drawSummary, drawChanges } from './pdf/front-matter.js';
@@ -109,7 +109,7 @@ export async function renderPdf(model: PackModel, options: RenderOptions = {}): 
       ContentDigest: createHash('sha256').update(JSON.stringify(model)).digest('hex').slice(0, 32),
     },
   });
-  for (const face of ['regular', 'bold', 'italic'] as const) doc.registerFont(FONT_NAME[face], fontBytes(face));
+  for (const face of ['regular', 'bold', 'italic'] as const) doc.registerFont(FONT_NAME[face], fontFor(face));
   let lastPage: (() => void) | undefined;
   doc.on('pageAdded', () => {
     lastPage?.();

@@ -93,7 +93,7 @@ declare namespace PDFKit {
     page: Page;
     info: DocumentInfo;
     outline: OutlineItem;
-    registerFont(name: string, src: string | Buffer): this;
+    registerFont(name: string, src: string | Buffer | import('fontkit').Font): this;
     font(name: string): this;
     fontSize(size: number): this;
     fillColor(color: string | [number, number, number], opacity?: number): this;
