@@ -17,7 +17,7 @@ const root = resolve(__dirname, '../..');
 const bin = join(root, 'bin/warrant.js');
 const work = mkdtempSync(join(tmpdir(), 'warrant-detectable-'));
 const R = JSON.parse(readFileSync(join(root, 'tests/fixtures/r/detectable-adjusted.json'), 'utf8')) as {
-  claims: Array<{ id: string; p: number; threshold: number; detectable: number; detectableAt05: number; mannWhitneyP?: number; cohensD?: number; powerTTestDelta?: number }>;
+  claims: Array<{ id: string; p: number; threshold: number; detectable: number; detectableAt05: number; mannWhitneyP?: number; cohensD?: number; cohensDInterval?: [number, number]; cohensDAdjustedInterval?: [number, number]; powerTTestDelta?: number }>;
 };
 let claims: Array<Record<string, any>>;
 let text: string;
@@ -65,6 +65,22 @@ describe('mean-score claims', () => {
     expect(rel(c().cohensD, ref().cohensD!)).toBeLessThan(1e-9);
     expect(text).toContain(`Effect size (Cohen's d) ${(ref().cohensD! < 0 ? '−' : '') + Math.abs(ref().cohensD!).toFixed(2)}`);
     expect(text).toMatch(/Mann–Whitney rank-sum test \(check\) p = 0\.273: the same verdict at p below 0\.0125/);
+  });
+
+  it("gives Cohen's d's interval at 95% and at the level that decided the verdict (R uniroot on pt(t, df, ncp))", () => {
+    const own = c().cohensDInterval;
+    const adjusted = c().cohensDAdjustedInterval;
+    const [rl, ru] = ref().cohensDInterval!;
+    const [al, au] = ref().cohensDAdjustedInterval!;
+    expect(rel(own.lower, rl)).toBeLessThan(1e-9);
+    expect(rel(own.upper, ru)).toBeLessThan(1e-9);
+    expect(rel(adjusted.lower, al)).toBeLessThan(1e-9);
+    expect(rel(adjusted.upper, au)).toBeLessThan(1e-9);
+    expect(adjusted.level).toBeCloseTo(1 - 0.05 / 4, 12);
+    // Not supported, and both intervals hold 0, as the verdict says.
+    expect(rl < 0 && ru > 0 && al < 0 && au > 0).toBe(true);
+    const f = (v: number) => `${v < 0 ? '−' : '+'}${Math.abs(v).toFixed(2)}`;
+    expect(text).toContain(`(95% interval ${f(rl)} to ${f(ru)}, unadjusted; 98.8% interval ${f(al)} to ${f(au)}, adjusted for 4 claims)`);
   });
 
   it('gives the smallest detectable difference in scale points (R uniroot; within 0.5% of power.t.test)', () => {
