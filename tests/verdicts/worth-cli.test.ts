@@ -6,6 +6,9 @@
  * Each expected flip is worked by hand from the demo's printed intervals at the level that decided the verdict
  * (results.json adjustedInterval, the pack's Newcombe, Welch and Fisher-z intervals, checked against R in
  * tests/stats): a claim is ruled out when that interval excludes the size in the claimed direction.
+ *
+ * The same two builds give the summary page's table of verdict words as printed (pdftotext -layout): every verdict
+ * word a claim got is defined there, with its count, in the words written out below.
  */
 import { spawnSync } from 'node:child_process';
 import { cpSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
@@ -42,7 +45,7 @@ function onClaim(yaml: string, id: string, line: string): string {
   return `${yaml.slice(0, end)}    ${line}\n${yaml.slice(end)}`;
 }
 
-function build(name: string, yaml: string): { results: Results; text: string } {
+function build(name: string, yaml: string): { results: Results; text: string; layout: string } {
   const dir = join(work, name);
   cpSync(join(root, 'demo/data'), join(dir, 'data'), { recursive: true });
   writeFileSync(join(dir, 'claims.yaml'), yaml);
@@ -50,12 +53,13 @@ function build(name: string, yaml: string): { results: Results; text: string } {
   expect(run.status, run.stderr).toBe(0);
   const folder = (JSON.parse(run.stdout) as { folder: string }).folder;
   const text = spawnSync('pdftotext', ['-enc', 'UTF-8', join(folder, 'pack.pdf'), '-'], { encoding: 'utf8' }).stdout.replace(/\s+/g, ' ');
-  return { results: JSON.parse(readFileSync(join(folder, 'results.json'), 'utf8')) as Results, text };
+  const layout = spawnSync('pdftotext', ['-enc', 'UTF-8', '-layout', join(folder, 'pack.pdf'), '-'], { encoding: 'utf8' }).stdout;
+  return { results: JSON.parse(readFileSync(join(folder, 'results.json'), 'utf8')) as Results, text, layout };
 }
 
 const shipped = readFileSync(join(root, 'demo/claims.yaml'), 'utf8');
-let before: { results: Results; text: string };
-let after: { results: Results; text: string };
+let before: ReturnType<typeof build>;
+let after: ReturnType<typeof build>;
 const claimOf = (r: { results: Results }, id: string): Claim => r.results.claims.find((c) => c.id === id) as Claim;
 
 beforeAll(() => {
@@ -138,5 +142,66 @@ describe('worth_reporting through the CLI', () => {
       "Worth reporting: 30 points for rates, 0.1 standard deviations for mean scores and a correlation of 0.8 across units (set in the claims file), unless the claim's page names another size.",
     );
     expect(after.text).toContain('In this pack, a difference worth reporting is 30 points for rates, 0.1 standard deviations for mean scores and a correlation of 0.8 across units (set in the claims file)');
+  });
+});
+
+/**
+ * The summary page's table of verdict words as printed (pdftotext -layout): one row per word, with its refinement
+ * (ruled out, inconclusive) on a line of its own, the count of claims and the meaning, whose column starts where the
+ * header's "What it means" does.
+ */
+function definitionRows(layout: string): Array<{ label: string; count: string; meaning: string }> {
+  const from = layout.indexOf('What the verdicts mean');
+  const to = layout.indexOf('The claims, and what to do with each', from);
+  const lines = layout.slice(from, to).split('\n').slice(1);
+  const header = lines.find((l) => l.includes('What it means'))!;
+  const col = header.indexOf('What it means');
+  const rows: Array<{ word: string; detail: string; count: string; meaning: string[] }> = [];
+  for (const line of lines.slice(lines.indexOf(header) + 1)) {
+    const left = line.slice(0, col).trim();
+    const right = line.slice(col).trim();
+    const head = /^(.*?)\s+(\d+ claims?)$/.exec(left);
+    if (head) rows.push({ word: head[1]!, detail: '', count: head[2]!, meaning: [right] });
+    else if (rows.length > 0 && /^Quarrendell|^Student voice/.test(left) === false) {
+      const row = rows[rows.length - 1]!;
+      if (left) row.detail = left;
+      if (right) row.meaning.push(right);
+    }
+  }
+  return rows.map((r) => ({ label: r.detail ? `${r.word}: ${r.detail}` : r.word, count: r.count, meaning: r.meaning.join(' ').replace(/\s+/g, ' ').trim() }));
+}
+
+describe("the summary page's verdict definitions, as printed (pdftotext -layout on the shipped demo)", () => {
+  // What each verdict word must be said to mean: the pack's own definitions, written out here so that a change to
+  // the printed words is seen (the issue asked that every word be defined on the summary page, not two of five).
+  const sizes = "Worth reporting: 5 points for rates, 0.2 standard deviations for mean scores and a correlation of 0.3 across units, unless the claim's page names another size.";
+  const expected: Record<string, string> = {
+    'Points the other way': 'The data give clear evidence against the claim, in the opposite direction. Do not make the claim.',
+    Supported: 'The data give clear evidence for the claim at the stated confidence level, after adjusting for the number of claims tested together.',
+    'Not supported: ruled out': `No clear evidence for the claim, and the interval excludes a difference of the size worth reporting, so the data speak against the claim as made. A reworded claim (what the interval supports) may be made instead. ${sizes}`,
+    'Not supported: inconclusive': `No clear evidence either way. The interval holds both no difference and a difference worth reporting; more respondents could settle it. It does not mean the claim is false. ${sizes}`,
+    'Not supported: too small': 'The difference is real and in the claimed direction, but smaller than the smallest difference the claim said would matter.',
+    'Not supported': 'No clear evidence for the claim. The result is not split further: the test gives no interval for the size of the effect (a table of counts), or no size worth reporting is set for it (a steady trend, whose interval is on its page).',
+    'Too little data': 'Too few people answered for a test; no result is shown.',
+    Estimate: 'A figure with its margin of error; no claim about it was tested.',
+  };
+
+  it('defines every verdict word the pack gives a claim, with the number of claims that got it, and no other', () => {
+    const rows = definitionRows(before.layout);
+    const used = [...new Set(before.results.claims.map((c) => c.verdictLabel))];
+    // The demo reaches all five verdicts and two refinements of "not supported".
+    expect(new Set(before.results.claims.map((c) => c.verdict))).toEqual(new Set(['supported', 'opposite', 'not-supported', 'too-little-data', 'estimate']));
+    expect(rows.map((r) => r.label).sort()).toEqual(used.sort());
+    for (const row of rows) {
+      const n = before.results.claims.filter((c) => c.verdictLabel === row.label).length;
+      expect(row.count, row.label).toBe(`${n} ${n === 1 ? 'claim' : 'claims'}`);
+      expect(row.meaning, row.label).toBe(expected[row.label]);
+    }
+  });
+
+  it('names the sizes worth reporting the claims file set, in the same rows', () => {
+    const rows = definitionRows(after.layout);
+    const ruledOut = rows.find((r) => r.label === 'Not supported: ruled out')!;
+    expect(ruledOut.meaning).toContain("Worth reporting: 30 points for rates, 0.1 standard deviations for mean scores and a correlation of 0.8 across units (set in the claims file), unless the claim's page names another size.");
   });
 });
