@@ -2,26 +2,28 @@
  * A claim's section: its heading with the verdict badge, notices, the verdict panel, what was compared, the numbers,
  * the method line, the chart and the cautions; fitted to one page when it can be.
  */
-import type { ClaimSection, PackModel } from '../model.js';
+import type { ClaimSection, PackModel, VerdictKind, VerdictStability } from '../model.js';
 import { chartSvg, MIN_CHART_HEIGHT } from '../charts.js';
+import { FONT_NAME } from '../fonts.js';
 import { blocksHeight, type Layout } from './layout.js';
 import { badgeWidth, drawBadge } from './marks.js';
-import { numberPairs } from './tables.js';
+import { numberLabelWidth, numberPairs, table } from './tables.js';
 import {
-  BADGE, CLAIM_GAP, COLOR, CONTENT_WIDTH, LINE_GAP, MARGIN, SPACED_CAPS, PAGE, PAGE_ROOM, SIZE, shorten, svgSize,
-  type Block, type Struct,
+  BADGE, CLAIM_GAP, COLOR, CONTENT_WIDTH, LINE_GAP, MARGIN, NUMBER_LABEL_WIDTH, SPACED_CAPS, PAGE, PAGE_ROOM, SIZE, shorten,
+  svgSize, type Block, type Cell, type Struct,
 } from './style.js';
 
 /** The verdict paragraph on a shaded panel with an accent bar at its left edge. */
-export function panel(L: Layout, text: string, opts: { pad?: number; spaceAfter?: number } = {}): Block {
+export function panel(L: Layout, text: string, opts: { pad?: number; spaceAfter?: number; size?: number } = {}): Block {
+  const size = opts.size ?? SIZE.body;
   return L.ruledBox(
     { pad: opts.pad ?? 9, rule: 3, shade: COLOR.shade, ruleColor: COLOR.accent, after: opts.spaceAfter ?? 12 },
     (width) => ({
-      height: () => L.textHeight(text, 'regular', SIZE.body, width),
+      height: () => L.textHeight(text, 'regular', size, width),
       draw: (parent, x, y) => {
         parent.add(
           L.doc.struct('P', {}, () => {
-            L.setFont('regular', SIZE.body);
+            L.setFont('regular', size);
             L.doc.text(text, x, y, { width, lineGap: LINE_GAP });
           }),
         );
@@ -69,7 +71,7 @@ export function notices(L: Layout, items: string[], opts: { spaceAfter?: number 
   );
 }
 
-/** Vertical spacing inside a claim's section (points). */
+/** Vertical spacing inside a claim's section (points), and the type size of its cautions. */
 interface ClaimSpacing {
   head: number;
   notice: number;
@@ -80,15 +82,36 @@ interface ClaimSpacing {
   rowPadY: number;
   method: number;
   figure: number;
+  caution: number;
+  /** Type size of the verdict paragraph and of the tables. */
+  body: number;
+  table: number;
 }
 
 /** Outer height of a scatter or period chart that starts the second page of a claim too long for one page. */
 const CONTINUED_CHART_HEIGHT = 270;
 
 /** The usual spacing of a claim's section. */
-const SPACING_NORMAL: ClaimSpacing = { head: 12, notice: 12, panelPad: 9, panel: 12, h3: 4, compared: 10, rowPadY: 2.8, method: 12, figure: 14 };
+const SPACING_NORMAL: ClaimSpacing = { head: 12, notice: 12, panelPad: 9, panel: 12, h3: 4, compared: 10, rowPadY: 2.8, method: 12, figure: 14, caution: SIZE.table, body: SIZE.body, table: SIZE.table };
 /** Closer spacing (same type sizes) for a claim that would otherwise run a little onto a second page. */
-const SPACING_TIGHT: ClaimSpacing = { head: 8, notice: 8, panelPad: 7, panel: 9, h3: 3, compared: 6, rowPadY: 1.9, method: 7, figure: 8 };
+const SPACING_TIGHT: ClaimSpacing = { head: 8, notice: 8, panelPad: 7, panel: 9, h3: 3, compared: 6, rowPadY: 1.9, method: 7, figure: 8, caution: SIZE.table, body: SIZE.body, table: SIZE.table };
+/**
+ * Closest spacing, type half a point smaller (the verdict paragraph 10 pt, tables 9 pt) and cautions at the size of
+ * the method line, all still readable in print, for a claim that would otherwise run onto a second page.
+ */
+const SPACING_CLOSE: ClaimSpacing = { head: 5, notice: 6, panelPad: 6, panel: 5, h3: 2, compared: 4, rowPadY: 1.2, method: 4, figure: 4, caution: SIZE.small + 0.5, body: SIZE.body - 0.5, table: SIZE.table - 0.5 };
+
+/** Type size of the method line, the source line and term notes under a claim's tables (readable in print). */
+const NOTE_SIZE = SIZE.small + 0.5;
+
+/**
+ * A claim's blocks, and how many of them form its head: the heading through the numbers, the method line and the
+ * terms, which always share a page (the chart and cautions may run on to the next).
+ */
+interface ClaimBlocks {
+  blocks: Block[];
+  head: number;
+}
 
 function claimBlocks(
   L: Layout,
@@ -96,7 +119,9 @@ function claimBlocks(
   svg: string | undefined,
   bookmarks: () => PDFKit.OutlineItem,
   sp: ClaimSpacing = SPACING_NORMAL,
-): Block[] {
+  /** Put what was compared and tested after the chart (a claim over two pages: its second page is not left bare). */
+  comparedLate = false,
+): ClaimBlocks {
   const blocks: Block[] = [];
   // Heading: the "Claim C1" label with the verdict badge at the right of the same line, then the statement in the
   // user's words. The label and statement form one H2; the verdict word follows it in reading order.
@@ -129,65 +154,144 @@ function claimBlocks(
       L.y = top + headH();
     },
   });
-  // Lead with the answer: the verdict and its paragraph come first, then what was compared, then the numbers.
+  // Lead with the answer: the verdict and its paragraph come first, then what to do with the claim, then what was
+  // compared, then the numbers.
   if (claim.notices && claim.notices.length > 0) blocks.push(notices(L, claim.notices, { spaceAfter: sp.notice }));
-  blocks.push(panel(L, claim.verdictText, { pad: sp.panelPad, spaceAfter: sp.panel }));
-  blocks.push(L.heading('H3', 'What was compared and tested', { spaceAfter: sp.h3 }));
-  blocks.push(
-    numberPairs(
-      L,
-      [
-        { label: 'Compared', value: claim.compared },
-        { label: 'Null hypothesis', value: claim.hypotheses.null },
-        { label: 'Alternative hypothesis', value: claim.hypotheses.alternative },
-      ],
-      { spaceAfter: sp.compared, pair: false, padY: sp.rowPadY },
-    ),
-  );
+  const advice = adviceRows(claim);
+  blocks.push(panel(L, claim.verdictText, { size: sp.body, pad: sp.panelPad, spaceAfter: advice.length > 0 ? Math.min(6, sp.panel) : sp.panel }));
+  if (advice.length > 0) {
+    blocks.push(numberPairs(L, advice, { spaceAfter: sp.panel, pair: false, padY: sp.rowPadY, labelFace: 'bold', labelWidth: NUMBER_LABEL_WIDTH, size: sp.table }));
+  }
+  const compared = [
+    { label: 'Compared', value: claim.compared },
+    { label: 'Null hypothesis', value: claim.hypotheses.null },
+    { label: 'Alternative hypothesis', value: claim.hypotheses.alternative },
+  ];
+  const comparedBlocks: Block[] = [
+    L.heading('H3', 'What was compared and tested', { spaceAfter: sp.h3 }),
+    numberPairs(L, compared, { spaceAfter: claim.sourceLine ? 3 : sp.compared, pair: false, padY: sp.rowPadY, size: sp.table }),
+  ];
+  // Where the data came from and how many of those asked answered, under what was compared.
+  if (claim.sourceLine) comparedBlocks.push(L.paragraph(claim.sourceLine, { size: NOTE_SIZE, color: COLOR.muted, spaceAfter: sp.compared }));
+  if (!comparedLate) blocks.push(...comparedBlocks);
+  // The verdict at other confidence levels closes the numbers, sharing their label column.
+  const labelW = numberLabelWidth(L, claim.numbers.map((r) => r.label), 'regular', sp.table);
   if (claim.numbers.length > 0) {
     blocks.push(L.heading('H3', 'The numbers', { spaceAfter: sp.h3 }));
-    blocks.push(numberPairs(L, claim.numbers, { spaceAfter: 4, padY: sp.rowPadY }));
+    blocks.push(numberPairs(L, claim.numbers, { spaceAfter: claim.stability ? 0 : 4, padY: sp.rowPadY, labelWidth: labelW, size: sp.table }));
   }
-  // The method line reads as a note under the numbers it produced.
-  blocks.push(L.paragraph(claim.methodLine, { face: 'italic', size: SIZE.small, color: COLOR.muted, spaceAfter: sp.method }));
+  if (claim.stability) blocks.push(stabilityRows(L, claim.stability, labelW, sp));
+  // The method line reads as a note under the numbers it produced, at a size that stays readable in print; then the
+  // terms met here for the first time in the pack.
+  const terms = claim.terms ?? [];
+  blocks.push(L.paragraph(claim.methodLine, { face: 'italic', size: NOTE_SIZE, color: COLOR.muted, spaceAfter: terms.length > 0 ? 3 : sp.method }));
+  terms.forEach((term, i) => {
+    blocks.push(L.paragraph(`${term.term}: ${term.text}`, { size: NOTE_SIZE, color: COLOR.muted, spaceAfter: i === terms.length - 1 ? sp.method : 2 }));
+  });
+  const head = blocks.length;
   if (claim.chart && svg) blocks.push(L.figure(svg, claim.chart.alt, { spaceAfter: sp.figure }));
+  if (comparedLate) blocks.push(...comparedBlocks);
   if (claim.cautions.length > 0) {
     blocks.push(L.heading('H3', 'Cautions', { spaceAfter: sp.h3 }));
-    blocks.push(L.bullets(claim.cautions, { size: SIZE.table }));
+    blocks.push(L.bullets(claim.cautions, { size: sp.caution }));
   }
-  return blocks;
+  return { blocks, head };
+}
+
+/** What to do with the claim: the advice, a wording the data support, the claims to read it with. */
+function adviceRows(claim: ClaimSection): Array<{ label: string; value: string }> {
+  const rows: Array<{ label: string; value: string }> = [];
+  if (claim.advice) {
+    // Quoting needs no reason beyond the verdict paragraph above; the other advice says why.
+    const quote = claim.advice.action === 'quote' || claim.advice.action === 'quote-with-interval';
+    rows.push({ label: 'What to do', value: quote ? `${claim.advice.label}.` : `${claim.advice.label}. ${claim.advice.reason}` });
+  }
+  if (claim.advice?.wording && claim.advice.action !== 'quote-with-interval') {
+    rows.push({ label: 'Suggested wording', value: claim.advice.wording });
+  }
+  for (const link of claim.linked ?? []) rows.push({ label: 'Read with', value: link.text });
+  return rows;
 }
 
 /**
- * Lay a claim out to fit one page when it can: first with the usual spacing, then with closer spacing (same type
- * sizes), then with closer spacing and a shorter chart (never below MIN_CHART_HEIGHT). A claim that fits none of
- * these keeps its usual spacing and full chart, and breaks between blocks (the chart and cautions move on together).
+ * The verdict at 90, 95 and 99% confidence, as the last rows of the numbers. When the verdict is the same at every
+ * level with and without adjustment, one row says so with the verdict's mark. Otherwise a small grid: the levels
+ * across (the claim's own level in bold), one line with the pack's adjustment for many claims and, where an
+ * adjustment applies, one without it, each cell the verdict's mark and word.
  */
-async function fitClaim(
+function stabilityRows(L: Layout, s: VerdictStability, labelW: number, sp: ClaimSpacing): Block {
+  const own = s.cells.find((c) => c.own) ?? s.cells[1]!;
+  if (!s.dependsOnLevel && !s.dependsOnAdjustment) {
+    // The sentence names the levels and the adjustment itself, so it takes the whole width.
+    return table(L, [{ header: '', width: CONTENT_WIDTH }], [[{ text: s.text, mark: own.adjusted }]], {
+      header: false,
+      size: sp.table,
+      padY: sp.rowPadY + 0.8,
+      spaceAfter: 4,
+    });
+  }
+  // The grid's label column also holds its heading on one line (bold, over the row labels).
+  L.doc.font(FONT_NAME.bold).fontSize(sp.table);
+  const gridLabelW = Math.min(CONTENT_WIDTH / 2, Math.max(labelW, Math.ceil(L.doc.widthOfString(s.heading) + 11)));
+  const cellW = (CONTENT_WIDTH - gridLabelW) / 3;
+  const line = (name: string, pick: (c: VerdictStability['cells'][number]) => { kind: VerdictKind; word: string }): Cell[] => [
+    { text: name, color: COLOR.muted },
+    ...s.cells.map((c) => ({ text: pick(c).word, mark: pick(c).kind, ...(c.own ? { face: 'bold' as const } : {}) })),
+  ];
+  const rows: Cell[][] = [line(s.adjustmentApplies ? s.adjustedLabel : '', (c) => ({ kind: c.adjusted, word: c.adjustedLabel }))];
+  if (s.adjustmentApplies) rows.push(line(s.unadjustedLabel, (c) => ({ kind: c.unadjusted, word: c.unadjustedLabel })));
+  return table(
+    L,
+    [
+      { header: s.heading, width: gridLabelW },
+      ...s.cells.map((c) => ({ header: c.level, width: cellW, ...(c.own ? { face: 'bold' as const } : {}) })),
+    ],
+    rows,
+    { size: sp.table, padY: sp.rowPadY + 0.4, spaceAfter: 4, keepTogether: true },
+  );
+}
+
+/**
+ * A claim laid out to fit one page when it can: with the usual spacing, then closer spacing (same type sizes), then
+ * the closest spacing with type half a point smaller, each time with a shorter chart when that is what it takes
+ * (never below MIN_CHART_HEIGHT). A claim that fits none of these runs over two pages: its head (heading, verdict,
+ * advice, numbers, method and terms) on the first, in the widest spacing that holds it; then the chart, what was
+ * compared and tested with the source, and the cautions, which start the second page when they do not fit below
+ * the head, so the second page carries a good share of the claim rather than a lone chart or caution.
+ */
+async function layClaim(
   L: Layout,
   claim: ClaimSection,
   svg: string | undefined,
   bookmarks: () => PDFKit.OutlineItem,
 ): Promise<{ blocks: Block[]; fits: boolean }> {
   const normal = claimBlocks(L, claim, svg, bookmarks, SPACING_NORMAL);
-  if (blocksHeight(normal) <= PAGE_ROOM) return { blocks: normal, fits: true };
-  const tight = claimBlocks(L, claim, svg, bookmarks, SPACING_TIGHT);
-  const overflow = blocksHeight(tight) - PAGE_ROOM;
-  if (overflow <= 0) return { blocks: tight, fits: true };
-  if (claim.chart && svg) {
-    const target = Math.floor(svgSize(svg).height - overflow - 1);
-    if (target >= MIN_CHART_HEIGHT) {
-      const shorter = await chartSvg(claim.chart.data, { height: target });
-      const blocks = claimBlocks(L, claim, shorter, bookmarks, SPACING_TIGHT);
-      if (blocksHeight(blocks) <= PAGE_ROOM) return { blocks, fits: true };
+  if (blocksHeight(normal.blocks) <= PAGE_ROOM) return { blocks: normal.blocks, fits: true };
+  for (const sp of [SPACING_TIGHT, SPACING_CLOSE]) {
+    const { blocks } = claimBlocks(L, claim, svg, bookmarks, sp);
+    const overflow = blocksHeight(blocks) - PAGE_ROOM;
+    if (overflow <= 0) return { blocks, fits: true };
+    if (claim.chart && svg) {
+      const target = Math.floor(svgSize(svg).height - overflow - 1);
+      if (target >= MIN_CHART_HEIGHT) {
+        const shorter = await chartSvg(claim.chart.data, { height: target });
+        const fitted = claimBlocks(L, claim, shorter, bookmarks, sp).blocks;
+        if (blocksHeight(fitted) <= PAGE_ROOM) return { blocks: fitted, fits: true };
+      }
     }
   }
-  // The chart then starts the claim's second page, where a scatter or a period line can have more height.
+  // Over two pages: a scatter or period chart may then be taller, when the second page still holds the rest.
+  let chart = svg;
   if (claim.chart && svg && (claim.chart.data.kind === 'scatter' || claim.chart.data.kind === 'periods')) {
     const taller = await chartSvg(claim.chart.data, { height: CONTINUED_CHART_HEIGHT });
-    return { blocks: claimBlocks(L, claim, taller, bookmarks, SPACING_NORMAL), fits: false };
+    const laid = claimBlocks(L, claim, taller, bookmarks, SPACING_NORMAL, true);
+    if (blocksHeight(laid.blocks.slice(laid.head)) <= PAGE_ROOM) chart = taller;
   }
-  return { blocks: normal, fits: false };
+  for (const sp of [SPACING_NORMAL, SPACING_TIGHT, SPACING_CLOSE]) {
+    const laid = claimBlocks(L, claim, chart, bookmarks, sp, true);
+    if (blocksHeight(laid.blocks.slice(0, laid.head)) <= PAGE_ROOM || sp === SPACING_CLOSE) return { blocks: laid.blocks, fits: false };
+  }
+  return { blocks: normal.blocks, fits: false };
 }
 
 /** Draw every claim: each on a new page unless it fits in the space left below the previous one. */
@@ -195,7 +299,7 @@ export async function drawClaims(L: Layout, model: PackModel, svgs: Map<string, 
   const doc = L.doc;
   let claimsBookmark: PDFKit.OutlineItem | undefined;
   for (const claim of model.claims) {
-    const { blocks } = await fitClaim(L, claim, svgs.get(claim.id), () => claimsBookmark!);
+    const { blocks } = await layClaim(L, claim, svgs.get(claim.id), () => claimsBookmark!);
     if (claimsBookmark === undefined || blocksHeight(blocks) + CLAIM_GAP > L.remaining()) {
       L.newPage();
     } else {

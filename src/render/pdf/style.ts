@@ -10,7 +10,7 @@ export type Struct = PDFKit.StructureElement;
 
 // ---- Page geometry (points; A4 is 595.28 x 841.89) ----
 export const PAGE = { width: 595.28, height: 841.89 };
-export const MARGIN = { top: 58, bottom: 56, left: 66, right: 66 };
+export const MARGIN = { top: 50, bottom: 48, left: 58, right: 58 };
 export const CONTENT_WIDTH = PAGE.width - MARGIN.left - MARGIN.right;
 export const CONTENT_BOTTOM = PAGE.height - MARGIN.bottom;
 /** Slack kept under every block so that rounding in line heights can never push text past the margin. */
@@ -49,6 +49,8 @@ export const SPACED_CAPS = { characterSpacing: 0.8, features: { kern: false } } 
 export const BADGE = { size: 11, padX: 9, height: 22 } as const;
 /** Width of the label column in a claim's tables ("Null hypothesis", "Test statistic"). */
 export const NUMBER_LABEL_WIDTH = 130;
+/** The widest the label column of a claim's tables grows to hold its longest label on one line. */
+export const NUMBER_LABEL_MAX = 150;
 /** Space between two claims that share a page (a rule is drawn in it). */
 export const CLAIM_GAP = 24;
 
@@ -57,6 +59,8 @@ export interface Cell {
   /** A second, small muted line under the text (e.g. a claim's id under its statement). */
   sub?: string;
   face?: Face;
+  /** Ink of the text (defaults to the body ink; header cells are muted). */
+  color?: string;
   mark?: VerdictKind;
   /** Draw the text as a verdict badge of this kind (one line). */
   badge?: VerdictKind;

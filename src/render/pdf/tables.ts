@@ -7,7 +7,7 @@ import type { Layout } from './layout.js';
 import type { VerdictKind } from '../model.js';
 import { BADGE_STYLE, badgeHeight, drawBadgeBox, drawMark } from './marks.js';
 import {
-  COLOR, CONTENT_WIDTH, MARGIN, NUMBER_LABEL_WIDTH, PAGE_ROOM, SIZE,
+  COLOR, CONTENT_WIDTH, MARGIN, NUMBER_LABEL_MAX, NUMBER_LABEL_WIDTH, PAGE_ROOM, SIZE,
   type Block, type Cell, type Column, type Struct,
 } from './style.js';
 
@@ -58,7 +58,7 @@ export function table(
   const parts = (cell: Cell, i: number, header: boolean): Part[] => {
     const face: Face = header ? 'bold' : (cell.face ?? columns[i]!.face ?? 'regular');
     const out: Part[] = [
-      { text: cell.text, face, size, color: header ? COLOR.muted : COLOR.ink, gap: 0, ...(cell.badge ? { badge: cell.badge } : {}) },
+      { text: cell.text, face, size, color: header ? COLOR.muted : (cell.color ?? COLOR.ink), gap: 0, ...(cell.badge ? { badge: cell.badge } : {}) },
     ];
     if (cell.sub) out.push({ text: cell.sub, face: 'regular', size: SIZE.small, color: COLOR.muted, gap: 1.5 });
     for (const m of cell.more ?? []) {
@@ -192,6 +192,20 @@ export function table(
   };
 }
 
+/** Inner padding of a label/value cell (left and right). */
+const PAIR_PAD_X = 5;
+
+/**
+ * Width of the label column of a claim's tables: as wide as the longest label needs, within
+ * NUMBER_LABEL_WIDTH..NUMBER_LABEL_MAX, so that labels such as "p-value adjusted for 13 claims" stay on one line and
+ * the four columns of paired rows never wrap a label. Tables of one claim share the widest of their widths.
+ */
+export function numberLabelWidth(L: Layout, labels: string[], face: Face = 'regular', size: number = SIZE.table): number {
+  L.doc.font(FONT_NAME[face]).fontSize(size);
+  const longest = Math.max(0, ...labels.map((l) => L.doc.widthOfString(l)));
+  return Math.min(NUMBER_LABEL_MAX, Math.max(NUMBER_LABEL_WIDTH, Math.ceil(longest + 2 * PAIR_PAD_X + 1)));
+}
+
 /**
  * The numbers of a claim, set compactly: two label/value pairs side by side when both values are short, one pair
  * across the width otherwise. Labels are row headers (TH), values data cells (TD); rows never split over pages.
@@ -199,23 +213,23 @@ export function table(
 export function numberPairs(
   L: Layout,
   rows: Array<{ label: string; value: string }>,
-  opts: { spaceAfter?: number; pair?: boolean; padY?: number } = {},
+  opts: { spaceAfter?: number; pair?: boolean; padY?: number; labelFace?: Face; labelWidth?: number; size?: number } = {},
 ): Block {
-  const size = SIZE.table;
-  const padX = 5;
+  const size = opts.size ?? SIZE.table;
+  const padX = PAIR_PAD_X;
   const padY = opts.padY ?? 2.8;
   const gap = 1.2;
   const after = opts.spaceAfter ?? 4;
   const half = CONTENT_WIDTH / 2;
-  const labelW = NUMBER_LABEL_WIDTH;
+  const labelFace = opts.labelFace ?? 'regular';
+  const labelW = opts.labelWidth ?? numberLabelWidth(L, rows.map((r) => r.label), labelFace, size);
   const shortValueW = half - labelW;
   const fullValueW = CONTENT_WIDTH - labelW;
   const fitsShort = (r: { label: string; value: string }): boolean => {
+    L.doc.font(FONT_NAME[labelFace]).fontSize(size);
+    const labelFits = L.doc.widthOfString(r.label) <= labelW - 2 * padX;
     L.doc.font(FONT_NAME.regular).fontSize(size);
-    return (
-      L.doc.widthOfString(r.value) <= shortValueW - 2 * padX &&
-      L.textHeight(r.label, 'regular', size, labelW - 2 * padX, gap) <= L.textHeight('A\nA', 'regular', size, 100, gap) + 0.5
-    );
+    return labelFits && L.doc.widthOfString(r.value) <= shortValueW - 2 * padX;
   };
   type Line = Array<{ label: string; value: string; valueW: number }>;
   const lines: Line[] = [];
@@ -235,7 +249,7 @@ export function numberPairs(
   const lineHeight = (line: Line): number =>
     Math.max(
       ...line.flatMap((c) => [
-        L.textHeight(c.label, 'regular', size, labelW - 2 * padX, gap),
+        L.textHeight(c.label, labelFace, size, labelW - 2 * padX, gap),
         L.textHeight(c.value, 'regular', size, c.valueW - 2 * padX, gap),
       ]),
     ) +
@@ -259,7 +273,7 @@ export function numberPairs(
           const lx = x;
           tr.add(
             L.doc.struct('TH', {}, () => {
-              L.setFont('regular', size, COLOR.muted);
+              L.setFont(labelFace, size, labelFace === 'bold' ? COLOR.ink : COLOR.muted);
               L.doc.text(cell.label, lx + padX, top + padY, { width: labelW - 2 * padX, lineGap: gap });
             }),
           );
