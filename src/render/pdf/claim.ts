@@ -9,7 +9,7 @@ import { blocksHeight, type Layout } from './layout.js';
 import { badgeWidth, drawBadge } from './marks.js';
 import { numberLabelWidth, numberPairs, table } from './tables.js';
 import {
-  BADGE, CLAIM_GAP, COLOR, CONTENT_WIDTH, LINE_GAP, MARGIN, NUMBER_LABEL_WIDTH, SPACED_CAPS, PAGE, PAGE_ROOM, SIZE, shorten,
+  BADGE, CLAIM_GAP, COLOR, CONTENT_WIDTH, CONTINUATION_HEIGHT, LINE_GAP, MARGIN, NUMBER_LABEL_WIDTH, SPACED_CAPS, PAGE, PAGE_ROOM, SIZE, shorten,
   svgSize, type Block, type Cell, type Struct,
 } from './style.js';
 
@@ -174,17 +174,17 @@ function claimBlocks(
   // Where the data came from and how many of those asked answered, under what was compared.
   if (claim.sourceLine) comparedBlocks.push(L.paragraph(claim.sourceLine, { size: NOTE_SIZE, color: COLOR.muted, spaceAfter: sp.compared }));
   if (!comparedLate) blocks.push(...comparedBlocks);
-  // The verdict at other confidence levels closes the numbers, sharing their label column.
   const labelW = numberLabelWidth(L, claim.numbers.map((r) => r.label), 'regular', sp.table);
   if (claim.numbers.length > 0) {
     blocks.push(L.heading('H3', 'The numbers', { spaceAfter: sp.h3 }));
-    blocks.push(numberPairs(L, claim.numbers, { spaceAfter: claim.stability ? 0 : 4, padY: sp.rowPadY, labelWidth: labelW, size: sp.table }));
+    blocks.push(numberPairs(L, claim.numbers, { spaceAfter: 4, padY: sp.rowPadY, labelWidth: labelW, size: sp.table }));
   }
-  if (claim.stability) blocks.push(stabilityRows(L, claim.stability, labelW, sp));
   // The method line reads as a note under the numbers it produced, at a size that stays readable in print; then the
-  // terms met here for the first time in the pack.
+  // verdict at other confidence levels (in the numbers' label column) and the terms met here first in the pack.
   const terms = claim.terms ?? [];
-  blocks.push(L.paragraph(claim.methodLine, { face: 'italic', size: NOTE_SIZE, color: COLOR.muted, spaceAfter: terms.length > 0 ? 3 : sp.method }));
+  const after = (last: boolean): number => (last ? sp.method : 4);
+  blocks.push(L.paragraph(claim.methodLine, { face: 'italic', size: NOTE_SIZE, color: COLOR.muted, spaceAfter: after(!claim.stability && terms.length === 0) }));
+  if (claim.stability) blocks.push(stabilityRows(L, claim.stability, labelW, sp, after(terms.length === 0)));
   terms.forEach((term, i) => {
     blocks.push(L.paragraph(`${term.term}: ${term.text}`, { size: NOTE_SIZE, color: COLOR.muted, spaceAfter: i === terms.length - 1 ? sp.method : 2 }));
   });
@@ -214,12 +214,12 @@ function adviceRows(claim: ClaimSection): Array<{ label: string; value: string }
 }
 
 /**
- * The verdict at 90, 95 and 99% confidence, as the last rows of the numbers. When the verdict is the same at every
+ * The verdict at 90, 95 and 99% confidence, under the method line of the numbers. When the verdict is the same at every
  * level with and without adjustment, one row says so with the verdict's mark. Otherwise a small grid: the levels
  * across (the claim's own level in bold), one line with the pack's adjustment for many claims and, where an
  * adjustment applies, one without it, each cell the verdict's mark and word.
  */
-function stabilityRows(L: Layout, s: VerdictStability, labelW: number, sp: ClaimSpacing): Block {
+function stabilityRows(L: Layout, s: VerdictStability, labelW: number, sp: ClaimSpacing, spaceAfter: number): Block {
   const own = s.cells.find((c) => c.own) ?? s.cells[1]!;
   if (!s.dependsOnLevel && !s.dependsOnAdjustment) {
     // The sentence names the levels and the adjustment itself, so it takes the whole width.
@@ -227,7 +227,7 @@ function stabilityRows(L: Layout, s: VerdictStability, labelW: number, sp: Claim
       header: false,
       size: sp.table,
       padY: sp.rowPadY + 0.8,
-      spaceAfter: 4,
+      spaceAfter,
     });
   }
   // The grid's label column also holds its heading on one line (bold, over the row labels).
@@ -247,7 +247,7 @@ function stabilityRows(L: Layout, s: VerdictStability, labelW: number, sp: Claim
       ...s.cells.map((c) => ({ header: c.level, width: cellW, ...(c.own ? { face: 'bold' as const } : {}) })),
     ],
     rows,
-    { size: sp.table, padY: sp.rowPadY + 0.4, spaceAfter: 4, keepTogether: true },
+    { size: sp.table, padY: sp.rowPadY + 0.4, spaceAfter, keepTogether: true },
   );
 }
 
@@ -288,10 +288,19 @@ async function layClaim(
     if (blocksHeight(laid.blocks.slice(laid.head)) <= PAGE_ROOM) chart = taller;
   }
   for (const sp of [SPACING_NORMAL, SPACING_TIGHT, SPACING_CLOSE]) {
-    const laid = claimBlocks(L, claim, chart, bookmarks, sp, true);
-    if (blocksHeight(laid.blocks.slice(0, laid.head)) <= PAGE_ROOM || sp === SPACING_CLOSE) return { blocks: laid.blocks, fits: false };
+    const { blocks, head } = claimBlocks(L, claim, chart, bookmarks, sp, true);
+    if (blocksHeight(blocks.slice(0, head)) > PAGE_ROOM && sp !== SPACING_CLOSE) continue;
+    // The rest starts the second page whole when it fits there, rather than leaving its last part alone on it.
+    const tail = blocksHeight(blocks.slice(head));
+    if (tail > PAGE_ROOM - CONTINUATION_HEIGHT) return { blocks, fits: false };
+    return { blocks: [...blocks.slice(0, head), keepTogether(tail), ...blocks.slice(head)], fits: false };
   }
   return { blocks: normal.blocks, fits: false };
+}
+
+/** A mark that moves the blocks after it to a new page unless `height` points of them fit on this one. */
+function keepTogether(height: number): Block {
+  return { height: () => 0, minHeight: () => height, draw: () => undefined };
 }
 
 /** Draw every claim: each on a new page unless it fits in the space left below the previous one. */
