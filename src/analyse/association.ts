@@ -9,9 +9,15 @@
  * after a straight-line fit on the controls (t on n − 2 − k degrees of freedom; Fisher (1924), Metron 3, 329–332),
  * which removes only the controls' straight-line effect. Optionally units are weighted by their respondents (the
  * smaller of the two measures' counts) in the correlation; the number of units stays the sample size. Spearman's rho
- * over the same units is reported as a check that rests on neither straight lines nor a few extreme units. The
- * least-squares line for the chart; the smallest |r| the number of units could detect with 80% power, for claims that
- * are not supported.
+ * and Kendall's tau-b over the same units are reported as checks that rest on neither straight lines nor a few
+ * extreme units. The least-squares line for the chart; the smallest |r| the number of units could detect with 80%
+ * power, for claims that are not supported.
+ *
+ * With controls every figure is about the controlled relation: the rank checks are the partial Spearman rho (t test
+ * on n − 2 − k df) and, for one control, Kendall's partial tau (a description, no test); each unit carries its
+ * residuals of x and y on the controls, and the line is that of y's residuals on x's residuals (its slope is x's
+ * coefficient in the regression of y on x and the controls: Frisch and Waugh, Econometrica 1 (1933) 387-401).
+ * A check that cannot be computed is left out with the reason, never replaced by its unpartialled form.
  */
 import type { AssociationClaim, Measure } from '../claims/types.js';
 import type { Cube, Pooled } from '../data/types.js';
@@ -21,10 +27,12 @@ import { pearson } from '../stats/pearson.js';
 import { partialCorrelation } from '../stats/partial-correlation.js';
 import { spearman } from '../stats/spearman.js';
 import { kendall } from '../stats/kendall.js';
-import { simpleLinearFit } from '../stats/least-squares.js';
+import { partialSpearman } from '../stats/partial-spearman.js';
+import { partialKendall, type PartialKendall } from '../stats/partial-kendall.js';
+import { leastSquares, simpleLinearFit } from '../stats/least-squares.js';
 import { minDetectableCorrelation } from '../stats/power-correlation.js';
 import type { CompareContext } from './compare.js';
-import type { AssociationAnalysis, UnitPoint } from './types.js';
+import type { AssociationAnalysis, RankCheckLeftOut, UnitPoint } from './types.js';
 import { sign } from './labels.js';
 import { measureValue, requireMeasure } from './measures.js';
 import { poolByUnit } from '../data/select.js';
@@ -136,7 +144,17 @@ export function analyseAssociation(claim: AssociationClaim, cube: Cube, ctx: Com
   const alternative = alternativeFor(claim);
   const test = run(alternative);
   const pOpposite = alternative === 'two-sided' ? undefined : run(alternativeFor(claim, true)).p;
-  const line = simpleLinearFit(x, y);
+  // With controls, the line and the chart are of the residuals: each measure less its straight-line fit on the controls.
+  if (controls.length > 0) {
+    const names = controls.map((c) => c.label);
+    const rx = leastSquares(z, x, { names }).residuals;
+    const ry = leastSquares(z, y, { names }).residuals;
+    points.forEach((p, i) => {
+      p.xResidual = rx[i] as number;
+      p.yResidual = ry[i] as number;
+    });
+  }
+  const line = controls.length > 0 ? simpleLinearFit(points.map((p) => p.xResidual as number), points.map((p) => p.yResidual as number)) : simpleLinearFit(x, y);
   // When unit sizes differ a lot (the largest at least three times the smallest: common practice), the correlation
   // weighted by respondents is shown beside the unweighted one, so a reader can see whether small units drive it.
   const sizes = points.map((p) => Math.min(p.nx, p.ny));
@@ -144,17 +162,32 @@ export function analyseAssociation(claim: AssociationClaim, cube: Cube, ctx: Com
   const weightedCheck =
     !claim.weighted && controls.length === 0 && uneven ? pearson(x, y, { alternative, level: claim.confidence, weights: sizes }) : undefined;
   const sided = alternative === 'two-sided' ? 'two-sided' : 'one-sided';
+  const leftOut: RankCheckLeftOut[] = [];
   let rho: TestResult | undefined;
   try {
-    rho = spearman(x, y, { alternative });
+    rho = controls.length > 0 ? partialSpearman(x, y, z, { alternative }) : spearman(x, y, { alternative });
   } catch {
-    rho = undefined; // ranks all tied on one side: the check is left out, the main test stands
+    // Ranks all tied on one measure, or (with controls) one measure's ranks fully explained by the controls' ranks:
+    // the check is left out and the page says so; the main test stands.
+    rho = undefined;
+    leftOut.push({ check: 'spearman', reason: controls.length > 0 ? 'undefined-partial' : 'undefined' });
   }
   let tau: TestResult | undefined;
-  try {
-    tau = kendall(x, y, { alternative });
-  } catch {
-    tau = undefined; // as for Spearman: every unit tied on one measure
+  let partialTau: PartialKendall | undefined;
+  if (controls.length === 0) {
+    try {
+      tau = kendall(x, y, { alternative });
+    } catch {
+      leftOut.push({ check: 'kendall', reason: 'undefined' }); // as for Spearman: every unit tied on one measure
+    }
+  } else if (controls.length === 1) {
+    try {
+      partialTau = partialKendall(x, y, z[0] as number[]);
+    } catch {
+      leftOut.push({ check: 'kendall', reason: 'undefined-partial' });
+    }
+  } else {
+    leftOut.push({ check: 'kendall', reason: 'several-controls' });
   }
   return {
     ...base,
@@ -171,12 +204,15 @@ export function analyseAssociation(claim: AssociationClaim, cube: Cube, ctx: Com
     },
     ...(rho ? { spearman: rho } : {}),
     ...(tau ? { kendall: tau } : {}),
+    ...(partialTau ? { partialKendall: partialTau } : {}),
+    ...(leftOut.length > 0 ? { rankChecksLeftOut: leftOut } : {}),
     methods: [
       controls.length > 0 ? 'partial-pearson' : 'pearson',
-      'least-squares',
+      controls.length > 0 ? 'partial-line' : 'least-squares',
       'power-correlation',
-      ...(rho ? ['spearman'] : []),
+      ...(rho ? [rho.method] : []),
       ...(tau ? ['kendall-tau-b'] : []),
+      ...(partialTau ? ['partial-kendall'] : []),
     ],
   };
 }

@@ -4,6 +4,7 @@
  */
 import type { AssociationClaim, Claim, CompareClaim, CrosstabClaim, EquivalenceClaim, MeansClaim } from '../claims/types.js';
 import type { Interval, TestResult } from '../stats/result.js';
+import type { PartialKendall } from '../stats/partial-kendall.js';
 import type { ChangeClaim, EstimateClaim, TargetClaim, TrendClaim } from '../claims/types.js';
 
 /** One selection's pooled agreement rate with its interval. */
@@ -93,6 +94,23 @@ export interface UnitPoint {
   ny: number;
   /** Values of the claim's control measures for this unit, in the claim's order. */
   controls?: number[];
+  /**
+   * With controls: x less its least-squares fit (with intercept) on the controls, in x's own units (a proportion for
+   * an agreement rate). Set on tested claims only.
+   */
+  xResidual?: number;
+  /** With controls: y less its least-squares fit on the controls, in y's own units. */
+  yResidual?: number;
+}
+
+/**
+ * A rank check the pack leaves out, and why: 'undefined' (every unit tied on one measure), 'undefined-partial' (with
+ * controls: a measure's ranks fully explained by the controls', or in the same order as the control), or
+ * 'several-controls' (Kendall's partial tau has a classic formula for one control only).
+ */
+export interface RankCheckLeftOut {
+  check: 'spearman' | 'kendall';
+  reason: 'undefined' | 'undefined-partial' | 'several-controls';
 }
 
 export interface AssociationAnalysis extends AnalysisBase {
@@ -101,15 +119,26 @@ export interface AssociationAnalysis extends AnalysisBase {
   points: UnitPoint[];
   /** Units left out because a measure had fewer respondents than the minimum (names only, never counts). */
   suppressedUnits: string[];
+  /**
+   * The least-squares line: of y on x; with controls, of y's residuals on x's residuals (the partial line, whose
+   * slope is x's coefficient in the regression of y on x and the controls, and whose R² is the partial r²).
+   */
   fit?: { intercept: number; slope: number; rSquared: number };
   /** Smallest |r| detectable with 80% power at this number of units. */
   detectable?: number;
   /** Total respondents behind each measure. */
   totals?: { x: number; y: number };
-  /** Spearman's rho over the same units, as a check that does not rest on straight lines or outliers. */
+  /**
+   * Spearman's rho over the same units, as a check that does not rest on straight lines or outliers; with controls,
+   * the partial Spearman rho (method 'partial-spearman').
+   */
   spearman?: TestResult;
-  /** Kendall's tau-b over the same units, a second check on ranks that counts agreeing and disagreeing pairs. */
+  /** Kendall's tau-b over the same units, a second check on ranks that counts agreeing and disagreeing pairs (no controls). */
   kendall?: TestResult;
+  /** With one control: Kendall's partial tau, a description with no p-value (src/stats/partial-kendall.ts). */
+  partialKendall?: PartialKendall;
+  /** Rank checks left out, with the reason the page gives; never replaced by an unpartialled figure. */
+  rankChecksLeftOut?: RankCheckLeftOut[];
   /** Labels of the controls when the test is a partial correlation. */
   controlled?: string[];
   /** True when units were weighted by their respondents. */

@@ -242,12 +242,12 @@ function scatterPlotSize(
   height: number,
   yDomain: [number, number],
   fmt: string,
-  hasNote: boolean,
+  title_: { noteLines: number; axisLines: number },
 ): { width: number; height: number } {
   const yLabel = (v: number): string => (fmt === '.0%' ? `${Math.round(v * 100)}%` : String(+v.toPrecision(3)));
   const yLabelWidth = Math.max(textWidth(yLabel(yDomain[0]), AXIS_LABEL_SIZE), textWidth(yLabel(yDomain[1]), AXIS_LABEL_SIZE));
   const left = 2 + yLabelWidth + 2 + 5;
-  const title = (hasNote ? 10 * 1.25 + 3 : 0) + AXIS_TITLE_SIZE * 1.25 + 8;
+  const title = (title_.noteLines > 0 ? title_.noteLines * 10 * 1.25 + 3 : 0) + title_.axisLines * AXIS_TITLE_SIZE * 1.25 + 8;
   const xAxis = 5 + 2 + AXIS_LABEL_SIZE * 1.25 + 8 + AXIS_TITLE_SIZE * 1.25;
   return { width: CHART_WIDTH - left - 8, height: height - 6 - 2 - title - xAxis };
 }
@@ -336,7 +336,8 @@ function scatterSpec(data: Extract<ChartData, { kind: 'scatter' }>, height: numb
     requireFinite(p.x, `x of "${p.label}"`);
     requireFinite(p.y, `y of "${p.label}"`);
   }
-  const fmt = data.percent ? '.0%' : '~g';
+  // Not '~g': with a tick step of one significant digit it writes 20 as "2e+1"; '~r' never uses an exponent.
+  const fmt = data.percent ? '.0%' : '~r';
   const xs = data.points.map((p) => p.x);
   const ys = data.points.map((p) => p.y);
   if (data.fit) {
@@ -357,7 +358,10 @@ function scatterSpec(data: Extract<ChartData, { kind: 'scatter' }>, height: numb
   ];
   if (data.points.length <= MAX_NAMED_POINTS) {
     // Every point is named, each label placed beside its point where it covers no other label or point.
-    const plot = scatterPlotSize(height, yScale.domain, fmt, data.note !== undefined);
+    const plot = scatterPlotSize(height, yScale.domain, fmt, {
+      noteLines: data.note === undefined ? 0 : wrapTitle(data.note, 10, 'bold').length,
+      axisLines: wrapTitle(data.yTitle, AXIS_TITLE_SIZE, 'regular').length,
+    });
     const placed = placeLabels(data.points, xScale.domain, yScale.domain, plot);
     for (const align of ['left', 'right', 'center'] as const) {
       const values = placed.filter((p) => p.align === align);
@@ -400,14 +404,44 @@ function scatterSpec(data: Extract<ChartData, { kind: 'scatter' }>, height: numb
 }
 
 /**
+ * A title's lines: the whole text when it fits the chart's width, else one line per part of a note (parts end with
+ * ";") and each part broken between words, so that a long note or axis name is never cut off at the chart's edge.
+ */
+export function wrapTitle(text: string, size: number, face: 'regular' | 'bold'): string[] {
+  const room = CHART_WIDTH - 12;
+  if (textWidth(text, size, face) <= room) return [text];
+  const lines: string[] = [];
+  // The parts of a note ("partial r = 0.11; 38 of 40 ...") start new lines; each part is broken between words.
+  for (const part of text.split(/(?<=;) /)) {
+    let line = '';
+    for (const word of part.split(' ')) {
+      const next = line ? `${line} ${word}` : word;
+      if (line && textWidth(next, size, face) > room) {
+        lines.push(line);
+        line = word;
+      } else {
+        line = next;
+      }
+    }
+    if (line) lines.push(line);
+  }
+  return lines;
+}
+
+/** Vega takes a one-line title as a string and several lines as an array. */
+function oneOrLines(lines: string[]): string | string[] {
+  return lines.length === 1 ? (lines[0] as string) : lines;
+}
+
+/**
  * A chart title naming the vertical axis, set horizontally above the plot at its left, under an optional
  * bold note. Used instead of a rotated axis title, which a long name would overrun.
  */
 function verticalTitle(axisTitle: string, note?: string): Record<string, unknown> {
-  const axis = axisTitle;
+  const axis = oneOrLines(wrapTitle(axisTitle, AXIS_TITLE_SIZE, 'regular'));
   const common = { anchor: 'start', color: PALETTE.ink, offset: 8, subtitleColor: PALETTE.ink, subtitleFontSize: AXIS_TITLE_SIZE };
   return note
-    ? { ...common, text: note, fontSize: 10, fontWeight: 'bold', subtitle: axis, subtitlePadding: 3 }
+    ? { ...common, text: oneOrLines(wrapTitle(note, 10, 'bold')), fontSize: 10, fontWeight: 'bold', subtitle: axis, subtitlePadding: 3 }
     : { ...common, text: axis, fontSize: AXIS_TITLE_SIZE, fontWeight: 'normal' };
 }
 

@@ -73,8 +73,8 @@ export interface ClaimResult {
   slope: number | null;
   /** The difference the pack prints with its interval at the claim's own level (proportion or scale points); null otherwise. */
   difference: { value: number; interval: Interval } | null;
-  /** Units (association) with their two measures; empty when data were too few. */
-  units: Array<{ unit: string; x: number; y: number; nx: number; ny: number }>;
+  /** Units (association) with their two measures (and, with controls, their residuals); empty when data were too few. */
+  units: Array<{ unit: string; x: number; y: number; nx: number; ny: number; xResidual?: number; yResidual?: number }>;
   /** Smallest difference (proportion) or correlation detectable with 80% power. */
   detectable: number | null;
   comparedWithRest: boolean;
@@ -127,10 +127,17 @@ export interface ClaimResult {
   fitted?: { rates: number[]; change: number };
   /** Trend: the chi-square for departure from a straight line. */
   departure?: { statistic: number; df: number; p: number } | null;
-  /** Association: the least-squares line y = intercept + slope x (in the measures' units: proportions for rates) and R². */
-  line?: { intercept: number; slope: number; rSquared: number } | null;
+  /**
+   * Association: the least-squares line y = intercept + slope x (in the measures' units: proportions for rates) and R²;
+   * with controls, of y's residuals on x's residuals (of: 'residuals'), whose R² is the partial r².
+   */
+  line?: { of: 'values' | 'residuals'; intercept: number; slope: number; rSquared: number } | null;
+  /** Association: the labels of the controls allowed for (partial correlation), in the claim's order; empty when none. */
+  controls?: string[];
   /** Association: the checks on ranks printed beside r (Spearman's rho, Kendall's tau-b), each with its p-value. */
-  rankChecks?: Array<{ method: string; estimate: number; p: number }>;
+  rankChecks?: Array<{ method: string; estimate: number; p: number | null }>;
+  /** Association: rank checks not shown, with the reason the pack prints (see RankCheckLeftOut in src/analyse/types.ts). */
+  rankChecksLeftOut?: Array<{ check: string; reason: string }>;
   /** Association and crosstab: units (rows) tested, all units (rows) found, and those left out for too few respondents. */
   unitCounts?: { tested: number; all: number; leftOut: number };
   /** Crosstab: the table of counts (rows × columns, rows with enough respondents), its smallest expected count and the residual cutoff. */
@@ -255,7 +262,16 @@ export function claimResult(a: Analysis, decision: Decision, section: ClaimSecti
     means: tested ? meanGroups.map((m) => ({ label: m.label, n: m.n, mean: m.mean, sd: m.sd, interval: m.interval })) : [],
     slope: tested && a.kind === 'trend' && typeof extra.slope === 'number' ? extra.slope : null,
     difference: tested && difference && typeof difference.value === 'number' && difference.interval ? { value: difference.value, interval: difference.interval } : null,
-    units: tested ? points.map((p) => ({ unit: p.unit, x: p.x, y: p.y, nx: p.nx, ny: p.ny })) : [],
+    units: tested
+      ? points.map((p) => ({
+          unit: p.unit,
+          x: p.x,
+          y: p.y,
+          nx: p.nx,
+          ny: p.ny,
+          ...(p.xResidual !== undefined && p.yResidual !== undefined ? { xResidual: p.xResidual, yResidual: p.yResidual } : {}),
+        }))
+      : [],
     comparedWithRest: extra.relation !== undefined && extra.relation !== 'separate',
     verdictLabel: section.verdictLabel,
     verdictDetail: section.verdictDetail ?? null,
@@ -305,11 +321,15 @@ function kindFigures(a: Analysis): Partial<ClaimResult> {
         : {};
     case 'association':
       return {
-        line: a.fit ? { intercept: a.fit.intercept, slope: a.fit.slope, rSquared: a.fit.rSquared } : null,
+        line: a.fit ? { of: a.controlled ? 'residuals' : 'values', intercept: a.fit.intercept, slope: a.fit.slope, rSquared: a.fit.rSquared } : null,
+        controls: a.controlled ?? [],
+        // With controls the checks are partial (partial Spearman; Kendall's partial tau, which has no p-value).
         rankChecks: [
-          ...(a.spearman ? [{ method: 'spearman', estimate: a.spearman.estimate.value, p: a.spearman.p }] : []),
+          ...(a.spearman ? [{ method: a.spearman.method, estimate: a.spearman.estimate.value, p: a.spearman.p }] : []),
           ...(a.kendall ? [{ method: 'kendall-tau-b', estimate: a.kendall.estimate.value, p: a.kendall.p }] : []),
+          ...(a.partialKendall ? [{ method: a.partialKendall.method, estimate: a.partialKendall.estimate.value, p: null }] : []),
         ],
+        rankChecksLeftOut: (a.rankChecksLeftOut ?? []).map((l) => ({ check: l.check, reason: l.reason })),
         unitCounts: { tested: a.points.length, all: a.points.length + a.suppressedUnits.length, leftOut: a.suppressedUnits.length },
       };
     case 'crosstab':

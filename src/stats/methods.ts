@@ -68,6 +68,11 @@ export const METHODS: Record<string, MethodInfo> = {
     text: 'The straight line that best fits the points, drawn on the chart to show the direction and size of the association.',
     source: 'Draper, N. R. and Smith, H. (1998). Applied Regression Analysis, 3rd ed., Wiley, ch. 1.',
   },
+  'partial-line': {
+    name: 'Least-squares line after allowing for controls',
+    text: 'The straight line through the units’ residuals: each measure less what a straight-line fit on the named controls predicts for the unit. Its slope equals the first measure’s coefficient in a regression of the second on the first and the controls together, and the chart of residuals shows what the partial correlation measures.',
+    source: 'Frisch, R. and Waugh, F. V. (1933). Partial time regressions as compared with individual trends. Econometrica 1, 387–401.',
+  },
   'power-correlation': {
     name: 'Smallest detectable correlation',
     text: 'The weakest correlation that a test with this number of units would find 80% of the time at the threshold that decided the verdict (after the adjustment for many claims), from the Fisher z approximation.',
@@ -137,6 +142,16 @@ export const METHODS: Record<string, MethodInfo> = {
     name: 'Partial correlation',
     text: 'The correlation of two measures after the straight-line effect of the named control variables has been removed from both. It controls only for the variables named, and only for their linear effect.',
     source: 'Fisher, R. A. (1924). The distribution of the partial correlation coefficient. Metron 3, 329–332.',
+  },
+  'partial-spearman': {
+    name: 'Partial Spearman rank correlation',
+    text: 'Spearman’s rank correlation after the named controls have been allowed for: every measure is replaced by the units’ ranks, and the straight-line effect of the controls’ ranks is removed from both ranks before they are correlated. Its p-value uses the t approximation on n − 2 − k degrees of freedom (k controls).',
+    source: 'Conover, W. J. and Iman, R. L. (1981). Rank transformations as a bridge between parametric and nonparametric statistics. The American Statistician 35, 124–129; Kim, S. (2015). ppcor: an R package for a fast calculation to semi-partial correlation coefficients. Communications for Statistical Applications and Methods 22, 665–674.',
+  },
+  'partial-kendall': {
+    name: 'Kendall partial rank correlation',
+    text: 'Kendall’s tau between two measures with one control allowed for, from the three pairwise taus: (τxy − τxz τyz) / √((1 − τxz²)(1 − τyz²)). It is shown as a description only, with no p-value: its sampling distribution is not that of tau and has no standard form. There is no classic formula for several controls, so it is left out when a claim names more than one.',
+    source: 'Kendall, M. G. (1942). Partial rank correlation. Biometrika 32, 277–283.',
   },
   'one-way-anova': {
     name: 'One-way analysis of variance',

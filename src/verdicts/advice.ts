@@ -31,7 +31,7 @@ import * as fmt from '../format/numbers.js';
 import type { ClaimAdvice, LinkedClaim, NotSupportedAs } from '../render/model.js';
 import type { Decision } from './decide.js';
 import type { Templates } from './templates.js';
-import { unitWords } from './words/association.js';
+import { listWords, unitWords } from './words/association.js';
 
 /** A difference worth reporting, in the units of the claim's interval, and where it comes from. */
 export interface Worth {
@@ -230,7 +230,7 @@ function rewording(a: Analysis, e: EffectInterval & { level: number }, t: Templa
   // The bound the interval puts on an effect in the claimed direction(s), never below zero.
   const bound = direction > 0 ? Math.max(e.upper, 0) : direction < 0 ? Math.max(-e.lower, 0) : Math.max(Math.abs(e.lower), Math.abs(e.upper));
   const l = labelsOf(a);
-  const c = a.claim as unknown as { confidence: number; valueLabel?: string; value?: number; xLabel?: string; yLabel?: string };
+  const c = a.claim as unknown as { confidence: number; valueLabel?: string; value?: number; xLabel?: string; yLabel?: string; controls?: Array<{ label: string }> };
   const x = a as unknown as { periods?: { from: string; to: string }; points?: unknown[]; claim: { units?: string | string[] } };
   const view = {
     focus: l.focus,
@@ -251,6 +251,8 @@ function rewording(a: Analysis, e: EffectInterval & { level: number }, t: Templa
     yLabel: c.yLabel ?? '',
     units: String(x.points?.length ?? ''),
     unitsName: x.claim.units ? unitWords(x.claim.units).unitsName : 'units',
+    // An association with controls: the bound is on the partial correlation, and the wording says so.
+    controlled: listWords((c.controls ?? []).map((z) => z.label)),
   };
   return t.render(`advice.wording.${a.kind}`, view);
 }

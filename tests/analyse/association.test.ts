@@ -9,8 +9,9 @@ import { expectClose } from '../helpers/tolerance.js';
 import { base, codes, ctx, cubeOf, n, ourAlternative, ref } from './kinds-b-fixture.js';
 
 // Reference: GNU R 4.2 cor.test (Pearson and Spearman, exact = FALSE), partial correlation as cor() of lm()
-// residuals with t on n - 2 - k df and a Fisher z interval, weighted correlation by cov.wt, lm() for the line
-// (tests/fixtures/r/kinds-b.R).
+// residuals with t on n - 2 - k df and a Fisher z interval, weighted correlation by cov.wt, lm() for the line; with a
+// control, partial Spearman as cor() of lm() residuals of the ranks, Kendall's partial tau from cor(method =
+// "kendall"), the residuals from lm() and the partial line as lm() of residual on residual (tests/fixtures/r/kinds-b.R).
 
 const A = ref.association;
 const sum = (v: number[]) => v.reduce((s, x) => s + x, 0);
@@ -71,6 +72,22 @@ describe('association against R', () => {
       expectClose(a.test?.p ?? NaN, r.p, 'p', 'p');
       expectClose(a.test?.interval?.lower ?? NaN, n(r.lower), 'bound', 'lower');
       expectClose(a.test?.interval?.upper ?? NaN, n(r.upper), 'bound', 'upper');
+      // The rank checks are partial too, and the line is the partial one (through the residuals).
+      const s = A.partial_spearman.find((x) => x.alternative === r.alternative);
+      expect(a.spearman?.method).toBe('partial-spearman');
+      expectClose(a.spearman?.estimate.value ?? NaN, s?.rho ?? NaN, 'closed', 'partial rho');
+      expectClose(a.spearman?.p ?? NaN, s?.p ?? NaN, 'p', 'partial Spearman p');
+      expect(a.kendall).toBeUndefined();
+      expectClose(a.partialKendall?.estimate.value ?? NaN, A.partial_kendall, 'closed', 'partial tau');
+      a.points.forEach((p, i) => {
+        expectClose(p.xResidual ?? NaN, A.x_residual[i] as number, 'closed', `x residual ${p.unit}`);
+        expectClose(p.yResidual ?? NaN, A.y_residual[i] as number, 'closed', `y residual ${p.unit}`);
+      });
+      expectClose(a.fit?.slope ?? NaN, A.partial_fit.slope, 'closed', 'partial slope');
+      expectClose(a.fit?.slope ?? NaN, A.partial_fit.slope_with_z, 'closed', "x's coefficient with z in the model");
+      expectClose(a.fit?.rSquared ?? NaN, A.partial_fit.r_squared, 'closed', 'partial R²');
+      expect(Math.abs(a.fit?.intercept ?? NaN)).toBeLessThan(1e-15);
+      expect(a.methods).toEqual(['partial-pearson', 'partial-line', 'power-correlation', 'partial-spearman', 'partial-kendall']);
     });
   }
   for (const r of A.weighted) {
@@ -100,10 +117,41 @@ describe('association: words and verdict paths', () => {
     const d = decide(a, a.test?.p);
     expect(d.verdict).toBe('supported');
     const w = words(a, d);
-    expect(w.section.verdictText).toMatch(/controlling for teaching/);
-    expect(w.section.cautions.join(' ')).toMatch(/controlling for teaching, which removes only its straight-line effect/);
+    expect(w.section.verdictText).toMatch(/after allowing for teaching, those with higher resources/);
+    expect(w.section.hypotheses.null).toBe(
+      'Across depts, once teaching is allowed for, there is no linear association between resources and satisfaction (the partial correlation is zero).',
+    );
+    expect(w.section.hypotheses.alternative).toMatch(/^Across depts, after allowing for teaching, higher resources goes with higher satisfaction/);
+    expect(w.section.cautions.join(' ')).toMatch(/after allowing for teaching, which removes only its straight-line effect/);
+    expect(w.section.cautions.join(' ')).toMatch(/higher resources \(after allowing for teaching\) tend to have a higher satisfaction/);
     expect(w.section.cautions.join(' ')).toMatch(/does not show that one measure causes the other/);
-    expect(w.section.numbers.map((r) => r.label)).toContain("Spearman's rho (check on ranks)");
+    // Every figure is about the controlled relation: no unpartialled rank check, no line of the raw values.
+    const rows = Object.fromEntries(w.section.numbers.map((r) => [r.label, r.value]));
+    expect(rows["Partial Spearman's rho (check on ranks, after allowing for teaching)"]).toMatch(/^0\.95 \(/);
+    expect(rows["Kendall's partial tau (check on pairs of units, after allowing for teaching)"]).toMatch(/^0\.86 \(a description only: partial tau has no standard test/);
+    expect(rows["Least-squares line after allowing for teaching (residuals)"]).toMatch(/^residual satisfaction = 1\.\d{3} × residual resources \(points per point\); R² = /);
+    expect(Object.keys(rows).filter((l) => /^Spearman|^Kendall's tau-b|^Least-squares line$/.test(l))).toEqual([]);
+    // The chart: residuals in points, their own axis titles, the partial line.
+    const chart = w.section.chart?.data;
+    if (chart?.kind !== 'scatter') throw new Error('expected a scatter chart');
+    expect(chart.percent).toBe(false);
+    expect(chart.xTitle).toBe('resources, after removing teaching (residual, points)');
+    expect(chart.yTitle).toBe('satisfaction, after removing teaching (residual, points)');
+    chart.points.forEach((p, i) => expectClose(p.x, (A.x_residual[i] as number) * 100, 'closed', `plotted x residual ${p.label}`));
+    expectClose(chart.fit?.slope ?? NaN, A.partial_fit.slope, 'closed', 'plotted slope (points per point)');
+    expect(chart.note).toMatch(/^partial r = 0\.\d+; 10 depts$/);
+  });
+  it('with two controls Kendall\'s partial tau is left out, and the page says why', () => {
+    const second = { filter: { Q: 'Q4' }, measure: { type: 'mean' as const }, label: 'overall score' };
+    const a = analyseAssociation(claim({ controls: [control, second] }), cube, ctx);
+    expect(a.partialKendall).toBeUndefined();
+    expect(a.kendall).toBeUndefined();
+    expect(a.rankChecksLeftOut).toEqual([{ check: 'kendall', reason: 'several-controls' }]);
+    const rows = Object.fromEntries(words(a, decide(a, a.test?.p)).section.numbers.map((r) => [r.label, r.value]));
+    expect(rows["Kendall's partial tau (check on pairs of units, after allowing for teaching and overall score)"]).toBe(
+      "not shown: Kendall's partial tau has a standard form for one control only, and this claim names 2",
+    );
+    expect(a.spearman?.method).toBe('partial-spearman');
   });
   it('opposite when the claim expected a negative association', () => {
     const a = analyseAssociation(claim({ expect: 'negative', sided: 'one-sided' }), cube, ctx);

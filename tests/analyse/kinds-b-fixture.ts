@@ -91,6 +91,11 @@ export interface AssociationCase {
   mean_pearson: Corr[];
   mean_partial: Corr[];
   fit: { intercept: number; slope: number; r_squared: number };
+  partial_spearman: Array<{ alternative: string; rho: number; p: number }>;
+  partial_kendall: number;
+  x_residual: number[];
+  y_residual: number[];
+  partial_fit: { intercept: number; slope: number; slope_with_z: number; r_squared: number };
 }
 
 export const ref = JSON.parse(readFileSync(path, 'utf8')) as {

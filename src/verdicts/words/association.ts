@@ -32,6 +32,7 @@ export function composeAssociation(a: AssociationAnalysis, decision: Decision, c
     rName: controlled ? 'partial r' : 'r',
     controlCount: claim.controls?.length ?? 0,
     controlPronoun: (claim.controls?.length ?? 0) > 1 ? 'their' : 'its',
+    oneControl: a.partialKendall !== undefined,
     weighted: a.weighted === true,
     unitCount: a.points.length,
     scope: scopeText(claim.where, claim.naming),
@@ -49,24 +50,28 @@ export function composeAssociation(a: AssociationAnalysis, decision: Decision, c
     ...pView(decision, ctx),
   };
   const bothRates = (claim.xMeasure?.type ?? 'agree') === 'agree' && (claim.yMeasure?.type ?? 'agree') === 'agree';
+  // With controls the line is through the residuals, drawn and printed in each measure's own residual units.
+  const xr = residualUnit(claim.xMeasure);
+  const yr = residualUnit(claim.yMeasure);
+  const lineRow: NumberRow = controlled
+    ? {
+        label: `Least-squares line after allowing for ${controlled} (residuals)`,
+        value: `residual ${yLabel} = ${fmt.plain((a.fit.slope * yr.scale) / xr.scale, 3)} × residual ${xLabel} (${yr.unit} per ${xr.one}); R² = ${fmt.coefficient(a.fit.rSquared)}`,
+      }
+    : {
+        label: 'Least-squares line',
+        value: bothRates
+          ? `${yLabel} = ${fmt.plain(a.fit.intercept * 100, 1)} + ${fmt.plain(a.fit.slope, 2)} × ${xLabel} (in %); R² = ${fmt.coefficient(a.fit.rSquared)}`
+          : `${yLabel} = ${fmt.plain(a.fit.intercept, 3)} + ${fmt.plain(a.fit.slope, 3)} × ${xLabel}; R² = ${fmt.coefficient(a.fit.rSquared)}`,
+      };
   const numbers: NumberRow[] = [
     { label: 'Units', value: unitsUsedText(a, unitsName) },
     {
-      label: controlled ? `Partial correlation (controlling for ${controlled})` : a.weighted ? 'Correlation (Pearson r, weighted by respondents)' : 'Correlation (Pearson r)',
+      label: controlled ? `Partial correlation (after allowing for ${controlled})` : a.weighted ? 'Correlation (Pearson r, weighted by respondents)' : 'Correlation (Pearson r)',
       value: `${view.r} (interval ${view.rLower} to ${view.rUpper})`,
     },
-    ...(a.spearman
-      ? [{ label: "Spearman's rho (check on ranks)", value: t.render('association.spearman-line', { rho: fmt.coefficient(a.spearman.estimate.value), pPhrase: fmt.pPhrase(a.spearman.p) }) }]
-      : []),
-    ...(a.kendall
-      ? [{ label: "Kendall's tau-b (check on pairs of units)", value: t.render('association.kendall-line', { tau: fmt.coefficient(a.kendall.estimate.value), pPhrase: fmt.pPhrase(a.kendall.p) }) }]
-      : []),
-    {
-      label: 'Least-squares line',
-      value: bothRates
-        ? `${yLabel} = ${fmt.plain(a.fit.intercept * 100, 1)} + ${fmt.plain(a.fit.slope, 2)} × ${xLabel} (in %); R² = ${fmt.coefficient(a.fit.rSquared)}`
-        : `${yLabel} = ${fmt.plain(a.fit.intercept, 3)} + ${fmt.plain(a.fit.slope, 3)} × ${xLabel}; R² = ${fmt.coefficient(a.fit.rSquared)}`,
-    },
+    ...rankRows(a, controlled, t),
+    lineRow,
     ...(a.weightedCheck
       ? [{ label: 'Correlation weighted by respondents (check)', value: `${fmt.coefficient(a.weightedCheck.estimate.value)} (interval ${fmt.coefficient(a.weightedCheck.interval?.lower ?? NaN)} to ${fmt.coefficient(a.weightedCheck.interval?.upper ?? NaN)}; ${fmt.pPhrase(a.weightedCheck.p)})` }]
       : []),
@@ -87,9 +92,9 @@ export function composeAssociation(a: AssociationAnalysis, decision: Decision, c
   if (a.weighted) cautions.push(t.render('association.caution-weighted', view));
   if (a.points.length < 10) cautions.push(t.render('caution.few-units', view));
   if (a.suppressedUnits.length > 0) {
-    cautions.push(t.render('caution.suppressed-units', { ...view, count: a.suppressedUnits.length, names: a.suppressedUnits.join(', ') }));
+    cautions.push(t.render('caution.suppressed-units', { ...view, count: a.suppressedUnits.length, one: a.suppressedUnits.length === 1, names: a.suppressedUnits.join(', ') }));
   }
-  const chart: Chart = {
+  const chart: Chart = controlled ? residualChart(a, { xLabel, yLabel, controlled, unitsName, xr, yr, view }) : {
     data: {
       kind: 'scatter',
       points: a.points.map((p) => ({ label: p.unit, x: p.x, y: p.y, n: Math.min(p.nx, p.ny) })),
@@ -135,8 +140,90 @@ function unitsUsedText(a: AssociationAnalysis, unitsName: string): string {
 }
 
 /** "A", "A and B", "A, B and C". */
-function listWords(items: string[]): string {
+export function listWords(items: string[]): string {
   return items.length <= 1 ? (items[0] ?? '') : `${items.slice(0, -1).join(', ')} and ${items[items.length - 1] as string}`;
+}
+
+/**
+ * The scatter of residuals for a controlled claim: each unit's x and y less what the controls predict, in the
+ * measures' residual units, with the line through them (the partial line) and the partial r in its note.
+ */
+function residualChart(
+  a: AssociationAnalysis,
+  w: { xLabel: string; yLabel: string; controlled: string; unitsName: string; xr: ResidualUnit; yr: ResidualUnit; view: View },
+): Chart {
+  const fit = a.fit as NonNullable<AssociationAnalysis['fit']>;
+  return {
+    data: {
+      kind: 'scatter',
+      points: a.points.map((p) => ({
+        label: p.unit,
+        x: (p.xResidual as number) * w.xr.scale,
+        y: (p.yResidual as number) * w.yr.scale,
+        n: Math.min(p.nx, p.ny),
+      })),
+      xTitle: `${w.xLabel}, after removing ${w.controlled} (residual, ${w.xr.unit})`,
+      yTitle: `${w.yLabel}, after removing ${w.controlled} (residual, ${w.yr.unit})`,
+      fit: { intercept: fit.intercept * w.yr.scale, slope: (fit.slope * w.yr.scale) / w.xr.scale },
+      note: `${String(w.view.rName)} = ${String(w.view.r)}; ${unitsUsedText(a, w.unitsName)}`,
+      percent: false,
+    },
+    alt:
+      `Scatter chart of ${a.points.length} ${w.unitsName} after removing ${w.controlled}: ${w.xLabel} across and ${w.yLabel} up, ` +
+      `each as the residual from its straight-line fit on ${w.controlled}, with the least-squares line through the residuals; ` +
+      `${String(w.view.rName)} = ${String(w.view.r)} (interval ${String(w.view.rLower)} to ${String(w.view.rUpper)}).`,
+  };
+}
+
+/** The rank checks' rows: Spearman and Kendall, partial when the claim has controls, or why one is left out. */
+function rankRows(a: AssociationAnalysis, controlled: string, t: ComposeContext['templates']): NumberRow[] {
+  const rows: NumberRow[] = [];
+  const after = controlled ? `, after allowing for ${controlled}` : '';
+  const leftOut = (check: 'spearman' | 'kendall') => a.rankChecksLeftOut?.find((l) => l.check === check);
+  if (a.spearman) {
+    rows.push({
+      label: controlled ? `Partial Spearman's rho (check on ranks${after})` : "Spearman's rho (check on ranks)",
+      value: t.render('association.spearman-line', { rho: fmt.coefficient(a.spearman.estimate.value), pPhrase: fmt.pPhrase(a.spearman.p) }),
+    });
+  } else if (leftOut('spearman')) {
+    rows.push({ label: controlled ? `Partial Spearman's rho (check on ranks${after})` : "Spearman's rho (check on ranks)", value: leftOutWords(leftOut('spearman')!, a, t) });
+  }
+  if (a.kendall) {
+    rows.push({ label: "Kendall's tau-b (check on pairs of units)", value: t.render('association.kendall-line', { tau: fmt.coefficient(a.kendall.estimate.value), pPhrase: fmt.pPhrase(a.kendall.p) }) });
+  } else if (a.partialKendall) {
+    rows.push({
+      label: `Kendall's partial tau (check on pairs of units${after})`,
+      value: t.render('association.partial-kendall-line', { tau: fmt.coefficient(a.partialKendall.estimate.value) }),
+    });
+  } else if (leftOut('kendall')) {
+    rows.push({ label: controlled ? `Kendall's partial tau (check on pairs of units${after})` : "Kendall's tau-b (check on pairs of units)", value: leftOutWords(leftOut('kendall')!, a, t) });
+  }
+  return rows;
+}
+
+/** Why a rank check is not shown, in words (template association.rank-check-left-out). */
+function leftOutWords(l: NonNullable<AssociationAnalysis['rankChecksLeftOut']>[number], a: AssociationAnalysis, t: ComposeContext['templates']): string {
+  return t.render('association.rank-check-left-out', {
+    tied: l.reason === 'undefined',
+    explained: l.reason === 'undefined-partial',
+    several: l.reason === 'several-controls',
+    controlCount: a.claim.controls.length,
+  });
+}
+
+interface ResidualUnit {
+  /** Multiplier from the measure's own units to the units shown. */
+  scale: number;
+  /** The units, plural ("points") and for one ("point"). */
+  unit: string;
+  one: string;
+}
+
+/** The units of a measure's residual: percentage points for an agreement rate, scale points for a mean score. */
+function residualUnit(m: Measure | undefined): ResidualUnit {
+  if (m === undefined || m.type === 'agree') return { scale: 100, unit: 'points', one: 'point' };
+  if (m.type === 'mean') return { scale: 1, unit: 'scale points', one: 'scale point' };
+  return { scale: 1, unit: m.column, one: m.column };
 }
 
 /** What an axis measures, for its title. */
