@@ -234,6 +234,8 @@ function dotIntervalSpec(
 /** Points of a scatter chart are named when there are at most this many (more would crowd the plot). */
 export const MAX_NAMED_POINTS = 25;
 const POINT_LABEL_SIZE = 8;
+/** Space in points kept between two point labels on one line. */
+const LABEL_GAP = 3;
 /** Radius in points of a scatter point (a filled circle of area 40). */
 const POINT_RADIUS = Math.sqrt(40 / Math.PI);
 
@@ -315,7 +317,10 @@ export function placeLabels(
       const outside =
         Math.max(0, -box.x0) + Math.max(0, box.x1 - plot.width) + Math.max(0, -box.y0) + Math.max(0, box.y1 - plot.height);
       const cost =
-        outside * lineH * 4 + dots.reduce((a, d) => a + overlap(box, d), 0) + boxes.reduce((a, b) => a + overlap(box, b), 0);
+        outside * lineH * 4 +
+        dots.reduce((a, d) => a + overlap(box, d), 0) +
+        // Two labels need a little space between them, or they read as one word ("GeologyLinguistics").
+        boxes.reduce((a, b) => a + overlap({ ...box, x0: box.x0 - LABEL_GAP, x1: box.x1 + LABEL_GAP }, b), 0);
       if (best === undefined || cost < best.cost) best = { c, box, cost };
       if (cost === 0) break;
     }
