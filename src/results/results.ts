@@ -95,6 +95,12 @@ export interface ClaimResult {
   /** Lowest response rate among the selections (0-1), null when unknown. */
   responseRate?: number | null;
   /**
+   * The finite-population correction as decided for the claim: used in every figure of its rates or in none, and
+   * why not ('off': turned off in the claims file; 'no-population': no number eligible; 'no-form': the claim's test
+   * has no corrected form, named in `form`). Null when the source gives no number eligible and none was asked for.
+   */
+  finitePopulationCorrection?: { used: boolean; why?: string; form?: string } | null;
+  /**
    * A second test printed beside the main one: Mann–Whitney beside a t test (or Welch beside the rank test) for mean
    * scores; the respondent-weighted correlation beside the unweighted one for associations. Null when none.
    */
@@ -279,6 +285,7 @@ export function claimResult(a: Analysis, decision: Decision, section: ClaimSecti
     ...(section.advice ? { advice: section.advice } : {}),
     linkedClaims: (section.linked ?? []).map((l) => l.id),
     responseRate: tested ? responseRateOf(a)?.rate ?? null : null,
+    finitePopulationCorrection: a.fpc !== undefined ? { used: a.fpc.used, ...(a.fpc.why !== undefined ? { why: a.fpc.why } : {}), ...(a.fpc.form !== undefined ? { form: a.fpc.form } : {}) } : null,
     check:
       a.kind === 'means' && a.check
         ? { method: a.check.method, estimate: null, p: a.check.test.p }

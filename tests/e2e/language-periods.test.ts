@@ -99,11 +99,25 @@ describe('the finite-population correction, one decision for every figure', () =
     against: { Institution: Vellmoor Institute }
     expect: different${extra}
 `;
+  const EQUIVALENCE = `
+  - id: brackenholt-like-vellmoor
+    claim: Brackenholt and Vellmoor students agree on Q01 within 10 points of each other.
+    kind: equivalence
+    where: { Year: 2026, Question: Q01 }
+    focus: { Institution: Brackenholt College }
+    against: { Institution: Vellmoor Institute }
+    margin: 10 points
+`;
+  /** The number eligible in 2026 on Q01, read from the fixture's rows. */
+  const eligible2026 = (institution: string): number => {
+    const rows = readFileSync(join(root, 'tests/fixtures/r/language/periods.csv'), 'utf8').trim().split('\n').slice(1).map((l) => l.split(','));
+    return Number(rows.find((r) => r[0] === `"${institution}"` && r[1] === '2026' && r[2] === '"Q01"')?.[5]);
+  };
   let on: ReturnType<typeof build>;
   let off: ReturnType<typeof build>;
   let claimOff: ReturnType<typeof build>;
   beforeAll(() => {
-    on = build('fpc-on', `${HEAD}claims:${compare('')}`);
+    on = build('fpc-on', `${HEAD}claims:${compare('')}${EQUIVALENCE}`);
     off = build('fpc-off', `${HEAD.replace('adjust: none', 'adjust: none\nfinite_population_correction: false')}claims:${compare('')}`);
     claimOff = build('fpc-claim-off', `${HEAD}claims:${compare('\n    finite_population_correction: false')}`);
   }, 180_000);
@@ -121,6 +135,11 @@ describe('the finite-population correction, one decision for every figure', () =
     expectClose(c.interval.upper, R.fpc.diff_upper, 'closed', 'Newcombe hybrid from the corrected Wilson limits');
     expectClose(c.detectable, R.fpc.detectable, 1e-9, 'R uniroot on the power formula with n / f');
     expect(on.text).toMatch(/; finite-? ?population correction in every figure; 95% confidence/);
+    // The numbers table says so too, with the numbers eligible the correction works from; results.json records it.
+    const [b, v] = [eligible2026('Brackenholt College'), eligible2026('Vellmoor Institute')];
+    expect(b).toBeGreaterThan(0);
+    expect(on.text).toContain(`Finite-population correction used in every figure; ${b.toLocaleString('en-GB')} eligible in Brackenholt College, ${v.toLocaleString('en-GB')} in Vellmoor Institute`);
+    expect(c.finitePopulationCorrection).toEqual({ used: true });
     expect(on.text).toContain('Cochran, W. G. (1977). Sampling Techniques');
   });
 
@@ -133,7 +152,8 @@ describe('the finite-population correction, one decision for every figure', () =
     expectClose(c.interval.lower, R.plain.diff_lower, 'closed', 'Newcombe hybrid');
     expectClose(c.interval.upper, R.plain.diff_upper, 'closed', 'Newcombe hybrid');
     expectClose(c.detectable, R.plain.detectable, 1e-9, 'R uniroot on the power formula');
-    expect(off.text).toContain('Finite-population correction not used (turned off)');
+    expect(off.text).toContain(`Finite-population correction not used (turned off); ${eligible2026('Brackenholt College').toLocaleString('en-GB')} eligible in Brackenholt College`);
+    expect(c.finitePopulationCorrection).toEqual({ used: false, why: 'off' });
     expect(off.text).not.toMatch(/finite-? ?population correction in every figure/);
   });
 
@@ -143,9 +163,24 @@ describe('the finite-population correction, one decision for every figure', () =
     expect(claimOff.text).toContain('Finite-population correction not used (turned off)');
   });
 
+  it('an equivalence claim (no corrected form of its test) uses it in no figure and says so plainly', () => {
+    const c = on.results.claims.find((x) => x.id === 'brackenholt-like-vellmoor') as Record<string, any>;
+    expect(c.finitePopulationCorrection).toEqual({ used: false, why: 'no-form', form: 'the equivalence test' });
+    expect(c.selections.every((s: { interval: { method: string } }) => s.interval.method === 'wilson')).toBe(true);
+    expect(on.text).toContain('Finite-population correction not used in any figure (the equivalence test has no corrected form)');
+  });
+
   it('a trend (no corrected form) uses it in no figure and says so', () => {
     const c = trend.results.claims[0] as Record<string, any>;
     expect(c.selections.every((s: { interval: { method: string } }) => s.interval.method === 'wilson')).toBe(true);
-    expect(trend.text).toContain('Finite-population correction in no figure (the trend test has no corrected form)');
+    expect(c.finitePopulationCorrection).toEqual({ used: false, why: 'no-form', form: 'the trend test' });
+    // The numbers table says so plainly, with the numbers eligible it would have worked from (from the fixture's rows).
+    const rows = readFileSync(join(root, 'tests/fixtures/r/language/periods.csv'), 'utf8').trim().split('\n').slice(1).map((l) => l.split(','));
+    const eligible = rows.filter((r) => r[0] === '"Brackenholt College"' && r[2] === '"Q01"').map((r) => [r[1] as string, Number(r[5])] as const);
+    expect(eligible).toHaveLength(5);
+    const [first, ...rest] = eligible;
+    expect(trend.text).toContain(
+      `Finite-population correction not used in any figure (the trend test has no corrected form); ${first![1].toLocaleString('en-GB')} eligible in ${first![0]}, ${rest.map(([y, n]) => `${n.toLocaleString('en-GB')} in ${y}`).join(', ')}`,
+    );
   });
 });

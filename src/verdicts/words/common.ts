@@ -110,8 +110,9 @@ export function commonRows(a: Analysis, decision: Decision, ctx: ComposeContext)
   // Say what was understood when the claims file wrote the level another way (0.95, 95), so nobody is surprised.
   const understood = written === 'default' ? ' (the default)' : written.replace(/\s+/g, '') === level ? '' : ` (written as ${written})`;
   rows.push({ label: 'Confidence level', value: `${level}${understood}` });
-  // Where the correction was used, the claim's method line says so (in every figure); where it was not, this row.
-  if (a.fpc !== undefined && !a.fpc.used) rows.push({ label: 'Finite-population correction', value: fpcWords(a.fpc) });
+  // Whether the correction was used, with the numbers eligible it works from (the method line says so too).
+  const fpc = fpcRow(a);
+  if (fpc !== undefined) rows.push(fpc);
   return rows;
 }
 
@@ -122,8 +123,39 @@ export function commonRows(a: Analysis, decision: Decision, ctx: ComposeContext)
 export function fpcWords(fpc: NonNullable<Analysis['fpc']>): string {
   if (fpc.used) return 'used in every figure';
   if (fpc.why === 'off') return 'not used (turned off)';
-  if (fpc.why === 'no-form') return `in no figure (${fpc.form ?? 'the test'} has no corrected form)`;
+  if (fpc.why === 'no-form') return `not used in any figure (${fpc.form ?? 'the test'} has no corrected form)`;
   return 'not used (no number eligible)';
+}
+
+/** The rates a claim's figures come from, in the order its numbers table shows them. */
+function ratesOf(a: Analysis): RateSummary[] {
+  const r = a as Partial<Record<'focus' | 'against' | 'later' | 'earlier' | 'rate', RateSummary>> & { rates?: RateSummary[] };
+  if (a.kind === 'change') return [r.later, r.earlier].filter((x): x is RateSummary => x !== undefined);
+  return [r.focus, r.against, r.rate, ...(r.rates ?? [])].filter((x): x is RateSummary => x !== undefined);
+}
+
+/**
+ * The numbers table's row on the finite-population correction, whenever the claim's source gives the number
+ * eligible (or the claim asked for it): used in every figure or in none, and why, with the numbers eligible it works
+ * from ("used in every figure; 3,358 eligible in 2026, 3,319 in 2025"). Undefined when there is nothing to say.
+ */
+export function fpcRow(a: Analysis): NumberRow | undefined {
+  if (a.fpc === undefined) return undefined;
+  const rates = ratesOf(a)
+    .filter((r) => r.population !== undefined)
+    // A change's two rates are named by their periods.
+    .map((r, i) => (a.kind === 'change' ? { ...r, label: i === 0 ? a.periods.to : a.periods.from } : r));
+  // Labels name the numbers when they are short (periods, campuses); long ones are given in the table's order.
+  const short = rates.every((r) => r.label.length <= 32);
+  const eligible =
+    rates.length === 0
+      ? ''
+      : rates.length === 1
+        ? `${fmt.count(rates[0]!.population!)} eligible`
+        : short
+          ? `${fmt.count(rates[0]!.population!)} eligible in ${rates[0]!.label}, ${rates.slice(1).map((r) => `${fmt.count(r.population!)} in ${r.label}`).join(', ')}`
+          : `${rates.map((r) => fmt.count(r.population!)).join(' and ')} eligible, in the order above`;
+  return { label: 'Finite-population correction', value: `${fpcWords(a.fpc)}${eligible !== '' ? `; ${eligible}` : ''}` };
 }
 
 export function tooLittle(a: Analysis, ctx: ComposeContext, compared: string, hypotheses: ClaimSection['hypotheses']): Composed {

@@ -5,7 +5,7 @@ import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { rateCautions, rateView, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { fpcWords, rateCautions, rateView, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 /** A mean score, two decimals. */
 function score(v: number): string {
@@ -34,6 +34,7 @@ export function composeEstimate(a: EstimateAnalysis, _decision: Decision, ctx: C
       { label: 'Agreement rate', value: `${view.value} of ${view.n} respondents` },
       { label: `${level} interval`, value: `${view.lower} to ${view.upper} (up to ${view.margin} points either side)` },
       ...(r.population !== undefined ? [{ label: 'Eligible', value: `${fmt.count(r.population)} (${fmt.percent(r.n / r.population)} answered)` }] : []),
+      ...(a.fpc !== undefined ? [{ label: 'Finite-population correction', value: fpcWords(a.fpc) }] : []),
       { label: 'Confidence level', value: `${level}${understood}` },
     ];
     chart = {
