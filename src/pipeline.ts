@@ -34,6 +34,7 @@ import { readSeal, sealPath } from './commands/seal.js';
 import { ADJUST_NAMES, composePack } from './verdicts/pack.js';
 import { Templates } from './verdicts/templates.js';
 import { claimResult, resultsFile, type ResultsFile } from './results/results.js';
+import { readingNotes } from './data/reading-notes.js';
 import type { PackModel } from './render/model.js';
 import { packageRoot } from './paths.js';
 import { InputError } from './errors.js';
@@ -378,6 +379,7 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
     cubes,
     seal: sealed.facts,
     claimsTested,
+    readingNotes: Object.fromEntries(cubes.map((c) => [c.sourceId, readingNotes(c, templates)])),
     results: analyses.map((a, i) => claimResult(a, decisions[i] as Decision, (composed[i] as (typeof composed)[number]).section, claims.claims[i], composed[i]?.worth)),
   });
 

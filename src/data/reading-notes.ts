@@ -35,7 +35,9 @@ export function readingNotes(cube: Cube, t: Templates): string[] {
     out.push(t.render('data.suppressed-rows', { rows: count(cube.suppressedRows), one: cube.suppressedRows === 1, of: count(cube.rows), markers: quoteList(markers) }));
   }
   for (const f of cube.footnotes ?? []) {
-    out.push(t.render('data.footnote-marker', { marker: f.marker, cells: count(f.cells), one: f.cells === 1, example: f.example, row: String(f.row) }));
+    // Where the table has notes under it, the marker's meaning is most likely there.
+    const notesRow = end !== undefined && end.noteRows > 0 ? String(end.firstNoteRow) : '';
+    out.push(t.render('data.footnote-marker', { marker: f.marker, cells: count(f.cells), one: f.cells === 1, example: f.example, row: String(f.row), notesRow }));
   }
   out.push(...(cube.notes ?? []));
   return out;

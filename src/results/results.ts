@@ -113,6 +113,13 @@ export interface ClaimResult {
    */
   cohensDInterval?: Interval | null;
   cohensDAdjustedInterval?: Interval | null;
+  /**
+   * Groups the claim's figures leave out: selections with rows withheld in the release (each with how many of its
+   * rows), and units or table rows left out for fewer respondents than the minimum (names only); `groups` counts both.
+   */
+  suppression?: { groups: number; inRelease: Array<{ label: string; rows: number; of: number }>; leftOut: string[] };
+  /** How many notes the pack gives on how the claim's source was read (sources[].readingNotes). */
+  sourceReadingNotes?: number;
   /** Crosstab cells whose adjusted residual lies beyond the level's critical value, largest first. */
   notableCells?: Array<{ row: string; column: string; residual: number }>;
   /** Compare and change: Cohen's h for the two rates. */
@@ -168,7 +175,21 @@ export interface ResultsFile {
     /** The pack-wide sizes worth reporting (rates as proportions, mean scores in standard deviations, r) and which the claims file set. */
     worthReporting: { rates: number; meanScores: number; correlations: number; fromClaimsFile: string[] };
   };
-  sources: Array<{ id: string; file: string; sheet?: string; shape: string; sha256: string; rows: number }>;
+  sources: Array<{
+    id: string;
+    file: string;
+    sheet?: string;
+    shape: string;
+    sha256: string;
+    rows: number;
+    /** Rows whose counts the release withheld (suppressed), and the markers that said so with how many cells each. */
+    suppressedRows: number;
+    suppressedMarkers: Record<string, number>;
+    /** Footnote markers read off numbers, each with how many cells carried it and the first such cell. */
+    footnoteMarkers: Array<{ marker: string; cells: number; example: string; row: number }>;
+    /** The notes the pack prints on how the table was read (one sentence each). */
+    readingNotes: string[];
+  }>;
   /** What the seal beside the claims file proves (src/commands/seal.ts); null when there is none. */
   seal: SealFacts;
   claims: ClaimResult[];
@@ -194,6 +215,13 @@ function testFields(test: TestResult | undefined) {
     df: test?.df ?? null,
     n: test?.n ?? [],
   };
+}
+
+/** The groups a claim's figures leave out (ClaimResult.suppression). */
+function suppressionOf(a: Analysis, rates: RateSummary[]): NonNullable<ClaimResult['suppression']> {
+  const inRelease = rates.flatMap((r) => (r.suppressed ? [{ label: r.label, rows: r.suppressed.rows, of: r.suppressed.of }] : []));
+  const leftOut = a.kind === 'association' ? [...a.suppressedUnits] : a.kind === 'crosstab' ? [...a.suppressedRows] : [];
+  return { groups: inRelease.length + leftOut.length, inRelease, leftOut };
 }
 
 /**
@@ -299,6 +327,7 @@ export function claimResult(a: Analysis, decision: Decision, section: ClaimSecti
         ? cohensDIntervalAt(a, adjustedConfidence(decision.effectiveAlpha)) ?? null
         : null,
     ...(a.kind === 'crosstab' ? { notableCells: a.notable } : {}),
+    suppression: suppressionOf(a, rates),
     ...(tested ? kindFigures(a) : {}),
   };
 }
@@ -358,8 +387,11 @@ export function resultsFile(input: {
   seal?: SealFacts;
   /** Claims tested together: the family the adjustment for many claims counts. */
   claimsTested: number;
+  /** The pack's notes on how each source was read, by source id (src/data/reading-notes.ts). */
+  readingNotes?: Record<string, string[]>;
 }): ResultsFile {
   const { claims } = input;
+  const notes = input.readingNotes ?? {};
   return {
     format: RESULTS_FORMAT,
     tool: { name: 'warrant', version: input.version },
@@ -384,9 +416,20 @@ export function resultsFile(input: {
     sources: input.cubes.map((c) => {
       const spec = claims.sources.find((s) => s.id === c.sourceId);
       const sheet = spec?.sheet ?? c.sheet;
-      return { id: c.sourceId, file: c.file, ...(sheet ? { sheet } : {}), shape: spec?.shape ?? 'summary', sha256: c.sha256, rows: c.rows };
+      return {
+        id: c.sourceId,
+        file: c.file,
+        ...(sheet ? { sheet } : {}),
+        shape: spec?.shape ?? 'summary',
+        sha256: c.sha256,
+        rows: c.rows,
+        suppressedRows: c.suppressedRows ?? 0,
+        suppressedMarkers: { ...(c.suppressedMarkers ?? {}) },
+        footnoteMarkers: (c.footnotes ?? []).map((f) => ({ marker: f.marker, cells: f.cells, example: f.example, row: f.row })),
+        readingNotes: [...(notes[c.sourceId] ?? [])],
+      };
     }),
     seal: input.seal ?? null,
-    claims: input.results,
+    claims: input.results.map((r) => ({ ...r, sourceReadingNotes: (notes[r.source] ?? []).length })),
   };
 }

@@ -59,12 +59,27 @@ describe('a release as published builds a pack with no editing', () => {
     expect(text).toContain(`${expected.rows.length} rows were read, to row 27; the 4 rows below the table, from row 29 ("Notes:"), were taken as notes, not data.`);
     expect(text).toContain(`${suppressed.length} of the ${expected.rows.length} rows were suppressed in the release`);
     expect(text).toContain('The footnote marker "*" after numbers was read off');
+    // What a marker stands for is in the release's own notes: the pack says where to look.
+    expect(text).toMatch(/What the marker stands for is said in the release itself \(its notes under the table, from row 29\)/);
+    // results.json counts what was withheld and the notes on how the table was read, per source and per claim.
+    const json = JSON.parse(readFileSync(result.files.results, 'utf8')) as {
+      sources: Array<{ suppressedRows: number; suppressedMarkers: Record<string, number>; footnoteMarkers: Array<{ marker: string; cells: number }>; readingNotes: string[] }>;
+      claims: Array<{ id: string; suppression: { groups: number; inRelease: Array<{ label: string; rows: number; of: number }>; leftOut: string[] }; sourceReadingNotes: number }>;
+    };
+    const src = json.sources[0]!;
+    expect(src.suppressedRows).toBe(suppressed.length);
+    expect(Object.keys(src.suppressedMarkers).length).toBeGreaterThan(0);
+    expect(src.footnoteMarkers.map((f) => f.marker)).toContain('*');
+    expect(src.readingNotes.some((n) => n.startsWith(`${suppressed.length} of the ${expected.rows.length} rows were suppressed`))).toBe(true);
+    for (const c of json.claims) expect(c.sourceReadingNotes, c.id).toBe(src.readingNotes.length);
     // Q03 in 2025: one withheld row (Corrow Academy) among the other providers' rows.
     const others = expected.rows.filter((r) => r.question === 'Q03' && r.year === '2025' && r.provider !== 'Ashmere College');
     const withheld = others.filter((r) => r.suppressed).length;
     expect(withheld).toBe(1);
     expect(text).toContain(`1 of the ${others.length} rows in Bramblecote Institute or Corrow Academy or Dunmarsh College, North was suppressed in the release`);
     expect(text).toContain(`the figures cover the other ${others.length - withheld}`);
+    const q03 = json.claims.find((c) => c.id === 'q03-ashmere')!;
+    expect(q03.suppression).toEqual({ groups: 1, inRelease: [{ label: 'Bramblecote Institute or Corrow Academy or Dunmarsh College, North', rows: 1, of: others.length }], leftOut: [] });
     // Every 2026 row of Bramblecote Institute was withheld: Too little data, saying why.
     const bram = expected.rows.filter((r) => r.provider === 'Bramblecote Institute' && r.year === '2026');
     expect(bram.every((r) => r.suppressed)).toBe(true);
