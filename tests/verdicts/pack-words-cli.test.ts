@@ -8,7 +8,9 @@
  * tests/stats): a claim is ruled out when that interval excludes the size in the claimed direction.
  *
  * The same two builds give the summary page's table of verdict words as printed (pdftotext -layout): every verdict
- * word a claim got is defined there, with its count, in the words written out below.
+ * word a claim got is defined there, with its count, in the words written out below; and the shipped demo's other
+ * printed words the committee's readers asked for (the glossary on Holm's method, "detected 80% of the time", mean
+ * scores written plainly, the estimate page's cautions).
  */
 import { spawnSync } from 'node:child_process';
 import { cpSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
@@ -203,5 +205,30 @@ describe("the summary page's verdict definitions, as printed (pdftotext -layout 
     const rows = definitionRows(after.layout);
     const ruledOut = rows.find((r) => r.label === 'Not supported: ruled out')!;
     expect(ruledOut.meaning).toContain("Worth reporting: 30 points for rates, 0.1 standard deviations for mean scores and a correlation of 0.8 across units (set in the claims file), unless the claim's page names another size.");
+  });
+});
+
+describe('the demo pack as printed (pdftotext): the glossary, detectable sizes, mean scores and the estimate page', () => {
+  it("says Holm's method keeps the chance of any false finding at 5%, one minus the confidence level", () => {
+    // Holm (1979) controls the familywise error rate at alpha: the chance of one or more false rejections.
+    expect(before.text).toContain('The adjustment raises each p-value so that the chance of even one false finding across the whole pack is kept at 5% (one minus the confidence level) or less.');
+    expect(before.text).not.toMatch(/within the confidence level/);
+  });
+
+  it('says "would be detected 80% of the time", never "reliably"', () => {
+    expect(before.text).toMatch(/would be detected 80% of the time at the threshold that decided this verdict \(p below 0\.00\d+ after adjusting for \d+ claims\)/);
+    expect(before.text).not.toMatch(/reliably/i);
+  });
+
+  it('writes each mean score as "mean 3.80 (scale 1 to 5), 261 respondents", never "on a scale of 1 to 5 of 261"', () => {
+    expect(before.text).toMatch(/mean 3\.80 \(scale 1 to 5\), 261 respondents \(interval 3\.\d\d to 3\.\d\d; SD 1\.\d\d\)/);
+    expect(before.text).not.toMatch(/on a scale of \d to \d of/);
+  });
+
+  it("gives the estimate page its cautions: who did not answer, and the release's withheld row", () => {
+    const page = before.text.slice(before.text.indexOf('CLAIM OVERALL-CONTENTMENT-ESTIMATE'), before.text.indexOf('CLAIM ', before.text.indexOf('CLAIM OVERALL-CONTENTMENT-ESTIMATE') + 10));
+    expect(page).toContain('Cautions');
+    expect(page).toContain('38% of those eligible did not answer (2,025 of 3,269 answered).');
+    expect(page).toContain('1 of the 12 rows in Quarrendell University was suppressed in the release; the figures cover the other 11.');
   });
 });
