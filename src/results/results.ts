@@ -14,6 +14,7 @@ import type { SealStatus } from '../verdicts/words/seal.js';
 type SealFacts = SealStatus['facts'];
 import { WORTH_DEFAULTS, type Worth } from '../verdicts/advice.js';
 import { responseRateOf } from '../verdicts/source.js';
+import { shownSlope, shownSlopeUnit } from '../verdicts/words/association.js';
 import { cohensDIntervalAt } from '../analyse/means.js';
 import { adjustedConfidence } from '../verdicts/adjusted-interval.js';
 import { POWER } from '../analyse/detectable.js';
@@ -144,7 +145,7 @@ export interface ClaimResult {
    * Association: the least-squares line y = intercept + slope x (in the measures' units: proportions for rates) and R²;
    * with controls, of y's residuals on x's residuals (of: 'residuals'), whose R² is the partial r².
    */
-  line?: { of: 'values' | 'residuals'; intercept: number; slope: number; rSquared: number } | null;
+  line?: { of: 'values' | 'residuals'; intercept: number; slope: number; rSquared: number; shownSlope?: { value: number; unit: string } } | null;
   /** Association: the labels of the controls allowed for (partial correlation), in the claim's order; empty when none. */
   controls?: string[];
   /** Association: the checks on ranks printed beside r (Spearman's rho, Kendall's tau-b), each with its p-value. */
@@ -357,7 +358,16 @@ function kindFigures(a: Analysis): Partial<ClaimResult> {
         : {};
     case 'association':
       return {
-        line: a.fit ? { of: a.controlled ? 'residuals' : 'values', intercept: a.fit.intercept, slope: a.fit.slope, rSquared: a.fit.rSquared } : null,
+        line: a.fit
+          ? {
+              of: a.controlled ? 'residuals' : 'values',
+              intercept: a.fit.intercept,
+              slope: a.fit.slope,
+              rSquared: a.fit.rSquared,
+              // The residual line is printed and drawn in points (rates) and scale points (means), not proportions.
+              ...(a.controlled ? { shownSlope: { value: shownSlope(a), unit: shownSlopeUnit(a) } } : {}),
+            }
+          : null,
         controls: a.controlled ?? [],
         // With controls the checks are partial (partial Spearman; Kendall's partial tau, which has no p-value).
         rankChecks: [

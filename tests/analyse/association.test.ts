@@ -108,6 +108,16 @@ describe('association against R', () => {
     const rp = A.mean_partial[0] as (typeof A.mean_partial)[number];
     expectClose(ctrl.test?.estimate.value ?? NaN, rp.r, 'closed', 'partial r');
     expectClose(ctrl.test?.p ?? NaN, rp.p, 'p', 'p');
+    // The partial line: x's coefficient in R lm(mean ~ x + z); drawn and printed in scale points per point of x.
+    expectClose(ctrl.fit?.slope ?? NaN, A.mean_partial_slope, 'closed', 'R lm(ym ~ x + z) coefficient of x');
+    const w = words(ctrl, decide(ctrl, ctrl.test?.p));
+    const chart = w.section.chart?.data;
+    if (chart?.kind !== 'scatter') throw new Error('expected a scatter chart');
+    expect(chart.yTitle).toBe('satisfaction, after removing teaching (residual, scale points)');
+    expect(chart.xTitle).toBe('resources, after removing teaching (residual, points)');
+    expectClose(chart.fit?.slope ?? NaN, A.mean_partial_slope / 100, 'closed', 'plotted slope, scale points per point');
+    const line = w.section.numbers.find((r) => r.label.startsWith('Least-squares line after allowing for teaching'));
+    expect(line?.value).toContain('(scale points per point)');
   });
 });
 

@@ -96,6 +96,7 @@ export interface AssociationCase {
   x_residual: number[];
   y_residual: number[];
   partial_fit: { intercept: number; slope: number; slope_with_z: number; r_squared: number };
+  mean_partial_slope: number;
 }
 
 export const ref = JSON.parse(readFileSync(path, 'utf8')) as {

@@ -12,6 +12,7 @@ import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { expectClose } from '../helpers/tolerance.js';
+import { checkFigures } from '../helpers/pdf-figures.js';
 
 const root = resolve(__dirname, '../..');
 const bin = join(root, 'bin/warrant.js');
@@ -85,6 +86,8 @@ const pText = (p: number): string => Number(p.toPrecision(3)).toString();
 
 let results: { claims: Array<Record<string, any>> };
 let text: string;
+/** The PDF's text with its layout kept (pdftotext -layout), for reading the numbers tables as rows. */
+let layout: string;
 const claim = (id: string) => results.claims.find((c) => c.id === id) as Record<string, any>;
 /** A claim's own pages: from the last time its statement is printed (the summary names it first) to the next claim's. */
 function section(from: string, to?: string): string {
@@ -103,6 +106,7 @@ beforeAll(() => {
   const pack = join(work, 'out', readdirSync(join(work, 'out')).find((d) => d !== 'latest') as string);
   results = JSON.parse(readFileSync(join(pack, 'results.json'), 'utf8'));
   text = fold(execFileSync('pdftotext', ['-enc', 'UTF-8', join(pack, 'pack.pdf'), '-'], { encoding: 'utf8' }));
+  layout = execFileSync('pdftotext', ['-enc', 'UTF-8', '-layout', join(pack, 'pack.pdf'), '-'], { encoding: 'utf8' });
 }, 120_000);
 
 afterAll(() => rmSync(work, { recursive: true, force: true }));
@@ -147,6 +151,9 @@ describe('one control: every figure is about the controlled relation (R 4.2.2)',
     expectClose(c.line.slope, r().slope_with_controls, 'closed', 'R lm(y ~ x + z) coefficient of x');
     expectClose(c.line.rSquared, r().r_squared, 'closed', 'R summary(lm)$r.squared');
     expect(Math.abs(c.line.intercept)).toBeLessThan(1e-12);
+    // Two agreement rates: the slope the pack prints (points per point) is the slope of the proportions.
+    expect(c.line.shownSlope.unit).toBe('points per point');
+    expectClose(c.line.shownSlope.value, r().slope, 'closed', 'R lm slope, in points per point');
   });
   it('the hypotheses name the control', () => {
     const h = claim('one-control').hypotheses;
@@ -161,7 +168,7 @@ describe('one control: every figure is about the controlled relation (R 4.2.2)',
     expect(s).toContain(`Partial correlation (after allowing for agreement on Q03) ${coef(r().r)} (95% interval ${coef(r().lower)} to 1.00`);
     expect(s).toContain(`Partial Spearman's rho (check on ranks, after allowing for agreement on Q03) ${coef(r().spearman)} (p = ${pText(r().spearman_p)})`);
     expect(s).toContain(`Kendall's partial tau (check on pairs of units, after allowing for agreement on Q03) ${coef(r().kendall)} (a description only: partial tau has no standard test, so no p-value is given)`);
-    expect(s).toContain(`Least-squares line after allowing for agreement on Q03 (residuals) residual Q02 agreement = ${coef(r().slope, 3)} × residual Q01 agreement (points per point); R² = ${coef(r().r_squared)}`);
+    expect(s).toContain(`Least-squares line after allowing for agreement on Q03 (residuals) residual Q02 agreement = ${coef(r().slope, 4)} × residual Q01 agreement (points per point); R² = ${coef(r().r_squared)}`);
     expect(s).toContain(`partial r = ${coef(r().r)}; 19 of 20 departments (1 under 10 respondents left out)`);
     expect(s).toContain('Q02 agreement, after removing agreement on Q03 (residual, points)');
     expect(s).toContain('Q01 agreement, after removing agreement on Q03 (residual, points)');
@@ -220,5 +227,27 @@ describe('weighted, no controls: unchanged (R 4.2.2 cov.wt, cor.test)', () => {
     const s = section(STATEMENTS.weighted);
     expect(s).toContain(`Spearman's rho (check on ranks) ${coef(R.weighted.spearman)}`);
     expect(s).not.toContain('after removing');
+  });
+});
+
+describe('results.json carries the partial figures', () => {
+  it('every figure in the three numbers tables is in the claim\'s results.json entry at the printed precision', () => {
+    const { rows, figures } = checkFigures(layout, results as unknown as { settings: unknown; claims: Array<{ id: string }> });
+    expect(new Set(rows.map((r) => r.claim))).toEqual(new Set(['one-control', 'two-controls', 'weighted']));
+    expect(figures.filter((f) => !f.found).map((f) => `${f.claim} | ${f.label} | ${f.text}`)).toEqual([]);
+    // The partial rank checks and the partial line are among them.
+    const labels = rows.filter((r) => r.claim === 'one-control').map((r) => r.label).join(' | ');
+    expect(labels).toMatch(/Partial Spearman's rho/);
+    expect(labels).toMatch(/Kendall's partial tau/);
+    expect(labels).toMatch(/Least-squares line after allowing for/);
+    expect(figures.length).toBeGreaterThan(30);
+  });
+  // (Not the line: with a unit's residuals in the entry, a three-decimal slope can match one of them by chance.)
+  it('and the check can fail: without the rank checks, the partial rank figures go unfound', () => {
+    for (const field of ['rankChecks']) {
+      const cut = { ...results, claims: results.claims.map(({ [field]: _gone, ...rest }) => ({ ...rest, id: rest.id as string })) };
+      const missing = checkFigures(layout, cut as unknown as { settings: unknown; claims: Array<{ id: string }> }).figures.filter((f) => !f.found && f.claim !== 'weighted');
+      expect(missing.length, `without ${field}`).toBeGreaterThan(0);
+    }
   });
 });

@@ -149,8 +149,9 @@ export function rowFigures(row: TableRow, names: ReadonlySet<string>): Array<Omi
   const out: Array<Omit<Figure, 'found'>> = [];
   const text = `${row.label} | ${row.value}`;
   // A row whose figures are in percentage points (not "scale points") carries proportions × 100; a line "(in %)"
-  // mixes percentages (its intercept) with plain numbers (its slope, R²).
-  const pointsRow = /(?<!scale )points/.test(text);
+  // mixes percentages (its intercept) with plain numbers (its slope, R²). "points per point" is a ratio (the slope of
+  // a line through two rates' residuals), not an amount in points.
+  const pointsRow = /(?<!scale )points(?! per point)/.test(text);
   const percentRow = /\(in %\)/.test(text);
   let m: RegExpExecArray | null;
   NUMBER.lastIndex = 0;

@@ -56,7 +56,7 @@ export function composeAssociation(a: AssociationAnalysis, decision: Decision, c
   const lineRow: NumberRow = controlled
     ? {
         label: `Least-squares line after allowing for ${controlled} (residuals)`,
-        value: `residual ${yLabel} = ${fmt.plain((a.fit.slope * yr.scale) / xr.scale, 3)} × residual ${xLabel} (${yr.unit} per ${xr.one}); R² = ${fmt.coefficient(a.fit.rSquared)}`,
+        value: `residual ${yLabel} = ${fmt.plain(shownSlope(a, xr, yr), slopeDigits(shownSlope(a, xr, yr)))} × residual ${xLabel} (${yr.unit} per ${xr.one}); R² = ${fmt.coefficient(a.fit.rSquared)}`,
       }
     : {
         label: 'Least-squares line',
@@ -211,7 +211,23 @@ function leftOutWords(l: NonNullable<AssociationAnalysis['rankChecksLeftOut']>[n
   });
 }
 
-interface ResidualUnit {
+/** The partial line's slope in the units the pack prints and the chart draws (y's residual units per x's). */
+export function shownSlope(a: AssociationAnalysis, xr: ResidualUnit = residualUnit(a.claim.xMeasure), yr: ResidualUnit = residualUnit(a.claim.yMeasure)): number {
+  return ((a.fit?.slope ?? NaN) * yr.scale) / xr.scale;
+}
+
+/** Decimals for a slope: three significant figures, and at least three decimals. */
+function slopeDigits(v: number): number {
+  if (!(Math.abs(v) > 0) || !Number.isFinite(v)) return 3;
+  return Math.min(8, Math.max(3, 2 - Math.floor(Math.log10(Math.abs(v)))));
+}
+
+/** The units a residual is shown in, for results.json: "points per point", "scale points per point"... */
+export function shownSlopeUnit(a: AssociationAnalysis): string {
+  return `${residualUnit(a.claim.yMeasure).unit} per ${residualUnit(a.claim.xMeasure).one}`;
+}
+
+export interface ResidualUnit {
   /** Multiplier from the measure's own units to the units shown. */
   scale: number;
   /** The units, plural ("points") and for one ("point"). */
