@@ -247,3 +247,117 @@ describe('renderPdf with a long summary and a many-row chart', () => {
     expect((summaryTable.match(/"Key figure \(interval\)"/g) ?? []).length).toBe(1);
   });
 });
+
+describe('the per-claim fields on a claim page', () => {
+  // Three forms of the verdict at other levels: the same everywhere (one line), changing with the level and the
+  // adjustment (a grid of two lines), and changing with the level where no adjustment applies (a grid of one line).
+  const cell = (level: string, own: boolean, adjusted: 'supported' | 'not-supported', unadjusted: 'supported' | 'not-supported') => ({
+    level,
+    own,
+    adjusted,
+    adjustedLabel: adjusted === 'supported' ? 'Supported' : 'Not supported',
+    unadjusted,
+    unadjustedLabel: unadjusted === 'supported' ? 'Supported' : 'Not supported',
+  });
+  const base = { heading: 'Verdict at each confidence level', adjustedLabel: 'Adjusted for 5 claims', unadjustedLabel: 'Not adjusted' };
+  const model = {
+    ...sampleModel,
+    claims: sampleModel.claims.map((c, i) => {
+      if (i === 0) {
+        return {
+          ...c,
+          advice: { action: 'quote' as const, label: 'Quote as written', reason: 'The interval excludes no difference.' },
+          sourceLine: 'Source: Regional Survey 2024, an independent release (region.xlsx). Response rate: 38% of those eligible answered.',
+          terms: [{ term: "Cohen's h", text: 'A measure of the gap between two rates.' }],
+          stability: {
+            ...base,
+            cells: [cell('90%', false, 'supported', 'supported'), cell('95%', true, 'supported', 'supported'), cell('99%', false, 'supported', 'supported')],
+            adjustmentApplies: true,
+            dependsOnLevel: false,
+            dependsOnAdjustment: false,
+            text: 'Supported at 90%, 95% and 99% confidence, with or without the adjustment for 5 claims.',
+          },
+        };
+      }
+      if (i === 1) {
+        return {
+          ...c,
+          advice: {
+            action: 'reword' as const,
+            label: 'Reword',
+            reason: 'The interval rules out a fall of 9 points or more.',
+            wording: 'Satisfaction at Ysgol Brynŷs fell by less than 9 points.',
+          },
+          linked: [{ id: 'C3', verdictLabel: 'Supported', text: 'Claim C3 tests the same data: Supported.' }],
+          sourceLine: "Source: Our own pulse survey, the organisation's own survey (pulse.csv). Response rate: unknown.",
+          stability: {
+            ...base,
+            cells: [cell('90%', false, 'supported', 'supported'), cell('95%', true, 'not-supported', 'supported'), cell('99%', false, 'not-supported', 'not-supported')],
+            adjustmentApplies: true,
+            dependsOnLevel: true,
+            dependsOnAdjustment: true,
+            text: 'Adjusted for 5 claims: supported at 90%, not supported at 95% and 99%. Not adjusted: supported at 90% and 95%, not supported at 99%.',
+          },
+        };
+      }
+      if (i === 2) {
+        return {
+          ...c,
+          stability: {
+            ...base,
+            cells: [cell('90%', false, 'supported', 'supported'), cell('95%', true, 'supported', 'supported'), cell('99%', false, 'not-supported', 'not-supported')],
+            adjustmentApplies: false,
+            dependsOnLevel: true,
+            dependsOnAdjustment: false,
+            text: 'Supported at 90% and 95%, not supported at 99%.',
+          },
+        };
+      }
+      return c;
+    }),
+  };
+  let text: string[];
+  let layout: string;
+  beforeAll(async () => {
+    const path = join(dir, 'fields.pdf');
+    writeFileSync(path, await renderPdf(model));
+    text = run('pdftotext', ['-enc', 'UTF-8', path, '-']).split('\f').map((p) => p.replace(/\s+/g, ' '));
+    const page = text.findIndex((p) => p.includes('CLAIM C3') && !p.includes('CLAIM C3 (CONTINUED)')) + 1;
+    layout = run('pdftotext', ['-enc', 'UTF-8', '-layout', '-f', String(page), '-l', String(page), path, '-']);
+  });
+  const pageOf = (id: string): string => text.find((p) => p.includes(`CLAIM ${id}`) && !p.includes(`CLAIM ${id} (CONTINUED)`))!;
+
+  it('draws the advice under the verdict paragraph, then the suggested wording and the claims to read with it', () => {
+    const c1 = pageOf('C1');
+    expect(c1).toContain('What to do Quote as written.');
+    // Quoting needs no reason beyond the verdict paragraph.
+    expect(c1).not.toContain('The interval excludes no difference.');
+    const c2 = pageOf('C2');
+    const at = c2.indexOf('What to do Reword. The interval rules out a fall of 9 points or more.');
+    expect(at).toBeGreaterThan(c2.indexOf(VERDICT_TEXTS.C2.slice(0, 40)));
+    expect(c2.indexOf('Suggested wording Satisfaction at Ysgol Brynŷs fell by less than 9 points.')).toBeGreaterThan(at);
+    expect(c2.indexOf('Read with Claim C3 tests the same data: Supported.')).toBeGreaterThan(at);
+    expect(c2.indexOf('What was compared and tested')).toBeGreaterThan(at);
+  });
+
+  it('prints the source line, the term notes and the verdict at each level in its three forms', () => {
+    const c1 = pageOf('C1');
+    expect(c1).toContain('Source: Regional Survey 2024, an independent release (region.xlsx). Response rate: 38% of those eligible answered.');
+    expect(c1).toContain("Cohen's h: A measure of the gap between two rates.");
+    expect(c1).toContain('Supported at 90%, 95% and 99% confidence, with or without the adjustment for 5 claims.');
+    const c2 = pageOf('C2');
+    expect(c2).toContain('Response rate: unknown.');
+    expect(c2).toContain('Verdict at each confidence level 90% 95% 99%');
+    expect(c2).toContain('Adjusted for 5 claims Supported Not supported Not supported');
+    expect(c2).toContain('Not adjusted Supported Supported Not supported');
+    // Where no adjustment applies, one line named by the heading and no "Adjusted" line.
+    const c3 = pageOf('C3');
+    // Read as laid out (pdftotext -layout): the levels over the one line, whose cells follow its label.
+    const lines = layout.split('\n').map((l) => l.trim().replace(/\s+/g, ' '));
+    const row = lines.findIndex((l) => l.startsWith('Verdict at each confidence level'));
+    expect(lines[row]).toBe('Verdict at each confidence level Supported Supported Not supported');
+    expect(lines.slice(row - 2, row).join(' ')).toContain('90% 95% 99%');
+    expect(c3).not.toContain('Adjusted for 5 claims');
+    expect(c3).not.toContain('Not adjusted');
+  });
+});

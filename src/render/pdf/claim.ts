@@ -238,12 +238,17 @@ function stabilityRows(L: Layout, s: VerdictStability, labelW: number, sp: Claim
     { text: name, color: COLOR.muted },
     ...s.cells.map((c) => ({ text: pick(c).word, mark: pick(c).kind, ...(c.own ? { face: 'bold' as const } : {}) })),
   ];
-  const rows: Cell[][] = [line(s.adjustmentApplies ? s.adjustedLabel : '', (c) => ({ kind: c.adjusted, word: c.adjustedLabel }))];
-  if (s.adjustmentApplies) rows.push(line(s.unadjustedLabel, (c) => ({ kind: c.unadjusted, word: c.unadjustedLabel })));
+  // With an adjustment, one line with it and one without, under the heading; with none, one line named by the heading.
+  const rows: Cell[][] = s.adjustmentApplies
+    ? [
+        line(s.adjustedLabel, (c) => ({ kind: c.adjusted, word: c.adjustedLabel })),
+        line(s.unadjustedLabel, (c) => ({ kind: c.unadjusted, word: c.unadjustedLabel })),
+      ]
+    : [line(s.heading, (c) => ({ kind: c.adjusted, word: c.adjustedLabel }))];
   return table(
     L,
     [
-      { header: s.heading, width: gridLabelW },
+      { header: s.adjustmentApplies ? s.heading : '', width: gridLabelW },
       ...s.cells.map((c) => ({ header: c.level, width: cellW, ...(c.own ? { face: 'bold' as const } : {}) })),
     ],
     rows,
