@@ -33,7 +33,7 @@ import { leastSquares, simpleLinearFit } from '../stats/least-squares.js';
 import { minDetectableCorrelation } from '../stats/power-correlation.js';
 import type { CompareContext } from './compare.js';
 import type { AssociationAnalysis, RankCheckLeftOut, UnitPoint } from './types.js';
-import { sign } from './labels.js';
+import { sign, unitNamer } from './labels.js';
 import { measureValue, requireMeasure } from './measures.js';
 import { poolByUnit } from '../data/select.js';
 import { shortfall } from './thresholds.js';
@@ -68,9 +68,10 @@ export function analyseAssociation(claim: AssociationClaim, cube: Cube, ctx: Com
       fix: 'remove weighted: true (every unit then counts once), or remove the controls',
     });
   }
-  const xs = poolByUnit(cube, { ...claim.where, ...claim.x }, claim.units);
-  const ys = poolByUnit(cube, { ...claim.where, ...claim.y }, claim.units);
-  const zs = controls.map((c) => poolByUnit(cube, { ...claim.where, ...c.filter }, claim.units));
+  const name = unitNamer(claim.naming);
+  const xs = poolByUnit(cube, { ...claim.where, ...claim.x }, claim.units, name);
+  const ys = poolByUnit(cube, { ...claim.where, ...claim.y }, claim.units, name);
+  const zs = controls.map((c) => poolByUnit(cube, { ...claim.where, ...c.filter }, claim.units, name));
   const expectSign = claim.expect === 'positive' ? 1 : claim.expect === 'negative' ? -1 : 0;
   const points: UnitPoint[] = [];
   const suppressedUnits: string[] = [];

@@ -22,6 +22,7 @@ import type { TestResult } from '../stats/result.js';
 import type { CompareContext } from './compare.js';
 import { InputError } from '../errors.js';
 import { cellsByUnit, poolCells } from '../data/select.js';
+import { unitNamer } from './labels.js';
 import { shortfall } from './thresholds.js';
 import type { CrosstabAnalysis } from './types.js';
 import { normalSfQuantile } from '../stats/distributions/normal.js';
@@ -40,14 +41,15 @@ export interface CrosstabOptions {
 }
 
 export function analyseCrosstab(claim: CrosstabClaim, cube: Cube, ctx: CompareContext, options: CrosstabOptions = {}): CrosstabAnalysis {
-  const byRow = periodOrder(cellsByUnit(cube, claim.where, claim.rows), claim);
+  const name = unitNamer(claim.naming);
+  const byRow = periodOrder(cellsByUnit(cube, claim.where, claim.rows, name), claim);
   const agreement = claim.columns === 'agreement';
   const answers = claim.columns === 'answers' ? answerColumns(claim, cube, ctx) : undefined;
   const splitBy = Array.isArray(claim.columns) ? claim.columns : undefined;
   let columnLabels: string[];
   if (agreement) columnLabels = ['agreeing', 'not agreeing'];
   else if (answers !== undefined) columnLabels = answers.scale.map(String);
-  else columnLabels = [...cellsByUnit(cube, claim.where, splitBy as string[]).keys()];
+  else columnLabels = [...cellsByUnit(cube, claim.where, splitBy as string[], name).keys()];
   const rowLabels: string[] = [];
   const counts: number[][] = [];
   const suppressedRows: string[] = [];
@@ -69,7 +71,7 @@ export function analyseCrosstab(claim: CrosstabClaim, cube: Cube, ctx: CompareCo
       leftOut.blank += pooled.blank ?? 0;
       leftOut.offScale += pooled.n - inTable;
     } else {
-      const byColumn = cellsByUnit({ ...cube, cells }, {}, splitBy as string[]);
+      const byColumn = cellsByUnit({ ...cube, cells }, {}, splitBy as string[], name);
       counts.push(columnLabels.map((col) => Math.round((byColumn.get(col) ?? []).reduce((s, c) => s + c.n, 0))));
     }
   }

@@ -12,7 +12,8 @@ import { analyseMeans } from './means.js';
 import type { Analysis } from './types.js';
 
 /** Test one claim on its source's cube. Adding a claim kind means adding a case here and a file beside this one. */
-export function analyse(claim: Claim, cube: Cube, ctx: CompareContext): Analysis {
+export function analyse(written: Claim, cube: Cube, ctx: CompareContext): Analysis {
+  const claim = withHeaderWording(written, cube);
   switch (claim.kind) {
     case 'compare':
       return analyseCompare(claim, cube, ctx);
@@ -35,6 +36,20 @@ export function analyse(claim: Claim, cube: Cube, ctx: CompareContext): Analysis
     default:
       throw new Error(`internal: claims of kind "${(claim as Claim).kind}" cannot be analysed yet`);
   }
+}
+
+/**
+ * A table with two header rows (question codes above their wording) words its questions itself: that wording is the
+ * claim's question wording wherever the claims file gives none. Only the codes of the question column are taken,
+ * so the wording of count columns (Respondents, Agreeing) never names anything.
+ */
+function withHeaderWording(claim: Claim, cube: Cube): Claim {
+  const codes = cube.questionColumn !== undefined ? new Set(cube.values[cube.questionColumn] ?? []) : undefined;
+  if (cube.labels === undefined || codes === undefined) return claim;
+  const fromHeader = Object.entries(cube.labels).filter(([code]) => codes.has(code));
+  if (fromHeader.length === 0) return claim;
+  const wording = { ...Object.fromEntries(fromHeader), ...claim.naming?.wording };
+  return { ...claim, naming: { ...claim.naming, wording } };
 }
 
 /** The columns a claim's selections use, so a respondent-level source keeps only those in its cube. */

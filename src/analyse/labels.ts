@@ -7,6 +7,20 @@ export function questionWords(code: string, naming?: Naming): string {
 }
 
 /**
+ * A value of a column in its wording, with the code once beside it, when the source words that column's values
+ * (`wording: { Campus: { GQ: Gleddrith Quay } }` -> "Gleddrith Quay (GQ)"); otherwise the value as it is.
+ */
+export function valueWords(column: string, value: string, naming?: Naming): string {
+  const w = naming?.values?.[column]?.[value.trim()];
+  return w !== undefined ? `${w} (${value.trim()})` : value;
+}
+
+/** The namer of a unit's values for cellsByUnit: each column's value in its wording, where the source gives one. */
+export function unitNamer(naming?: Naming): ((column: string, value: string) => string) | undefined {
+  return naming?.values !== undefined ? (column, value) => valueWords(column, value, naming) : undefined;
+}
+
+/**
  * A selection's name for people, built from its filter values: the group first, then the question, then the
  * period, in a phrase, never glued into one name: { Institution: "Tarnquill", Question: "Q09", Year: 2026 } ->
  * "Tarnquill on Q09 in 2026" (with wording: "Tarnquill on “Marking is fair” (Q09) in 2026"). Without `naming` the
@@ -24,6 +38,8 @@ export function filterLabel(filter: Filter, naming?: Naming): string {
   }
   const isQuestion = (col: string, v: FilterValue): boolean => {
     if (col === naming.question || /^question( ?code)?$/i.test(col)) return true;
+    // A column whose values the source words is a group, not a question.
+    if (naming.values?.[col] !== undefined) return false;
     const values = Array.isArray(v) ? v : typeof v === 'object' ? [] : [v];
     return values.length > 0 && values.every((x) => naming.wording?.[String(x).trim()] !== undefined);
   };
@@ -33,7 +49,7 @@ export function filterLabel(filter: Filter, naming?: Naming): string {
   for (const [col, v] of Object.entries(filter)) {
     if (col === naming.period) periods.push(text(v));
     else if (isQuestion(col, v)) questions.push(text(v, (x) => questionWords(x.trim(), naming)));
-    else groups.push(text(v));
+    else groups.push(text(v, (x) => valueWords(col, x, naming)));
   }
   let label = groups.join(', ');
   if (questions.length > 0) label += `${label ? ' on ' : ''}${questions.join(' and ')}`;

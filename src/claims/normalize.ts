@@ -100,7 +100,18 @@ export function normalize(parsed: ParsedYaml, absPath: string, sha256: string, l
     if (typeof s.period === 'string') spec.period = s.period;
     if (Array.isArray(s.numeric)) spec.numeric = [...(s.numeric as string[])];
     if (typeof s.header_row === 'number') spec.headerRow = s.header_row;
-    if (s.wording !== null && typeof s.wording === 'object') spec.wording = Object.fromEntries(Object.entries(s.wording as Record<string, unknown>).map(([k, v]) => [k.trim(), String(v).trim()]));
+    if (s.wording !== null && typeof s.wording === 'object') {
+      // A text is a question's wording; a mapping words the values of the column it is written under.
+      const entries = Object.entries(s.wording as Record<string, unknown>);
+      const questions = entries.filter(([, v]) => v === null || typeof v !== 'object');
+      const columns = entries.filter(([, v]) => v !== null && typeof v === 'object');
+      if (questions.length > 0) spec.wording = Object.fromEntries(questions.map(([k, v]) => [k.trim(), String(v).trim()]));
+      if (columns.length > 0) {
+        spec.valueWording = Object.fromEntries(
+          columns.map(([col, m]) => [col.trim(), Object.fromEntries(Object.entries(m as Record<string, unknown>).map(([k, v]) => [k.trim(), String(v).trim()]))]),
+        );
+      }
+    }
     if (s.answer_wording !== null && typeof s.answer_wording === 'object') spec.answerWording = Object.fromEntries(Object.entries(s.answer_wording as Record<string, unknown>).map(([k, v]) => [String(Number(k.trim())), String(v).trim()]));
     if (s.header_rows === 1 || s.header_rows === 2) spec.headerRows = s.header_rows;
     if (typeof s.last_row === 'number') spec.lastRow = s.last_row;
@@ -132,12 +143,13 @@ export function normalize(parsed: ParsedYaml, absPath: string, sha256: string, l
     if (ownWorth !== undefined) base.worthReporting = { value: ownWorth, from: 'claim' };
     else if (fileWorth !== undefined) base.worthReporting = { value: fileWorth, from: 'file' };
     const src = sources.find((x) => x.id === base.source);
-    if (src !== undefined && (src.period !== undefined || src.wording !== undefined || src.shape === 'respondents')) {
+    if (src !== undefined && (src.period !== undefined || src.wording !== undefined || src.valueWording !== undefined || src.shape === 'respondents')) {
       base.naming = {
         ...(src.period !== undefined ? { period: src.period } : {}),
         ...(src.shape === 'respondents' ? { question: src.questionColumn } : {}),
         ...(src.wording !== undefined ? { wording: src.wording } : {}),
         ...(src.answerWording !== undefined ? { answers: src.answerWording } : {}),
+        ...(src.valueWording !== undefined ? { values: src.valueWording } : {}),
       };
     }
     const fpc = c.finite_population_correction ?? data.finite_population_correction;

@@ -48,6 +48,8 @@ export interface Naming {
   wording?: Record<string, string>;
   /** Answer code -> its wording (the source's `answer_wording`). */
   answers?: Record<string, string>;
+  /** Column -> value -> its wording (the source's `wording: { Campus: { GQ: Gleddrith Quay } }`). */
+  values?: Record<string, Record<string, string>>;
 }
 
 /** Where something was written in the claims file (1-based), for error messages and the pack. */
@@ -108,6 +110,8 @@ export interface SourceSpec {
   suppressed?: string[];
   /** Question code -> its wording, as the pack should say it (`wording` in the claims file). */
   wording?: Record<string, string>;
+  /** Column -> value -> its wording (`wording: { Campus: { GQ: Gleddrith Quay } }`), for values that are codes. */
+  valueWording?: Record<string, Record<string, string>>;
   /** respondents: answer code -> its wording (`answer_wording`), used where answers are named (crosstab of answers). */
   answerWording?: Record<string, string>;
   place: Place;

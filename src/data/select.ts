@@ -186,6 +186,9 @@ export function pool(cube: Cube, filter: Filter): Pooled {
   return poolCells(cube, matching(cube, filter));
 }
 
+/** Names a column's value for people (its wording with the code beside it, where the source words it). */
+export type UnitNamer = (column: string, value: string) => string;
+
 /** The name of a unit made of one or more columns: its values joined in the columns' order ("Computing, Quarrendell"). */
 export function unitLabel(values: readonly string[]): string {
   return values.join(', ');
@@ -196,9 +199,9 @@ export function unitLabel(values: readonly string[]): string {
  * combination of their values (each institution's departments, not departments pooled across institutions). Units
  * with no matching cell are left out.
  */
-export function poolByUnit(cube: Cube, filter: Filter, unitColumns: string | readonly string[]): Map<string, Pooled> {
+export function poolByUnit(cube: Cube, filter: Filter, unitColumns: string | readonly string[], name?: UnitNamer): Map<string, Pooled> {
   const out = new Map<string, Pooled>();
-  for (const [u, cells] of cellsByUnit(cube, filter, unitColumns)) out.set(u, poolCells(cube, cells));
+  for (const [u, cells] of cellsByUnit(cube, filter, unitColumns, name)) out.set(u, poolCells(cube, cells));
   return out;
 }
 
@@ -207,7 +210,7 @@ export function poolByUnit(cube: Cube, filter: Filter, unitColumns: string | rea
  * several (labelled by unitLabel). Units come in the order of the columns' values (first column first); combinations
  * that no matching cell has are left out.
  */
-export function cellsByUnit(cube: Cube, filter: Filter, unitColumns: string | readonly string[]): Map<string, Cell[]> {
+export function cellsByUnit(cube: Cube, filter: Filter, unitColumns: string | readonly string[], name?: UnitNamer): Map<string, Cell[]> {
   const cols = typeof unitColumns === 'string' ? [unitColumns] : [...unitColumns];
   checkFilter(cube, filter);
   for (const col of cols) checkFilter(cube, { [col]: [] });
@@ -226,7 +229,8 @@ export function cellsByUnit(cube: Cube, filter: Filter, unitColumns: string | re
   });
   const out = new Map<string, Cell[]>();
   for (const [key, g] of sorted) {
-    const label = cols.length === 1 ? key : unitLabel(JSON.parse(key) as string[]);
+    const values = cols.length === 1 ? [key] : (JSON.parse(key) as string[]);
+    const label = unitLabel(name !== undefined ? values.map((v, j) => name(cols[j] as string, v)) : values);
     const same = out.get(label);
     // Two combinations whose values join to the same words (a value holding ", "): kept apart by the column order.
     if (same !== undefined) out.set(`${label} (${cols.join(', ')})`, g.cells);

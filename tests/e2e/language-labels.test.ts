@@ -179,3 +179,110 @@ describe('selections that leave values out ({ not: ... })', () => {
     expect(rest.n[1]).toBe(answered((r) => r.Year === '2026' && r.Campus !== 'Harrowfen' && r.Campus !== 'Tollwick', 'Q01'));
   });
 });
+
+describe('wording for column values and from a second header row', () => {
+  const dir = join(work, 'wording');
+  const campuses = { HF: 'Harrowfen', QM: 'Quillby Marsh', TW: 'Tollwick' } as const;
+  /** Invented respondents: campus and mode codes, answers 1-5 (9 not applicable) spread by a fixed rule. */
+  const rows: string[][] = [];
+  const codes = ['1', '2', '3', '4', '4', '5', '5', '9'];
+  for (let i = 0; i < 480; i++) {
+    const campus = (['HF', 'QM', 'TW'] as const)[Math.floor(i / 2) % 3]!;
+    const answer = (q: number): string => codes[(i * 7 + q * 3 + (i >> 3) + (campus === 'HF' ? q : 0)) % 8]!;
+    rows.push([`R${i}`, String(2025 + (i % 2)), campus, i % 5 === 0 ? 'PT' : 'FT', answer(1), answer(2), answer(3)]);
+  }
+  const answered = (keep: (r: string[]) => boolean, q: number): number => rows.filter((r) => keep(r) && /^[1-5]$/.test(r[q]!)).length;
+  let results: { claims: Array<Record<string, any>> };
+  let text: string;
+
+  beforeAll(() => {
+    execFileSync('mkdir', ['-p', dir]);
+    const header = 'RespondentID,Year,Campus,Mode,Q01,Q02,Q03\n,,,,Teaching staff explain things clearly,My timetable works well for me,Marking is fair\n';
+    writeFileSync(join(dir, 'respondents.csv'), header + rows.map((r) => r.join(',')).join('\n') + '\n');
+    writeFileSync(
+      join(dir, 'claims.yaml'),
+      `title: Wording
+organisation: Test
+adjust: none
+sources:
+  survey:
+    file: respondents.csv
+    shape: respondents
+    questions: [Q01, Q02, Q03]
+    question_column: Question
+    period: Year
+    not_applicable: [9]
+    header_rows: 2
+    wording:
+      Q03: Marking is fair and clear
+      Campus: { HF: Harrowfen, QM: Quillby Marsh, TW: Tollwick }
+      Mode: { FT: full-time, PT: part-time }
+claims:
+  - id: hf-against-qm
+    claim: Harrowfen students agree on Q01 more often than Quillby Marsh students.
+    kind: compare
+    where: { Year: 2026, Question: Q01 }
+    focus: { Campus: HF }
+    against: { Campus: QM }
+    expect: higher
+  - id: hf-against-rest
+    claim: Harrowfen students find marking fairer than everyone else.
+    kind: compare
+    where: { Year: 2026, Question: Q03 }
+    focus: { Campus: HF }
+    against: rest
+    against_label: the college
+    expect: higher
+  - id: campus-and-mode
+    claim: Answers on Q02 differ by campus and mode.
+    kind: crosstab
+    where: { Year: 2026, Question: Q02 }
+    rows: [Campus, Mode]
+    columns: answers
+    expect: related
+  - id: ft-scores
+    claim: Full-time students score Q01 higher than part-time students.
+    kind: means
+    where: { Year: 2026, Question: Q01 }
+    focus: { Mode: FT }
+    against: { Mode: PT }
+    expect: higher
+`,
+    );
+    const r = spawnSync(process.execPath, [bin, 'build', 'claims.yaml', '--out', 'out', '--quiet'], { cwd: dir, encoding: 'utf8' });
+    expect(r.stderr).toBe('');
+    expect(r.status).toBe(0);
+    const out = join(dir, 'out', readdirSync(join(dir, 'out')).find((d) => d !== 'latest') as string);
+    results = JSON.parse(readFileSync(join(out, 'results.json'), 'utf8'));
+    text = fold(execFileSync('pdftotext', ['-enc', 'UTF-8', join(out, 'pack.pdf'), '-'], { encoding: 'utf8' }));
+  }, 120_000);
+
+  it('names a coded value in its wording with the code beside it, in sentences, tables and results.json', () => {
+    const hf = answered((r) => r[1] === '2026' && r[2] === 'HF', 4);
+    const qm = answered((r) => r[1] === '2026' && r[2] === 'QM', 4);
+    const c = results.claims.find((x) => x.id === 'hf-against-qm')!;
+    expect(c.selections.map((s: { label: string; n: number }) => [s.label, s.n])).toEqual([
+      [`${campuses.HF} (HF)`, hf],
+      [`${campuses.QM} (QM)`, qm],
+    ]);
+    expect(text).toContain(`Harrowfen (HF) (${hf} respondents) against Quillby Marsh (QM) (${qm} respondents)`);
+    // Crosstab rows made of two coded columns: each value in its wording.
+    const cross = results.claims.find((x) => x.id === 'campus-and-mode')!;
+    expect(cross.table.rows).toContain('Harrowfen (HF), full-time (FT)');
+    expect(text).toContain('Tollwick (TW), part-time (PT)');
+    const means = results.claims.find((x) => x.id === 'ft-scores')!;
+    expect(means.means.map((m: { label: string }) => m.label)[0]).toContain('full-time (FT)');
+    expect(text).not.toMatch(/“Harrowfen”|“full-time”/);
+  });
+
+  it('takes question wording from the second header row, and the claims file\'s wording before it', () => {
+    expect(text).toContain('for “Teaching staff explain things clearly” (Q01) in 2026');
+    // Q03 is worded in both places: the claims file wins.
+    expect(text).toContain('“Marking is fair and clear” (Q03)');
+    expect(text).not.toContain('“Marking is fair” (Q03)');
+    expect(text).toContain('the answer to “My timetable works well for me” (Q02)');
+    const rest = results.claims.find((x) => x.id === 'hf-against-rest')!;
+    expect(rest.n).toEqual([answered((r) => r[1] === '2026' && r[2] === 'HF', 6), answered((r) => r[1] === '2026' && r[2] !== 'HF', 6)]);
+    expect(text).toContain('against the rest of the college');
+  });
+});
