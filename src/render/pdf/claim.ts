@@ -99,7 +99,7 @@ const SPACING_TIGHT: ClaimSpacing = { head: 8, notice: 8, panelPad: 7, panel: 9,
  * Closest spacing, type half a point smaller (the verdict paragraph 10 pt, tables 9 pt) and cautions at the size of
  * the method line, all still readable in print, for a claim that would otherwise run onto a second page.
  */
-const SPACING_CLOSE: ClaimSpacing = { head: 5, notice: 6, panelPad: 6, panel: 5, h3: 2, compared: 4, rowPadY: 1.2, method: 4, figure: 4, caution: SIZE.small + 0.5, body: SIZE.body - 0.5, table: SIZE.table - 0.5 };
+const SPACING_CLOSE: ClaimSpacing = { head: 4, notice: 5, panelPad: 5, panel: 4, h3: 1.5, compared: 3, rowPadY: 0.9, method: 3, figure: 3, caution: SIZE.small + 0.5, body: SIZE.body - 0.5, table: SIZE.table - 0.5 };
 
 /** Type size of the method line, the source line and term notes under a claim's tables (readable in print). */
 const NOTE_SIZE = SIZE.small + 0.5;
