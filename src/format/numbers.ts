@@ -60,9 +60,34 @@ export function distinctDigits(values: readonly number[], write: (v: number, dig
   return max;
 }
 
-/** Decimals for rates printed together (a rate and its interval's ends): see `distinctDigits`. At most two. */
+/**
+ * Decimals for rates printed together (a rate and its interval's ends): see `distinctDigits`, and never fewer than
+ * any of them needs on its own (one below 1% or above 99%), so that all are written alike ("0.4% to 2.1%", not
+ * "0.4% to 2%"). At most two.
+ */
 export function percentDigits(...rates: number[]): number {
-  return distinctDigits(rates, percent, 0, 2);
+  return Math.max(distinctDigits(rates, percent, 0, 2), ...rates.filter((r) => Number.isFinite(r)).map(percentBase));
+}
+
+/**
+ * One precision for rates compared with one another in a sentence, a table or a key figure (two groups, two
+ * periods, every period of a trend, a rate and the value it is held to): each group is a rate followed by the
+ * figures printed with it (its interval's ends). The decimals are the finest any group needs (`percentDigits`), and
+ * enough (up to one) that two different rates do not print alike ("80.0% vs 79.5%", not "80% vs 80%"), so that
+ * "60% against 72.2%" is written "60.3% against 72.2%".
+ */
+export function comparedPercentDigits(...groups: ReadonlyArray<readonly number[]>): number {
+  const own = groups.map((g) => percentDigits(...g));
+  const heads = groups.map((g) => g[0]).filter((v): v is number => v !== undefined && Number.isFinite(v));
+  return Math.max(0, ...own, distinctDigits(heads, percent, 0, 1));
+}
+
+/**
+ * One precision for coefficients or mean scores compared in a sentence or table (two groups' means with their
+ * intervals, and the difference between them): the finest any group needs (`coefficientDigits`).
+ */
+export function comparedCoefficientDigits(...groups: ReadonlyArray<readonly number[]>): number {
+  return Math.max(2, ...groups.map((g) => coefficientDigits(...g)));
 }
 
 /** Decimals for differences in points printed together: one, or more (at most three) where ends would collapse. */

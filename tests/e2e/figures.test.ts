@@ -98,9 +98,66 @@ describe('the trend claim: fitted change per period with its interval', () => {
     for (const sentence of [
       `changes by ${pts(own.slope)} points a period (95% interval ${pts(own.lower)} to ${pts(own.upper)})`,
       `fitted ${pts(own.slope)} points a period (${pts(own.lower)} to ${pts(own.upper)})`,
-      "Wald interval for the fitted change per period with the test's standard error",
+      'test-based (Wald) interval for the change per period',
     ]) {
       expect(flat.includes(sentence), sentence).toBe(true);
+    }
+  });
+});
+
+/**
+ * The rates in a text, with their decimals, leaving out confidence levels and the like ("95% interval", "99.3%
+ * confidence", "(90%)", "80% of the time") and names ("the university's 80% target" is how the claim names it).
+ */
+function rateDecimals(text: string): Array<{ text: string; decimals: number }> {
+  const out: Array<{ text: string; decimals: number }> = [];
+  const re = /(\d+(?:\.(\d+))?)%/g;
+  let m: RegExpExecArray | null;
+  while ((m = re.exec(text))) {
+    const after = text.slice(m.index + m[0].length);
+    const before = text.slice(0, m.index);
+    if (/^\s*(interval|confidence|of the time|level|\)|target)/.test(after) || /\($/.test(before)) continue;
+    out.push({ text: m[0], decimals: m[2]?.length ?? 0 });
+  }
+  return out;
+}
+
+function mixed(text: string): boolean {
+  return new Set(rateDecimals(text).map((r) => r.decimals)).size > 1;
+}
+
+describe('one precision per sentence', () => {
+  it('writes the rates of each verdict sentence at one number of decimals', () => {
+    const sentences = results.claims.flatMap((c) => (c.verdictText as string).split(/(?<=\.) (?=[A-Z])/).map((s) => `${c.id}: ${s}`));
+    expect(sentences.filter((s) => rateDecimals(s).length > 1).length).toBeGreaterThan(5);
+    expect(sentences.filter(mixed)).toEqual([]);
+    // The demo's regional comparison needs a decimal for one rate's interval, so both rates carry it.
+    expect(flat).toMatch(/60\.3% of the 2,052 respondents in Quarrendell University agreed, against 72\.2%/);
+  });
+
+  it('writes the rates of each numbers-table row, and of the rows a claim compares, at one number of decimals', () => {
+    const tables = numbersTables(layout);
+    for (const [claim, lines] of tables) {
+      const rows = tableRows(claim, lines);
+      for (const row of rows) expect(mixed(row.value), `${claim} | ${row.label} | ${row.value}`).toBe(false);
+      // Rows of rates ("60.3% agreed of 2,052 ...") are compared with one another.
+      const rateRows = rows.filter((r) => /% agreed of/.test(r.value));
+      expect(mixed(rateRows.map((r) => r.value).join(' ')), `${claim}: ${rateRows.map((r) => r.value).join(' / ')}`).toBe(false);
+    }
+  });
+
+  it('writes the two figures of each summary comparison at one number of decimals, and never two different rates alike', () => {
+    const pairs = [...flat.matchAll(/(\d+(?:\.\d+)?)% (?:vs|against|in \d{4} to) (\d+(?:\.\d+)?)%/g)];
+    expect(pairs.length).toBeGreaterThan(10);
+    const dec = (t: string) => t.split('.')[1]?.length ?? 0;
+    expect(pairs.filter((p) => dec(p[1]!) !== dec(p[2]!)).map((p) => p[0])).toEqual([]);
+    const means = [...flat.matchAll(/mean (\d+\.\d+) vs (\d+\.\d+)/g)];
+    expect(means.length).toBeGreaterThan(0);
+    expect(means.filter((p) => dec(p[1]!) !== dec(p[2]!)).map((p) => p[0])).toEqual([]);
+    // Rates that differ are not written alike: "80.0% vs 79.5%", not "80% vs 80%".
+    for (const c of results.claims.filter((x) => x.kind === 'compare' && x.selections.length === 2)) {
+      const [a, b] = c.selections as Array<{ rate: number }>;
+      if (a!.rate !== b!.rate) expect(flat, c.id).not.toMatch(new RegExp(`(\\d+(?:\\.\\d+)?)% vs \\1%, difference [+\u2212]`));
     }
   });
 });

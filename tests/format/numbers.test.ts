@@ -79,3 +79,30 @@ describe('decimals chosen from an interval\'s width', () => {
     );
   });
 });
+
+// One precision per sentence (house style): figures compared in one sentence or table row share their decimals,
+// the finest any of them needs.
+describe('one precision for compared figures', () => {
+  it('gives two compared rates the decimals the finer needs: "60.3% against 72.2%", not "60% against 72.2%"', () => {
+    // Quarrendell University (wide interval, whole percentages alone) against the rest of the region (narrow).
+    const dg = fmt.comparedPercentDigits([0.6033, 0.59, 0.6164], [0.7219, 0.7151, 0.7287]);
+    expect(dg).toBe(1);
+    expect(`${fmt.percent(0.6033, dg)} against ${fmt.percent(0.7219, dg)}`).toBe('60.3% against 72.2%');
+    expect(fmt.comparedPercentDigits([0.61, 0.58, 0.64], [0.67, 0.64, 0.7])).toBe(0);
+  });
+  it('keeps two different rates apart, to one decimal: "80.0% vs 79.5%", not "80% vs 80%"', () => {
+    const dg = fmt.comparedPercentDigits([0.8, 0.68, 0.88], [0.7953, 0.778, 0.812]);
+    expect(`${fmt.percent(0.8, dg)} vs ${fmt.percent(0.7953, dg)}`).toBe('80.0% vs 79.5%');
+    // No more than one decimal only to keep compared rates apart.
+    expect(fmt.comparedPercentDigits([0.8, 0.7, 0.9], [0.8001, 0.7, 0.9])).toBe(1);
+  });
+  it('writes a rate near 0% and one far from it alike: "0.4% to 2.1%", never "0.4% to 2%"', () => {
+    const dg = fmt.percentDigits(0.004, 0.021);
+    expect(`${fmt.percent(0.004, dg)} to ${fmt.percent(0.021, dg)}`).toBe('0.4% to 2.1%');
+    expect(fmt.comparedPercentDigits([0.9962], [0.95])).toBe(1);
+  });
+  it('gives compared means, their intervals and their difference one precision, at least two decimals', () => {
+    expect(fmt.comparedCoefficientDigits([3.8, 3.67, 3.93], [3.94, 3.89, 3.98], [-0.13, -0.28, 0.01])).toBe(2);
+    expect(fmt.comparedCoefficientDigits([3.8, 3.67, 3.93], [3.973, 3.968, 3.977])).toBe(3);
+  });
+});

@@ -5,7 +5,7 @@ import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, detectableLabel, differenceView, pView, rateCautions, rateRow, rateView, scopeText, tooLittle, twoRateTestName, type ComposeContext, type Composed } from './common.js';
+import { commonRows, detectableLabel, differenceView, pView, rateCautions, rateRow, rateView, scopeText, sharedDigits, tooLittle, twoRateTestName, type ComposeContext, type Composed } from './common.js';
 
 /** Where-filters other than the period column, as a phrase ("Tarnquill, Q09"). */
 export function scopeOf(a: { claim: { where: ChangeAnalysis['claim']['where']; naming?: Naming }; periodColumn: string }): string {
@@ -26,10 +26,12 @@ export function composeChange(a: ChangeAnalysis, decision: Decision, ctx: Compos
   }
   const d = a.difference;
   const dv = differenceView(d, a.observedSign);
+  // One precision for the two periods' rates, in the sentence, the key figure and the table (src/format/numbers.ts).
+  const dg = sharedDigits([a.earlier, a.later]);
   const view: View = {
     ...periods,
-    later: rateView(a.later),
-    earlier: rateView(a.earlier),
+    later: rateView(a.later, dg),
+    earlier: rateView(a.earlier, dg),
     level: fmt.level(claim.confidence),
     change: dv.signed,
     changeLower: dv.signedLower,
@@ -46,8 +48,8 @@ export function composeChange(a: ChangeAnalysis, decision: Decision, ctx: Compos
   };
   const numbers: NumberRow[] = [
     // Periods run earliest first, in the table as in the chart.
-    rateRow(a.earlier, a.periods.from),
-    rateRow(a.later, a.periods.to),
+    rateRow(a.earlier, a.periods.from, dg),
+    rateRow(a.later, a.periods.to, dg),
     { label: 'Change', value: `${view.change} points (interval ${view.changeLower} to ${view.changeUpper})` },
     ...commonRows(a, decision, ctx),
     { label: "Effect size (Cohen's h)", value: fmt.coefficient(a.cohensH ?? NaN) },
@@ -62,7 +64,7 @@ export function composeChange(a: ChangeAnalysis, decision: Decision, ctx: Compos
       axisTitle: 'Agreeing (%)',
       bars: [a.earlier, a.later].map((r, i) => ({ label: i === 0 ? a.periods.from : a.periods.to, rate: r.rate, lower: r.interval.lower, upper: r.interval.upper, n: r.n })),
     },
-    alt: `Chart of agreement rates with ${fmt.level(claim.confidence)} intervals${scope ? ` for ${scope}` : ''}: ${a.periods.from} ${rateView(a.earlier).rate} (${rateView(a.earlier).lower} to ${rateView(a.earlier).upper}), ${a.periods.to} ${rateView(a.later).rate} (${rateView(a.later).lower} to ${rateView(a.later).upper}).`,
+    alt: `Chart of agreement rates with ${fmt.level(claim.confidence)} intervals${scope ? ` for ${scope}` : ''}: ${a.periods.from} ${rateView(a.earlier, dg).rate} (${rateView(a.earlier, dg).lower} to ${rateView(a.earlier, dg).upper}), ${a.periods.to} ${rateView(a.later, dg).rate} (${rateView(a.later, dg).lower} to ${rateView(a.later, dg).upper}).`,
   };
   return {
     section: {

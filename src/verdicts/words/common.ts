@@ -28,9 +28,12 @@ export interface Composed {
   key: string;
 }
 
-export function rateView(r: RateSummary) {
-  // Decimals chosen so that the rate and its interval's ends never print alike (src/format/numbers.ts).
-  const dg = fmt.percentDigits(r.rate, r.interval.lower, r.interval.upper);
+/**
+ * A rate with its interval, written for people. `digits` is the precision shared with the rates it is compared with
+ * (`sharedDigits`); alone, the decimals are chosen so that the rate and its interval's ends never print alike.
+ */
+export function rateView(r: RateSummary, digits?: number) {
+  const dg = digits ?? fmt.percentDigits(r.rate, r.interval.lower, r.interval.upper);
   return { label: r.label, n: fmt.count(r.n), rate: fmt.percent(r.rate, dg), lower: fmt.percent(r.interval.lower, dg), upper: fmt.percent(r.interval.upper, dg) };
 }
 
@@ -181,9 +184,17 @@ export function plural(units: string): string {
   return `${lower}s`;
 }
 
-/** A rate's row in the numbers table: "61% agreed of 840 (interval 58% to 64%)". */
-export function rateRow(r: RateSummary, label: string = r.label): NumberRow {
-  const v = rateView(r);
+/**
+ * One precision for the rates a claim compares (and any other rates printed beside them, e.g. a fitted line or a
+ * fixed value): each rate with its interval's ends, so that one sentence or table never writes "60% against 72.2%".
+ */
+export function sharedDigits(rates: readonly RateSummary[], others: readonly number[] = []): number {
+  return fmt.comparedPercentDigits(...rates.map((r) => [r.rate, r.interval.lower, r.interval.upper]), ...others.map((v) => [v]));
+}
+
+/** A rate's row in the numbers table: "61% agreed of 840 (interval 58% to 64%)", at `digits` when it is compared. */
+export function rateRow(r: RateSummary, label: string = r.label, digits?: number): NumberRow {
+  const v = rateView(r, digits);
   return { label, value: `${v.rate} agreed of ${v.n} (interval ${v.lower} to ${v.upper})` };
 }
 

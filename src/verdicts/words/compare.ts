@@ -5,7 +5,7 @@ import { filterLabel } from '../../analyse/labels.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, detectableLabel, differenceView, pView, rateCautions, rateRow, rateView, restOfGroupCaution, scopeText, tooLittle, twoRateTestName, type ComposeContext, type Composed } from './common.js';
+import { commonRows, detectableLabel, differenceView, pView, rateCautions, rateRow, rateView, restOfGroupCaution, sharedDigits, scopeText, tooLittle, twoRateTestName, type ComposeContext, type Composed } from './common.js';
 
 export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
@@ -22,9 +22,11 @@ export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: Comp
   }
   const d = a.difference;
   const dv = differenceView(d, a.observedSign);
+  // One precision for the two rates, in the sentence, the key figure and the table (src/format/numbers.ts).
+  const dg = sharedDigits([a.focus, a.against]);
   const view: View = {
-    focus: rateView(a.focus),
-    against: rateView(a.against),
+    focus: rateView(a.focus, dg),
+    against: rateView(a.against, dg),
     scope: scopeText(claim.where, claim.naming),
     expectWord,
     oneSided,
@@ -43,8 +45,8 @@ export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: Comp
     ...pView(decision, ctx),
   };
   const numbers: NumberRow[] = [
-    rateRow(a.focus),
-    rateRow(a.against),
+    rateRow(a.focus, a.focus.label, dg),
+    rateRow(a.against, a.against.label, dg),
     { label: 'Difference', value: `${view.diff} points (interval ${view.diffLower} to ${view.diffUpper})` },
     ...commonRows(a, decision, ctx),
     { label: "Effect size (Cohen's h)", value: fmt.coefficient(a.cohensH ?? NaN) },
@@ -60,7 +62,7 @@ export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: Comp
       axisTitle: 'Agreeing (%)',
       bars: [a.focus, a.against].map((r) => ({ label: r.label, rate: r.rate, lower: r.interval.lower, upper: r.interval.upper, n: r.n })),
     },
-    alt: `Chart of agreement rates with ${fmt.level(claim.confidence)} intervals: ${a.focus.label} ${rateView(a.focus).rate} (${rateView(a.focus).lower} to ${rateView(a.focus).upper}), ${a.against.label} ${rateView(a.against).rate} (${rateView(a.against).lower} to ${rateView(a.against).upper}).`,
+    alt: `Chart of agreement rates with ${fmt.level(claim.confidence)} intervals: ${a.focus.label} ${rateView(a.focus, dg).rate} (${rateView(a.focus, dg).lower} to ${rateView(a.focus, dg).upper}), ${a.against.label} ${rateView(a.against, dg).rate} (${rateView(a.against, dg).lower} to ${rateView(a.against, dg).upper}).`,
   };
   return {
     section: {

@@ -5,7 +5,7 @@ import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, pView, rateCautions, rateRow, rateView, restOfGroupCaution, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, pView, rateCautions, rateRow, rateView, restOfGroupCaution, sharedDigits, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 export function composeEquivalence(a: EquivalenceAnalysis, decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
@@ -22,11 +22,13 @@ export function composeEquivalence(a: EquivalenceAnalysis, decision: Decision, c
   const e = a.equivalenceInterval;
   const alpha = 1 - claim.confidence;
   const digits = fmt.pointsDigits(d.value, d.interval.lower, d.interval.upper, e.lower, e.upper);
+  // One precision for the two rates (src/format/numbers.ts); the margin at the differences' decimals.
+  const dg = sharedDigits([a.focus, a.against]);
   const view: View = {
-    focus: rateView(a.focus),
-    against: rateView(a.against),
+    focus: rateView(a.focus, dg),
+    against: rateView(a.against, dg),
     scope: scopeText(claim.where, claim.naming),
-    margin,
+    margin: fmt.pointsSize(claim.margin, digits),
     level: fmt.level(claim.confidence),
     tostLevel: fmt.level(e.level),
     alpha: fmt.level(alpha),
@@ -40,10 +42,10 @@ export function composeEquivalence(a: EquivalenceAnalysis, decision: Decision, c
     ...pView(decision, ctx),
   };
   const numbers: NumberRow[] = [
-    rateRow(a.focus),
-    rateRow(a.against),
+    rateRow(a.focus, a.focus.label, dg),
+    rateRow(a.against, a.against.label, dg),
     { label: 'Difference', value: `${view.diff} points (${view.level} interval ${view.diffLower} to ${view.diffUpper})` },
-    { label: 'Margin', value: `±${margin} points` },
+    { label: 'Margin', value: `±${view.margin as string} points` },
     { label: `Interval set against the margin (${view.tostLevel})`, value: `${view.tostLower} to ${view.tostUpper} points` },
     ...commonRows(a, decision, ctx),
   ];

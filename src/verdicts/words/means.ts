@@ -17,9 +17,9 @@ export function scalePoints(value: number, options: { sign?: boolean; digits?: n
   return options.sign && value > 0 && Number(text) !== 0 ? `+${text}` : text;
 }
 
-function meanView(m: MeanSummary) {
-  // Decimals chosen so that the mean and its interval's ends never print alike (src/format/numbers.ts).
-  const digits = fmt.coefficientDigits(m.mean, m.interval.lower, m.interval.upper);
+/** A mean with its interval at `digits` (shared with the mean it is compared with; alone, ends never print alike). */
+function meanView(m: MeanSummary, shared?: number) {
+  const digits = shared ?? fmt.coefficientDigits(m.mean, m.interval.lower, m.interval.upper);
   return { label: m.label, n: fmt.count(m.n), mean: scalePoints(m.mean, { digits }), lower: scalePoints(m.interval.lower, { digits }), upper: scalePoints(m.interval.upper, { digits }) };
 }
 
@@ -68,7 +68,8 @@ export function composeMeans(a: MeansAnalysis, decision: Decision, ctx: ComposeC
   const d = a.difference;
   // Cohen's d's interval also at the level that decided an adjusted verdict, beside the difference's.
   const dAdjusted = decision.adjustedInterval && a.cohensDInterval ? cohensDIntervalAt(a, adjustedConfidence(decision.effectiveAlpha as number)) : undefined;
-  const dDigits = fmt.coefficientDigits(d.value, d.interval.lower, d.interval.upper);
+  // One precision for the two means, their intervals and the difference, all in scale points (src/format/numbers.ts).
+  const dDigits = fmt.comparedCoefficientDigits([a.focus.mean, a.focus.interval.lower, a.focus.interval.upper], [a.against.mean, a.against.interval.lower, a.against.interval.upper], [d.value, d.interval.lower, d.interval.upper]);
   // The other family of test as a check: does it reach the same verdict at the threshold that decided this one?
   const threshold = decision.effectiveAlpha ?? decision.alpha;
   const check = a.check
@@ -82,8 +83,8 @@ export function composeMeans(a: MeansAnalysis, decision: Decision, ctx: ComposeC
     check: check ? { name: check.name, pPhrase: fmt.pPhrase(check.test.p), agrees: check.agrees, threshold: thresholdText(threshold) } : false,
     checkDisagrees: check !== undefined && !check.agrees,
     detectable: a.detectable !== undefined ? scalePoints(a.detectable) : '',
-    focus: meanView(a.focus),
-    against: meanView(a.against),
+    focus: meanView(a.focus, dDigits),
+    against: meanView(a.against, dDigits),
     scope: scopeText(claim.where, claim.naming),
     expectWord,
     oneSided,
@@ -101,7 +102,7 @@ export function composeMeans(a: MeansAnalysis, decision: Decision, ctx: ComposeC
   const scale = a.scale ? ` (scale ${a.scale[0]} to ${a.scale[1]})` : '';
   const meanRow = (m: MeanSummary) => ({
     label: m.label,
-    value: `mean ${meanView(m).mean}${scale}, ${fmt.count(m.n)} respondents (interval ${meanView(m).lower} to ${meanView(m).upper}; SD ${scalePoints(m.sd)})`,
+    value: `mean ${meanView(m, dDigits).mean}${scale}, ${fmt.count(m.n)} respondents (interval ${meanView(m, dDigits).lower} to ${meanView(m, dDigits).upper}; SD ${scalePoints(m.sd, { digits: dDigits })})`,
   });
   const numbers: NumberRow[] = [
     meanRow(a.focus),

@@ -5,7 +5,7 @@ import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, detectableLabel, differenceView, pView, rateCautions, rateRow, rateView, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, detectableLabel, differenceView, pView, rateCautions, rateRow, rateView, sharedDigits, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 /** True when the fixed value's label says it is a benchmark from elsewhere rather than a target set locally. */
 function isBenchmark(label: string | undefined): boolean {
@@ -30,9 +30,12 @@ export function composeTarget(a: TargetAnalysis, decision: Decision, ctx: Compos
   const d = a.difference;
   const dv = differenceView(d, a.observedSign);
   const exact = a.methods.includes('binomial-exact');
+  // The rate and the value it is held to at one precision (src/format/numbers.ts); names keep the value as written.
+  const dg = sharedDigits([a.rate], [claim.value]);
   const view: View = {
     ...head,
-    rate: rateView(a.rate),
+    target: fmt.percent(claim.value, dg),
+    rate: rateView(a.rate, dg),
     level: fmt.level(claim.confidence),
     gap: dv.signed,
     gapLower: dv.signedLower,
@@ -48,11 +51,11 @@ export function composeTarget(a: TargetAnalysis, decision: Decision, ctx: Compos
     ...pView(decision, ctx),
   };
   const numbers: NumberRow[] = [
-    rateRow(a.rate),
+    rateRow(a.rate, a.rate.label, dg),
     ...(a.exactInterval
       ? [{ label: 'Exact interval for the rate (Clopper–Pearson)', value: `${fmt.percent(a.exactInterval.lower, fmt.percentDigits(a.exactInterval.lower, a.exactInterval.upper))} to ${fmt.percent(a.exactInterval.upper, fmt.percentDigits(a.exactInterval.lower, a.exactInterval.upper))}${a.rate.population !== undefined ? ', without the finite-population correction' : ''}` }]
       : []),
-    { label: claim.valueLabel ?? 'Fixed value', value: claim.valueWritten && claim.valueWritten !== target ? `${target} (written as ${claim.valueWritten})` : target },
+    { label: claim.valueLabel ?? 'Fixed value', value: claim.valueWritten && claim.valueWritten !== target ? `${view.target as string} (written as ${claim.valueWritten})` : (view.target as string) },
     { label: 'Gap to the value', value: `${view.gap} points (interval ${view.gapLower} to ${view.gapUpper})` },
     ...commonRows(a, decision, ctx),
     { label: detectableLabel('gap', decision), value: view.detectable ? `about ${view.detectable} points` : 'none within reach of this sample' },
@@ -67,7 +70,7 @@ export function composeTarget(a: TargetAnalysis, decision: Decision, ctx: Compos
       bars: [{ label: a.rate.label, rate: a.rate.rate, lower: a.rate.interval.lower, upper: a.rate.interval.upper, n: a.rate.n }],
       reference: { value: claim.value, label: claim.valueLabel ?? target },
     },
-    alt: `Chart of the agreement rate in ${a.rate.label}, ${rateView(a.rate).rate} with a ${fmt.level(claim.confidence)} interval of ${rateView(a.rate).lower} to ${rateView(a.rate).upper}, against a line at ${target} for ${valueLabel}.`,
+    alt: `Chart of the agreement rate in ${a.rate.label}, ${rateView(a.rate, dg).rate} with a ${fmt.level(claim.confidence)} interval of ${rateView(a.rate, dg).lower} to ${rateView(a.rate, dg).upper}, against a line at ${view.target as string} for ${valueLabel}.`,
   };
   return {
     section: {

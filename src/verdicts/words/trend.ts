@@ -5,7 +5,7 @@ import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
 import { scopeOf } from './change.js';
-import { commonRows, detectableLabel, pView, rateCautions, rateRow, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, detectableLabel, pView, rateCautions, rateRow, sharedDigits, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
@@ -27,14 +27,16 @@ export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeC
   const slopeDigits = iv ? fmt.pointsDigits(a.slope, iv.lower, iv.upper) : 1;
   const fittedFirst = a.fitted[0] as number;
   const fittedLast = a.fitted[a.fitted.length - 1] as number;
+  // One precision for every period's rate and the fitted line's ends: sentences set them side by side.
+  const dg = sharedDigits(rates, [fittedFirst, fittedLast]);
   const view: View = {
     ...head,
     level: fmt.level(claim.confidence),
     totalN: fmt.count(totalN),
     minN: fmt.count(Math.min(...rates.map((r) => r.n))),
     maxN: fmt.count(Math.max(...rates.map((r) => r.n))),
-    firstRate: fmt.percent((rates[0] as (typeof rates)[number]).rate),
-    lastRate: fmt.percent((rates[rates.length - 1] as (typeof rates)[number]).rate),
+    firstRate: fmt.percent((rates[0] as (typeof rates)[number]).rate, dg),
+    lastRate: fmt.percent((rates[rates.length - 1] as (typeof rates)[number]).rate, dg),
     slope: fmt.points(a.slope, { sign: true, digits: slopeDigits }),
     slopeSize: fmt.pointsSize(a.slope, slopeDigits),
     slopeLower: iv ? fmt.points(iv.lower, { sign: true, digits: slopeDigits }) : '',
@@ -43,8 +45,8 @@ export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeC
     sizeLower: iv ? fmt.pointsSize(a.slope < 0 ? iv.upper : iv.lower, slopeDigits) : '',
     sizeUpper: iv ? fmt.pointsSize(a.slope < 0 ? iv.lower : iv.upper, slopeDigits) : '',
     hasInterval: iv !== undefined,
-    fittedFirst: fmt.percent(fittedFirst),
-    fittedLast: fmt.percent(fittedLast),
+    fittedFirst: fmt.percent(fittedFirst, dg),
+    fittedLast: fmt.percent(fittedLast, dg),
     fittedChange: fmt.points(fittedLast - fittedFirst, { sign: true }),
     observedWord: a.slope < 0 ? 'fell' : 'rose',
     detectable: a.detectable !== undefined ? fmt.pointsSize(a.detectable) : '',
@@ -53,7 +55,7 @@ export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeC
     ...pView(decision, ctx),
   };
   const numbers: NumberRow[] = [
-    ...rates.map((r) => rateRow(r)),
+    ...rates.map((r) => rateRow(r, r.label, dg)),
     { label: 'Fitted change per period', value: iv ? `${view.slope} points (interval ${view.slopeLower} to ${view.slopeUpper})` : `${view.slope} points` },
     { label: `Fitted rate, ${first} to ${last}`, value: `${view.fittedFirst} to ${view.fittedLast} (${view.fittedChange} points)` },
     ...commonRows(a, decision, ctx),
@@ -72,7 +74,7 @@ export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeC
           statistic: fmt.statistic(d.statistic),
           dfText: `${d.df} ${d.df === 1 ? 'degree' : 'degrees'} of freedom`,
           pPhrase: fmt.pPhrase(d.p),
-          rateList: rates.map((r) => `${fmt.percent(r.rate)} in ${r.label}`).join(', '),
+          rateList: rates.map((r) => `${fmt.percent(r.rate, dg)} in ${r.label}`).join(', '),
         })}`
       : '';
   const cautions: string[] = [t.render('trend.caution-cohorts', {})];
@@ -85,7 +87,7 @@ export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeC
       points: rates.map((r) => ({ period: r.label, rate: r.rate, lower: r.interval.lower, upper: r.interval.upper, n: r.n })),
       fit: a.fitted.slice(),
     },
-    alt: `Chart of the agreement rate in each period with ${fmt.level(claim.confidence)} intervals${scope ? ` for ${scope}` : ''}: ${rates.map((r) => `${r.label} ${fmt.percent(r.rate)}`).join(', ')}; the fitted straight line goes from ${view.fittedFirst} to ${view.fittedLast}.`,
+    alt: `Chart of the agreement rate in each period with ${fmt.level(claim.confidence)} intervals${scope ? ` for ${scope}` : ''}: ${rates.map((r) => `${r.label} ${fmt.percent(r.rate, dg)}`).join(', ')}; the fitted straight line goes from ${view.fittedFirst} to ${view.fittedLast}.`,
   };
   return {
     section: {
