@@ -197,7 +197,8 @@ export interface AdviceInput {
 /** The words of the worth-reporting threshold and where it came from, for templates. */
 export function worthView(worth: Worth | undefined, unit: EffectInterval['unit'] | undefined) {
   if (!worth || !unit) return { worth: '', worthBasis: '' };
-  const sd = worth.standardized !== undefined ? `${fmt.coefficient(worth.standardized, 2)} standard deviations` : '';
+  // As written in the claims file or the defaults: "0.2 standard deviations", not "0.20".
+  const sd = worth.standardized !== undefined ? `${String(Number(worth.standardized.toPrecision(12)))} standard deviations` : '';
   const basis =
     worth.basis === 'claim'
       ? `the size worth reporting set by the claim${sd ? `: ${sd}` : ''}`
