@@ -198,7 +198,7 @@ export function analyseAssociation(claim: AssociationClaim, cube: Cube, ctx: Com
     observedSign: sign(test.estimate.value),
     fit: { intercept: line.intercept, slope: line.slope, rSquared: line.rSquared },
     ...(weightedCheck ? { weightedCheck } : {}),
-    detectable: minDetectableCorrelation(points.length - controls.length, 1 - claim.confidence, 0.8, sided),
+    detectable: minDetectableCorrelation(points.length - controls.length, { alpha: 1 - claim.confidence, power: 0.8, sided }),
     totals: {
       x: points.reduce((s, p) => s + p.nx, 0),
       y: points.reduce((s, p) => s + p.ny, 0),

@@ -48,12 +48,12 @@ export function detectableAt(a: Analysis, alpha: number): number | undefined {
       const corrected = a.fpc?.used === true && first.population !== undefined && second.population !== undefined;
       const m1 = corrected ? effectiveSize(first.n, first.population as number) : first.n;
       const m2 = corrected ? effectiveSize(second.n, second.population as number) : second.n;
-      return pick(a.claim.expect, minDetectableDifference(m1, m2, second.rate, alpha, POWER, sided));
+      return pick(a.claim.expect, minDetectableDifference(m1, m2, second.rate, { alpha, power: POWER, sided }));
     }
     case 'target': {
       if (!a.rate) return undefined;
       const corrected = a.rate.fpc === true && a.rate.population !== undefined;
-      return pick(a.claim.expect, minDetectableGap(a.rate.n, a.claim.value, alpha, POWER, sided, corrected ? a.rate.population : undefined));
+      return pick(a.claim.expect, minDetectableGap(a.rate.n, a.claim.value, { alpha, power: POWER, sided, ...(corrected && a.rate.population !== undefined ? { populationSize: a.rate.population } : {}) }));
     }
     case 'trend': {
       if (!a.rates) return undefined;
@@ -63,7 +63,7 @@ export function detectableAt(a: Analysis, alpha: number): number | undefined {
     }
     case 'association': {
       const units = a.points.length - (a.controlled?.length ?? 0);
-      return units >= 4 ? minDetectableCorrelation(units, alpha, POWER, sided) : undefined;
+      return units >= 4 ? minDetectableCorrelation(units, { alpha, power: POWER, sided }) : undefined;
     }
     case 'crosstab': {
       const n = a.counts.reduce((s, r) => s + r.reduce((u, v) => u + v, 0), 0);

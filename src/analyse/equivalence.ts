@@ -16,7 +16,7 @@ import type { EquivalenceClaim } from '../claims/types.js';
 import type { Cube, Pooled } from '../data/types.js';
 import { relate } from '../data/select.js';
 import { InputError } from '../errors.js';
-import { newcombe } from '../stats/newcombe.js';
+import { newcombeInterval } from '../stats/newcombe.js';
 import { tostTwoProportions } from '../stats/tost-two-proportions.js';
 import { wilson } from '../stats/wilson.js';
 import { refuseOverlap, type CompareContext } from './compare.js';
@@ -80,7 +80,7 @@ export function analyseEquivalence(claim: EquivalenceClaim, cube: Cube, ctx: Com
   const focus = rateSummary(focusLabel, { ...focusPooled, agree: x1 }, claim.confidence);
   const against = rateSummary(againstLabel, { ...againstPooled, agree: x2 }, claim.confidence);
   const diff = focus.rate - against.rate;
-  const interval = newcombe(x1, n1, x2, n2, claim.confidence);
+  const interval = newcombeInterval(x1, n1, x2, n2, { level: claim.confidence });
   return {
     ...base,
     status: 'tested',

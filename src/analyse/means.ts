@@ -108,7 +108,7 @@ export function analyseMeans(claim: MeansClaim, cube: Cube, ctx: CompareContext)
 
   const alternative = alternativeFor(claim);
   const tTest = claim.test === 'student' ? studentT : welchT;
-  const opts = (alt: Alternative): TTestOptions => ({ alternative: alt, confidence: claim.confidence });
+  const opts = (alt: Alternative): TTestOptions => ({ alternative: alt, level: claim.confidence });
   const run = (alt: Alternative): TestResult =>
     claim.test === 'rank' ? mannWhitneyCounts(fp.codes as Record<string, number>, ap.codes as Record<string, number>, { alternative: alt }) : tTest(gf, ga, opts(alt));
   const test = run(alternative);

@@ -12,7 +12,7 @@ import type { CompareExpect, Sided } from '../claims/types.js';
 import type { Pooled } from '../data/types.js';
 import type { Alternative, Interval, TestResult } from '../stats/result.js';
 import { wilson } from '../stats/wilson.js';
-import { newcombe } from '../stats/newcombe.js';
+import { newcombeInterval } from '../stats/newcombe.js';
 import { twoProportionZ } from '../stats/two-proportion-z.js';
 import { fisherExact2x2 } from '../stats/fisher-exact-2x2.js';
 import { cohensH } from '../stats/cohens-h.js';
@@ -134,12 +134,12 @@ export function compareRates(
     useFisher
       ? fisherExact2x2(first.agree, first.n - first.agree, second.agree, second.n - second.agree, alt)
       : corrected
-        ? twoProportionZFpc(first.agree, first.n, N1, second.agree, second.n, N2, { alternative: alt, level: confidence })
+        ? twoProportionZFpc({ x: first.agree, n: first.n, populationSize: N1 }, { x: second.agree, n: second.n, populationSize: N2 }, { alternative: alt, level: confidence })
         : twoProportionZ(first.agree, first.n, second.agree, second.n, alt);
   const test = runTest(alternative);
   const pOpposite = alternative === 'two-sided' ? undefined : runTest(alternativeFor(expect, sided, true)).p;
   const diff = first.rate - second.rate;
-  const interval = corrected ? newcombe(first.agree, first.n, second.agree, second.n, confidence, N1, N2) : newcombe(first.agree, first.n, second.agree, second.n, confidence);
+  const interval = newcombeInterval(first.agree, first.n, second.agree, second.n, { level: confidence, ...(corrected ? { populationSize1: N1, populationSize2: N2 } : {}) });
   const testSided = alternative === 'two-sided' ? 'two-sided' : 'one-sided';
   // The smallest gap these samples would detect with 80% power, in the direction the claim expects (for an
   // undirected claim, the larger of the two directions). Undefined when no gap in that direction is detectable.
@@ -148,7 +148,7 @@ export function compareRates(
   if (second.rate > 0 && second.rate < 1) {
     const m1 = corrected ? effectiveSize(first.n, N1) : first.n;
     const m2 = corrected ? effectiveSize(second.n, N2) : second.n;
-    const both = minDetectableDifference(m1, m2, second.rate, 1 - confidence, 0.8, testSided);
+    const both = minDetectableDifference(m1, m2, second.rate, { alpha: 1 - confidence, power: 0.8, sided: testSided });
     const candidates = expect === 'lower' ? [both.decrease] : expect === 'higher' ? [both.increase] : [both.increase, both.decrease];
     const found = candidates.filter((d): d is number => d !== null);
     if (found.length > 0) detectable = Math.max(...found);

@@ -66,7 +66,7 @@ export function analyseTarget(claim: TargetClaim, cube: Cube, ctx: CompareContex
   const pOpposite = alternative === 'two-sided' ? undefined : run(alternativeFor(claim.expect, claim.sided, true)).p;
   const diff = rate.rate - p0;
   const sided = alternative === 'two-sided' ? 'two-sided' : 'one-sided';
-  const gaps = minDetectableGap(rate.n, p0, 1 - claim.confidence, 0.8, sided, corrected ? rate.population : undefined);
+  const gaps = minDetectableGap(rate.n, p0, { alpha: 1 - claim.confidence, power: 0.8, sided, ...(corrected && rate.population !== undefined ? { populationSize: rate.population } : {}) });
   const candidates = claim.expect === 'lower' ? [gaps.decrease] : claim.expect === 'higher' ? [gaps.increase] : [gaps.increase, gaps.decrease];
   const found = candidates.filter((d): d is number => d !== null);
   const detectable = found.length > 0 ? Math.max(...found) : undefined;

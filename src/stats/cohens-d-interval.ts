@@ -65,9 +65,9 @@ function bracket(f: (x: number) => number, guess: number, step: number): [number
 }
 
 /**
- * The two-sided interval at `confidence` for Cohen's d from its estimate `d` and the group sizes (each at least 2).
+ * The two-sided interval at confidence `level` for Cohen's d from its estimate `d` and the group sizes (each at least 2).
  */
-export function cohensDInterval(d: number, n1: number, n2: number, confidence: number): CohensDInterval {
+export function cohensDInterval(d: number, n1: number, n2: number, level: number): CohensDInterval {
   const fn = 'cohensDInterval';
   if (!Number.isFinite(d)) throw new Error(`${fn}: d must be a finite number, got ${d}`);
   for (const [name, n] of [
@@ -76,11 +76,11 @@ export function cohensDInterval(d: number, n1: number, n2: number, confidence: n
   ] as const) {
     if (!(Number.isInteger(n) && n >= 2)) throw new Error(`${fn}: ${name} must be a whole number of at least 2, got ${n}`);
   }
-  if (!(confidence > 0 && confidence < 1)) throw new Error(`${fn}: confidence must be between 0 and 1, got ${confidence}`);
+  if (!(level > 0 && level < 1)) throw new Error(`${fn}: the confidence level must be between 0 and 1, got ${level}`);
   const scale = Math.sqrt(1 / n1 + 1 / n2);
   const df = n1 + n2 - 2;
   const t = d / scale;
-  const half = (1 - confidence) / 2;
+  const half = (1 - level) / 2;
   // First guesses: t ± z (1 + t²/(2 df))^½, the normal approximation to the noncentral t's spread.
   const spread = normalQuantile(1 - half) * Math.sqrt(1 + (t * t) / (2 * df));
   // P(T > t; δ) rises with δ; P(T ≤ t; δ) falls with δ.
@@ -88,5 +88,5 @@ export function cohensDInterval(d: number, n1: number, n2: number, confidence: n
   const upperEq = (delta: number): number => half - nctCdf(t, df, delta);
   const deltaL = solve(lowerEq, ...bracket(lowerEq, t - spread, Math.max(0.5, spread / 4)));
   const deltaU = solve(upperEq, ...bracket(upperEq, t + spread, Math.max(0.5, spread / 4)));
-  return { lower: deltaL * scale, upper: deltaU * scale, level: confidence, method: 'cohens-d-noncentral-t' };
+  return { lower: deltaL * scale, upper: deltaU * scale, level, method: 'cohens-d-noncentral-t' };
 }

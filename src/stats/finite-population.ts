@@ -49,20 +49,25 @@ function ratio(d: number, se: number): number {
   return d === 0 ? 0 : d > 0 ? Infinity : -Infinity;
 }
 
+/** One group of a corrected two-group test: agreeing x of n answering, out of populationSize eligible. */
+export interface CorrectedGroup {
+  x: number;
+  n: number;
+  populationSize: number;
+}
+
 /**
  * Pooled two-proportion z test with the finite-population correction; method 'two-proportion-z-fpc'. The interval
  * is Newcombe's hybrid score interval from the two corrected Wilson intervals.
  * @throws Error when counts are out of range or every answer in both groups is the same.
  */
 export function twoProportionZFpc(
-  x1: number,
-  n1: number,
-  populationSize1: number,
-  x2: number,
-  n2: number,
-  populationSize2: number,
+  first: CorrectedGroup,
+  second: CorrectedGroup,
   options: { alternative?: Alternative; level?: number } = {},
 ): TestResult {
+  const { x: x1, n: n1, populationSize: populationSize1 } = first;
+  const { x: x2, n: n2, populationSize: populationSize2 } = second;
   const alternative = options.alternative ?? 'two-sided';
   const level = options.level ?? 0.95;
   const pbar = (x1 + x2) / (n1 + n2);

@@ -52,16 +52,3 @@ export function newcombeInterval(x1: number, n1: number, x2: number, n2: number,
     method: fpc ? 'newcombe-hybrid-fpc' : 'newcombe-hybrid',
   };
 }
-
-/** Positional form of {@link newcombeInterval}: newcombe(x1, n1, x2, n2, level, populationSize1, populationSize2). */
-export function newcombe(
-  x1: number,
-  n1: number,
-  x2: number,
-  n2: number,
-  level = 0.95,
-  populationSize1?: number,
-  populationSize2?: number,
-): Interval {
-  return newcombeInterval(x1, n1, x2, n2, { level, populationSize1, populationSize2 });
-}

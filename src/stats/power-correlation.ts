@@ -10,7 +10,9 @@
  */
 import { normalCdf, normalQuantile, normalSfQuantile } from './distributions/normal.js';
 
-export type Sided = 'two-sided' | 'one-sided';
+import type { PowerSettings, Sided } from './result.js';
+
+export type { Sided };
 
 function check(n: number, alpha: number): void {
   if (!Number.isInteger(n) || n < 4) throw new Error(`correlation power needs at least 4 units; got ${n}.`);
@@ -21,7 +23,8 @@ function check(n: number, alpha: number): void {
  * Probability that the test of zero correlation at level alpha rejects when the true correlation is rho.
  * @throws Error when n < 4, alpha is not in (0, 1) or |rho| >= 1.
  */
-export function correlationPower(rho: number, n: number, alpha = 0.05, sided: Sided = 'two-sided'): number {
+export function correlationPower(rho: number, n: number, settings: PowerSettings = {}): number {
+  const { alpha = 0.05, sided = 'two-sided' } = settings;
   check(n, alpha);
   if (!(Math.abs(rho) < 1)) throw new Error(`correlation ${rho} must be strictly between -1 and 1.`);
   const shift = Math.sqrt(n - 3) * Math.abs(Math.atanh(rho));
@@ -34,7 +37,8 @@ export function correlationPower(rho: number, n: number, alpha = 0.05, sided: Si
  * Smallest |rho| detected with the given power by the test of zero correlation with n units at level alpha.
  * @throws Error when n < 4, alpha or power is not in (0, 1), or power <= alpha (nothing to detect).
  */
-export function minDetectableCorrelation(n: number, alpha = 0.05, power = 0.8, sided: Sided = 'two-sided'): number {
+export function minDetectableCorrelation(n: number, settings: PowerSettings = {}): number {
+  const { alpha = 0.05, power = 0.8, sided = 'two-sided' } = settings;
   check(n, alpha);
   if (!(power > 0 && power < 1)) throw new Error(`power ${power} is not between 0 and 1.`);
   if (power <= alpha) throw new Error(`power ${power} must exceed the significance level ${alpha}.`);

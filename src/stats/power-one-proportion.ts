@@ -19,7 +19,13 @@ import { normalSf, normalSfQuantile } from './distributions/normal.js';
 import { smallestGapReaching } from './smallest-gap.js';
 import { finitePopulationFactor } from './wilson.js';
 
-export type OneSampleSided = 'two-sided' | 'one-sided';
+import type { PowerSettings } from './result.js';
+
+/** Power settings with the number eligible, for the finite-population correction. */
+export interface OneProportionPower extends PowerSettings {
+  /** Number eligible (N), when known: the variance is multiplied by (N − n)/(N − 1). */
+  populationSize?: number;
+}
 
 function effectiveN(n: number, populationSize: number | undefined, fn: string): number {
   if (!(Number.isFinite(n) && n > 0)) throw new Error(`${fn}: the number who answered must be above 0, got ${n}`);
@@ -48,7 +54,8 @@ function powerAt(nEff: number, p: number, p0: number, zq: number): number {
  * @throws Error when n is not positive, alpha is outside (0, 1), p0 is not strictly between 0 and 1, p is outside
  *   [0, 1], or the population is smaller than n.
  */
-export function powerOneProportion(n: number, p: number, p0: number, alpha = 0.05, sided: OneSampleSided = 'two-sided', populationSize?: number): number {
+export function powerOneProportion(n: number, p: number, p0: number, settings: OneProportionPower = {}): number {
+  const { alpha = 0.05, sided = 'two-sided', populationSize } = settings;
   const fn = 'powerOneProportion';
   checkRates(alpha, p0, fn);
   if (!(p >= 0 && p <= 1)) throw new Error(`${fn}: the true rate must be between 0 and 1, got ${p}`);
@@ -66,11 +73,9 @@ export function powerOneProportion(n: number, p: number, p0: number, alpha = 0.0
 export function minDetectableGap(
   n: number,
   p0: number,
-  alpha = 0.05,
-  targetPower = 0.8,
-  sided: OneSampleSided = 'two-sided',
-  populationSize?: number,
+  settings: OneProportionPower = {},
 ): { increase: number | null; decrease: number | null } {
+  const { alpha = 0.05, power: targetPower = 0.8, sided = 'two-sided', populationSize } = settings;
   const fn = 'minDetectableGap';
   checkRates(alpha, p0, fn);
   if (!(targetPower > 0 && targetPower < 1)) throw new Error(`${fn}: the power must be between 0 and 1, got ${targetPower}`);

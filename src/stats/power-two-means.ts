@@ -15,7 +15,9 @@
 import { normalCdf, normalSfQuantile } from './distributions/normal.js';
 import { smallestGapReaching } from './smallest-gap.js';
 
-export type Sided = 'two-sided' | 'one-sided';
+import type { Sided } from './result.js';
+
+export type { Sided };
 
 export interface TwoMeansPower {
   sd1: number;

@@ -20,9 +20,11 @@
 import { normalSf, normalSfQuantile } from './distributions/normal.js';
 import { smallestGapReaching } from './smallest-gap.js';
 
-export type Sided = 'two-sided' | 'one-sided';
+import type { PowerSettings, Sided } from './result.js';
 
-export interface PowerOptions {
+export type { Sided };
+
+export interface PowerOptions extends PowerSettings {
   /** Count rejections in the wrong direction too (two-sided only; default false). */
   strict?: boolean;
 }
@@ -55,10 +57,9 @@ export function powerTwoProportions(
   n2: number,
   p1: number,
   p2: number,
-  alpha = 0.05,
-  sided: Sided = 'two-sided',
   options: PowerOptions = {},
 ): number {
+  const { alpha = 0.05, sided = 'two-sided' } = options;
   const fn = 'powerTwoProportions';
   checkArgs(n1, n2, alpha, fn);
   if (!(p1 >= 0 && p1 <= 1 && p2 >= 0 && p2 <= 1)) {
@@ -90,10 +91,9 @@ export function minDetectableDifference(
   n1: number,
   n2: number,
   baseRate: number,
-  alpha = 0.05,
-  targetPower = 0.8,
-  sided: Sided = 'two-sided',
+  settings: PowerSettings = {},
 ): DetectableDifference {
+  const { alpha = 0.05, power: targetPower = 0.8, sided = 'two-sided' } = settings;
   const fn = 'minDetectableDifference';
   checkArgs(n1, n2, alpha, fn);
   if (!(baseRate > 0 && baseRate < 1)) {

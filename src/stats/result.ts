@@ -7,6 +7,27 @@
 /** The alternative hypothesis, as in R: 'less' means the first estimate is below the second (or below the null value). */
 export type Alternative = 'two-sided' | 'less' | 'greater';
 
+/** How many tails a power calculation counts: an alternative's sidedness without its direction (see `sidedOf`). */
+export type Sided = 'two-sided' | 'one-sided';
+
+/** The sidedness of an alternative hypothesis. */
+export function sidedOf(alternative: Alternative): Sided {
+  return alternative === 'two-sided' ? 'two-sided' : 'one-sided';
+}
+
+/**
+ * The settings every power and detectable-effect function takes, by name: the significance level the test is held
+ * to, the power wanted (for a detectable effect), and whether the test is two-sided.
+ */
+export interface PowerSettings {
+  /** Significance level, e.g. 0.05 (default 0.05). */
+  alpha?: number;
+  /** Power wanted, e.g. 0.8 (default 0.8); for the smallest detectable effect only. */
+  power?: number;
+  /** Default 'two-sided'. */
+  sided?: Sided;
+}
+
 export interface Interval {
   lower: number;
   upper: number;

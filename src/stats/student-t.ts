@@ -31,7 +31,7 @@ export interface TTestOptions {
   /** Difference in means under the null hypothesis (default 0). */
   mu?: number;
   /** Confidence level of the interval for the difference (default 0.95). */
-  confidence?: number;
+  level?: number;
 }
 
 export interface TTestResult extends TestResult {
@@ -109,7 +109,7 @@ export function finishT(
 ): TTestResult {
   const alternative = options.alternative ?? 'two-sided';
   const mu = options.mu ?? 0;
-  const level = options.confidence ?? 0.95;
+  const level = options.level ?? 0.95;
   if (!Number.isFinite(mu)) throw new Error(`${who}: the null difference mu is ${mu}; give a finite number`);
   if (!(level > 0 && level < 1)) throw new Error(`${who}: confidence level ${level} is not between 0 and 1`);
   const diff = a.mean - b.mean;

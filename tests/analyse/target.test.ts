@@ -121,8 +121,8 @@ describe('power of the one-sample score test (Lachin 1981) against R', () => {
   it('power at a 5-point gap and the smallest detectable gaps, with and without a population', () => {
     for (const g of R.gap) {
       const pop = g.population ?? undefined;
-      expectClose(powerOneProportion(g.n, Math.min(g.p0 + 0.05, 0.999), g.p0, 0.05, g.sided, pop), g.power_at_5_points, 'p', `power n=${g.n} p0=${g.p0}`); // R formula
-      const gaps = minDetectableGap(g.n, g.p0, 0.05, 0.8, g.sided, pop);
+      expectClose(powerOneProportion(g.n, Math.min(g.p0 + 0.05, 0.999), g.p0, { alpha: 0.05, sided: g.sided, ...(pop !== undefined ? { populationSize: pop } : {}) }), g.power_at_5_points, 'p', `power n=${g.n} p0=${g.p0}`); // R formula
+      const gaps = minDetectableGap(g.n, g.p0, { alpha: 0.05, power: 0.8, sided: g.sided, ...(pop !== undefined ? { populationSize: pop } : {}) });
       if (g.increase === null) expect(gaps.increase).toBeNull();
       else expectClose(gaps.increase as number, g.increase, 'bound', `increase n=${g.n} p0=${g.p0} ${g.sided}`); // R uniroot
       if (g.decrease === null) expect(gaps.decrease).toBeNull();
@@ -132,6 +132,6 @@ describe('power of the one-sample score test (Lachin 1981) against R', () => {
 
   it('rejects a fixed value outside (0, 1) and a population smaller than n', () => {
     expect(() => powerOneProportion(100, 0.5, 1)).toThrow(/strictly between 0 and 1/);
-    expect(() => minDetectableGap(100, 0.5, 0.05, 0.8, 'two-sided', 50)).toThrow(/population size/);
+    expect(() => minDetectableGap(100, 0.5, { alpha: 0.05, power: 0.8, sided: 'two-sided', populationSize: 50 })).toThrow(/population size/);
   });
 });

@@ -34,7 +34,7 @@ import { newcombeInterval } from '../../src/stats/newcombe.js';
 import { cohensH } from '../../src/stats/cohens-h.js';
 import { minDetectableDifference, powerTwoProportions, type Sided } from '../../src/stats/power-two-proportions.js';
 import { tostTwoProportions } from '../../src/stats/tost-two-proportions.js';
-import { minDetectableGap, powerOneProportion, type OneSampleSided } from '../../src/stats/power-one-proportion.js';
+import { minDetectableGap, powerOneProportion } from '../../src/stats/power-one-proportion.js';
 import { pearson } from '../../src/stats/pearson.js';
 import { spearman } from '../../src/stats/spearman.js';
 import { kendall } from '../../src/stats/kendall.js';
@@ -291,12 +291,12 @@ function rates(): void {
   for (const r of P.cohens_h) add('two-rate tests', R, `Cohen's h ${num(r, 'p1')} vs ${num(r, 'p2')}`, cohensH(num(r, 'p1'), num(r, 'p2')), num(r, 'h'), 'closed');
   for (const r of P.power) {
     const n = num(r, 'n');
-    const pw = powerTwoProportions(n, n, num(r, 'p1'), num(r, 'p2'), num(r, 'alpha'), r.sided as Sided, { strict: r.strict as boolean });
+    const pw = powerTwoProportions(n, n, num(r, 'p1'), num(r, 'p2'), { alpha: num(r, 'alpha'), sided: r.sided as Sided, strict: r.strict as boolean });
     add('power', R, `power.prop.test n=${n} p1=${num(r, 'p1')} p2=${num(r, 'p2')} alpha=${num(r, 'alpha')} ${String(r.sided)} strict=${String(r.strict)}`, pw, num(r, 'power'), 'closed');
   }
   for (const r of P.detectable) {
     const n = num(r, 'n');
-    const dd = minDetectableDifference(n, n, num(r, 'base'), num(r, 'alpha'), num(r, 'power'), r.sided as Sided);
+    const dd = minDetectableDifference(n, n, num(r, 'base'), { alpha: num(r, 'alpha'), power: num(r, 'power'), sided: r.sided as Sided });
     for (const side of ['increase', 'decrease'] as const) {
       const e = optNum(r, side);
       if (e === undefined) continue;
@@ -320,7 +320,7 @@ interface KindsA {
   change: { x1: number; n1: number; x2: number; n2: number; alternative: Alternative; fisher: boolean; statistic: number | null; p_value: number }[];
   trend: { x: number[]; n: number[]; statistic: number; p_value: number; p_greater: number; p_less: number; slope: number; wilson_low: number[]; wilson_high: number[] }[];
   target: { x: number; n: number; p0: number; alternative: Alternative; exact: boolean; z: number | null; p_value: number; wilson_low: number; wilson_high: number }[];
-  gap: { n: number; p0: number; population: number | null; sided: OneSampleSided; power_at_5_points: number; increase: number | null; decrease: number | null }[];
+  gap: { n: number; p0: number; population: number | null; sided: Sided; power_at_5_points: number; increase: number | null; decrease: number | null }[];
   estimate_rate: { x: number; n: number; population: number | null; level: number; low: number; high: number }[];
   estimate_mean: { counts: number[]; level: number; n: number; mean: number; sd: number; low: number; high: number }[];
 }
@@ -366,9 +366,9 @@ function kindsA(): void {
   for (const g of K.gap) {
     const pop = g.population ?? undefined;
     const what = `gap n=${g.n} p0=${g.p0}${pop ? ` N=${pop}` : ''} ${g.sided}`;
-    const pw = powerOneProportion(g.n, Math.min(g.p0 + 0.05, 0.999), g.p0, 0.05, g.sided, pop);
+    const pw = powerOneProportion(g.n, Math.min(g.p0 + 0.05, 0.999), g.p0, { alpha: 0.05, sided: g.sided, ...(pop !== undefined ? { populationSize: pop } : {}) });
     add('power', R, `${what} power at +5 points`, pw, g.power_at_5_points, 'closed');
-    const d = minDetectableGap(g.n, g.p0, 0.05, 0.8, g.sided, pop);
+    const d = minDetectableGap(g.n, g.p0, { alpha: 0.05, power: 0.8, sided: g.sided, ...(pop !== undefined ? { populationSize: pop } : {}) });
     if (g.increase !== null) add('power', R, `${what} increase`, d.increase!, g.increase, 'bound');
     if (g.decrease !== null) add('power', R, `${what} decrease`, d.decrease!, g.decrease, 'bound');
   }
@@ -456,7 +456,7 @@ function tables(): void {
     add('trend', R, `${what} p less`, cochranArmitage(c.x, c.n, { scores: c.score, alternative: 'less' }).p, c.p_less, 'p');
   });
   T.ttest.forEach((c, k) => {
-    const options = { alternative: rAlt(c.alternative), mu: c.mu, confidence: c.conf_level };
+    const options = { alternative: rAlt(c.alternative), mu: c.mu, level: c.conf_level };
     const raw = c.var_equal ? studentTRaw(c.x, c.y, options) : welchTRaw(c.x, c.y, options);
     const summary = (c.var_equal ? studentT : welchT)(
       { mean: c.mean_x, sd: c.sd_x, n: c.x.length },
@@ -679,8 +679,8 @@ function correlationFixture(): void {
   }
   for (const row of C.power) {
     const what = `correlation ${row.kind} n=${row.n} alpha=${row.alpha} ${row.sided} ${row.r ?? row.power}`;
-    if (row.kind === 'power') add('power', R, what, correlationPower(row.r!, row.n, row.alpha, row.sided), row.value, 'p');
-    else add('power', R, what, minDetectableCorrelation(row.n, row.alpha, row.power!, row.sided), row.value, 'bound');
+    if (row.kind === 'power') add('power', R, what, correlationPower(row.r!, row.n, { alpha: row.alpha, sided: row.sided }), row.value, 'p');
+    else add('power', R, what, minDetectableCorrelation(row.n, { alpha: row.alpha, power: row.power!, sided: row.sided }), row.value, 'bound');
   }
   const G = C.regression;
   const lm = (fit: LeastSquaresFit, ref: LmSummary, what: string): void => {

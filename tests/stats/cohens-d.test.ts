@@ -85,7 +85,7 @@ describe("Cohen's d interval (noncentral t inversion) against R 4.2.2 uniroot on
         fc.constantFrom(0.9, 0.95, 0.99, 0.99642857142857144),
         (n1, n2, d, level) => {
           // Two groups with these sizes, spread 1 and means d apart: Student's t is d / sqrt(1/n1 + 1/n2).
-          const test = studentT({ n: n1, mean: d, sd: 1 }, { n: n2, mean: 0, sd: 1 }, { alternative: 'two-sided', confidence: level });
+          const test = studentT({ n: n1, mean: d, sd: 1 }, { n: n2, mean: 0, sd: 1 }, { alternative: 'two-sided', level });
           const ci = cohensDInterval(d, n1, n2, level);
           // Away from the edge (p within 1e-9 of alpha), the interval and the test agree.
           fc.pre(Math.abs(test.p - (1 - level)) > 1e-9);
@@ -101,6 +101,6 @@ describe("Cohen's d interval (noncentral t inversion) against R 4.2.2 uniroot on
   it('refuses what it cannot use', () => {
     expect(() => cohensDInterval(Number.NaN, 10, 10, 0.95)).toThrow(/d must be a finite number/);
     expect(() => cohensDInterval(0.2, 1, 10, 0.95)).toThrow(/n1 must be a whole number of at least 2/);
-    expect(() => cohensDInterval(0.2, 10, 10, 1)).toThrow(/confidence must be between 0 and 1/);
+    expect(() => cohensDInterval(0.2, 10, 10, 1)).toThrow(/confidence level must be between 0 and 1/);
   });
 });

@@ -129,9 +129,9 @@ describe(`correlation against ${R.r_version}`, () => {
       const what = `${row.kind} n=${row.n} alpha=${row.alpha} ${row.sided} ${row.r ?? row.power}`;
       // source: R pnorm/qnorm with uniroot(tol = 1e-15), Cohen (1988) ch. 3 formula
       if (row.kind === 'power') {
-        expectClose(correlationPower(row.r!, row.n, row.alpha, row.sided), row.value, 'p', what);
+        expectClose(correlationPower(row.r!, row.n, { alpha: row.alpha, sided: row.sided }), row.value, 'p', what);
       } else {
-        expectClose(minDetectableCorrelation(row.n, row.alpha, row.power!, row.sided), row.value, 'bound', what);
+        expectClose(minDetectableCorrelation(row.n, { alpha: row.alpha, power: row.power!, sided: row.sided }), row.value, 'bound', what);
       }
     }
   });

@@ -50,7 +50,7 @@ describe('t tests against R t.test', () => {
   fixture.ttest.forEach((c, k) => {
     const name = `case ${k + 1}: ${c.var_equal ? 'pooled' : 'Welch'}, ${c.alternative}, mu ${c.mu}, level ${c.conf_level}`;
     it(name, () => {
-      const options = { alternative: alt(c.alternative), mu: c.mu, confidence: c.conf_level };
+      const options = { alternative: alt(c.alternative), mu: c.mu, level: c.conf_level };
       const fromRaw = c.var_equal ? studentTRaw(c.x, c.y, options) : welchTRaw(c.x, c.y, options);
       const fromSummary = (c.var_equal ? studentT : welchT)(
         { mean: c.mean_x, sd: c.sd_x, n: c.x.length },
@@ -86,7 +86,7 @@ describe('t tests against R t.test', () => {
     expect(() => welchT({ mean: 1, sd: -1, n: 4 }, { mean: 2, sd: 1, n: 5 })).toThrow(/standard deviation is -1/);
     expect(() => welchTRaw([1, 1, 1], [1, 1])).toThrow(/standard error is zero/);
     expect(() => studentTRaw([1, Number.NaN], [1, 2])).toThrow(/value 2 of the first group is NaN/);
-    expect(() => welchTRaw([1, 2], [1, 3], { confidence: 95 })).toThrow(/confidence level 95/);
+    expect(() => welchTRaw([1, 2], [1, 3], { level: 95 })).toThrow(/confidence level 95/);
     expect(() => welchTRaw([], [1, 3])).toThrow(/first group has no values/);
   });
 });

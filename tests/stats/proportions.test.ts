@@ -144,7 +144,9 @@ describe('newcombeInterval against Newcombe (1998) method 10 as written in R', (
 describe('powerTwoProportions against R power.prop.test(n, p1, p2)$power', () => {
   it.each(fixture.power.map((r) => [describeRow(r), r] as const))('%s', (_, r) => {
     const n = num(r, 'n');
-    const pw = powerTwoProportions(n, n, num(r, 'p1'), num(r, 'p2'), num(r, 'alpha'), r.sided as Sided, {
+    const pw = powerTwoProportions(n, n, num(r, 'p1'), num(r, 'p2'), {
+      alpha: num(r, 'alpha'),
+      sided: r.sided as Sided,
       strict: r.strict as boolean,
     });
     expectClose(pw, num(r, 'power'), 'closed', 'power');
@@ -154,7 +156,7 @@ describe('powerTwoProportions against R power.prop.test(n, p1, p2)$power', () =>
 describe('minDetectableDifference against R power.prop.test(n, p1, power, tol = 1e-14)$p2 - p1', () => {
   it.each(fixture.detectable.map((r) => [describeRow(r), r] as const))('%s', (_, r) => {
     const n = num(r, 'n');
-    const dd = minDetectableDifference(n, n, num(r, 'base'), num(r, 'alpha'), num(r, 'power'), r.sided as Sided);
+    const dd = minDetectableDifference(n, n, num(r, 'base'), { alpha: num(r, 'alpha'), power: num(r, 'power'), sided: r.sided as Sided });
     for (const side of ['increase', 'decrease'] as const) {
       const expected = optNum(r, side);
       if (expected === undefined) expect(dd[side]).toBeNull();

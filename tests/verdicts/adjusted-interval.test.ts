@@ -11,7 +11,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { build, type BuildResult } from '../../src/pipeline.js';
-import { newcombe } from '../../src/stats/newcombe.js';
+import { newcombeInterval } from '../../src/stats/newcombe.js';
 import { expectClose } from '../helpers/tolerance.js';
 
 const work = mkdtempSync(join(tmpdir(), 'warrant-adjusted-'));
@@ -60,7 +60,7 @@ describe('an adjusted verdict beside its intervals', () => {
     // At the level that decided the verdict (99%) the interval includes no difference, as the verdict says. The
     // Newcombe interval itself is checked against R elsewhere (tests/stats).
     expect(c.adjustedInterval.level).toBeCloseTo(0.99, 12);
-    const want = newcombe(560, 1000, 510, 1000, 0.99);
+    const want = newcombeInterval(560, 1000, 510, 1000, { level: 0.99 });
     expectClose(c.adjustedInterval.lower, want.lower, 'closed', 'adjusted lower');
     expectClose(c.adjustedInterval.upper, want.upper, 'closed', 'adjusted upper');
     expect(c.adjustedInterval.lower).toBeLessThan(0);
