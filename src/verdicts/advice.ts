@@ -178,10 +178,21 @@ export function amount(value: number, unit: EffectInterval['unit']): string {
   return fmt.coefficient(Math.abs(value), 2);
 }
 
-function signedAmount(value: number, unit: EffectInterval['unit']): string {
-  if (unit === 'points') return fmt.points(value, { sign: true });
-  const text = fmt.coefficient(value, 2);
-  return value > 0 && Number(text) !== 0 ? `+${text}` : text;
+/**
+ * An interval's two ends as the claim's numbers table prints them: points and scale points signed ("+4.8"), a
+ * correlation as a plain coefficient ("0.76"), at the decimals that keep the two ends apart (src/format/numbers.ts).
+ */
+function intervalEnds(e: EffectInterval): { lower: string; upper: string } {
+  if (e.unit === 'points') {
+    const digits = fmt.pointsDigits(e.lower, e.upper);
+    return { lower: fmt.points(e.lower, { sign: true, digits }), upper: fmt.points(e.upper, { sign: true, digits }) };
+  }
+  const digits = fmt.coefficientDigits(e.lower, e.upper);
+  const write = (v: number): string => {
+    const text = fmt.coefficient(v, digits);
+    return e.unit !== 'r' && v > 0 && Number(text) !== 0 ? `+${text}` : text;
+  };
+  return { lower: write(e.lower), upper: write(e.upper) };
 }
 
 export interface AdviceInput {
@@ -239,8 +250,7 @@ function rewording(a: Analysis, e: EffectInterval & { level: number }, t: Templa
     subject: l.subject,
     bound: e.unit === 'r' ? fmt.coefficient(bound, 2) : amount(bound, e.unit),
     unitWord: e.unit,
-    lower: signedAmount(e.lower, e.unit),
-    upper: signedAmount(e.upper, e.unit),
+    ...intervalEnds(e),
     level: fmt.level(e.level),
     twoSided: direction === 0,
     higher: direction > 0,
@@ -265,8 +275,7 @@ export function adviseClaim(input: AdviceInput): ClaimAdvice {
     key,
     level: fmt.level(e?.level ?? a.claim.confidence),
     claimLevel: fmt.level(a.claim.confidence),
-    lower: e ? signedAmount(e.lower, e.unit) : '',
-    upper: e ? signedAmount(e.upper, e.unit) : '',
+    ...(e ? intervalEnds(e) : { lower: '', upper: '' }),
     unitWord: e?.unit === 'r' ? '' : ` ${e?.unit ?? ''}`,
     association: a.kind === 'association',
     twoSided: a.expectSign === 0,

@@ -32,6 +32,7 @@ interface Claim {
   notableCells?: Array<{ row: string; column: string; residual: number }>;
 }
 let claims: Claim[];
+let packText = '';
 const byId = (id: string) => claims.find((c) => c.id === id) as Claim;
 
 beforeAll(() => {
@@ -39,6 +40,9 @@ beforeAll(() => {
   expect(run.status).toBe(0);
   const summary = JSON.parse(run.stdout) as { folder: string };
   claims = JSON.parse(readFileSync(join(summary.folder, 'results.json'), 'utf8')).claims;
+  const text = spawnSync('pdftotext', [join(summary.folder, 'pack.pdf'), '-'], { encoding: 'utf8' });
+  expect(text.status).toBe(0);
+  packText = text.stdout.replace(/\s+/g, ' ');
 }, 120_000);
 
 afterAll(() => rmSync(work, { recursive: true, force: true }));
@@ -135,5 +139,20 @@ describe('cautions follow the result', () => {
     expect(table.notableCells).toEqual([]);
     expect(table.verdictText).toContain("No cell's adjusted residual lies beyond ±1.96.");
     expect(table.verdictText).toMatch(/would detect a relation of Cramér's V = 0\.08 or stronger 80% of the time/);
+  });
+
+  it('quotes an interval in the advice exactly as the claim\'s numbers table prints it (same signs, same decimals)', () => {
+    let quoted = 0;
+    for (const c of claims) {
+      for (const m of c.advice.reason.matchAll(/interval \(([^()]+?) to ([^()]+?)(?: points| scale points)?\)/g)) {
+        const ends = `${m[1]} to ${m[2]}`;
+        // Once in the advice, at least once more in the numbers table or the verdict paragraph.
+        expect(packText.split(ends).length - 1, `${c.id}: "${ends}"`).toBeGreaterThanOrEqual(2);
+        // A correlation is printed without a plus sign everywhere (common practice for r).
+        if (c.check?.method !== undefined && /correlation/i.test(c.advice.reason)) expect(ends).not.toMatch(/\+/);
+        quoted++;
+      }
+    }
+    expect(quoted).toBeGreaterThanOrEqual(3);
   });
 });
