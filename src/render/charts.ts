@@ -572,7 +572,8 @@ function stackedSpec(data: Extract<ChartData, { kind: 'stacked' }>, maxHeight: n
             type: 'nominal',
             sort: partNames,
             scale: { domain: partNames, range: STACK_COLOURS.slice(0, partNames.length) },
-            legend: { title: null },
+            // Long part names (an answer scale in words) go in rows of three rather than one line off the chart.
+            legend: { title: null, ...(partNames.join('').length > 40 ? { columns: 3, labelLimit: 0 } : {}) },
           },
         },
       },

@@ -33,12 +33,14 @@ interface Claim {
 }
 let claims: Claim[];
 let packText = '';
+let folder = '';
 const byId = (id: string) => claims.find((c) => c.id === id) as Claim;
 
 beforeAll(() => {
   const run = spawnSync(process.execPath, [bin, 'build', join(root, 'demo/claims.yaml'), '--out', join(work, 'out'), '--json'], { encoding: 'utf8', cwd: root });
   expect(run.status).toBe(0);
   const summary = JSON.parse(run.stdout) as { folder: string };
+  folder = summary.folder;
   claims = JSON.parse(readFileSync(join(summary.folder, 'results.json'), 'utf8')).claims;
   const text = spawnSync('pdftotext', [join(summary.folder, 'pack.pdf'), '-'], { encoding: 'utf8' });
   expect(text.status).toBe(0);
@@ -154,5 +156,12 @@ describe('cautions follow the result', () => {
       }
     }
     expect(quoted).toBeGreaterThanOrEqual(3);
+  });
+
+  it('names the answer codes of an answer-spread chart in the scale\'s wording (the source\'s answer_wording)', () => {
+    const spec = JSON.parse(readFileSync(join(folder, 'charts/library-answers-shifted.vl.json'), 'utf8')) as { data: { values: Array<{ part: string }> } };
+    const parts = [...new Set(spec.data.values.map((v) => v.part))];
+    // demo/claims.yaml words the scale 1 Strongly disagree ... 5 Strongly agree.
+    expect(parts).toEqual(['1 Strongly disagree', '2 Disagree', '3 Neither agree nor disagree', '4 Agree', '5 Strongly agree']);
   });
 });

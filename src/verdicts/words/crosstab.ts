@@ -72,10 +72,13 @@ export function composeCrosstab(a: CrosstabAnalysis, decision: Decision, ctx: Co
   if (a.suppressedRows.length > 0) cautions.push(t.render('crosstab.caution-suppressed', { names: a.suppressedRows.join(', '), minRespondents: claim.minRespondents }));
   if (a.test.method.startsWith('fisher')) cautions.push(t.render('caution.fisher', {}));
   if (a.fisherTooLarge) cautions.push(t.render('crosstab.caution-fisher-too-large', {}));
+  // With answers as the columns, the legend names each code in the scale's wording where the source gives it.
+  const answerWords = a.answers !== undefined ? claim.naming?.answers : undefined;
+  const partLabel = (col: string): string => (answerWords?.[col] !== undefined ? `${col} ${answerWords[col] as string}` : col);
   const chart: Chart = {
     data: {
       kind: 'stacked',
-      rows: a.rowLabels.map((row, i) => ({ label: row, parts: a.columnLabels.map((col, j) => ({ label: col, count: (a.counts[i] as number[])[j] as number })) })),
+      rows: a.rowLabels.map((row, i) => ({ label: row, parts: a.columnLabels.map((col, j) => ({ label: partLabel(col), count: (a.counts[i] as number[])[j] as number })) })),
       axisTitle: `Share of respondents (%)`,
     },
     alt: `Stacked bars, one per ${labels.rowsOne}, split by ${columnsName}: ${a.rowLabels
