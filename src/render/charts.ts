@@ -6,6 +6,7 @@
  *   ChartData --chartSpec--> Vega-Lite spec --vega-lite compile--> Vega spec --View(renderer none)--> SVG
  */
 import type { ChartData } from './model.js';
+import { percent } from '../format/numbers.js';
 import { CHART_FONT_FAMILY, textWidth } from './fonts.js';
 import { compileVegaLite, specSvg } from './chart-runtime.js';
 import { shareRange, shareValues, WHOLE_SHARE } from './chart-scales.js';
@@ -108,7 +109,7 @@ function ratesSpec(data: Extract<ChartData, { kind: 'rates' }>, maxHeight: numbe
     requireFinite(b.rate, `rate of "${b.label}"`);
     requireFinite(b.lower, `lower bound of "${b.label}"`);
     requireFinite(b.upper, `upper bound of "${b.label}"`);
-    return { label: b.label, n: b.n, value: b.rate, lower: b.lower, upper: b.upper, text: `${Math.round(b.rate * 100)}%` };
+    return { label: b.label, n: b.n, value: b.rate, lower: b.lower, upper: b.upper, text: percent(b.rate, data.digits) };
   });
   if (data.reference) requireFinite(data.reference.value, 'reference value');
   const domain = data.domain ?? shareRange(shareValues(data));

@@ -48,6 +48,8 @@ export type ChartData =
       bars: Array<{ label: string; rate: number; lower: number; upper: number; n: number }>;
       /** Axis title, e.g. "Agreeing (%)". */
       axisTitle: string;
+      /** Decimals of the rate printed beside each bar: the claim's own precision for these rates (src/format/numbers.ts). */
+      digits?: number;
       /** Optional reference line (a target), as a fraction. */
       reference?: { value: number; label: string };      /** The axis range, common to the pack (see withCommonShareRange in charts.ts); fitted to this chart when absent. */
       domain?: [number, number];

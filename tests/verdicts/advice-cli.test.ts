@@ -6,7 +6,7 @@
  * (tests/stats); here each expected detail is worked by hand from the printed interval and the worth-reporting size.
  */
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -163,5 +163,21 @@ describe('cautions follow the result', () => {
     const parts = [...new Set(spec.data.values.map((v) => v.part))];
     // demo/claims.yaml words the scale 1 Strongly disagree ... 5 Strongly agree.
     expect(parts).toEqual(['1 Strongly disagree', '2 Disagree', '3 Neither agree nor disagree', '4 Agree', '5 Strongly agree']);
+  });
+
+  it('labels each rate on a chart at the precision its claim prints the rate (80.0% beside 79.5%, never 80% and 80%)', () => {
+    let labelled = 0;
+    for (const c of claims) {
+      const file = join(folder, `charts/${c.id}.vl.json`);
+      if (!existsSync(file)) continue; // a claim with too little data has no chart
+      const spec = JSON.parse(readFileSync(file, 'utf8')) as { data?: { values?: Array<{ rateText?: string }> } };
+      const texts = (spec.data?.values ?? []).flatMap((v) => (v.rateText?.endsWith('%') ? [v.rateText] : []));
+      for (const t of texts) {
+        // The same figure is printed in the claim's numbers table, e.g. "80.0% agreed of 60" or "60.3% of 2,052".
+        expect(new RegExp(`${t.replace('.', '\\.')} (agreed )?of [0-9,]+`).test(packText), `${c.id}: chart label ${t}`).toBe(true);
+        labelled++;
+      }
+    }
+    expect(labelled).toBeGreaterThanOrEqual(8);
   });
 });

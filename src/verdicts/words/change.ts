@@ -62,6 +62,7 @@ export function composeChange(a: ChangeAnalysis, decision: Decision, ctx: Compos
     data: {
       kind: 'rates',
       axisTitle: 'Agreeing (%)',
+      digits: dg,
       bars: [a.earlier, a.later].map((r, i) => ({ label: i === 0 ? a.periods.from : a.periods.to, rate: r.rate, lower: r.interval.lower, upper: r.interval.upper, n: r.n })),
     },
     alt: `Chart of agreement rates with ${fmt.level(claim.confidence)} intervals${scope ? ` for ${scope}` : ''}: ${a.periods.from} ${rateView(a.earlier, dg).rate} (${rateView(a.earlier, dg).lower} to ${rateView(a.earlier, dg).upper}), ${a.periods.to} ${rateView(a.later, dg).rate} (${rateView(a.later, dg).lower} to ${rateView(a.later, dg).upper}).`,

@@ -60,6 +60,7 @@ export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: Comp
     data: {
       kind: 'rates',
       axisTitle: 'Agreeing (%)',
+      digits: dg,
       bars: [a.focus, a.against].map((r) => ({ label: r.label, rate: r.rate, lower: r.interval.lower, upper: r.interval.upper, n: r.n })),
     },
     alt: `Chart of agreement rates with ${fmt.level(claim.confidence)} intervals: ${a.focus.label} ${rateView(a.focus, dg).rate} (${rateView(a.focus, dg).lower} to ${rateView(a.focus, dg).upper}), ${a.against.label} ${rateView(a.against, dg).rate} (${rateView(a.against, dg).lower} to ${rateView(a.against, dg).upper}).`,

@@ -38,7 +38,7 @@ export function composeEstimate(a: EstimateAnalysis, _decision: Decision, ctx: C
       { label: 'Confidence level', value: `${level}${understood}` },
     ];
     chart = {
-      data: { kind: 'rates', axisTitle: 'Agreeing (%)', bars: [{ label: r.label, rate: r.rate, lower: r.interval.lower, upper: r.interval.upper, n: r.n }] },
+      data: { kind: 'rates', axisTitle: 'Agreeing (%)', digits: fmt.percentDigits(r.rate, r.interval.lower, r.interval.upper), bars: [{ label: r.label, rate: r.rate, lower: r.interval.lower, upper: r.interval.upper, n: r.n }] },
       alt: `Chart of the agreement rate in ${r.label}: ${view.value} with a ${level} interval of ${view.lower} to ${view.upper}.`,
     };
     // An estimate is a level, so non-response bears on it directly: say how many did not answer whenever any did not

@@ -67,6 +67,7 @@ export function composeTarget(a: TargetAnalysis, decision: Decision, ctx: Compos
     data: {
       kind: 'rates',
       axisTitle: 'Agreeing (%)',
+      digits: dg,
       bars: [{ label: a.rate.label, rate: a.rate.rate, lower: a.rate.interval.lower, upper: a.rate.interval.upper, n: a.rate.n }],
       reference: { value: claim.value, label: claim.valueLabel ?? target },
     },
