@@ -180,4 +180,13 @@ describe('cautions follow the result', () => {
     }
     expect(labelled).toBeGreaterThanOrEqual(8);
   });
+
+  it('prints the fitted line\'s ends so that their gap agrees with the change printed beside them', () => {
+    const m = packText.match(/Fitted rate, \d{4} to \d{4} (\d+(?:\.\d+)?)% to (\d+(?:\.\d+)?)% \(([+−]\d+\.\d) points\)/);
+    expect(m, 'the trend claim\'s fitted-rate row').not.toBeNull();
+    const [, first, last, change] = m as RegExpMatchArray;
+    const gap = Number(last) - Number(first);
+    // The printed change is the exact change to one decimal; the printed ends must give the same to one decimal.
+    expect((gap >= 0 ? '+' : '−') + Math.abs(gap).toFixed(1)).toBe(change);
+  });
 });

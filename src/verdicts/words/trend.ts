@@ -29,6 +29,15 @@ export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeC
   const fittedLast = a.fitted[a.fitted.length - 1] as number;
   // One precision for every period's rate and the fitted line's ends: sentences set them side by side.
   const dg = sharedDigits(rates, [fittedFirst, fittedLast]);
+  // The fitted line's two ends at decimals whose printed gap agrees with the printed change beside them
+  // ("59.76% to 59.95% (+0.2 points)", not "59.8% to 59.9% (+0.2 points)").
+  const fittedChange = fmt.points(fittedLast - fittedFirst, { sign: true });
+  let fitDigits = dg;
+  while (fitDigits < 3) {
+    const shown = (v: number): number => Number((v * 100).toFixed(fitDigits)) / 100;
+    if (fmt.points(shown(fittedLast) - shown(fittedFirst), { sign: true }) === fittedChange) break;
+    fitDigits++;
+  }
   const view: View = {
     ...head,
     level: fmt.level(claim.confidence),
@@ -45,9 +54,9 @@ export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeC
     sizeLower: iv ? fmt.pointsSize(a.slope < 0 ? iv.upper : iv.lower, slopeDigits) : '',
     sizeUpper: iv ? fmt.pointsSize(a.slope < 0 ? iv.lower : iv.upper, slopeDigits) : '',
     hasInterval: iv !== undefined,
-    fittedFirst: fmt.percent(fittedFirst, dg),
-    fittedLast: fmt.percent(fittedLast, dg),
-    fittedChange: fmt.points(fittedLast - fittedFirst, { sign: true }),
+    fittedFirst: fmt.percent(fittedFirst, fitDigits),
+    fittedLast: fmt.percent(fittedLast, fitDigits),
+    fittedChange,
     observedWord: a.slope < 0 ? 'fell' : 'rose',
     detectable: a.detectable !== undefined ? fmt.pointsSize(a.detectable) : '',
     fpc: a.methods.includes('wilson-fpc'),
