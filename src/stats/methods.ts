@@ -253,6 +253,12 @@ export const METHODS: Record<string, MethodInfo> = {
     text: 'Multiplies each p-value by the number of claims tested; simple and the most cautious.',
     source: 'Dunn, O. J. (1961). Multiple comparisons among means. Journal of the American Statistical Association 56, 52–64.',
   },
+  rounding: {
+    name: 'How the figures are rounded',
+    text: 'Rates are printed as whole percentages, with as many decimals as it takes for two rates set side by side, or an interval\u2019s two ends, to print differently; differences usually to a tenth of a point. Every difference, interval and test is worked out from the unrounded counts, so a printed difference can disagree by up to a point with the gap between the two printed rates: 80.4% and 80.6%, for example, print as 80% and 81% with a difference of 0.2 points. results.json holds every figure unrounded.',
+    // Reference cited from memory.
+    source: 'Common practice, warrant\'s own rule; on rounding figures for readers see Ehrenberg, A. S. C. (1977). Rudiments of numeracy. Journal of the Royal Statistical Society, Series A 140, 277–297.',
+  },
   'chart-scales': {
     name: 'How the charts are drawn',
     text: 'Every agreement rate in the pack (the charts of rates and the lines over periods) is drawn on one common range, from the lowest to the highest interval end in the pack rounded out to a tenth, so that equal gaps look equal from page to page. The parts of a stacked bar fill the whole 0% to 100%. A mean score is drawn on the whole answer scale, and a difference set against an equivalence margin on a range centred on zero. Only a scatter of units, whose point is how two measures move together rather than their level, fits its axes to the units shown. Periods run earliest first in every table and chart. Each interval is drawn at the level the claim states beside it.',

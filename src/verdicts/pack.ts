@@ -76,6 +76,7 @@ export function composePack(input: {
   const methodIds = [...new Set(input.analyses.flatMap((a) => a.methods))];
   if (claims.adjust !== 'none' && input.claimsTested > 1) methodIds.push(claims.adjust);
   if (input.sections.some((s) => s.chart)) methodIds.push('chart-scales');
+  methodIds.push('rounding');
   const view = {
     claimsTested: input.claimsTested,
     minRespondents: claims.minRespondents,

@@ -189,4 +189,9 @@ describe('cautions follow the result', () => {
     // The printed change is the exact change to one decimal; the printed ends must give the same to one decimal.
     expect((gap >= 0 ? '+' : '−') + Math.abs(gap).toFixed(1)).toBe(change);
   });
+
+  it('says in the method notes that differences are worked from unrounded counts, so printed rates and gaps can disagree', () => {
+    expect(packText).toContain('How the figures are rounded');
+    expect(packText).toContain('Every difference, interval and test is worked out from the unrounded counts');
+  });
 });
