@@ -6,16 +6,16 @@
  * test, the partial Spearman rho and Kendall's partial tau, each unit's residuals and the line through them. A
  * weighted claim without controls and units made of two columns keep working beside them.
  */
-import { execFileSync, spawnSync } from 'node:child_process';
-import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { buildPack, fold } from '../helpers/cli.js';
 import { expectClose } from '../helpers/tolerance.js';
 import { checkFigures } from '../helpers/pdf-figures.js';
 
 const root = resolve(__dirname, '../..');
-const bin = join(root, 'bin/warrant.js');
 const data = join(root, 'tests/fixtures/r/controlled');
 const R = JSON.parse(readFileSync(join(root, 'tests/fixtures/r/controlled.json'), 'utf8'));
 const work = mkdtempSync(join(tmpdir(), 'warrant-controlled-'));
@@ -78,7 +78,6 @@ claims:
     expect: positive
 `;
 
-const fold = (s: string): string => s.replace(/\s+/g, ' ').trim();
 /** A coefficient as the pack prints it: fixed decimals, a minus sign (U+2212) for negatives (common practice). */
 const coef = (v: number, digits = 2): string => `${v < 0 && Number(Math.abs(v).toFixed(digits)) !== 0 ? '\u2212' : ''}${Math.abs(v).toFixed(digits)}`;
 /** A p-value as the pack prints it above 0.001: three significant figures. */
@@ -99,14 +98,9 @@ function section(from: string, to?: string): string {
 }
 
 beforeAll(() => {
-  writeFileSync(join(work, 'claims.yaml'), CLAIMS);
-  const built = spawnSync(process.execPath, [bin, 'build', 'claims.yaml', '--out', 'out', '--quiet'], { cwd: work, encoding: 'utf8' });
-  expect(built.stderr).toBe('');
-  expect(built.status).toBe(0);
-  const pack = join(work, 'out', readdirSync(join(work, 'out')).find((d) => d !== 'latest') as string);
-  results = JSON.parse(readFileSync(join(pack, 'results.json'), 'utf8'));
-  text = fold(execFileSync('pdftotext', ['-enc', 'UTF-8', join(pack, 'pack.pdf'), '-'], { encoding: 'utf8' }));
-  layout = execFileSync('pdftotext', ['-enc', 'UTF-8', '-layout', join(pack, 'pack.pdf'), '-'], { encoding: 'utf8' });
+  const built = buildPack(work, CLAIMS);
+  ({ results, text } = built);
+  layout = execFileSync('pdftotext', ['-enc', 'UTF-8', '-layout', join(built.folder, 'pack.pdf'), '-'], { encoding: 'utf8' });
 }, 120_000);
 
 afterAll(() => rmSync(work, { recursive: true, force: true }));

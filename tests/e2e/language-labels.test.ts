@@ -5,14 +5,14 @@
  * The respondent counts the labels carry are counted here straight from the fixture's rows
  * (tests/fixtures/r/language/, written by tests/fixtures/r/language.R).
  */
-import { execFileSync, spawnSync } from 'node:child_process';
+import { execFileSync } from 'node:child_process';
 import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { buildPack } from '../helpers/cli.js';
 
 const root = resolve(__dirname, '../..');
-const bin = join(root, 'bin/warrant.js');
 const data = join(root, 'tests/fixtures/r/language');
 const work = mkdtempSync(join(tmpdir(), 'warrant-labels-'));
 
@@ -121,10 +121,6 @@ claims:
     expect: different
 `;
 
-function fold(s: string): string {
-  return s.replace(/\s+/g, ' ').trim();
-}
-
 /** Respondents of the fixture with a valid answer (1-5) to a question, counted from the CSV's rows. */
 function answered(where: (row: Record<string, string>) => boolean, question: string): number {
   const [head, ...lines] = readFileSync(join(data, 'respondents.csv'), 'utf8').trim().split('\n');
@@ -139,13 +135,7 @@ let results: { claims: Array<Record<string, any>> };
 let text: string;
 
 beforeAll(() => {
-  writeFileSync(join(work, 'claims.yaml'), NOT_CLAIMS);
-  const r = spawnSync(process.execPath, [bin, 'build', 'claims.yaml', '--out', 'out', '--quiet'], { cwd: work, encoding: 'utf8' });
-  expect(r.stderr).toBe('');
-  expect(r.status).toBe(0);
-  pack = join(work, 'out', readdirSync(join(work, 'out')).find((d) => d !== 'latest') as string);
-  results = JSON.parse(readFileSync(join(pack, 'results.json'), 'utf8'));
-  text = fold(execFileSync('pdftotext', ['-enc', 'UTF-8', join(pack, 'pack.pdf'), '-'], { encoding: 'utf8' }));
+  ({ folder: pack, results, text } = buildPack(work, NOT_CLAIMS));
 }, 120_000);
 
 afterAll(() => rmSync(work, { recursive: true, force: true }));
@@ -199,8 +189,8 @@ describe('wording for column values and from a second header row', () => {
     execFileSync('mkdir', ['-p', dir]);
     const header = 'RespondentID,Year,Campus,Mode,Q01,Q02,Q03\n,,,,Teaching staff explain things clearly,My timetable works well for me,Marking is fair\n';
     writeFileSync(join(dir, 'respondents.csv'), header + rows.map((r) => r.join(',')).join('\n') + '\n');
-    writeFileSync(
-      join(dir, 'claims.yaml'),
+    ({ results, text } = buildPack(
+      dir,
       `title: Wording
 organisation: Test
 adjust: none
@@ -248,13 +238,7 @@ claims:
     against: { Mode: PT }
     expect: higher
 `,
-    );
-    const r = spawnSync(process.execPath, [bin, 'build', 'claims.yaml', '--out', 'out', '--quiet'], { cwd: dir, encoding: 'utf8' });
-    expect(r.stderr).toBe('');
-    expect(r.status).toBe(0);
-    const out = join(dir, 'out', readdirSync(join(dir, 'out')).find((d) => d !== 'latest') as string);
-    results = JSON.parse(readFileSync(join(out, 'results.json'), 'utf8'));
-    text = fold(execFileSync('pdftotext', ['-enc', 'UTF-8', join(out, 'pack.pdf'), '-'], { encoding: 'utf8' }));
+    ));
   }, 120_000);
 
   it('names a coded value in its wording with the code beside it, in sentences, tables and results.json', () => {

@@ -4,15 +4,15 @@
  * results.json and the PDF's text (poppler's pdftotext) out, every number checked against GNU R on the same counts
  * (tests/fixtures/r/language-periods.R -> language-periods.json, data in tests/fixtures/r/language/periods.csv).
  */
-import { execFileSync, spawnSync } from 'node:child_process';
-import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { buildPack, fold, type BuiltPack } from '../helpers/cli.js';
 import { expectClose } from '../helpers/tolerance.js';
 
 const root = resolve(__dirname, '../..');
-const bin = join(root, 'bin/warrant.js');
 const R = JSON.parse(readFileSync(join(root, 'tests/fixtures/r/language-periods.json'), 'utf8'));
 const work = mkdtempSync(join(tmpdir(), 'warrant-periods-'));
 
@@ -46,22 +46,7 @@ claims:
     expect: any
 `;
 
-function fold(s: string): string {
-  return s.replace(/\s+/g, ' ').trim();
-}
-
-function build(name: string, yaml: string): { results: { claims: Array<Record<string, any>> }; text: string } {
-  writeFileSync(join(work, `${name}.yaml`), yaml);
-  const r = spawnSync(process.execPath, [bin, 'build', `${name}.yaml`, '--out', `out-${name}`, '--quiet'], { cwd: work, encoding: 'utf8' });
-  expect(r.stderr).toBe('');
-  expect(r.status).toBe(0);
-  const dir = join(work, `out-${name}`);
-  const pack = join(dir, readdirSync(dir).find((d) => d !== 'latest') as string);
-  return {
-    results: JSON.parse(readFileSync(join(pack, 'results.json'), 'utf8')),
-    text: fold(execFileSync('pdftotext', ['-enc', 'UTF-8', join(pack, 'pack.pdf'), '-'], { encoding: 'utf8' })),
-  };
-}
+const build = (name: string, yaml: string): BuiltPack => buildPack(work, yaml, { name, out: `out-${name}` });
 
 let trend: ReturnType<typeof build>;
 

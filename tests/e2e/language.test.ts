@@ -5,11 +5,12 @@
  * poppler's pdftotext) come out, and every number is checked against GNU R on the same rows
  * (tests/fixtures/r/language.R -> language.json, data in tests/fixtures/r/language/).
  */
-import { execFileSync, spawnSync } from 'node:child_process';
-import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { buildPack, fold } from '../helpers/cli.js';
 import { expectClose } from '../helpers/tolerance.js';
 
 const root = resolve(__dirname, '../..');
@@ -107,10 +108,6 @@ const CLAIMS = `
     expect: different
 `;
 
-function fold(s: string): string {
-  return s.replace(/\s+/g, ' ').trim();
-}
-
 function run(args: string[], cwd = work) {
   return spawnSync(process.execPath, [bin, ...args], { cwd, encoding: 'utf8' });
 }
@@ -120,13 +117,7 @@ let text: string;
 const claim = (id: string) => results.claims.find((c) => c.id === id) as Record<string, any>;
 
 beforeAll(() => {
-  writeFileSync(join(work, 'claims.yaml'), SOURCES + CLAIMS);
-  const built = run(['build', 'claims.yaml', '--out', 'out', '--quiet']);
-  expect(built.stderr).toBe('');
-  expect(built.status).toBe(0);
-  const pack = join(work, 'out', readdirSync(join(work, 'out')).find((d) => d !== 'latest') as string);
-  results = JSON.parse(readFileSync(join(pack, 'results.json'), 'utf8'));
-  text = fold(execFileSync('pdftotext', ['-enc', 'UTF-8', join(pack, 'pack.pdf'), '-'], { encoding: 'utf8' }));
+  ({ results, text } = buildPack(work, SOURCES + CLAIMS));
 }, 120_000);
 
 afterAll(() => rmSync(work, { recursive: true, force: true }));
