@@ -31,6 +31,7 @@ import * as fmt from '../format/numbers.js';
 import type { ClaimAdvice, LinkedClaim, NotSupportedAs } from '../render/model.js';
 import type { Decision } from './decide.js';
 import type { Templates } from './templates.js';
+import { intervalEnds } from './words/adjusted.js';
 import { listWords, unitWords } from './words/association.js';
 
 /** A difference worth reporting, in the units of the claim's interval, and where it comes from. */
@@ -178,21 +179,9 @@ export function amount(value: number, unit: EffectInterval['unit']): string {
   return fmt.coefficient(Math.abs(value), 2);
 }
 
-/**
- * An interval's two ends as the claim's numbers table prints them: points and scale points signed ("+4.8"), a
- * correlation as a plain coefficient ("0.76"), at the decimals that keep the two ends apart (src/format/numbers.ts).
- */
-function intervalEnds(e: EffectInterval): { lower: string; upper: string } {
-  if (e.unit === 'points') {
-    const digits = fmt.pointsDigits(e.lower, e.upper);
-    return { lower: fmt.points(e.lower, { sign: true, digits }), upper: fmt.points(e.upper, { sign: true, digits }) };
-  }
-  const digits = fmt.coefficientDigits(e.lower, e.upper);
-  const write = (v: number): string => {
-    const text = fmt.coefficient(v, digits);
-    return e.unit !== 'r' && v > 0 && Number(text) !== 0 ? `+${text}` : text;
-  };
-  return { lower: write(e.lower), upper: write(e.upper) };
+/** An effect interval's two ends as its numbers table prints them (src/verdicts/words/adjusted.ts). */
+function effectEnds(e: EffectInterval): { lower: string; upper: string } {
+  return intervalEnds(e.lower, e.upper, e.unit === 'r' ? 'coefficient' : e.unit);
 }
 
 export interface AdviceInput {
@@ -250,7 +239,7 @@ function rewording(a: Analysis, e: EffectInterval & { level: number }, t: Templa
     subject: l.subject,
     bound: e.unit === 'r' ? fmt.coefficient(bound, 2) : amount(bound, e.unit),
     unitWord: e.unit,
-    ...intervalEnds(e),
+    ...effectEnds(e),
     level: fmt.level(e.level),
     twoSided: direction === 0,
     higher: direction > 0,
@@ -275,7 +264,7 @@ export function adviseClaim(input: AdviceInput): ClaimAdvice {
     key,
     level: fmt.level(e?.level ?? a.claim.confidence),
     claimLevel: fmt.level(a.claim.confidence),
-    ...(e ? intervalEnds(e) : { lower: '', upper: '' }),
+    ...(e ? effectEnds(e) : { lower: '', upper: '' }),
     unitWord: e?.unit === 'r' ? '' : ` ${e?.unit ?? ''}`,
     association: a.kind === 'association',
     twoSided: a.expectSign === 0,

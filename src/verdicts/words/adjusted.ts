@@ -21,6 +21,17 @@ function bound(v: number, unit: HeadlineUnit, digits: number): string {
 /** Decimals a kind starts from (src/format/numbers.ts): more are used where an interval's ends would collapse. */
 const BASE_DIGITS: Record<HeadlineUnit, number> = { points: 1, 'scale points': 2, coefficient: 2 };
 
+/**
+ * An interval's two ends as the numbers table prints them: points and scale points signed ("+4.8"), a coefficient
+ * plain ("0.76"), at the fewest decimals (at least `minDigits`, at most two beyond the kind's usual) at which the two
+ * ends print differently.
+ */
+export function intervalEnds(lower: number, upper: number, unit: HeadlineUnit, minDigits = 0): { lower: string; upper: string } {
+  const base = BASE_DIGITS[unit];
+  const digits = Math.max(minDigits, fmt.distinctDigits([lower, upper], (v, d) => bound(v, unit, d), base, base + 2));
+  return { lower: bound(lower, unit, digits), upper: bound(upper, unit, digits) };
+}
+
 /** A confidence level with enough decimals never to read as 100% ("99.98%"). */
 export function preciseLevel(confidence: number): string {
   for (let digits = 1; digits < 8; digits++) {
@@ -48,14 +59,14 @@ export function withAdjustedInterval(built: Composed, a: Analysis, decision: Dec
   }
   const lower = bound(own.interval.lower, own.unit, digits);
   const upper = bound(own.interval.upper, own.unit, digits);
-  const adjustedDigits = Math.max(digits, fmt.distinctDigits([adjusted.interval.lower, adjusted.interval.upper], (v, d) => bound(v, adjusted.unit, d), base, base + 2));
+  const adjustedEnds = intervalEnds(adjusted.interval.lower, adjusted.interval.upper, adjusted.unit, digits);
   const view = {
     level: fmt.level(own.interval.level),
     lower,
     upper,
     adjustedLevel: preciseLevel(adjusted.interval.level),
-    adjustedLower: bound(adjusted.interval.lower, adjusted.unit, adjustedDigits),
-    adjustedUpper: bound(adjusted.interval.upper, adjusted.unit, adjustedDigits),
+    adjustedLower: adjustedEnds.lower,
+    adjustedUpper: adjustedEnds.upper,
     claimsTested: ctx.claimsTested,
     unitWord: own.unit === 'coefficient' ? '' : ` ${own.unit}`,
   };
