@@ -187,6 +187,17 @@ function toProblem(e: ErrorObject, path: Segment[], parsed: ParsedYaml, file: st
   const value = get(data, path);
   const base = (place: { line: number; column: number }): Problem => ({ file, line: place.line, column: place.column, problem: '', fix: '' });
 
+  // A key of a mapping that breaks the mapping's propertyNames rule (ajv reports it with the key as propertyName,
+  // once as the rule's own error and once wrapped as 'propertyNames'): name the key and what keys must be.
+  if (e.keyword === 'propertyNames') return undefined;
+  if (e.propertyName !== undefined) {
+    const p = base(locate(parsed, [...path, e.propertyName]).key ?? valuePlace);
+    p.field = field;
+    p.found = e.propertyName;
+    p.problem = `the key "${e.propertyName}" under "${field}" is not one this mapping can hold`;
+    p.fix = String(parentSchema.description ?? `See the description of "${field}" in schema/claims.schema.json`);
+    return p;
+  }
   switch (e.keyword) {
     case 'additionalProperties': {
       const key = String((e.params as { additionalProperty: string }).additionalProperty);

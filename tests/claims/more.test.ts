@@ -116,4 +116,26 @@ claims:
     expect(places(problems('42\n'))).toEqual(['1:1 ']);
     expect(places(problems('- a\n- b\n'))).toEqual(['1:1 ']);
   });
+
+  it('a mapping key that breaks its rule is named, at the key, with what keys must be (answer_wording codes)', () => {
+    const text = `title: A
+organisation: B
+sources:
+  pulse:
+    file: data/respondents.csv
+    shape: respondents
+    answer_wording: { one: Strongly disagree, 5: Strongly agree }
+claims:
+  - { id: a, claim: first, kind: estimate, source: pulse, where: { question: Q01 } }
+`;
+    // The file has other gaps (no questions, no select); about the key there is one problem, not the rule's error and
+    // its 'propertyNames' wrapper as two vague ones.
+    const ps = problems(text).filter((p) => p.field === 'answer_wording');
+    expect(ps).toHaveLength(1);
+    expect(places(ps)).toEqual(['7:23 answer_wording']);
+    expect(ps[0]!.found).toBe('one');
+    expect(ps[0]!.problem).toBe('the key "one" under "answer_wording" is not one this mapping can hold');
+    expect(ps[0]!.fix).toContain('Each key is an answer code, a whole number such as 1 or 5');
+  });
 });
+
