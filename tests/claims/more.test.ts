@@ -1,11 +1,9 @@
-import { dirname, join, resolve } from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { InputError, type Problem } from '../../src/errors.js';
 import { parseClaimsText } from '../../src/claims/read.js';
+import { inlineOpts, problems } from '../helpers/claims-text.js';
 
-const fixtures = resolve(dirname(fileURLToPath(import.meta.url)), '../fixtures/claims');
-const opts = { absPath: join(fixtures, 'inline.yaml'), file: 'inline.yaml', sha256: 'f'.repeat(64) };
+const opts = inlineOpts;
 
 const head = `title: A
 organisation: B
@@ -14,15 +12,6 @@ sources:
 claims:
 `;
 
-function problems(text: string): Problem[] {
-  try {
-    parseClaimsText(text, opts);
-  } catch (e) {
-    if (e instanceof InputError) return e.problems;
-    throw e;
-  }
-  throw new Error('accepted');
-}
 const places = (ps: Problem[]): string[] => ps.map((p) => `${p.line}:${p.column} ${p.field ?? ''}`);
 
 describe('more checks', () => {

@@ -5,14 +5,12 @@
  * (as smallest_difference), standard deviations above 0 and at most 2 (Cohen's "large" d is 0.8; Cohen 1988, ch. 2,
  * from memory), correlations above 0 and below 1 (a correlation cannot reach 1 in an interval's open end).
  */
-import { dirname, join, resolve } from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
-import { InputError, type Problem } from '../../src/errors.js';
+import { InputError } from '../../src/errors.js';
 import { parseClaimsText } from '../../src/claims/read.js';
+import { inlineOpts, problems } from '../helpers/claims-text.js';
 
-const fixtures = resolve(dirname(fileURLToPath(import.meta.url)), '../fixtures/claims');
-const opts = { absPath: join(fixtures, 'inline.yaml'), file: 'inline.yaml', sha256: 'f'.repeat(64) };
+const opts = inlineOpts;
 
 /** A file with one claim of each split kind, `top` lines after organisation and `extra` lines in the claim `id`. */
 function file(top: string, extra: Record<string, string> = {}): string {
@@ -49,16 +47,6 @@ claims:
     against: { q: 2 }
     margin: 5 points${more('same')}
 `;
-}
-
-function problems(text: string): Problem[] {
-  try {
-    parseClaimsText(text, opts);
-  } catch (e) {
-    if (e instanceof InputError) return e.problems;
-    throw e;
-  }
-  throw new Error('accepted');
 }
 
 describe('worth_reporting read from the claims file', () => {
