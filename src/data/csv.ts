@@ -31,6 +31,9 @@ import type { ReadOptions, SheetRow } from './rows.js';
 export type Delimiter = ',' | ';' | '\t';
 type Newline = '\n' | '\r\n' | '\r';
 
+/** Lines read one at a time at the start, until the consumer has chosen its columns (see readCsvBatches). */
+const EARLY_LINES = 16;
+
 /** Bytes per read from the file. */
 const READ_SIZE = 1 << 18;
 
@@ -592,9 +595,29 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
     // bytes (splitByteRows); the rest of a piece, and any piece with a quote, goes through textPiece.
     const decoderClean = { now: true };
     const onBytes = options.onBytes;
-    for await (const raw of stream as AsyncIterable<Buffer>) {
-      onBytes?.(raw);
-      if (raw.indexOf(0) >= 0) throw nulInText(file, row);
+    let early = 0;
+    for await (const whole of stream as AsyncIterable<Buffer>) {
+      onBytes?.(whole);
+      if (whole.indexOf(0) >= 0) throw nulInText(file, row);
+      let raw = whole;
+      // Until the consumer has read the header and chosen its columns (select.keep), the first lines are read one at
+      // a time, so that the rest of the first piece can take the byte path below.
+      while (options.select !== undefined && options.select.keep === undefined && early < EARLY_LINES) {
+        const lf = raw.indexOf(10);
+        if (lf < 0 || lf === raw.length - 1) break;
+        early += 1;
+        const line = raw.subarray(0, lf + 1);
+        raw = raw.subarray(lf + 1);
+        const crlf = dialect?.newline === '\r\n' && lf > 0 && line[lf - 1] === 13;
+        // A line with quotes, once the dialect is known, split on its own as on the byte path (papaparse stays unloaded).
+        const record =
+          dialect !== undefined && !first && pending === '' && decoderClean.now && dialect.newline !== '\r' && line.indexOf(34) >= 0 && isUtf8(line)
+            ? splitQuotedLine(line.toString('utf8', 0, lf - (crlf ? 1 : 0)), dialect.delimiter)
+            : undefined;
+        if (record !== undefined) yield* emit([record]);
+        else yield* textPiece(line);
+        decoderClean.now = true;
+      }
       const keep = options.select?.keep;
       let from = 0;
       if (keep !== undefined && dialect !== undefined && !first && dialect.newline !== '\r') {
@@ -615,20 +638,22 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
           let at = from;
           // Valid UTF-8 as a whole, so valid in every part split at a line feed (never inside a character).
           const valid = last >= from && isUtf8(raw.subarray(from, last + 1));
+          const sink = options.select?.lines;
           while (valid && at <= last) {
-            const q = raw.indexOf(34, at);
-            const runEnd = q < 0 || q > last ? last + 1 : Math.max(at, raw.lastIndexOf(10, q) + 1);
-            if (runEnd > at) {
-              const sink = options.select?.lines;
-              if (sink !== undefined) {
-                // The consumer takes these lines itself, in order: the rows before them have been yielded.
-                const taken = sink.lines(raw, at, runEnd, dialect.newline === '\r\n', dialect.delimiter.charCodeAt(0), row + 1);
-                row += taken.rows;
-                if (taken.at < runEnd) {
-                  at = taken.at;
-                  break;
-                }
-              } else {
+            if (sink !== undefined) {
+              // The consumer takes the lines itself, in order (the rows before them have been yielded), quoted values
+              // included; a line it leaves is read below, on its own.
+              const taken = sink.lines(raw, at, last + 1, dialect.newline === '\r\n', dialect.delimiter.charCodeAt(0), row + 1);
+              row += taken.rows;
+              at = taken.at;
+              if (at > last) break;
+              const lf = raw.indexOf(10, at);
+              const q = raw.indexOf(34, at);
+              if (q < 0 || q > lf) break;
+            } else {
+              const q = raw.indexOf(34, at);
+              const runEnd = q < 0 || q > last ? last + 1 : Math.max(at, raw.lastIndexOf(10, q) + 1);
+              if (runEnd > at) {
                 const rows: SheetRow[] = [];
                 const end = splitByteRows(raw, at, runEnd, dialect.newline === '\r\n', dialect.delimiter.charCodeAt(0), keep, row + 1, byteIntern, rows);
                 row += rows.length;
@@ -637,8 +662,8 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
                   at = end;
                   break;
                 }
+                at = runEnd;
               }
-              at = runEnd;
             }
             if (at > last) break;
             const lineEnd = raw.indexOf(10, at) + 1;

@@ -37,6 +37,8 @@ import { kindMismatch, sniffKind } from './kind.js';
 import { isSuppressedMarker, isTitleRow, looksLikeDataRow, markerSet, MAX_NOTE_ROWS, oneRowHeader, quoteRow, secondHeaderRow, splitFootnote, twoRowHeader } from './table.js';
 import type { Header } from './table.js';
 import type { TableEnd } from './types.js';
+import { BLANK_ANSWER, byteLines, codeOfText, codeWrong, dimText, NA_ANSWER } from './tally.js';
+import type { TallyPlan } from './tally.js';
 
 /** How many row problems are gathered before reading stops. */
 export const MAX_PROBLEMS = 25;
@@ -631,19 +633,6 @@ function newLeaf(values: string[], questions: number): Leaf {
   return { values, cells: new Array<Cell | undefined>(questions).fill(undefined), tallies: new Array<number[] | undefined>(questions).fill(undefined) };
 }
 
-/** What codeOf returns for an answer coded "not applicable" and for a blank answer (a problem is -1). */
-const NA_ANSWER = -2;
-const BLANK_ANSWER = -3;
-
-/** Groups remembered by the bytes of their values (see respondentsCube); past this, new ones are looked up by text. */
-const BYTE_GROUP_LIMIT = 1 << 16;
-
-/** One-character strings for the ASCII bytes. */
-const ASCII_TEXT = Array.from({ length: 128 }, (_, i) => String.fromCharCode(i));
-
-/** Ends each value in a group's byte key: a byte that never occurs in well-formed UTF-8. */
-const KEY_END = 0xff;
-
 async function respondentsCube(
   source: CubeSource,
   needed: string[],
@@ -728,29 +717,15 @@ async function respondentsCube(
     }
     throw new Error('unreachable');
   };
-  /** A group value as read: trimmed when it starts or ends with a space or control character. */
-  const dimText = (v0: string): string => (v0.length > 0 && (v0.charCodeAt(0) <= 32 || v0.charCodeAt(v0.length - 1) <= 32) ? v0.trim() : v0);
-
   /** The code to count for an answer's text; NA_ANSWER, BLANK_ANSWER, or -1 (a problem recorded). */
   const codeOf = (raw0: string, row: number, k: number): number => {
-    if (raw0 === '') return BLANK_ANSWER;
-    let code: number;
-    let raw = raw0;
-    const c0 = raw0.charCodeAt(0);
-    if (raw0.length === 1 && c0 >= 48 && c0 <= 57) code = c0 - 48;
-    else {
-      raw = raw0.trim();
-      if (raw === '') return BLANK_ANSWER;
-      code = /^[+-]?\d+(\.0+)?$/.test(raw) ? Number(raw) : NaN;
-    }
-    if (Number.isNaN(code)) {
+    const code = codeOfText(raw0, maxCode, isNa);
+    if (code !== -1) return code;
+    const raw = codeWrong.raw;
+    if (codeWrong.why === 'not-code') {
       problems.add({ row, field: names[qIdx[k]!]!, found: raw, problem: 'An answer is not a whole-number code', fix: `Code answers as whole numbers (1 to ${maxCode}); list any code meaning "not applicable" under not_applicable in the source` });
-      return -1;
-    }
-    if (isNa(code)) return NA_ANSWER;
-    if (code < 1 || code > maxCode) {
+    } else {
       problems.add({ row, field: names[qIdx[k]!]!, found: raw, problem: `An answer code is outside 1 to ${maxCode}`, fix: 'Correct the answer, or list the code under not_applicable in the source if it means "not applicable"' });
-      return -1;
     }
     return code;
   };
@@ -807,181 +782,22 @@ async function respondentsCube(
     }
   };
 
-  // Plain lines straight from a CSV file's bytes (see ByteLineSink), tallied as tallyBatch would tally their rows:
-  // each field's place in the line is noted by its column's role, single-digit answers are counted from their byte,
-  // and a group is found by the bytes of its values (any other text is made into a string and read as above).
-  const role = new Int32Array(names.length).fill(-1); // question k as k, group column j as -2 - j, others -1
-  qIdx.forEach((i, k) => {
-    role[i] = k;
+  // Plain lines straight from a CSV file's bytes (see ByteLineSink and tally.ts), tallied as tallyBatch would tally
+  // their rows.
+  const plan: TallyPlan = { columns: names.length, qIdx, dimIdx, digitDoes: [...digitDoes] };
+  const byRow = byteLines<Leaf>(plan, {
+    group: (values) => {
+      for (let j = 0; j < nd; j++) dimValues[j] = values[j]!;
+      return leafOf();
+    },
+    count,
+    code: codeOf,
   });
-  dimIdx.forEach((i, j) => {
-    role[i] = -2 - j;
-  });
-  const lastDim = nd > 0 ? Math.max(...dimIdx) : -1;
-  const qFrom = new Int32Array(nq);
-  const qTo = new Int32Array(nq);
-  const dFrom = new Int32Array(nd);
-  const dTo = new Int32Array(nd);
-  const dHash = new Int32Array(nd);
-  // Groups by the bytes of their values: an open-addressing table of slots (entry + 1, 0 for free) over entries each
-  // with the full hash, the values' bytes (each ended by KEY_END) and the group.
-  const SLOTS = BYTE_GROUP_LIMIT * 2;
-  const slots = new Int32Array(SLOTS);
-  const slotHash = new Int32Array(BYTE_GROUP_LIMIT);
-  const slotKey: Uint8Array[] = [];
-  const slotLeaf: Leaf[] = [];
-  const text = (b: Uint8Array, s: number, e: number): string => Buffer.from(b.buffer, b.byteOffset + s, e - s).toString('utf8');
-  const sameKey = (key: Uint8Array, b: Uint8Array): boolean => {
-    let at = 0;
-    for (let j = 0; j < nd; j++) {
-      const e = dTo[j]!;
-      for (let i = dFrom[j]!; i < e; i++) if (key[at++] !== b[i]) return false;
-      if (key[at++] !== KEY_END) return false;
-    }
-    return at === key.length;
-  };
-  const groupOfBytes = (b: Uint8Array): Leaf => {
-    // The line's values, each hashed as it was read (dHash), combined in order.
-    let h = 0;
-    let len = 0;
-    for (let j = 0; j < nd; j++) {
-      h = (Math.imul(h, 0x01000193) ^ dHash[j]!) | 0;
-      len += dTo[j]! - dFrom[j]! + 1;
-    }
-    let slot = (h ^ (h >>> 15)) & (SLOTS - 1);
-    for (;;) {
-      const entry = slots[slot]! - 1;
-      if (entry < 0) break;
-      if (slotHash[entry] === h && sameKey(slotKey[entry]!, b)) return slotLeaf[entry]!;
-      slot = (slot + 1) & (SLOTS - 1);
-    }
-    for (let j = 0; j < nd; j++) dimValues[j] = dimText(text(b, dFrom[j]!, dTo[j]!));
-    const leaf = leafOf();
-    const entry = slotLeaf.length;
-    if (entry < BYTE_GROUP_LIMIT) {
-      const key = new Uint8Array(len);
-      let at = 0;
-      for (let j = 0; j < nd; j++) {
-        key.set(b.subarray(dFrom[j]!, dTo[j]!), at);
-        at += dTo[j]! - dFrom[j]!;
-        key[at++] = KEY_END;
-      }
-      slotHash[entry] = h;
-      slotKey.push(key);
-      slotLeaf.push(leaf);
-      slots[slot] = entry + 1;
-    }
-    return leaf;
-  };
   const lines = (b: Uint8Array, from: number, end: number, crlf: boolean, d: number, firstRow: number): { at: number; rows: number } => {
-    const nc = role.length;
-    let row = firstRow;
-    let at = from;
-    // Field by field: `end` is just past a line feed, so each scan stops at one without checking `end`.
-    while (at < end) {
-      // Fields past the line's last (col at its end) are missing: answers not read, group values ''.
-      let col = 0;
-      let s = at;
-      let blank = true;
-      let wide = false;
-      let stop: number;
-      for (;;) {
-        const r = col < nc ? role[col]! : -1;
-        let i = s;
-        let c = b[i]!;
-        // A group value's bytes are hashed as they are passed (see groupOfBytes).
-        let h = 0;
-        if (r < -1) {
-          while (c !== d && c !== 10 && c !== 13) {
-            h = (Math.imul(h, 31) + c) | 0;
-            c = b[++i]!;
-          }
-        } else while (c !== d && c !== 10 && c !== 13) c = b[++i]!;
-        if (c === 13 && !(crlf && b[i + 1] === 10)) {
-          // A carriage return inside a field (not a line end here): part of the field.
-          c = b[++i]!;
-          while (c !== d && c !== 10 && (c !== 13 || !(crlf && b[i + 1] === 10))) c = b[++i]!;
-          h = 0;
-          if (r < -1) for (let k = s; k < i; k++) h = (Math.imul(h, 31) + b[k]!) | 0;
-        }
-        if (c === 10 && crlf) return { at, rows: row - firstRow };
-        if (r >= 0) {
-          qFrom[r] = s;
-          qTo[r] = i;
-        } else if (r < -1) {
-          dFrom[-2 - r] = s;
-          dTo[-2 - r] = i;
-          dHash[-2 - r] = h;
-        }
-        if (blank) {
-          for (let k = s; k < i; k++) {
-            const x = b[k]!;
-            if (x >= 128) wide = true;
-            else if (x !== 32 && (x < 9 || x > 13)) {
-              blank = false;
-              break;
-            }
-          }
-        }
-        if (c !== d) {
-          stop = i;
-          break;
-        }
-        col += 1;
-        s = i + 1;
-      }
-      const lf = b[stop] === 13 ? stop + 1 : stop;
-      if (blank && wide) {
-        // Non-ASCII text in an otherwise blank line: decide on the decoded text, as isBlankRow would.
-        blank = text(b, at, stop).split(String.fromCharCode(d)).every((v) => v.trim() === '');
-      }
-      if (!blank) {
-        rows += 1;
-        let group: Leaf | undefined;
-        if (col < lastDim) {
-          for (let j = 0; j < nd; j++) {
-            if (dimIdx[j]! > col) {
-              dFrom[j] = 0;
-              dTo[j] = 0;
-              dHash[j] = 0;
-            }
-          }
-        }
-        for (let k = 0; k < nq; k++) {
-          if (qIdx[k]! > col) {
-            group ??= groupOfBytes(b);
-            count(group, k, BLANK_ANSWER, row);
-            continue;
-          }
-          const s = qFrom[k]!;
-          const e = qTo[k]!;
-          let code: number;
-          const c = b[s]!;
-          if (e - s === 1 && c >= 48 && c <= 57) {
-            code = c - 48;
-            const does = digitDoes[code]!;
-            if (does === 0) {
-              group ??= groupOfBytes(b);
-              count(group, k, NA_ANSWER, row);
-              continue;
-            }
-            if (does < 0) {
-              codeOf(ASCII_TEXT[c]!, row, k);
-              continue;
-            }
-          } else if (e === s) code = BLANK_ANSWER;
-          else {
-            code = codeOf(text(b, s, e), row, k);
-            if (code === -1) continue;
-          }
-          group ??= groupOfBytes(b);
-          count(group, k, code, row);
-        }
-      }
-      row += 1;
-      at = lf + 1;
-    }
-    return { at, rows: row - firstRow };
+    const before = byRow.dataRows;
+    const taken = byRow.lines(b, from, end, crlf, d, firstRow);
+    rows += byRow.dataRows - before;
+    return taken;
   };
 
   select.keep = keep;
