@@ -24,7 +24,7 @@ export function panel(L: Layout, text: string, opts: { pad?: number; spaceAfter?
         parent.add(
           L.doc.struct('P', {}, () => {
             L.setFont('regular', size);
-            L.doc.text(text, x, y, { width, lineGap: LINE_GAP });
+            L.drawText(text, 'regular', size, x, y, width, LINE_GAP);
           }),
         );
       },
@@ -59,7 +59,7 @@ export function notices(L: Layout, items: string[], opts: { spaceAfter?: number 
             box.add(
               L.doc.struct('P', {}, () => {
                 L.setFont('regular', SIZE.body);
-                L.doc.text(text, x, y, { width, lineGap: LINE_GAP });
+                L.drawText(text, 'regular', SIZE.body, x, y, width, LINE_GAP);
               }),
             );
             y += heights[i]! + 4;
@@ -147,7 +147,7 @@ function claimBlocks(
           L.setFont('bold', SIZE.small, COLOR.accent);
           L.doc.text(label, MARGIN.left, labelTop, { width: lw, ...SPACED_CAPS, lineGap: 1 });
           L.setFont('bold', SIZE.h3);
-          L.doc.text(claim.statement, MARGIN.left, statementTop, { width: CONTENT_WIDTH, lineGap: 1.5 });
+          L.drawText(claim.statement, 'bold', SIZE.h3, MARGIN.left, statementTop, CONTENT_WIDTH, 1.5);
         }),
       );
       drawBadge(L, claim.verdict, claim.verdictLabel, MARGIN.left + CONTENT_WIDTH - badgeW(), top, parent);

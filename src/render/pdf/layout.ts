@@ -5,16 +5,56 @@
 import SVGtoPDF from 'svg-to-pdfkit';
 import { drawChart } from '../chart-pdf.js';
 import { chartDrawing } from '../chart-runtime.js';
-import { FONT_NAME, type Face } from '../fonts.js';
+import { FONT_NAME, fontFor, type Face } from '../fonts.js';
 import {
   COLOR, CONTENT_BOTTOM, CONTENT_WIDTH, CONTINUATION_HEIGHT, LINE_GAP, MARGIN, SPACED_CAPS, PARA_GAP, SIZE, SLACK, svgSize,
   type Block, type Doc, type Struct,
 } from './style.js';
 
+/** One line of a wrapped text as pdfkit's line wrapper hands it to be drawn. */
+interface WrappedLine {
+  text: string;
+  textWidth: number;
+  wordCount: number;
+  lineWidth: number;
+}
+
+/** A text measured in one face, size, width and line gap: its height and the lines it wraps into. */
+interface Measured {
+  face: Face;
+  size: number;
+  width: number;
+  lineGap: number;
+  height: number;
+  lines: WrappedLine[];
+}
+
+/** The parts of pdfkit's text machinery that measuring once and drawing from the measurement uses. */
+interface TextInternals {
+  _font: { name: string } | null;
+  _fontSize: number;
+  _lineGap: number;
+  _initOptions(x: number, y: number, options: Record<string, unknown>): Record<string, unknown>;
+  _initOptions(options: Record<string, unknown>): Record<string, unknown>;
+  _text(
+    text: string,
+    x: number,
+    y: number,
+    options: Record<string, unknown>,
+    line: (text: string, options: { textWidth: number; wordCount: number; lineWidth: number }) => void,
+  ): void;
+  _fragment(text: string, x: number, y: number, options: Record<string, unknown>): void;
+}
+
+/** The PostScript name of a face, which pdfkit keeps as the name of the font in use. */
+function postscriptName(face: Face): string {
+  return (fontFor(face) as unknown as { postscriptName: string }).postscriptName;
+}
+
 export class Layout {
   readonly doc: Doc;
-  /** Measured text heights (see textHeight). */
-  private readonly heights = new Map<string, number>();
+  /** Measured texts by their text (see measure). */
+  private readonly measured = new Map<string, Measured[]>();
   /** Where blocks start on the current page (below a continuation line, when there is one). */
   private pageTop = MARGIN.top;
   /**
@@ -66,16 +106,79 @@ export class Layout {
   }
 
   textHeight(text: string, face: Face, size: number, width: number, lineGap = LINE_GAP): number {
-    this.doc.font(FONT_NAME[face]).fontSize(size);
-    // Blocks are measured several times (to fit, to break, to draw): the same text in the same face, size and width
-    // always has the same height, so each is measured once.
-    const key = `${face}\u0000${size}\u0000${width}\u0000${lineGap}\u0000${text}`;
-    let h = this.heights.get(key);
-    if (h === undefined) {
-      h = this.doc.heightOfString(text, { width, lineGap });
-      this.heights.set(key, h);
+    return this.measure(text, face, size, width, lineGap).height;
+  }
+
+  /**
+   * A text wrapped to `width` in a face and size: its height and its lines. Blocks are measured several times (to
+   * fit, to break, to draw) and then drawn: the same text in the same face, size, width and line gap always wraps the
+   * same way, so each is wrapped once, by pdfkit's own line wrapper (as heightOfString does it), and the lines it
+   * gives are kept for drawing (see drawText).
+   */
+  private measure(text: string, face: Face, size: number, width: number, lineGap: number): Measured {
+    let list = this.measured.get(text);
+    if (list === undefined) {
+      list = [];
+      this.measured.set(text, list);
+    } else {
+      for (const m of list) if (m.face === face && m.size === size && m.width === width && m.lineGap === lineGap) return m;
     }
-    return h;
+    const doc = this.doc;
+    doc.font(FONT_NAME[face]).fontSize(size);
+    const internals = doc as unknown as TextInternals;
+    // What heightOfString does, keeping each line and its measures as the wrapper hands them over.
+    const { x, y } = doc;
+    const options = internals._initOptions({ width, lineGap });
+    options.height = Infinity;
+    const gap = (options.lineGap as number) || internals._lineGap || 0;
+    const lines: WrappedLine[] = [];
+    internals._text(text, x, y, options, (line, o) => {
+      lines.push({ text: line, textWidth: o.textWidth, wordCount: o.wordCount, lineWidth: o.lineWidth });
+      doc.y += doc.currentLineHeight(true) + gap;
+    });
+    const m: Measured = { face, size, width, lineGap, height: doc.y - y, lines };
+    doc.x = x;
+    doc.y = y;
+    list.push(m);
+    return m;
+  }
+
+  /**
+   * Draw `text` at (x, y) wrapped to `width`, in the face and size already set (with setFont), as doc.text does with
+   * { width, lineGap }: from the lines kept when it was measured, without wrapping it again. A text not measured in
+   * this face, size, width and gap, or one whose lines would reach the foot of the page (where pdfkit would move on
+   * to a new page), is handed to doc.text.
+   */
+  drawText(text: string, face: Face, size: number, x: number, y: number, width: number, lineGap: number): void {
+    const doc = this.doc;
+    const internals = doc as unknown as TextInternals;
+    const m = this.measured.get(text)?.find((c) => c.face === face && c.size === size && c.width === width && c.lineGap === lineGap);
+    const step = doc.currentLineHeight(true) + ((lineGap || internals._lineGap) || 0);
+    const lineHeight = doc.currentLineHeight(true);
+    const bottom = doc.page.height - doc.page.margins.bottom - 1;
+    let fits = m !== undefined && internals._fontSize === size && internals._font?.name === postscriptName(face);
+    if (fits && m) {
+      // pdfkit checks before the first line and after each line whether the next would pass the foot of the page.
+      let at = y;
+      if (at + lineHeight > bottom) fits = false;
+      for (let i = 0; fits && i < m.lines.length; i++) {
+        at += step;
+        if (at + lineHeight > bottom) fits = false;
+      }
+    }
+    if (!fits || !m) {
+      doc.text(text, x, y, { width, lineGap });
+      return;
+    }
+    const options = internals._initOptions(x, y, { width, lineGap });
+    for (const line of m.lines) {
+      options.textWidth = line.textWidth;
+      options.wordCount = line.wordCount;
+      options.lineWidth = line.lineWidth;
+      internals._fragment(line.text, doc.x, doc.y, options);
+      doc.y += step;
+    }
+    doc.x = x;
   }
 
   /** Draw decoration (rules, shading, marks) as an Artifact so that assistive technology skips it. */
@@ -119,7 +222,7 @@ export class Layout {
         parent.add(
           this.doc.struct(level, {}, () => {
             this.setFont('bold', size, color);
-            this.doc.text(text, MARGIN.left, top, { width: CONTENT_WIDTH, lineGap: 1 });
+            this.drawText(text, 'bold', size, MARGIN.left, top, CONTENT_WIDTH, 1);
           }),
         );
         this.y = top + h() + after;
@@ -156,7 +259,7 @@ export class Layout {
         parent.add(
           this.doc.struct(opts.tag ?? 'P', {}, () => {
             this.setFont(face, size, opts.color ?? COLOR.ink);
-            this.doc.text(text, MARGIN.left + indent, top, { width, lineGap: LINE_GAP });
+            this.drawText(text, face, size, MARGIN.left + indent, top, width, LINE_GAP);
           }),
         );
         this.y = Math.max(this.y, top + h()) + after;
@@ -227,7 +330,7 @@ export class Layout {
           li.add(
             this.doc.struct('LBody', {}, () => {
               this.setFont('regular', size);
-              this.doc.text(text, MARGIN.left + indent, top, { width, lineGap: LINE_GAP });
+              this.drawText(text, 'regular', size, MARGIN.left + indent, top, width, LINE_GAP);
             }),
           );
           this.y = top + h;

@@ -70,8 +70,16 @@ export function table(
     p.badge ? badgeHeight(badgeSize) + 1.5 : L.textHeight(p.text, p.face, p.size, width, 1.5);
   const cellHeight = (cell: Cell, i: number, header: boolean): number =>
     parts(cell, i, header).reduce((a, p) => a + p.gap + partHeight(p, cellTextWidth(i, cell)), 0);
-  const rowHeight = (cells: Cell[], header = false): number =>
-    Math.max(...cells.map((cell, i) => cellHeight(cell, i, header))) + 2 * padY - 1.5;
+  // A row's height is asked for to fit the table, to break it and to draw it: worked out once per row.
+  const rowHeights = new Map<Cell[], number>();
+  const rowHeight = (cells: Cell[], header = false): number => {
+    let h = rowHeights.get(cells);
+    if (h === undefined) {
+      h = Math.max(...cells.map((cell, i) => cellHeight(cell, i, header))) + 2 * padY - 1.5;
+      rowHeights.set(cells, h);
+    }
+    return h;
+  };
   const headerCells: Cell[] = columns.map((c) => ({ text: c.header, face: 'bold' }));
   const headerHeight = (): number => (showHeader ? rowHeight(headerCells, true) : 0);
 
@@ -118,7 +126,7 @@ export function table(
         } else {
           draws.push(() => {
             L.setFont(p.face, p.size, p.color);
-            L.doc.text(p.text, textX, at, { width, lineGap: 1.5 });
+            L.drawText(p.text, p.face, p.size, textX, at, width, 1.5);
           });
         }
         y += partHeight(p, width);
@@ -246,15 +254,23 @@ export function numberPairs(
       lines.push([{ ...a, valueW: fullValueW }]);
     }
   }
-  const lineHeight = (line: Line): number =>
-    Math.max(
-      ...line.flatMap((c) => [
-        L.textHeight(c.label, labelFace, size, labelW - 2 * padX, gap),
-        L.textHeight(c.value, 'regular', size, c.valueW - 2 * padX, gap),
-      ]),
-    ) +
-    2 * padY -
-    gap;
+  const lineHeights = new Map<Line, number>();
+  const lineHeight = (line: Line): number => {
+    let h = lineHeights.get(line);
+    if (h === undefined) {
+      h =
+        Math.max(
+          ...line.flatMap((c) => [
+            L.textHeight(c.label, labelFace, size, labelW - 2 * padX, gap),
+            L.textHeight(c.value, 'regular', size, c.valueW - 2 * padX, gap),
+          ]),
+        ) +
+        2 * padY -
+        gap;
+      lineHeights.set(line, h);
+    }
+    return h;
+  };
   return {
     after,
     height: () => lines.reduce((a, l) => a + lineHeight(l), 0) + after,
@@ -274,14 +290,14 @@ export function numberPairs(
           tr.add(
             L.doc.struct('TH', {}, () => {
               L.setFont(labelFace, size, labelFace === 'bold' ? COLOR.ink : COLOR.muted);
-              L.doc.text(cell.label, lx + padX, top + padY, { width: labelW - 2 * padX, lineGap: gap });
+              L.drawText(cell.label, labelFace, size, lx + padX, top + padY, labelW - 2 * padX, gap);
             }),
           );
           const vx = x + labelW;
           tr.add(
             L.doc.struct('TD', {}, () => {
               L.setFont('regular', size, COLOR.ink);
-              L.doc.text(cell.value, vx + padX, top + padY, { width: cell.valueW - 2 * padX, lineGap: gap });
+              L.drawText(cell.value, 'regular', size, vx + padX, top + padY, cell.valueW - 2 * padX, gap);
             }),
           );
           x += labelW + cell.valueW;

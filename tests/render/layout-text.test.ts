@@ -1,0 +1,106 @@
+/**
+ * Layout.drawText draws a measured text from the lines kept when it was measured, without wrapping it again. The
+ * check is pdfkit's own doc.text (pdfkit 0.20, the library that writes the pack): the same texts drawn both ways, in
+ * two documents set up alike, give the very same PDF bytes; and textHeight equals pdfkit's heightOfString.
+ */
+import { describe, it, expect } from 'vitest';
+import PDFDocument from 'pdfkit';
+import { FONT_NAME, fontFor, type Face } from '../../src/render/fonts.js';
+import { Layout } from '../../src/render/pdf/layout.js';
+
+const TEXTS = [
+  'A short line.',
+  'Agreement with "I feel safe" was higher in Pant-yr-ŵyn, Tŷ Łąka than in Ŵern (n = 1,234; 95% interval −6.3 to 28.6 points), and the difference is larger than chance alone would give in 99 of 100 samples.',
+  'Two paragraphs:\nthe second starts on its own line,\n\nand a blank line sits between.',
+  'Awordfarwiderthanthecolumnsoithastobebrokenbetweenletters-andthenthehyphenatedtail continues as usual.',
+  'Naïve office figures: fi fl ff ffi AVA To Ty LT 1/2 – — ‘quoted’ “twice” 12.5%',
+  '',
+];
+
+function newDoc(): { doc: PDFKit.Document; chunks: Buffer[]; done: Promise<Buffer> } {
+  const doc = new PDFDocument({
+    size: 'A4',
+    margins: { top: 50, bottom: 48, left: 58, right: 58 },
+    autoFirstPage: false,
+    font: null,
+    info: { CreationDate: new Date(Date.UTC(2000, 0, 1)), ModDate: new Date(Date.UTC(2000, 0, 1)) },
+  } as PDFKit.DocumentOptions);
+  for (const face of ['regular', 'bold', 'italic'] as const) doc.registerFont(FONT_NAME[face], fontFor(face));
+  const chunks: Buffer[] = [];
+  doc.on('data', (c: Buffer) => chunks.push(c));
+  const done = new Promise<Buffer>((resolve) => doc.on('end', () => resolve(Buffer.concat(chunks))));
+  doc.addPage();
+  return { doc, chunks, done };
+}
+
+/** Draw every text in a few faces, sizes and widths, down the page and near its foot, by `draw`. */
+function drawAll(
+  doc: PDFKit.Document,
+  draw: (text: string, face: Face, size: number, x: number, y: number, width: number, gap: number) => void,
+): void {
+  const cases: Array<[Face, number, number, number]> = [
+    ['regular', 10.5, 479.28, 2.2],
+    ['bold', 13, 300, 1.5],
+    ['italic', 9, 120.5, 1],
+  ];
+  let y = 60;
+  for (const [face, size, width, gap] of cases) {
+    for (const text of TEXTS) {
+      doc.font(FONT_NAME[face]).fontSize(size).fillColor('#1d2733');
+      draw(text, face, size, 58, y, width, gap);
+      y = doc.y + 4;
+      if (y > 700) {
+        doc.addPage();
+        y = 60;
+      }
+    }
+  }
+  // Near the foot of the page, where pdfkit moves the rest of a text to a new page.
+  doc.font(FONT_NAME.regular).fontSize(10.5).fillColor('#1d2733');
+  draw(TEXTS[1]!, 'regular', 10.5, 58, 770, 400, 2.2);
+}
+
+describe('Layout.drawText', () => {
+  it('writes the same bytes as doc.text for wrapped, multi-paragraph, broken-word and empty texts', async () => {
+    const a = newDoc();
+    const L = new Layout(a.doc);
+    const heights: number[] = [];
+    drawAll(a.doc, (text, face, size, x, y, width, gap) => {
+      a.doc.y = y;
+      heights.push(L.textHeight(text, face, size, width, gap));
+      a.doc.font(FONT_NAME[face]).fontSize(size);
+      L.drawText(text, face, size, x, y, width, gap);
+    });
+    a.doc.end();
+
+    const b = newDoc();
+    const expected: number[] = [];
+    drawAll(b.doc, (text, _face, _size, x, y, width, gap) => {
+      b.doc.y = y;
+      expected.push(b.doc.heightOfString(text, { width, lineGap: gap }));
+      b.doc.text(text, x, y, { width, lineGap: gap });
+    });
+    b.doc.end();
+
+    expect(heights).toEqual(expected);
+    expect(heights.filter((h) => h > 40).length).toBeGreaterThan(3);
+    const [bytesA, bytesB] = await Promise.all([a.done, b.done]);
+    expect(bytesA.length).toBeGreaterThan(1000);
+    expect(bytesA.equals(bytesB)).toBe(true);
+  });
+
+  it('hands a text measured in another size to doc.text, with the same result', async () => {
+    const a = newDoc();
+    const L = new Layout(a.doc);
+    L.textHeight(TEXTS[1]!, 'regular', 10, 300, 2.2);
+    a.doc.font(FONT_NAME.regular).fontSize(10.5);
+    L.drawText(TEXTS[1]!, 'regular', 10.5, 58, 100, 300, 2.2);
+    a.doc.end();
+    const b = newDoc();
+    b.doc.font(FONT_NAME.regular).fontSize(10.5);
+    b.doc.text(TEXTS[1]!, 58, 100, { width: 300, lineGap: 2.2 });
+    b.doc.end();
+    const [bytesA, bytesB] = await Promise.all([a.done, b.done]);
+    expect(bytesA.equals(bytesB)).toBe(true);
+  });
+});
