@@ -36,6 +36,7 @@ import { Templates } from './verdicts/templates.js';
 import { claimResult, resultsFile, type ResultsFile } from './results/results.js';
 import { readingNotes } from './data/reading-notes.js';
 import type { PackModel } from './render/model.js';
+import { useChartThread } from './render/chart-thread.js';
 import { packageRoot } from './paths.js';
 import { InputError } from './errors.js';
 import { fsFailure, readOrdinaryFile, requireOrdinaryFile } from './files.js';
@@ -299,6 +300,17 @@ function editedSince(history: StoredPack[], results: ResultsFile, exclude: strin
 }
 
 export async function build(options: BuildOptions): Promise<BuildResult> {
+  // Charts are drawn on a second thread, which loads the charting libraries while the claims and data are read; it
+  // stops when the build ends, whichever way (render/chart-thread.ts).
+  const chartsDrawn = useChartThread();
+  try {
+    return await buildPack(options, chartsDrawn);
+  } finally {
+    chartsDrawn();
+  }
+}
+
+async function buildPack(options: BuildOptions, chartsDrawn: () => void): Promise<BuildResult> {
   const cwd = options.cwd ?? process.cwd();
   const say = options.progress ?? (() => {});
   const claimsPath = resolve(cwd, options.claimsPath);
@@ -421,10 +433,13 @@ export async function build(options: BuildOptions): Promise<BuildResult> {
     model.changes = { heading: templates.render('history.unreadable-heading', view), intro: templates.render('history.unreadable', view), verdicts: [], notes: [] };
   }
 
-  // 7. render (loaded here, not at start-up: pdfkit and vega are slow to import)
+  // 7. render (loaded here, not at start-up: pdfkit and vega are slow to import). The chart thread starts on the
+  // charts now, while pdfkit loads and the pages before the claims are laid out.
+  const { prefetchCharts } = await import('./render/charts.js');
+  prefetchCharts(model.claims.flatMap((c) => (c.chart ? [c.chart.data] : [])));
   say(`Drawing the pack (${analyses.length} claims)`);
   const { renderPdf } = await import('./render/pdf.js');
-  const pdf = await renderPdf(model, { createdAt: pdfDate(date) });
+  const pdf = await renderPdf(model, { createdAt: pdfDate(date), chartsDrawn });
   const { writeResultsXlsx } = await import('./results/xlsx.js');
   const { chartFiles } = await import('./results/charts-out.js');
   const xlsx = await writeResultsXlsx(results);

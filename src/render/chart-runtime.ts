@@ -337,11 +337,19 @@ export function chartDrawing(svg: string): ChartDrawing | undefined {
   return drawings.get(svg);
 }
 
+/** Remember the paint operations of the chart drawn as this SVG (drawn here, or on the chart thread). */
+export function keepDrawing(svg: string, drawing: ChartDrawing | undefined): void {
+  if (!drawing || drawings.has(svg)) return;
+  if (drawings.size >= DRAWINGS_KEPT) drawings.delete(drawings.keys().next().value as string);
+  drawings.set(svg, drawing);
+}
+
 /**
- * Draw a Vega-Lite spec headless (no canvas) as an SVG string, and record the same scene as paint operations for the
- * PDF (chartDrawing).
+ * Draw a Vega-Lite spec headless (no canvas): its SVG string, and the same scene recorded as paint operations for the
+ * PDF (undefined when the scene holds something the recorder does not draw). Plain data both, so the chart thread
+ * can hand them to the main thread as they are.
  */
-export async function specSvg(spec: object): Promise<string> {
+export async function drawSpec(spec: object): Promise<{ svg: string; drawing: ChartDrawing | undefined }> {
   const { vega } = await loadChartLibs();
   const runtime = await runtimeSpecOf(spec);
   const view = new vega.View(runtime as ReturnType<VegaModule['parse']>, { renderer: 'none' });
@@ -360,14 +368,20 @@ export async function specSvg(spec: object): Promise<string> {
             { width, height, origin: [padding.left + origin[0], padding.top + origin[1]], background: view.background() as string | null },
           )
         : undefined;
-    if (drawing && !drawings.has(svg)) {
-      if (drawings.size >= DRAWINGS_KEPT) drawings.delete(drawings.keys().next().value as string);
-      drawings.set(svg, drawing);
-    }
-    return svg;
+    return { svg, drawing };
   } finally {
     view.finalize();
   }
+}
+
+/**
+ * Draw a Vega-Lite spec headless (no canvas) as an SVG string, and record the same scene as paint operations for the
+ * PDF (chartDrawing).
+ */
+export async function specSvg(spec: object): Promise<string> {
+  const { svg, drawing } = await drawSpec(spec);
+  keepDrawing(svg, drawing);
+  return svg;
 }
 
 function firstDifference(a: unknown, b: unknown, path: string): string | undefined {

@@ -6,9 +6,11 @@
  *   ChartData --chartSpec--> Vega-Lite spec --vega-lite compile--> Vega spec --View(renderer none)--> SVG
  */
 import type { ChartData } from './model.js';
+import type { ChartDrawing } from './chart-pdf.js';
 import { percent } from '../format/numbers.js';
 import { CHART_FONT_FAMILY, textWidth } from './fonts.js';
-import { compileVegaLite, specSvg } from './chart-runtime.js';
+import { compileVegaLite, drawSpec, keepDrawing } from './chart-runtime.js';
+import { chartThread } from './chart-thread.js';
 import { shareRange, shareValues, WHOLE_SHARE } from './chart-scales.js';
 
 /**
@@ -696,19 +698,44 @@ const svgs = new Map<string, Promise<string>>();
 
 /**
  * The chart as an SVG string, rendered headless (no canvas). Pure, so a chart already drawn with the same data and
- * size is handed back from memory rather than compiled and rendered again.
+ * size is handed back from memory rather than compiled and rendered again. Drawn on the chart thread when one runs.
  */
 export function chartSvg(data: ChartData, options: ChartSizeOptions = {}): Promise<string> {
+  return rememberedSvg(data, options, true);
+}
+
+function rememberedSvg(data: ChartData, options: ChartSizeOptions, urgent: boolean): Promise<string> {
   const key = JSON.stringify([data, options]);
   const known = svgs.get(key);
   if (known !== undefined) return known;
-  const made = renderChartSvg(data, options);
+  const made = renderChartSvg(data, options, urgent);
   if (svgs.size >= SVGS_KEPT) svgs.delete(svgs.keys().next().value as string);
   svgs.set(key, made);
   made.catch(() => svgs.delete(key));
   return made;
 }
 
-async function renderChartSvg(data: ChartData, options: ChartSizeOptions): Promise<string> {
-  return specSvg(chartSpec(data, options));
+async function renderChartSvg(data: ChartData, options: ChartSizeOptions, urgent: boolean): Promise<string> {
+  const thread = chartThread();
+  const { svg, drawing } = thread ? await thread.draw(data, options, urgent) : await drawInProcess(data, options);
+  keepDrawing(svg, drawing);
+  return svg;
+}
+
+async function drawInProcess(data: ChartData, options: ChartSizeOptions): Promise<{ svg: string; drawing: ChartDrawing | undefined }> {
+  return drawSpec(chartSpec(data, options));
+}
+
+/** Whether charts are drawn on a second thread (chart-thread.ts; a build starts it). */
+export function drawsOnThread(): boolean {
+  return chartThread() !== undefined;
+}
+
+/**
+ * Ask for these charts now, in this order, at their usual size, when a chart thread runs (with none, charts are drawn
+ * when first asked for, one at a time, as before). Their errors are left to whoever asks for the chart (chartSvg).
+ */
+export function prefetchCharts(charts: ChartData[]): void {
+  if (!chartThread()) return;
+  for (const data of charts) rememberedSvg(data, {}, false).catch(() => undefined);
 }

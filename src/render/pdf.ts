@@ -19,7 +19,7 @@ import { createHash } from 'node:crypto';
 import PDFDocument from 'pdfkit';
 import type { ChartData, PackModel } from './model.js';
 import { FONT_NAME, fontFor } from './fonts.js';
-import { chartSvg } from './charts.js';
+import { chartSvg, drawsOnThread } from './charts.js';
 import { Layout } from './pdf/layout.js';
 import { drawCover, drawSummary, drawChanges } from './pdf/front-matter.js';
 import { drawClaims } from './pdf/claim.js';
@@ -32,6 +32,8 @@ export { MARK_DESCRIPTION } from './pdf/marks.js';
 export interface RenderOptions {
   /** Date written into the PDF info dictionary; defaults to a fixed epoch so that builds repeat byte for byte. */
   createdAt?: Date;
+  /** Called once every claim's chart is in the document: a build lets the chart thread go then, freeing its memory. */
+  chartsDrawn?: () => void;
 }
 
 /** The fixed date used when no creation date is given (a build must not depend on the clock). */
@@ -80,10 +82,16 @@ export async function renderPdf(model: PackModel, options: RenderOptions = {}): 
   const created = options.createdAt ?? FIXED_EPOCH;
   if (Number.isNaN(created.getTime())) throw new Error('Render options: createdAt is not a valid date.');
 
-  // Charts first (asynchronous), then all drawing in one synchronous pass.
-  const svgs = new Map<string, string>();
+  // Every chart is asked for first. On the chart thread they are drawn while the pages before them are laid out,
+  // each claim waiting only for its own chart; drawn here, each is drawn in turn before any page.
+  const svgs = new Map<string, Promise<string>>();
+  const threaded = drawsOnThread();
   for (const claim of model.claims) {
-    if (claim.chart) svgs.set(claim.id, await chartSvg(claim.chart.data as ChartData));
+    if (!claim.chart) continue;
+    const svg = chartSvg(claim.chart.data as ChartData);
+    if (threaded) svg.catch(() => undefined);
+    else await svg;
+    svgs.set(claim.id, svg);
   }
 
   const doc = new PDFDocument({
@@ -132,6 +140,7 @@ export async function renderPdf(model: PackModel, options: RenderOptions = {}): 
   drawSummary(L, model, root, bookmark);
   drawChanges(L, model, root, bookmark);
   await drawClaims(L, model, svgs, root);
+  options.chartsDrawn?.();
   drawBackMatter(L, model, root, bookmark);
   drawFurniture(doc, model);
 

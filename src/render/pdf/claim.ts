@@ -309,11 +309,11 @@ function keepTogether(height: number): Block {
 }
 
 /** Draw every claim: each on a new page unless it fits in the space left below the previous one. */
-export async function drawClaims(L: Layout, model: PackModel, svgs: Map<string, string>, root: Struct): Promise<void> {
+export async function drawClaims(L: Layout, model: PackModel, svgs: Map<string, Promise<string>>, root: Struct): Promise<void> {
   const doc = L.doc;
   let claimsBookmark: PDFKit.OutlineItem | undefined;
   for (const claim of model.claims) {
-    const { blocks } = await layClaim(L, claim, svgs.get(claim.id), () => claimsBookmark!);
+    const { blocks } = await layClaim(L, claim, await svgs.get(claim.id), () => claimsBookmark!);
     if (claimsBookmark === undefined || blocksHeight(blocks) + CLAIM_GAP > L.remaining()) {
       L.newPage();
     } else {
