@@ -2,19 +2,41 @@
  * YAML text -> plain data, keeping the parsed document so that any value can be traced back to its line and column.
  * YAML syntax errors become problems in plain words with the parser's own reason attached.
  */
-import { isAlias, isMap, isPair, isScalar, isSeq, LineCounter, parseDocument, visit } from 'yaml';
-import type { Document, Node, ParsedNode } from 'yaml';
+import { createRequire } from 'node:module';
+import type { Document, LineCounter, Node, ParsedNode } from 'yaml';
 import type { Problem } from '../errors.js';
 import type { Place } from './types.js';
+import { pathKey, readPlainYaml, type QuickPlace } from './yaml-plain.js';
+
+/**
+ * The yaml package, loaded when first needed: a claims file in plain YAML is read by yaml-plain.ts, and the package
+ * (about 0.04 s to load) only when the file uses more of YAML, has a mistake, or a place is asked for that the quick
+ * reader did not record.
+ */
+let yamlPackage: typeof import('yaml') | undefined;
+function Y(): typeof import('yaml') {
+  yamlPackage ??= createRequire(import.meta.url)('yaml') as typeof import('yaml');
+  return yamlPackage;
+}
 
 /** Guard against alias bombs ("billion laughs"): at most this many values may be produced through aliases. */
 export const MAX_ALIAS_COUNT = 1000;
 
 export interface ParsedYaml {
-  doc: Document.Parsed;
-  lines: LineCounter;
+  /** The parsed document (parsed on first use when the quick reader read the file). */
+  readonly doc: Document.Parsed;
+  readonly lines: LineCounter;
   text: string;
   data: unknown;
+  /** Places of the values, when the quick reader read the file (yaml-plain.ts). */
+  places?: Map<string, QuickPlace>;
+}
+
+/** The options every claims file is parsed with. */
+function parseWhole(text: string): { doc: Document.Parsed; lines: LineCounter } {
+  const lines = new (Y().LineCounter)();
+  const doc = Y().parseDocument(text, { lineCounter: lines, prettyErrors: false, merge: true, uniqueKeys: true });
+  return { doc, lines };
 }
 
 export type YamlOutcome = { ok: true; parsed: ParsedYaml } | { ok: false; problems: Problem[] };
@@ -86,10 +108,31 @@ function placeOf(lines: LineCounter, offset: number): Place {
 
 /** Parse YAML text. Only syntax problems are reported here; what the data mean is checked later. */
 export function parseYaml(text: string, file: string): YamlOutcome {
-  const lines = new LineCounter();
+  const quick = readPlainYaml(text);
+  if (quick) {
+    let whole: ReturnType<typeof parseWhole> | undefined;
+    return {
+      ok: true,
+      parsed: {
+        text,
+        data: quick.data,
+        places: quick.places,
+        get doc() {
+          whole ??= parseWhole(text);
+          return whole.doc;
+        },
+        get lines() {
+          whole ??= parseWhole(text);
+          return whole.lines;
+        },
+      },
+    };
+  }
+  const { isScalar, visit } = Y();
   let doc: Document.Parsed;
+  let lines: LineCounter;
   try {
-    doc = parseDocument(text, { lineCounter: lines, prettyErrors: false, merge: true, uniqueKeys: true });
+    ({ doc, lines } = parseWhole(text));
   } catch (e) {
     // The parser itself gave up (for example the call stack ran out on extreme nesting).
     return {
@@ -198,6 +241,7 @@ function nodeStart(lines: LineCounter, node: Node | null | undefined): Place | u
 }
 
 function findPair(doc: Document.Parsed, map: unknown, key: string, depth = 0): { key: Node | null; value: Node | null } | undefined {
+  const { isAlias, isMap, isPair, isScalar, isSeq } = Y();
   if (!isMap(map) || depth > 20) return undefined;
   for (const pair of map.items) {
     if (!isPair(pair)) continue;
@@ -226,6 +270,9 @@ function findPair(doc: Document.Parsed, map: unknown, key: string, depth = 0): {
  * there, so the place reported is where the alias is used.
  */
 export function locate(parsed: ParsedYaml, path: readonly Segment[]): Located {
+  const quick = parsed.places?.get(pathKey(path));
+  if (quick) return { ...quick };
+  const { isAlias, isMap, isSeq } = Y();
   const { doc, lines } = parsed;
   let node: unknown = doc.contents;
   let keyNode: Node | null | undefined;
