@@ -2,13 +2,14 @@
 //   node bench/measure.mjs read <path>        readCube over a respondent-level file (dist/ build): the job file
 //                                             (unit, subject, year, q1..q9; as the job's claims read it: unit and
 //                                             year) or the reader file (ID, Department, Campus, Year, Q01..Q08)
+//   node bench/measure.mjs read <path> serial|parallel   the same, read in one or always in two halves
 //   node bench/measure.mjs lines <path>       a floor for CSV: a plain readline line count
 //   node bench/measure.mjs bytes <path>       the bare floor: the file's bytes read and their line feeds counted
 import { createReadStream, openSync, readSync, closeSync } from 'node:fs';
 import { createInterface } from 'node:readline';
 import { performance } from 'node:perf_hooks';
 
-const [what, path] = process.argv.slice(2);
+const [what, path, how] = process.argv.slice(2);
 const t0 = performance.now();
 let rows = 0;
 let cells = 0;
@@ -42,7 +43,7 @@ if (what === 'lines') {
     ...(job ? { period: 'year' } : {}),
     place: { line: 1, column: 1 },
   };
-  const cube = await readCube(source, job ? ['unit', 'year'] : ['Department', 'Campus', 'Year'], path);
+  const cube = await readCube(source, job ? ['unit', 'year'] : ['Department', 'Campus', 'Year'], path, how === 'serial' ? { parallelFrom: Infinity } : how === 'parallel' ? { parallelFrom: 0 } : {});
   rows = cube.rows;
   cells = cube.cells.length;
 } else {

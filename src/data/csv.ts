@@ -21,12 +21,13 @@
  * is dropped.
  */
 import { isUtf8 } from 'node:buffer';
-import { createReadStream } from 'node:fs';
+import { closeSync, createReadStream, fstatSync, openSync, readSync } from 'node:fs';
+import { open } from 'node:fs/promises';
 import type Papa from 'papaparse';
 import { InputError } from '../errors.js';
 import { requireOrdinaryFile } from '../files.js';
 import { isTrimmedSpace } from './rows.js';
-import type { ReadOptions, SheetRow } from './rows.js';
+import type { ReadOptions, SheetRow, SplitTally } from './rows.js';
 
 export type Delimiter = ',' | ';' | '\t';
 type Newline = '\n' | '\r\n' | '\r';
@@ -429,7 +430,8 @@ export interface CsvOptions extends ReadOptions {
   onDelimiter?: (delimiter: Delimiter) => void;
   /**
    * Called with each piece of the file's bytes as read, in order, before it is split (e.g. to hash the file in the
-   * same read). Every byte has been handed over once the last row has been yielded.
+   * same read). Every byte has been handed over once the last row has been yielded. The buffer is reused for the next
+   * piece: copy what must be kept.
    */
   onBytes?: (bytes: Buffer) => void;
 }
@@ -477,6 +479,48 @@ export function splitQuotedLine(text: string, delimiter: string): string[] | und
   }
 }
 
+/**
+ * The file's bytes from `start`, `size` at a time, each read into the same buffer (so the reading makes no garbage):
+ * a piece is valid only until the next is asked for, and whatever keeps bytes copies them.
+ */
+async function* pieces(path: string, size: number, start: number): AsyncGenerator<Buffer, void, undefined> {
+  const file = await open(path, 'r');
+  try {
+    const buf = Buffer.allocUnsafe(size);
+    let at = start;
+    for (;;) {
+      const { bytesRead } = await file.read(buf, 0, size, at);
+      if (bytesRead === 0) return;
+      at += bytesRead;
+      yield bytesRead === size ? buf : buf.subarray(0, bytesRead);
+    }
+  } finally {
+    await file.close();
+  }
+}
+
+/**
+ * Where to split a file for a second reader: the start of the first line past the middle (found in a small read
+ * there), with the file's size; undefined for a file smaller than `from` bytes, or when the point would lie at or
+ * before `past` (the bytes read already) or in the last line.
+ */
+export function splitPoint(path: string, past: number, from: number): { at: number; size: number } | undefined {
+  const fd = openSync(path, 'r');
+  try {
+    const size = fstatSync(fd).size;
+    if (size < from) return undefined;
+    const mid = Math.floor(size / 2);
+    if (mid <= past) return undefined;
+    const look = Buffer.allocUnsafe(1 << 16);
+    const got = readSync(fd, look, 0, look.length, mid);
+    const lf = look.subarray(0, got).indexOf(10);
+    if (lf < 0 || mid + lf + 1 >= size) return undefined;
+    return { at: mid + lf + 1, size };
+  } finally {
+    closeSync(fd);
+  }
+}
+
 export async function* readCsvRows(path: string, options: CsvOptions = {}): AsyncGenerator<SheetRow> {
   for await (const batch of readCsvBatches(path, options)) yield* batch;
 }
@@ -485,7 +529,8 @@ export async function* readCsvRows(path: string, options: CsvOptions = {}): Asyn
 export async function* readCsvBatches(path: string, options: CsvOptions = {}): AsyncGenerator<SheetRow[]> {
   const file = options.displayPath ?? path;
   requireOrdinaryFile(path, { file }, 'data file');
-  const stream = createReadStream(path, { highWaterMark: options.chunkSize !== undefined ? Math.max(1, options.chunkSize) : READ_SIZE });
+  const readSize = options.chunkSize !== undefined ? Math.max(1, options.chunkSize) : READ_SIZE;
+  const stream = pieces(path, readSize, 0);
   // Raw bytes through one streaming decoder: a character split between two reads is carried over, and bytes that are
   // not UTF-8 stop the read (the BOM is kept here and dropped below, once).
   const decoder = new TextDecoder('utf-8', { fatal: true, ignoreBOM: true });
@@ -596,8 +641,8 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
     const decoderClean = { now: true };
     const onBytes = options.onBytes;
     let early = 0;
-    for await (const whole of stream as AsyncIterable<Buffer>) {
-      onBytes?.(whole);
+    /** One piece of the file's bytes, in order, split by whichever path fits (see above). */
+    async function* piece(whole: Buffer): AsyncGenerator<SheetRow[]> {
       if (whole.indexOf(0) >= 0) throw nulInText(file, row);
       let raw = whole;
       // Until the consumer has read the header and chosen its columns (select.keep), the first lines are read one at
@@ -691,6 +736,55 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
         decoderClean.now = raw[raw.length - 1]! < 0x80;
       }
     }
+
+    // A large file whose consumer can tally a range elsewhere (ByteLineSink.split) is read in two: the bytes from a
+    // line start near the middle to the end are handed over at once, and the reading here stops there if it arrives
+    // at a line's start (nothing carried over): the rest is then only hashed (onBytes). If the range is not taken
+    // (a line or an answer only this reader handles, say), it is read here after all, from that point, so rows,
+    // messages and counts are those of a read in one.
+    let base = 0;
+    let split: { at: number; size: number; tally: SplitTally } | undefined;
+    let splitTried = false;
+    let skipping = false;
+    try {
+      for await (const whole of stream) {
+        onBytes?.(whole);
+        const wholeStart = base;
+        base += whole.length;
+        if (skipping) continue;
+        if (split === undefined && !splitTried) {
+          const sink = options.select?.lines;
+          if (sink?.split !== undefined && options.select?.keep !== undefined && dialect !== undefined && !first && dialect.newline !== '\r') {
+            splitTried = true;
+            const at = splitPoint(path, base, sink.splitFrom ?? Number.POSITIVE_INFINITY);
+            if (at !== undefined) split = { ...at, tally: sink.split(path, at.at, at.size, dialect.newline === '\r\n', dialect.delimiter.charCodeAt(0)) };
+          }
+        }
+        if (split !== undefined && base >= split.at) {
+          const cut = split.at - wholeStart;
+          yield* piece(whole.subarray(0, cut));
+          if (pending === '' && decoderClean.now) {
+            skipping = true;
+            continue;
+          }
+          split.tally.cancel();
+          split = undefined;
+          if (cut < whole.length) yield* piece(whole.subarray(cut));
+          continue;
+        }
+        yield* piece(whole);
+      }
+      if (skipping && split !== undefined) {
+        const taken = base === split.size && (await split.tally.finish(row + 1));
+        if (!taken) {
+          split.tally.cancel();
+          for await (const raw of pieces(path, readSize, split.at)) yield* piece(raw);
+        }
+        split = undefined;
+      }
+    } finally {
+      split?.tally.cancel();
+    }
     const tail = await decode(undefined);
     if (tail !== '') pending += first && tail.charCodeAt(0) === 0xfeff ? tail.slice(1) : tail;
     if (pending !== '') {
@@ -713,6 +807,6 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
   } catch (e) {
     throw openFailure(e, file) ?? e;
   } finally {
-    stream.destroy();
+    await stream.return(undefined);
   }
 }

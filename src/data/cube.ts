@@ -37,8 +37,9 @@ import { kindMismatch, sniffKind } from './kind.js';
 import { isSuppressedMarker, isTitleRow, looksLikeDataRow, markerSet, MAX_NOTE_ROWS, oneRowHeader, quoteRow, secondHeaderRow, splitFootnote, twoRowHeader } from './table.js';
 import type { Header } from './table.js';
 import type { TableEnd } from './types.js';
-import { BLANK_ANSWER, byteLines, codeOfText, codeWrong, dimText, NA_ANSWER } from './tally.js';
-import type { TallyPlan } from './tally.js';
+import { BLANK_ANSWER, byteLines, codeOfText, codeWrong, dimText, TallyStore } from './tally.js';
+import type { RangeTally, TallyPlan } from './tally.js';
+import type { SplitTally } from './rows.js';
 
 /** How many row problems are gathered before reading stops. */
 export const MAX_PROBLEMS = 25;
@@ -46,6 +47,65 @@ export const MAX_PROBLEMS = 25;
 export interface ReadCubeOptions {
   /** Bytes per read (for tests that force chunk boundaries). */
   chunkSize?: number;
+  /**
+   * Respondent CSV files of this many bytes or more are read in two halves at once, the second by a worker thread
+   * (PARALLEL_FROM by default; Infinity reads every file in one).
+   */
+  parallelFrom?: number;
+  /** Told whether the second half's tally was taken from its worker (for tests). */
+  onSplit?: (taken: boolean) => void;
+}
+
+/**
+ * The size from which a respondent CSV file is read in two halves at once: none, for now. On the shared 2-core
+ * machine the second core is taken during the data phase (the chart worker loads vega then) and a reading worker made
+ * the read slower there (1M rows: 1.0-1.4 s against 0.7-0.9 s in one, load average 8); the option is kept for tests
+ * and for measuring (bench/measure.mjs read <file> parallel).
+ */
+export const PARALLEL_FROM = Number.POSITIVE_INFINITY;
+
+/**
+ * A range of a respondent file tallied by a worker thread (read-worker.js, beside this module in dist/). `add` puts
+ * a taken range's tally into the consumer's; a worker that fails, exits or posts an untaken range leaves the range to
+ * the reader. The worker is stopped (terminate) on cancel and once its answer is in, so none outlives the read.
+ */
+function rangeWorker(
+  job: import('./tally.js').RangeJob,
+  add: (tally: Extract<RangeTally, { taken: true }>, firstRow: number) => void,
+  onSplit?: (taken: boolean) => void,
+): SplitTally {
+  let worker: import('node:worker_threads').Worker | undefined;
+  let stopped = false;
+  const answer = import('node:worker_threads').then(
+    ({ Worker }) =>
+      new Promise<RangeTally>((resolve) => {
+        if (stopped) return resolve({ taken: false, why: 'stopped' });
+        try {
+          worker = new Worker(new URL('./read-worker.js', import.meta.url), { workerData: job });
+        } catch (e) {
+          return resolve({ taken: false, why: String(e) });
+        }
+        worker.once('message', (m: RangeTally) => resolve(m));
+        worker.once('error', (e) => resolve({ taken: false, why: String(e) }));
+        worker.once('exit', () => resolve({ taken: false, why: 'the worker stopped' }));
+      }),
+    (e: unknown) => ({ taken: false as const, why: String(e) }),
+  );
+  const cancel = (): void => {
+    stopped = true;
+    void worker?.terminate();
+  };
+  return {
+    async finish(firstRow) {
+      const tally = await answer;
+      cancel();
+      onSplit?.(tally.taken);
+      if (!tally.taken) return false;
+      add(tally, firstRow);
+      return true;
+    },
+    cancel,
+  };
 }
 
 /** A source, optionally naming the header row (1-based); by default the header is the first non-empty row. */
@@ -323,7 +383,7 @@ export async function readCube(source: CubeSource, needed: string[], displayPath
     const cube =
       source.shape === 'summary'
         ? await summaryCube(source, needed, body, header.row, names, column, where, style, markers)
-        : await respondentsCube(source, needed, body, header.row, names, column, where, select);
+        : await respondentsCube(source, needed, body, header.row, names, column, where, select, options.parallelFrom ?? PARALLEL_FROM, options.onSplit);
     // The body has been read to its end, so the CSV reader has handed every byte to the hash.
     const sha256 = csvHash !== undefined ? csvHash.digest('hex') : await shaPromise!;
     const labels = Object.keys(shape.labels).length > 0 ? { labels: shape.labels } : {};
@@ -622,15 +682,10 @@ async function summaryCube(
   };
 }
 
-/** One combination of dimension values: its values, a cell per question, and its answer-code counts indexed by code. */
+/** One combination of dimension values: its values and its number in the TallyStore. */
 interface Leaf {
   values: string[];
-  cells: Array<Cell | undefined>;
-  tallies: Array<number[] | undefined>;
-}
-
-function newLeaf(values: string[], questions: number): Leaf {
-  return { values, cells: new Array<Cell | undefined>(questions).fill(undefined), tallies: new Array<number[] | undefined>(questions).fill(undefined) };
+  g: number;
 }
 
 async function respondentsCube(
@@ -642,6 +697,8 @@ async function respondentsCube(
   column: ColumnOf,
   where: Where,
   select: ColumnSelection,
+  parallelFrom: number | undefined,
+  onSplit?: (taken: boolean) => void,
 ): Promise<CubeBody> {
   const questions = source.questions ?? [];
   if (questions.length === 0) {
@@ -673,9 +730,9 @@ async function respondentsCube(
   // A tree of Maps, one level per dimension, ending in a cell per question (created on the first answer): each row
   // costs one lookup per dimension and no new key string. Code counts are kept in arrays and written out at the end.
   const root = new Map<string, unknown>();
-  const cells: Cell[] = [];
-  const tallies: number[][] = [];
+  const leaves: Leaf[] = [];
   const nq = qIdx.length;
+  const store = new TallyStore(maxCode, nq);
   const nd = dimIdx.length;
   const codeTexts = Array.from({ length: maxCode + 1 }, (_, c) => String(c));
   const isAgree = codeTexts.map((_, c) => agreeCodes.has(c));
@@ -693,7 +750,8 @@ async function respondentsCube(
     if (nd === 0) {
       let leaf = root.get('') as Leaf | undefined;
       if (leaf === undefined) {
-        leaf = newLeaf([], nq);
+        leaf = { values: [], g: store.newGroup() };
+        leaves.push(leaf);
         root.set('', leaf);
       }
       return leaf;
@@ -703,7 +761,8 @@ async function respondentsCube(
       if (j === nd - 1) {
         let leaf = node.get(v) as Leaf | undefined;
         if (leaf === undefined) {
-          leaf = newLeaf(dimValues.slice(), nq);
+          leaf = { values: dimValues.slice(), g: store.newGroup() };
+          leaves.push(leaf);
           node.set(v, leaf);
         }
         return leaf;
@@ -730,38 +789,9 @@ async function respondentsCube(
     return code;
   };
 
-  // Past the codes, each tally holds the not-applicable and blank answers and the order in which its cell got its first
-  // valid answer (plus one; 0 for none yet): cells are listed in that order, as when only valid answers made cells.
-  const naSlot = maxCode + 1;
-  const blankSlot = maxCode + 2;
-  const seqSlot = maxCode + 3;
-  let validSeen = 0;
-  /** Count one answer of question k in a group (a code, NA_ANSWER or BLANK_ANSWER), making the cell on its first. */
-  const count = (group: Leaf, k: number, code: number, row: number): void => {
-    let t = group.tallies[k];
-    if (t === undefined) {
-      const dims: Record<string, string> = {};
-      dimensionsWanted.forEach((d, j) => {
-        dims[d] = group.values[j]!;
-      });
-      dims[qColName] = questions[k]!;
-      const cell: Cell = { dims, n: 0, agree: 0, approximate: false, firstRow: row, codes: {} };
-      group.cells[k] = cell;
-      t = new Array<number>(maxCode + 4).fill(0);
-      group.tallies[k] = t;
-      cells.push(cell);
-      tallies.push(t);
-    }
-    // Only the code is counted here; n and agree are summed from the code counts at the end.
-    if (code >= 0) {
-      t[code]! += 1;
-      if (t[seqSlot] === 0) {
-        t[seqSlot] = ++validSeen;
-        (group.cells[k] as Cell).firstRow = row;
-      }
-    } else t[code === NA_ANSWER ? naSlot : blankSlot]! += 1;
-  };
-
+  // Past the codes, each tally (TallyStore) holds the not-applicable and blank answers, the order in which its cell got
+  // its first valid answer (1 and up; 0 for none yet) and that answer's row: cells are listed in that order, as when
+  // only valid answers made cells.
   // One batch at a time in its own function, which the engine compiles as a whole rather than mid-loop.
   const tallyBatch = (batch: SheetRow[]): void => {
     for (const r of batch) {
@@ -777,7 +807,7 @@ async function respondentsCube(
           for (let j = 0; j < nd; j++) dimValues[j] = dimText(rv[dimIdx[j]!] ?? '');
           group = leafOf();
         }
-        count(group, k, code, r.row);
+        store.count(group.g, k, code, r.row);
       }
     }
   };
@@ -785,14 +815,17 @@ async function respondentsCube(
   // Plain lines straight from a CSV file's bytes (see ByteLineSink and tally.ts), tallied as tallyBatch would tally
   // their rows.
   const plan: TallyPlan = { columns: names.length, qIdx, dimIdx, digitDoes: [...digitDoes] };
-  const byRow = byteLines<Leaf>(plan, {
-    group: (values) => {
-      for (let j = 0; j < nd; j++) dimValues[j] = values[j]!;
-      return leafOf();
+  const byRow = byteLines(
+    plan,
+    {
+      group: (values) => {
+        for (let j = 0; j < nd; j++) dimValues[j] = values[j]!;
+        return leafOf().g;
+      },
+      code: codeOf,
     },
-    count,
-    code: codeOf,
-  });
+    store,
+  );
   const lines = (b: Uint8Array, from: number, end: number, crlf: boolean, d: number, firstRow: number): { at: number; rows: number } => {
     const before = byRow.dataRows;
     const taken = byRow.lines(b, from, end, crlf, d, firstRow);
@@ -802,27 +835,68 @@ async function respondentsCube(
 
   select.keep = keep;
   // Taken only when each answer column is read once (a question listed twice is tallied row by row).
-  if (qSet.size === nq) select.lines = { lines };
+  if (qSet.size === nq) {
+    select.lines = { lines };
+    if (parallelFrom !== undefined && Number.isFinite(parallelFrom)) {
+      select.lines.splitFrom = parallelFrom;
+      select.lines.split = (path, start, end, crlf, d) =>
+        rangeWorker({ path, start, end, crlf, d, plan, maxCode, notApplicable: [...na] }, (tally, firstRow) => {
+          // The range's tallies added to these, as if its lines had been read here after those before it: its cells
+          // that got a first valid answer in the range get it in the range's order, after every one before.
+          rows += tally.rows;
+          const { stride, seq } = store;
+          const theirs = (g: number, k: number): number => (g * nq + k) * stride;
+          const order: Array<{ g: number; k: number }> = [];
+          for (let g = 0; g < tally.values.length; g++) for (let k = 0; k < nq; k++) order.push({ g, k });
+          const rank = (o: { g: number; k: number }): number => tally.data[theirs(o.g, o.k) + seq] || 2 ** 31;
+          order.sort((a, b) => rank(a) - rank(b));
+          const groups = tally.values.map((values) => {
+            for (let j = 0; j < nd; j++) dimValues[j] = values[j]!;
+            return leafOf().g;
+          });
+          for (const { g, k } of order) {
+            const from = theirs(g, k);
+            const to = store.at(groups[g]!, k);
+            const data = store.data;
+            for (let c = 0; c <= store.blank; c++) data[to + c]! += tally.data[from + c]!;
+            if (data[to + seq] === 0 && tally.data[from + seq]! > 0) {
+              data[to + seq] = ++store.validSeen;
+              data[to + store.firstRow] = firstRow + tally.data[from + store.firstRow]!;
+            }
+          }
+        }, onSplit);
+    }
+  }
   for await (const batch of body) tallyBatch(batch);
   // Cells with valid answers, in the order each got its first; a group with only blank or not-applicable answers to a
   // question has no cell for it, as no one answered it.
   const kept: Array<[number, Cell]> = [];
-  cells.forEach((cell, i) => {
-    const t = tallies[i]!;
-    const codes: Record<string, number> = {};
-    for (let c = 0; c <= maxCode; c++) {
-      const k = t[c]!;
-      if (k > 0) {
-        codes[codeTexts[c]!] = k;
-        cell.n += k;
-        if (isAgree[c] === true) cell.agree += k;
+  const data = store.data;
+  for (const leaf of leaves) {
+    for (let k = 0; k < nq; k++) {
+      const at = store.at(leaf.g, k);
+      if (data[at + store.seq] === 0) continue;
+      const dims: Record<string, string> = {};
+      dimensionsWanted.forEach((d, j) => {
+        dims[d] = leaf.values[j]!;
+      });
+      dims[qColName] = questions[k]!;
+      const cell: Cell = { dims, n: 0, agree: 0, approximate: false, firstRow: data[at + store.firstRow]!, codes: {} };
+      const codes: Record<string, number> = {};
+      for (let c = 0; c <= maxCode; c++) {
+        const x = data[at + c]!;
+        if (x > 0) {
+          codes[codeTexts[c]!] = x;
+          cell.n += x;
+          if (isAgree[c] === true) cell.agree += x;
+        }
       }
+      cell.codes = codes;
+      if (data[at + store.na]! > 0) cell.notApplicable = data[at + store.na]!;
+      if (data[at + store.blank]! > 0) cell.blank = data[at + store.blank]!;
+      kept.push([data[at + store.seq]!, cell]);
     }
-    cell.codes = codes;
-    if (t[naSlot]! > 0) cell.notApplicable = t[naSlot]!;
-    if (t[blankSlot]! > 0) cell.blank = t[blankSlot]!;
-    if (t[seqSlot]! > 0) kept.push([t[seqSlot]!, cell]);
-  });
+  }
   kept.sort((a, b) => a[0] - b[0]);
   problems.throwIfAny();
   if (rows === 0) throw noDataRows(where, headerRow);

@@ -39,6 +39,24 @@ export interface ColumnSelection {
  */
 export interface ByteLineSink {
   lines(b: Uint8Array, from: number, end: number, crlf: boolean, d: number, firstRow: number): { at: number; rows: number };
+  /**
+   * Set by a consumer that can tally a range of the file elsewhere (a worker thread): the bytes [start, end) of the
+   * file at `path`, where `start` is a line's start (that of a record, if the reader gets there with nothing carried
+   * over). Offered for files of `splitFrom` bytes or more.
+   */
+  split?: (path: string, start: number, end: number, crlf: boolean, d: number) => SplitTally;
+  splitFrom?: number;
+}
+
+/** A range of a file being tallied elsewhere (see ByteLineSink.split). */
+export interface SplitTally {
+  /**
+   * The reader has read every line before the range's start, the first of the range being row `firstRow`: true once
+   * the range's tally has been added to the consumer's, false when the reader must read the range itself.
+   */
+  finish(firstRow: number): Promise<boolean>;
+  /** Stop the work; nothing of it is added. Safe to call more than once, and after finish. */
+  cancel(): void;
 }
 
 export interface ReadOptions {

@@ -61,6 +61,59 @@ export function codeOfText(raw0: string, maxCode: number, isNa: (c: number) => b
   return code;
 }
 
+/**
+ * Answer counts of every (group, question) in one typed array: per pair, the counts of codes 0..maxCode, then not
+ * applicable, blank, the order in which the pair got its first valid answer (1 and up; 0 for none yet) and that
+ * answer's row. Groups are numbered as made.
+ */
+export class TallyStore {
+  readonly stride: number;
+  readonly na: number;
+  readonly blank: number;
+  readonly seq: number;
+  readonly firstRow: number;
+  data: Int32Array;
+  groups = 0;
+  validSeen = 0;
+  constructor(
+    readonly maxCode: number,
+    readonly questions: number,
+  ) {
+    this.stride = maxCode + 5;
+    this.na = maxCode + 1;
+    this.blank = maxCode + 2;
+    this.seq = maxCode + 3;
+    this.firstRow = maxCode + 4;
+    this.data = new Int32Array(this.stride * questions * 64);
+  }
+  /** A new group's number. */
+  newGroup(): number {
+    const need = (this.groups + 1) * this.questions * this.stride;
+    if (need > this.data.length) {
+      const bigger = new Int32Array(Math.max(need, this.data.length * 2));
+      bigger.set(this.data);
+      this.data = bigger;
+    }
+    return this.groups++;
+  }
+  /** Where the counts of question k of group g begin. */
+  at(g: number, k: number): number {
+    return (g * this.questions + k) * this.stride;
+  }
+  /** Count an answer of question k in group g: a code, NA_ANSWER or BLANK_ANSWER. */
+  count(g: number, k: number, code: number, row: number): void {
+    const at = (g * this.questions + k) * this.stride;
+    const data = this.data;
+    if (code >= 0) {
+      data[at + code]! += 1;
+      if (data[at + this.seq] === 0) {
+        data[at + this.seq] = ++this.validSeen;
+        data[at + this.firstRow] = row;
+      }
+    } else data[at + (code === NA_ANSWER ? this.na : this.blank)]! += 1;
+  }
+}
+
 /** The columns a tally reads, and what a single-digit answer does. Plain data, so that it can be posted to a worker. */
 export interface TallyPlan {
   /** Columns in the header. */
@@ -73,12 +126,10 @@ export interface TallyPlan {
   digitDoes: number[];
 }
 
-/** Where the tally goes: groups made from their values' text, answers counted into them. */
-export interface TallyTarget<G> {
+/** Where the tally goes: groups made from their values' text (numbered in a TallyStore), answers counted there. */
+export interface TallyTarget {
   /** The group of these values (trimmed with dimText), made on first sight. */
-  group(values: string[]): G;
-  /** Count answer k of a line: a code, NA_ANSWER or BLANK_ANSWER. */
-  count(group: G, k: number, code: number, row: number): void;
+  group(values: string[]): number;
   /** The code of an answer's text other than one digit or blank (see codeOfText); -1 when it is a problem. */
   code(text: string, row: number, k: number): number;
 }
@@ -93,7 +144,7 @@ export interface ByteLines {
   dataRows: number;
 }
 
-export function byteLines<G>(plan: TallyPlan, target: TallyTarget<G>): ByteLines {
+export function byteLines(plan: TallyPlan, target: TallyTarget, store: TallyStore): ByteLines {
   const { qIdx, dimIdx } = plan;
   const nq = qIdx.length;
   const nd = dimIdx.length;
@@ -117,7 +168,7 @@ export function byteLines<G>(plan: TallyPlan, target: TallyTarget<G>): ByteLines
   const slots = new Int32Array(SLOTS);
   const slotHash = new Int32Array(BYTE_GROUP_LIMIT);
   const slotKey: Uint8Array[] = [];
-  const slotGroup: G[] = [];
+  const slotGroup: number[] = [];
   const dimValues: string[] = new Array<string>(nd).fill('');
   const text = (b: Uint8Array, s: number, e: number): string => Buffer.from(b.buffer, b.byteOffset + s, e - s).toString('utf8');
   const sameKey = (key: Uint8Array, b: Uint8Array): boolean => {
@@ -129,7 +180,7 @@ export function byteLines<G>(plan: TallyPlan, target: TallyTarget<G>): ByteLines
     }
     return at === key.length;
   };
-  const groupOfBytes = (b: Uint8Array): G => {
+  const groupOfBytes = (b: Uint8Array): number => {
     // The line's values, each hashed as it was read (dHash), combined in order.
     let h = 0;
     let len = 0;
@@ -260,7 +311,7 @@ export function byteLines<G>(plan: TallyPlan, target: TallyTarget<G>): ByteLines
         const lf = b[stop] === 13 ? stop + 1 : stop;
         if (!blank) {
           dataRows += 1;
-          let group: G | undefined;
+          let group = -1;
           if (col < lastDim) {
             for (let j = 0; j < nd; j++) {
               if (dimIdx[j]! > col) {
@@ -272,8 +323,8 @@ export function byteLines<G>(plan: TallyPlan, target: TallyTarget<G>): ByteLines
           }
           for (let k = 0; k < nq; k++) {
             if (qIdx[k]! > col) {
-              group ??= groupOfBytes(b);
-              target.count(group, k, BLANK_ANSWER, row);
+              if (group < 0) group = groupOfBytes(b);
+              store.count(group, k, BLANK_ANSWER, row);
               continue;
             }
             const qs = qFrom[k]!;
@@ -284,8 +335,8 @@ export function byteLines<G>(plan: TallyPlan, target: TallyTarget<G>): ByteLines
               code = c - 48;
               const does = digitDoes[code]!;
               if (does === 0) {
-                group ??= groupOfBytes(b);
-                target.count(group, k, NA_ANSWER, row);
+                if (group < 0) group = groupOfBytes(b);
+                store.count(group, k, NA_ANSWER, row);
                 continue;
               }
               if (does < 0) {
@@ -297,8 +348,8 @@ export function byteLines<G>(plan: TallyPlan, target: TallyTarget<G>): ByteLines
               code = target.code(text(b, qs, qe), row, k);
               if (code === -1) continue;
             }
-            group ??= groupOfBytes(b);
-            target.count(group, k, code, row);
+            if (group < 0) group = groupOfBytes(b);
+            store.count(group, k, code, row);
           }
         }
         row += 1;
@@ -308,4 +359,102 @@ export function byteLines<G>(plan: TallyPlan, target: TallyTarget<G>): ByteLines
     },
   };
   return sink;
+}
+
+/** What a reading worker is given (read-worker.ts): the file's bytes [start, end), which begin at a line's start. */
+export interface RangeJob {
+  path: string;
+  start: number;
+  end: number;
+  crlf: boolean;
+  /** The delimiter's byte. */
+  d: number;
+  plan: TallyPlan;
+  maxCode: number;
+  notApplicable: number[];
+}
+
+/**
+ * A range's tally: its groups' values (as dimText makes them), in the order of their numbers, and their counts laid
+ * out as in a TallyStore of the same maxCode and questions, rows counted from the range's first line (0).
+ * `rows`: lines with data.
+ */
+export type RangeTally = { taken: true; rows: number; values: string[][]; data: Int32Array } | { taken: false; why: string };
+
+/** Longest line a range carries between reads before it leaves the file to the main reader. */
+const RANGE_LINE_LIMIT = 1 << 20;
+
+/**
+ * Tally the lines of a range of a file with byteLines, or say why not: the range is taken only when every line is one
+ * byteLines takes and every answer is a code, not applicable or blank (anything else, such as a problem to report
+ * with its row, is left to the main reader, which reads the range itself).
+ */
+export async function tallyRange(job: RangeJob, readSize = 1 << 18): Promise<RangeTally> {
+  const { open } = await import('node:fs/promises');
+  const { isUtf8 } = await import('node:buffer');
+  const store = new TallyStore(job.maxCode, job.plan.qIdx.length);
+  const na = new Set(job.notApplicable);
+  const isNa = (c: number) => na.has(c);
+  const values: string[][] = [];
+  let problem = '';
+  const sink = byteLines(
+    job.plan,
+    {
+      group: (v) => {
+        values.push(v.slice());
+        return store.newGroup();
+      },
+      code: (text) => {
+        const c = codeOfText(text, job.maxCode, isNa);
+        if (c === -1) problem = 'an answer that is not a code';
+        return c;
+      },
+    },
+    store,
+  );
+  const file = await open(job.path, 'r');
+  try {
+    let at = job.start;
+    let row = 0;
+    // One buffer for the whole range: the unfinished line is moved to its front, the next read goes after it.
+    let buf = Buffer.allocUnsafe(readSize);
+    let carried = 0;
+    while (at < job.end) {
+      if (carried === buf.length) {
+        if (carried >= RANGE_LINE_LIMIT) return { taken: false, why: 'a very long line' };
+        const bigger = Buffer.allocUnsafe(buf.length * 2);
+        buf.copy(bigger, 0, 0, carried);
+        buf = bigger;
+      }
+      const { bytesRead } = await file.read(buf, carried, Math.min(buf.length - carried, job.end - at), at);
+      if (bytesRead === 0) return { taken: false, why: 'the file is shorter than it was' };
+      at += bytesRead;
+      const b = buf.subarray(0, carried + bytesRead);
+      if (b.indexOf(0, carried) >= 0) return { taken: false, why: 'a NUL byte' };
+      const last = b.lastIndexOf(10);
+      if (last >= 0) {
+        if (!isUtf8(b.subarray(0, last + 1))) return { taken: false, why: 'bytes that are not UTF-8' };
+        const taken = sink.lines(b, 0, last + 1, job.crlf, job.d, row);
+        row += taken.rows;
+        if (problem !== '') return { taken: false, why: problem };
+        if (taken.at <= last) return { taken: false, why: 'a line for the other paths' };
+      }
+      carried = b.length - (last + 1);
+      b.copy(buf, 0, last + 1, b.length);
+    }
+    const carry = buf.subarray(0, carried);
+    if (carry.length > 0) {
+      // The last line, with no line break after it: read as if it had one (as the main reader reads it), unless it
+      // holds a carriage return.
+      if (carry.indexOf(13) >= 0) return { taken: false, why: 'a carriage return in the last line' };
+      const b = Buffer.concat([carry, Buffer.from(job.crlf ? '\r\n' : '\n')]);
+      if (!isUtf8(b)) return { taken: false, why: 'bytes that are not UTF-8' };
+      const taken = sink.lines(b, 0, b.length, job.crlf, job.d, row);
+      if (problem !== '') return { taken: false, why: problem };
+      if (taken.at < b.length) return { taken: false, why: 'a line for the other paths' };
+    }
+    return { taken: true, rows: sink.dataRows, values, data: store.data.slice(0, store.groups * store.questions * store.stride) };
+  } finally {
+    await file.close();
+  }
 }
