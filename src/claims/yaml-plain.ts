@@ -41,6 +41,8 @@ const notPlain = (): never => {
 
 /** YAML 1.2 core schema resolution of a plain scalar (the tests and functions of yaml 2's core schema tags). */
 function resolvePlain(s: string): unknown {
+  // Only these first characters can start a null, a boolean or a number; anything else is text.
+  if (s !== '' && !/^[-+.0-9~nNtTfF]/.test(s)) return s;
   if (/^(?:~|[Nn]ull|NULL)?$/.test(s)) return null;
   if (/^(?:[Tt]rue|TRUE|[Ff]alse|FALSE)$/.test(s)) return s[0] === 't' || s[0] === 'T';
   if (/^0o[0-7]+$/.test(s)) return parseInt(s.substring(2), 8);
@@ -433,22 +435,25 @@ function keyString(v: unknown): string {
 /** A quoted scalar starting at `from` on one line: '' doubles a single quote; a backslash is left to yaml. */
 function quoted(text: string, from: number): { value: string; end: number } {
   const q = text[from]!;
+  if (q === '"') {
+    const close = text.indexOf('"', from + 1);
+    if (close < 0) return notPlain();
+    const value = text.slice(from + 1, close);
+    if (value.includes('\\')) return notPlain();
+    return { value, end: close + 1 };
+  }
   let value = '';
   let i = from + 1;
   for (;;) {
-    const c = text[i];
-    if (c === undefined) return notPlain();
-    if (q === '"' && c === '\\') return notPlain();
-    if (c === q) {
-      if (q === "'" && text[i + 1] === "'") {
-        value += "'";
-        i += 2;
-        continue;
-      }
-      return { value, end: i + 1 };
+    const close = text.indexOf("'", i);
+    if (close < 0) return notPlain();
+    value += text.slice(i, close);
+    if (text[close + 1] === "'") {
+      value += "'";
+      i = close + 2;
+      continue;
     }
-    value += c;
-    i++;
+    return { value, end: close + 1 };
   }
 }
 
