@@ -8,6 +8,7 @@ import { createRequire } from 'node:module';
 import { readFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import * as fontkit from 'fontkit';
+import { QuickShaper, withoutKerning } from './shaping.js';
 
 export type Face = 'regular' | 'bold' | 'italic';
 
@@ -76,6 +77,78 @@ export function fontFor(face: Face): fontkit.Font {
   return font;
 }
 
+const shaperCache = new Map<Face, QuickShaper>();
+
+/** The quick shaper of a face (see shaping.ts): fontkit's glyphs and positions for plain words, without its shaper. */
+export function quickShaper(face: Face): QuickShaper {
+  let shaper = shaperCache.get(face);
+  if (shaper === undefined) {
+    shaper = new QuickShaper(fontFor(face), fontBytes(face));
+    shaperCache.set(face, shaper);
+  }
+  return shaper;
+}
+
+/** Advance of `word` in font units, as fontkit's layout gives it (the sum of its glyphs' advances). */
+function wordUnits(face: Face, word: string): number {
+  const run = quickShaper(face).layout(word);
+  if (run === undefined) return fontFor(face).layout(word).advanceWidth;
+  let units = 0;
+  for (const p of run.positions) units += p.xAdvance;
+  return units;
+}
+
+/** The parts of pdfkit's embedded font that quick shaping replaces. */
+interface EmbeddedFont {
+  font: unknown;
+  scale: number;
+  layoutRun(text: string, features?: unknown): { glyphs: unknown[]; positions: unknown[]; advanceWidth: number };
+}
+
+/**
+ * Let pdfkit shape plain words with the quick shaper: each face's embedded font, when the document first uses it, gets
+ * a layoutRun that returns what pdfkit's own (fontkit's layout, positions scaled to 1000 units per em, each with its
+ * glyph's advance) would, for words the quick shaper knows, with kerning or with kerning switched off (SPACED_CAPS);
+ * other words, and text set with other OpenType features, go to pdfkit's own.
+ */
+export function shapeQuickly(doc: PDFKit.Document): void {
+  const d = doc as unknown as { font: (...args: unknown[]) => unknown; _font: EmbeddedFont | null };
+  const font = d.font.bind(doc);
+  const seen = new WeakSet<object>();
+  d.font = (...args: unknown[]): unknown => {
+    const result = font(...args);
+    const embedded = d._font;
+    if (embedded && !seen.has(embedded)) {
+      seen.add(embedded);
+      const face = (['regular', 'bold', 'italic'] as const).find((f) => fontCache.get(f) === embedded.font);
+      if (face !== undefined && quickShaper(face).supported) {
+        const shaper = quickShaper(face);
+        const own = embedded.layoutRun.bind(embedded);
+        embedded.layoutRun = (text: string, features?: unknown) => {
+          const run =
+            features === undefined ? shaper.layout(text) : withoutKerning(features) ? shaper.layout(text, false) : undefined;
+          if (run === undefined) return own(text, features);
+          const scale = embedded.scale;
+          let advanceWidth = 0;
+          const positions = run.positions.map((p, i) => {
+            const q = {
+              xAdvance: p.xAdvance * scale,
+              yAdvance: p.yAdvance * scale,
+              xOffset: p.xOffset * scale,
+              yOffset: p.yOffset * scale,
+              advanceWidth: run.glyphs[i]!.advanceWidth * scale,
+            };
+            advanceWidth += q.xAdvance;
+            return q;
+          });
+          return { glyphs: run.glyphs, positions, advanceWidth };
+        };
+      }
+    }
+    return result;
+  };
+}
+
 /** Widths remembered per face and word before a table is emptied. */
 const WORDS_KEPT = 50_000;
 const wordWidths: Record<Face, Map<string, number>> = { regular: new Map(), bold: new Map(), italic: new Map() };
@@ -99,7 +172,7 @@ export function textWidth(text: string, size: number, face: Face = 'regular'): n
     const word = text.slice(from, i + 1);
     let w = widths.get(word);
     if (w === undefined) {
-      w = font.layout(word).advanceWidth;
+      w = wordUnits(face, word);
       if (widths.size >= WORDS_KEPT) widths.clear();
       widths.set(word, w);
     }

@@ -18,7 +18,7 @@
 import { createHash } from 'node:crypto';
 import PDFDocument from 'pdfkit';
 import type { ChartData, PackModel } from './model.js';
-import { FONT_NAME, fontFor } from './fonts.js';
+import { FONT_NAME, fontFor, shapeQuickly } from './fonts.js';
 import { chartSvg, drawsOnThread } from './charts.js';
 import { Layout } from './pdf/layout.js';
 import { drawCover, drawSummary, drawChanges } from './pdf/front-matter.js';
@@ -118,6 +118,7 @@ export async function renderPdf(model: PackModel, options: RenderOptions = {}): 
     },
   });
   for (const face of ['regular', 'bold', 'italic'] as const) doc.registerFont(FONT_NAME[face], fontFor(face));
+  shapeQuickly(doc);
   let lastPage: (() => void) | undefined;
   doc.on('pageAdded', () => {
     lastPage?.();

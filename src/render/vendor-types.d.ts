@@ -3,15 +3,31 @@
  * Only the members used in src/render are declared.
  */
 declare module 'fontkit' {
+  export interface Glyph {
+    id: number;
+    advanceWidth: number;
+    codePoints: number[];
+  }
+  export interface GlyphPosition {
+    xAdvance: number;
+    yAdvance: number;
+    xOffset: number;
+    yOffset: number;
+  }
   export interface GlyphRun {
+    glyphs: Glyph[];
+    positions: GlyphPosition[];
     advanceWidth: number;
   }
   export interface Font {
     unitsPerEm: number;
     ascent: number;
     descent: number;
-    layout(text: string): GlyphRun;
+    postscriptName: string;
+    layout(text: string, features?: unknown): GlyphRun;
     hasGlyphForCodePoint(codePoint: number): boolean;
+    glyphForCodePoint(codePoint: number): Glyph;
+    getGlyph(id: number, codePoints?: number[]): Glyph;
   }
   export function create(buffer: Buffer | Uint8Array): Font;
 }
