@@ -12,7 +12,8 @@ export function impossibleDate(text: string): string | undefined {
   if (month < 1 || month > 12) return `there is no month ${month}`;
   const leap = (year % 4 === 0 && year % 100 !== 0) || year % 400 === 0;
   const days = [31, leap ? 29 : 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31][month - 1] as number;
+  if (day >= 1 && day <= days) return undefined;
+  // The month's name only for the message: a date formatter is slow to make, and most dates are real.
   const name = new Date(Date.UTC(2000, month - 1, 1)).toLocaleDateString('en-GB', { month: 'long', timeZone: 'UTC' });
-  if (day < 1 || day > days) return `${name} ${year} has ${days} days`;
-  return undefined;
+  return `${name} ${year} has ${days} days`;
 }
