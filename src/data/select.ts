@@ -59,14 +59,20 @@ function columnIndex(cells: readonly Cell[], col: string): Map<string, number[]>
   }
   let index = byCol.get(col);
   if (index === undefined) {
-    index = new Map();
+    // By the values as written, then each distinct value put in NFC once (values written in two forms joined).
+    const written = new Map<string, number[]>();
     for (let i = 0; i < cells.length; i++) {
       const have = (cells[i] as Cell).dims[col];
       if (have === undefined) continue;
-      const key = nfc(have);
-      const list = index.get(key);
-      if (list === undefined) index.set(key, [i]);
+      const list = written.get(have);
+      if (list === undefined) written.set(have, [i]);
       else list.push(i);
+    }
+    index = new Map();
+    for (const [have, list] of written) {
+      const key = nfc(have);
+      const before = index.get(key);
+      index.set(key, before === undefined ? list : [...before, ...list].sort((x, y) => x - y));
     }
     byCol.set(col, index);
   }
@@ -80,9 +86,16 @@ function columnIndex(cells: readonly Cell[], col: string): Map<string, number[]>
  */
 export function matching(cube: Cube, filter: Filter): Cell[] {
   const cells = cube.cells;
-  let best: number[] | undefined;
-  for (const { col, wanted, not } of compile(filter)) {
-    if (not) continue;
+  // The index lists (ascending) of the filter's columns that name values: the cells in all of them, the shortest
+  // first, then the columns that leave values out checked cell by cell.
+  const lists: number[][] = [];
+  const nots: Compiled = [];
+  for (const entry of compile(filter)) {
+    const { col, wanted, not } = entry;
+    if (not) {
+      nots.push(entry);
+      continue;
+    }
     const index = columnIndex(cells, col);
     let found: number[];
     if (wanted.size === 1) found = index.get(wanted.values().next().value as string) ?? [];
@@ -91,14 +104,32 @@ export function matching(cube: Cube, filter: Filter): Cell[] {
       for (const w of wanted) found.push(...(index.get(w) ?? []));
       found.sort((x, y) => x - y);
     }
-    if (best === undefined || found.length < best.length) best = found;
+    if (found.length === 0) return [];
+    lists.push(found);
+  }
+  if (lists.length === 0) return cells.filter((c) => matches(c, filter));
+  lists.sort((x, y) => x.length - y.length);
+  let best = lists[0]!;
+  for (let l = 1; l < lists.length; l++) {
+    const other = lists[l]!;
+    const kept: number[] = [];
+    let j = 0;
+    for (const i of best) {
+      while (j < other.length && other[j]! < i) j++;
+      if (j === other.length) break;
+      if (other[j] === i) kept.push(i);
+    }
+    best = kept;
     if (best.length === 0) return [];
   }
-  if (best === undefined) return cells.filter((c) => matches(c, filter));
   const out: Cell[] = [];
-  for (const i of best) {
+  next: for (const i of best) {
     const c = cells[i] as Cell;
-    if (matches(c, filter)) out.push(c);
+    for (const { col, wanted } of nots) {
+      const have = c.dims[col];
+      if (have === undefined || wanted.has(nfc(have))) continue next;
+    }
+    out.push(c);
   }
   return out;
 }

@@ -81,6 +81,28 @@ describe('matching', () => {
       { numRuns: 200 },
     );
   });
+
+  it('finds a value written in two Unicode forms, and cells without a column, as a scan does', () => {
+    // "Gŵyr" composed (U+0175) and decomposed (w + U+0302): one value under NFC (Unicode Standard Annex #15).
+    const composed = 'G\u0175yr';
+    const decomposed = 'Gw\u0302yr';
+    const names = [composed, 'Hanes', decomposed, 'Hanes', composed, decomposed];
+    const cells = names.map((unit, i) => ({ dims: i === 3 ? { year: '2026' } : { unit, year: i % 2 === 0 ? '2025' : '2026' }, n: 10, agree: 5, approximate: false, firstRow: i + 2 }));
+    const small: Cube = { ...cube, dimensions: ['unit', 'year'], cells, values: { unit: ['Hanes', composed, decomposed], year: ['2025', '2026'] } };
+    const unit = fc.constantFrom(composed, decomposed, 'Hanes');
+    const filter = fc.oneof(
+      fc.record({ unit }),
+      fc.record({ unit, year: fc.constantFrom('2025', '2026') }),
+      fc.record({ unit: fc.array(unit, { minLength: 1, maxLength: 3 }) }),
+      fc.record({ year: fc.constantFrom('2025', '2026'), unit: fc.record({ not: unit }) }),
+    );
+    fc.assert(
+      fc.property(filter, (f) => {
+        expect(matching(small, f)).toEqual(small.cells.filter((c) => matches(c, f)));
+      }),
+    );
+    expect(matching(small, { unit: decomposed }).map((c) => c.firstRow)).toEqual([2, 4, 6, 7]);
+  });
 });
 
 describe('pool', () => {
