@@ -1,6 +1,7 @@
 /**
- * Layout.drawText draws a measured text from the lines kept when it was measured, without wrapping it again. The
- * check is pdfkit's own doc.text (pdfkit 0.20, the library that writes the pack): the same texts drawn both ways, in
+ * Layout.drawText draws a measured text from the lines kept when it was measured, without wrapping it again, and
+ * writes each line's glyph codes from those kept per word (writeLine, src/render/pdf/fragment.ts). The check is pdfkit's
+ * own doc.text (pdfkit 0.20, the library that writes the pack): the same texts drawn both ways, in
  * two documents set up alike, give the very same PDF bytes; and textHeight equals pdfkit's heightOfString.
  */
 import { describe, it, expect } from 'vitest';
@@ -14,6 +15,7 @@ const TEXTS = [
   'Two paragraphs:\nthe second starts on its own line,\n\nand a blank line sits between.',
   'Awordfarwiderthanthecolumnsoithastobebrokenbetweenletters-andthenthehyphenatedtail continues as usual.',
   'Naïve office figures: fi fl ff ffi AVA To Ty LT 1/2 – — ‘quoted’ “twice” 12.5%',
+  'Marks set on their letters: a\u0328 i\u0308 o\u0302, then plain words after them.',
   '',
 ];
 

@@ -6,6 +6,7 @@ import SVGtoPDF from 'svg-to-pdfkit';
 import { drawChart } from '../chart-pdf.js';
 import { chartDrawing } from '../chart-runtime.js';
 import { FONT_NAME, fontFor, type Face } from '../fonts.js';
+import { writeLine } from './fragment.js';
 import {
   COLOR, CONTENT_BOTTOM, CONTENT_WIDTH, CONTINUATION_HEIGHT, LINE_GAP, MARGIN, SPACED_CAPS, PARA_GAP, SIZE, SLACK, svgSize,
   type Block, type Doc, type Struct,
@@ -175,7 +176,7 @@ export class Layout {
       options.textWidth = line.textWidth;
       options.wordCount = line.wordCount;
       options.lineWidth = line.lineWidth;
-      internals._fragment(line.text, doc.x, doc.y, options);
+      if (!writeLine(doc, line.text, doc.x, doc.y)) internals._fragment(line.text, doc.x, doc.y, options);
       doc.y += step;
     }
     doc.x = x;

@@ -1,0 +1,143 @@
+/**
+ * One wrapped line of text written into the page as pdfkit's _fragment writes a left-aligned line with no word or
+ * character spacing, decoration or link: "q", the flip of the y axis, "BT", the text matrix, the font, one TJ array
+ * of glyph codes broken after each kerned glyph, "ET", "Q" — with the same numbers and in the same order, so the bytes
+ * are the same. What costs in pdfkit is turning each line back into glyphs: it lays the line out again word by word,
+ * joins the words' glyph arrays, and writes four hex digits per glyph. Here each word's glyph codes and kerning are
+ * worked out the first time the word is written in a font (adding its glyphs to the font's subset in the order pdfkit
+ * would) and reused for every line after. A word with glyphs moved off their baseline (marks) makes the line go to
+ * pdfkit's own _fragment.
+ */
+
+interface Glyph {
+  id: number;
+  advanceWidth: number;
+  codePoints: number[];
+}
+interface Position {
+  xAdvance: number;
+  xOffset: number;
+  yOffset: number;
+  advanceWidth: number;
+}
+interface EmbeddedFont {
+  id: string;
+  ascender: number;
+  scale: number;
+  widths: number[];
+  unicode: number[][];
+  subset: { includeGlyph(id: number): number };
+  layoutCache?: unknown;
+  layoutCached(text: string): { glyphs: Glyph[]; positions: Position[] };
+  ref(): unknown;
+}
+interface DocInternals {
+  _font: EmbeddedFont | null;
+  _fontSize: number;
+  page: { height: number; fonts: Record<string, unknown> };
+  addContent(data: string): unknown;
+  save(): unknown;
+  restore(): unknown;
+  transform(a: number, b: number, c: number, d: number, e: number, f: number): unknown;
+}
+
+/** A word's glyph codes, cut after each kerned glyph (with its adjustment in thousandths of the font size). */
+interface Segment {
+  hex: string;
+  adjust: number | null;
+}
+
+const wordsByFont = new WeakMap<object, Map<string, Segment[] | null>>();
+
+/** pdfkit's number formatting in content streams (PDFObject.number). */
+function number(n: number): number {
+  if (n > -1e21 && n < 1e21) return Math.round(n * 1e6) / 1e6;
+  throw new Error(`unsupported number: ${n}`);
+}
+
+/** A word's segments, or null when one of its glyphs is moved off the baseline. */
+function segments(font: EmbeddedFont, words: Map<string, Segment[] | null>, word: string): Segment[] | null {
+  let segs = words.get(word);
+  if (segs !== undefined) return segs;
+  const run = font.layoutCached(word);
+  if (run.positions.some((p) => p.xOffset || p.yOffset)) {
+    words.set(word, null);
+    return null;
+  }
+  segs = [];
+  let hex = '';
+  for (let i = 0; i < run.glyphs.length; i++) {
+    const glyph = run.glyphs[i]!;
+    const gid = font.subset.includeGlyph(glyph.id);
+    hex += `0000${gid.toString(16)}`.slice(-4);
+    if (font.widths[gid] == null) font.widths[gid] = glyph.advanceWidth * font.scale;
+    if (font.unicode[gid] == null) font.unicode[gid] = glyph.codePoints;
+    const p = run.positions[i]!;
+    if (p.xAdvance - p.advanceWidth !== 0) {
+      segs.push({ hex, adjust: p.xAdvance - p.advanceWidth });
+      hex = '';
+    }
+  }
+  if (hex) segs.push({ hex, adjust: null });
+  words.set(word, segs);
+  return segs;
+}
+
+/**
+ * Write `line` at (x, y) in the current font and size as pdfkit's _fragment would with plain options. Returns false,
+ * having written nothing, when the line needs pdfkit's own (a font without a layout cache, or glyphs off the baseline).
+ */
+export function writeLine(doc: PDFKit.Document, line: string, x: number, y: number): boolean {
+  const d = doc as unknown as DocInternals;
+  const font = d._font;
+  if (!font || !font.layoutCache || !font.subset) return false;
+  const text = line.replace(/\n/g, '');
+  if (text.length === 0) return true;
+  let words = wordsByFont.get(font);
+  if (words === undefined) {
+    words = new Map();
+    wordsByFont.set(font, words);
+  }
+  // The line cut into words as pdfkit's font layout cuts it: after each space or tab.
+  const runs: Segment[][] = [];
+  let last = 0;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (c !== 32 && c !== 9) continue;
+    const segs = segments(font, words, text.slice(last, i + 1));
+    if (segs === null) return false;
+    runs.push(segs);
+    last = i + 1;
+  }
+  if (last < text.length) {
+    const segs = segments(font, words, text.slice(last));
+    if (segs === null) return false;
+    runs.push(segs);
+  }
+  const commands: string[] = [];
+  let hex = '';
+  for (const segs of runs) {
+    for (const seg of segs) {
+      hex += seg.hex;
+      if (seg.adjust !== null) {
+        commands.push(`<${hex}> ${number(-seg.adjust)}`);
+        hex = '';
+      }
+    }
+  }
+  if (hex) commands.push(`<${hex}> ${number(-0)}`);
+
+  const size = d._fontSize;
+  d.save();
+  d.transform(1, 0, 0, -1, 0, d.page.height);
+  const dy = (font.ascender / 1000) * size;
+  const top = d.page.height - y - dy;
+  if (d.page.fonts[font.id] == null) d.page.fonts[font.id] = font.ref();
+  d.addContent('BT');
+  d.addContent(`1 0 0 1 ${number(x)} ${number(top)} Tm`);
+  d.addContent(`/${font.id} ${number(size)} Tf`);
+  if (commands.length > 0) d.addContent(`[${commands.join(' ')}] TJ`);
+  d.addContent('ET');
+  d.restore();
+  return true;
+}
