@@ -857,7 +857,7 @@ async function respondentsCube(
           for (const { g, k } of order) {
             const from = theirs(g, k);
             const to = store.at(groups[g]!, k);
-            const data = store.data;
+            const data = store.block(groups[g]!);
             for (let c = 0; c <= store.blank; c++) data[to + c]! += tally.data[from + c]!;
             if (data[to + seq] === 0 && tally.data[from + seq]! > 0) {
               data[to + seq] = ++store.validSeen;
@@ -871,10 +871,10 @@ async function respondentsCube(
   // Cells with valid answers, in the order each got its first; a group with only blank or not-applicable answers to a
   // question has no cell for it, as no one answered it.
   const kept: Array<[number, Cell]> = [];
-  const data = store.data;
   for (const leaf of leaves) {
     for (let k = 0; k < nq; k++) {
       const at = store.at(leaf.g, k);
+      const data = store.block(leaf.g);
       if (data[at + store.seq] === 0) continue;
       const dims: Record<string, string> = {};
       dimensionsWanted.forEach((d, j) => {

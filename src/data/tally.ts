@@ -61,10 +61,15 @@ export function codeOfText(raw0: string, maxCode: number, isNa: (c: number) => b
   return code;
 }
 
+/** Groups per block of a TallyStore. */
+const BLOCK_SHIFT = 8;
+const BLOCK_GROUPS = 1 << BLOCK_SHIFT;
+
 /**
- * Answer counts of every (group, question) in one typed array: per pair, the counts of codes 0..maxCode, then not
- * applicable, blank, the order in which the pair got its first valid answer (1 and up; 0 for none yet) and that
- * answer's row. Groups are numbered as made.
+ * Answer counts of every (group, question) in typed arrays, a block per 256 groups: per pair, the counts of codes
+ * 0..maxCode, then not applicable, blank, the order in which the pair got its first valid answer (1 and up; 0 for
+ * none yet) and that answer's row. Groups are numbered as made. Blocks are added, never copied into a larger array:
+ * fresh memory is slow to touch on a busy machine (each new page costs a fault), so only what is used is touched.
  */
 export class TallyStore {
   readonly stride: number;
@@ -72,7 +77,7 @@ export class TallyStore {
   readonly blank: number;
   readonly seq: number;
   readonly firstRow: number;
-  data: Int32Array;
+  readonly blocks: Int32Array[] = [];
   groups = 0;
   validSeen = 0;
   constructor(
@@ -84,26 +89,31 @@ export class TallyStore {
     this.blank = maxCode + 2;
     this.seq = maxCode + 3;
     this.firstRow = maxCode + 4;
-    this.data = new Int32Array(this.stride * questions * 64);
   }
   /** A new group's number. */
   newGroup(): number {
-    const need = (this.groups + 1) * this.questions * this.stride;
-    if (need > this.data.length) {
-      const bigger = new Int32Array(Math.max(need, this.data.length * 2));
-      bigger.set(this.data);
-      this.data = bigger;
-    }
+    if ((this.groups & (BLOCK_GROUPS - 1)) === 0) this.blocks.push(new Int32Array(BLOCK_GROUPS * this.questions * this.stride));
     return this.groups++;
   }
-  /** Where the counts of question k of group g begin. */
+  /** The block holding group g's counts. */
+  block(g: number): Int32Array {
+    return this.blocks[g >> BLOCK_SHIFT]!;
+  }
+  /** Where the counts of question k of group g begin in its block. */
   at(g: number, k: number): number {
-    return (g * this.questions + k) * this.stride;
+    return ((g & (BLOCK_GROUPS - 1)) * this.questions + k) * this.stride;
+  }
+  /** Every group's counts in one array, group after group. */
+  flat(): Int32Array {
+    const size = this.questions * this.stride;
+    const out = new Int32Array(this.groups * size);
+    this.blocks.forEach((b, i) => out.set(b.subarray(0, Math.min(BLOCK_GROUPS, this.groups - i * BLOCK_GROUPS) * size), i * BLOCK_GROUPS * size));
+    return out;
   }
   /** Count an answer of question k in group g: a code, NA_ANSWER or BLANK_ANSWER. */
   count(g: number, k: number, code: number, row: number): void {
-    const at = (g * this.questions + k) * this.stride;
-    const data = this.data;
+    const at = ((g & (BLOCK_GROUPS - 1)) * this.questions + k) * this.stride;
+    const data = this.blocks[g >> BLOCK_SHIFT]!;
     if (code >= 0) {
       data[at + code]! += 1;
       if (data[at + this.seq] === 0) {
@@ -164,8 +174,9 @@ export function byteLines(plan: TallyPlan, target: TallyTarget, store: TallyStor
   const dHash = new Int32Array(nd);
   // Groups by the bytes of their values: an open-addressing table of slots (entry + 1, 0 for free) over entries each
   // with the full hash, the values' bytes (each ended by KEY_END) and the group.
-  const SLOTS = BYTE_GROUP_LIMIT * 2;
-  const slots = new Int32Array(SLOTS);
+  // The slots double (rehashed from the entries' hashes) when half full, so a file with few groups touches little.
+  let slotMask = (1 << 10) - 1;
+  let slots = new Int32Array(slotMask + 1);
   const slotHash = new Int32Array(BYTE_GROUP_LIMIT);
   const slotKey: Uint8Array[] = [];
   const slotGroup: number[] = [];
@@ -188,12 +199,12 @@ export function byteLines(plan: TallyPlan, target: TallyTarget, store: TallyStor
       h = (Math.imul(h, 0x01000193) ^ dHash[j]!) | 0;
       len += dTo[j]! - dFrom[j]! + 1;
     }
-    let slot = (h ^ (h >>> 15)) & (SLOTS - 1);
+    let slot = (h ^ (h >>> 15)) & slotMask;
     for (;;) {
       const entry = slots[slot]! - 1;
       if (entry < 0) break;
       if (slotHash[entry] === h && sameKey(slotKey[entry]!, b)) return slotGroup[entry]!;
-      slot = (slot + 1) & (SLOTS - 1);
+      slot = (slot + 1) & slotMask;
     }
     for (let j = 0; j < nd; j++) dimValues[j] = dimText(text(b, dFrom[j]!, dTo[j]!));
     const group = target.group(dimValues);
@@ -210,6 +221,16 @@ export function byteLines(plan: TallyPlan, target: TallyTarget, store: TallyStor
       slotKey.push(key);
       slotGroup.push(group);
       slots[slot] = entry + 1;
+      if ((entry + 1) * 2 > slotMask) {
+        slotMask = slotMask * 2 + 1;
+        slots = new Int32Array(slotMask + 1);
+        for (let e = 0; e <= entry; e++) {
+          const eh = slotHash[e]!;
+          let at = (eh ^ (eh >>> 15)) & slotMask;
+          while (slots[at] !== 0) at = (at + 1) & slotMask;
+          slots[at] = e + 1;
+        }
+      }
     }
     return group;
   };
@@ -453,7 +474,7 @@ export async function tallyRange(job: RangeJob, readSize = 1 << 18): Promise<Ran
       if (problem !== '') return { taken: false, why: problem };
       if (taken.at < b.length) return { taken: false, why: 'a line for the other paths' };
     }
-    return { taken: true, rows: sink.dataRows, values, data: store.data.slice(0, store.groups * store.questions * store.stride) };
+    return { taken: true, rows: sink.dataRows, values, data: store.flat() };
   } finally {
     await file.close();
   }

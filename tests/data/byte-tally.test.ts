@@ -62,6 +62,25 @@ describe('respondent tallies from the bytes', () => {
     );
   });
 
+  it('keep thousands of groups apart (the group table grows as it fills)', async () => {
+    // Reference: the generated table tallied here by a plain loop over its values.
+    const lines = ['ID,Dept,Q1,Note,Q2,Site'];
+    const expected = new Map<string, number>();
+    for (let i = 0; i < 12000; i++) {
+      const dept = `Unit ${(i * 7919) % 3001}`;
+      const code = (i % 5) + 1;
+      lines.push(`${i},${dept},${code},,,North`);
+      expected.set(dept, (expected.get(dept) ?? 0) + (code >= 4 ? 1 : 0));
+    }
+    const path = file(lines.join('\n') + '\n');
+    const src = respondentsSource(path, { questions: ['Q1', 'Q2'], notApplicableCodes: [9] });
+    const cube = await readCube(src, ['Dept', 'Site'], 'r.csv');
+    const q1 = cube.cells.filter((c) => c.dims['question'] === 'Q1');
+    expect(q1.length).toBe(3001);
+    for (const cell of q1) expect(cell.agree).toBe(expected.get(cell.dims['Dept']!));
+    expect(q1.reduce((s, c) => s + c.n, 0)).toBe(12000);
+  });
+
   it('count the answers of a clean table as a plain tally of the table does', async () => {
     // Reference: the generated table tallied here by plain loops over its values.
     // 'Aa' and 'BB' have the same 31-multiplier hash of their bytes.
