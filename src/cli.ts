@@ -45,6 +45,8 @@ const HEAP_GROWING_PERCENT = 40;
 async function runBuild(args: BuildArgs, argv: string[]): Promise<number> {
   const { setFlagsFromString } = await import('node:v8');
   setFlagsFromString(`--heap-growing-percent=${HEAP_GROWING_PERCENT}`);
+  // The chart thread starts before the pipeline's modules load, so that vega is loaded sooner (render/chart-thread.ts).
+  (await import('./render/chart-thread.js')).startChartThread();
   // Loaded here so that --help stays fast: the pipeline pulls in the PDF and chart libraries.
   const { build, displayPath } = await import('./pipeline.js');
   const { hooksFromEnv } = await import('./history/store.js');

@@ -1,9 +1,9 @@
 /**
  * Charts drawn on a second thread (node:worker_threads), so that they cost no time on the main thread, which lays out
- * the PDF's text meanwhile. A build starts the thread before it reads the claims file (useChartThread): the thread
- * loads vega, vega-lite and the faces while the main thread reads the claims and the data. Once the pack's model is
- * composed, every chart is asked for at once in claim order (charts.ts's prefetchCharts); each claim's page waits
- * only for its own chart. The thread runs the same drawing code as the main thread (chart-runtime.ts's drawSpec), so
+ * the PDF's text meanwhile. The command line starts the thread before it loads the pipeline's modules, and a build
+ * (useChartThread) before it reads the claims file: the thread loads vega, vega-lite and the faces while the main
+ * thread reads the claims and the data, then warms up. Once the pack's model is composed, every chart is asked for
+ * at once in claim order (charts.ts's prefetchCharts); each claim's page waits only for its own chart. The thread runs the same drawing code as the main thread (chart-runtime.ts's drawSpec), so
  * the SVG and the paint operations are the very same as drawn in-process.
  *
  * The thread never keeps the process alive on its own (it is unreferenced while no chart is awaited), a build stops
@@ -138,20 +138,29 @@ export function chartThread(): ChartThread | undefined {
 let users = 0;
 
 /**
- * Use the chart thread, starting it if none runs; returns the function that lets it go (at once when the caller's
- * charts are all drawn, and again, harmlessly, when the caller ends). The thread stops when every user has let it go.
- * No thread starts, and charts are drawn on the main thread, when WARRANT_CHART_THREAD is 0, when the thread's script
- * is not there (the TypeScript sources run under a test runner) or when the thread cannot start.
+ * Start the chart thread if none runs, for a build about to begin (the command line does so before it loads the
+ * pipeline, so that vega is ready sooner). It is not held by this: unreferenced while no chart is awaited, it never
+ * keeps the process alive, and it stops when the builds that use it let it go. No thread starts, and charts are drawn
+ * on the main thread, when WARRANT_CHART_THREAD is 0, when the thread's script is not there (the TypeScript sources
+ * run under a test runner) or when the thread cannot start.
+ */
+export function startChartThread(inProcess: Draw = drawHere, script = new URL('./chart-worker.js', import.meta.url)): void {
+  if (current || process.env.WARRANT_CHART_THREAD === '0' || script.protocol !== 'file:' || !existsSync(fileURLToPath(script))) return;
+  try {
+    current = new ChartThread(script, inProcess, { resourceLimits: { maxYoungGenerationSizeMb: YOUNG_MB } });
+  } catch {
+    current = undefined;
+  }
+}
+
+/**
+ * Use the chart thread, starting it if none runs (startChartThread); returns the function that lets it go (at once
+ * when the caller's charts are all drawn, and again, harmlessly, when the caller ends). The thread stops when every
+ * user has let it go.
  */
 export function useChartThread(inProcess: Draw = drawHere, script = new URL('./chart-worker.js', import.meta.url)): () => void {
   users++;
-  if (!current && process.env.WARRANT_CHART_THREAD !== '0' && script.protocol === 'file:' && existsSync(fileURLToPath(script))) {
-    try {
-      current = new ChartThread(script, inProcess, { resourceLimits: { maxYoungGenerationSizeMb: YOUNG_MB } });
-    } catch {
-      current = undefined;
-    }
-  }
+  startChartThread(inProcess, script);
   let released = false;
   return () => {
     if (released) return;
