@@ -438,11 +438,14 @@ async function buildPack(options: BuildOptions, chartsDrawn: () => void): Promis
   const { prefetchCharts } = await import('./render/charts.js');
   prefetchCharts(model.claims.flatMap((c) => (c.chart ? [c.chart.data] : [])));
   say(`Drawing the pack (${analyses.length} claims)`);
+  // results.xlsx and the text of results.json come from the results alone: made while the chart thread draws, as the
+  // pages would otherwise wait for the charts.
+  const { writeResultsXlsx } = await import('./results/xlsx.js');
+  const xlsx = await writeResultsXlsx(results);
+  const resultsJson = `${JSON.stringify(results, null, 2)}\n`;
   const { renderPdf } = await import('./render/pdf.js');
   const pdf = await renderPdf(model, { createdAt: pdfDate(date), chartsDrawn });
-  const { writeResultsXlsx } = await import('./results/xlsx.js');
   const { chartFiles } = await import('./results/charts-out.js');
-  const xlsx = await writeResultsXlsx(results);
   const charts = await chartFiles(model);
   // 8. write
   say('Writing the pack');
@@ -452,7 +455,7 @@ async function buildPack(options: BuildOptions, chartsDrawn: () => void): Promis
       root,
       name,
       [
-        ['results.json', `${JSON.stringify(results, null, 2)}\n`],
+        ['results.json', resultsJson],
         ['results.xlsx', xlsx],
         ...charts,
         ['pack.pdf', pdf],
