@@ -86,8 +86,8 @@ function columnIndex(cells: readonly Cell[], col: string): Map<string, number[]>
  */
 export function matching(cube: Cube, filter: Filter): Cell[] {
   const cells = cube.cells;
-  // The index lists (ascending) of the filter's columns that name values: the cells in all of them, the shortest
-  // first, then the columns that leave values out checked cell by cell.
+  // The index lists (ascending) of the filter's columns that name values: the cells in all of them, then the columns
+  // that leave values out checked cell by cell.
   const lists: number[][] = [];
   const nots: Compiled = [];
   for (const entry of compile(filter)) {
@@ -109,21 +109,21 @@ export function matching(cube: Cube, filter: Filter): Cell[] {
   }
   if (lists.length === 0) return cells.filter((c) => matches(c, filter));
   lists.sort((x, y) => x.length - y.length);
-  let best = lists[0]!;
-  for (let l = 1; l < lists.length; l++) {
-    const other = lists[l]!;
-    const kept: number[] = [];
-    let j = 0;
-    for (const i of best) {
-      while (j < other.length && other[j]! < i) j++;
-      if (j === other.length) break;
-      if (other[j] === i) kept.push(i);
-    }
-    best = kept;
-    if (best.length === 0) return [];
-  }
   const out: Cell[] = [];
-  next: for (const i of best) {
+  // The shortest list's cells, each looked up in the others by bisection (a claim's shortest list is usually a few
+  // dozen cells, the others thousands).
+  next: for (const i of lists[0]!) {
+    for (let l = 1; l < lists.length; l++) {
+      const other = lists[l]!;
+      let lo = 0;
+      let hi = other.length;
+      while (lo < hi) {
+        const mid = (lo + hi) >>> 1;
+        if (other[mid]! < i) lo = mid + 1;
+        else hi = mid;
+      }
+      if (other[lo] !== i) continue next;
+    }
     const c = cells[i] as Cell;
     for (const { col, wanted } of nots) {
       const have = c.dims[col];
