@@ -870,37 +870,38 @@ async function respondentsCube(
   for await (const batch of body) tallyBatch(batch);
   // Cells with valid answers, in the order each got its first; a group with only blank or not-applicable answers to a
   // question has no cell for it, as no one answered it.
-  const kept: Array<[number, Cell]> = [];
+  // Each kept cell has its own order number, 1 to validSeen (given as its first valid answer was counted): each goes
+  // straight to its place.
+  const list = new Array<Cell>(store.validSeen);
+  const nDims = dimensionsWanted.length;
   for (const leaf of leaves) {
+    const data = store.block(leaf.g);
     for (let k = 0; k < nq; k++) {
       const at = store.at(leaf.g, k);
-      const data = store.block(leaf.g);
-      if (data[at + store.seq] === 0) continue;
+      const seq = data[at + store.seq]!;
+      if (seq === 0) continue;
       const dims: Record<string, string> = {};
-      dimensionsWanted.forEach((d, j) => {
-        dims[d] = leaf.values[j]!;
-      });
+      for (let j = 0; j < nDims; j++) dims[dimensionsWanted[j]!] = leaf.values[j]!;
       dims[qColName] = questions[k]!;
-      const cell: Cell = { dims, n: 0, agree: 0, approximate: false, firstRow: data[at + store.firstRow]!, codes: {} };
       const codes: Record<string, number> = {};
+      let n = 0;
+      let agree = 0;
       for (let c = 0; c <= maxCode; c++) {
         const x = data[at + c]!;
         if (x > 0) {
           codes[codeTexts[c]!] = x;
-          cell.n += x;
-          if (isAgree[c] === true) cell.agree += x;
+          n += x;
+          if (isAgree[c] === true) agree += x;
         }
       }
-      cell.codes = codes;
+      const cell: Cell = { dims, n, agree, approximate: false, firstRow: data[at + store.firstRow]!, codes };
       if (data[at + store.na]! > 0) cell.notApplicable = data[at + store.na]!;
       if (data[at + store.blank]! > 0) cell.blank = data[at + store.blank]!;
-      kept.push([data[at + store.seq]!, cell]);
+      list[seq - 1] = cell;
     }
   }
-  kept.sort((a, b) => a[0] - b[0]);
   problems.throwIfAny();
   if (rows === 0) throw noDataRows(where, headerRow);
-  const list = kept.map(([, cell]) => cell);
   const values = distinctValues(dimensionsWanted, list);
   values[qColName] = [...questions];
   return { rows, dimensions, cells: list, values, approximate: false, hasPopulation: false, hasCodes: true, questionColumn: qColName };
