@@ -93,7 +93,7 @@ describe('chartSvg', () => {
   it('draws the rates chart with n in labels, the reference label and percent ticks', async () => {
     const svg = await chartSvg(rates);
     expect(svg).toMatch(/^<svg[^>]* width="460" height="116"/);
-    expect(svg).toContain('Coleg Gŵyr (n = 840)');
+    expect(svg).toContain('Coleg Ŵennalt (n = 840)');
     expect(svg).toContain('Rest of region (n = 18,500)');
     expect(svg).toContain('Target 75%');
     // Interval ends and target span 57.6% to 75%: the range rounds out (2 points of room) to tenths, 50%..80%.
@@ -181,9 +181,9 @@ describe('axis ranges, values and labels', () => {
 
 describe('textWidth', () => {
   it('measures with the font: a bold run is wider than the same regular run, widths scale with size', () => {
-    const regular = textWidth('Coleg Gŵyr', 10);
-    expect(textWidth('Coleg Gŵyr', 10, 'bold')).toBeGreaterThan(regular);
-    expect(textWidth('Coleg Gŵyr', 20)).toBeCloseTo(2 * regular, 9);
+    const regular = textWidth('Coleg Ŵennalt', 10);
+    expect(textWidth('Coleg Ŵennalt', 10, 'bold')).toBeGreaterThan(regular);
+    expect(textWidth('Coleg Ŵennalt', 20)).toBeCloseTo(2 * regular, 9);
     // Noto Sans has an advance of 572/1000 em for digits (tabular figures; font metrics, common practice).
     expect(textWidth('0', 10)).toBeCloseTo(5.72, 9);
   });

@@ -36,7 +36,7 @@ describe('renderPdf on the sample model', () => {
 
   it('pdfinfo reports the title, a tagged file, A4 pages and a plausible page count', () => {
     const info = run('pdfinfo', [pdfPath]);
-    expect(info).toMatch(/^Title:\s+Student voice claims 2024: Coleg Gŵyr and partners$/m);
+    expect(info).toMatch(/^Title:\s+Student voice claims 2024: Coleg Ŵennalt and partners$/m);
     expect(info).toMatch(/^Tagged:\s+yes$/m);
     expect(info).toMatch(/^Page size:\s+595\.28 x 841\.89 pts \(A4\)$/m);
     const pages = Number(/^Pages:\s+(\d+)$/m.exec(info)?.[1]);
@@ -48,7 +48,7 @@ describe('renderPdf on the sample model', () => {
   it('pdftotext finds every verdict paragraph, whole and with accents intact', () => {
     const text = plainText(pdfPath);
     for (const paragraph of Object.values(VERDICT_TEXTS)) expect(text).toContain(paragraph);
-    for (const name of ['Coleg Gŵyr', 'Ysgol Brynŷs', 'Szkoła Łąka', 'Naïve Arts', 'Llŷn', 'Łódź']) {
+    for (const name of ['Coleg Ŵennalt', 'Ysgol Brynŷs', 'Szkoła Łąka', 'Naïve Arts', 'Llŷn', 'Łódź']) {
       expect(text).toContain(name);
     }
   });

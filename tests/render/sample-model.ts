@@ -11,7 +11,7 @@ export const LONG_STATEMENT =
 
 export const VERDICT_TEXTS = {
   C1:
-    'Supported. 61% of the 840 respondents at Coleg Gŵyr agreed, against 67% across the rest of the region ' +
+    'Supported. 61% of the 840 respondents at Coleg Ŵennalt agreed, against 67% across the rest of the region ' +
     '(18,500 respondents): a gap of 6 points (95% interval 3 to 9 points).',
   C2:
     'Not supported. The rate at Ysgol Brynŷs fell from 71% to 67%, but with 85 and 92 respondents a change of ' +
@@ -40,7 +40,7 @@ export const CHANGES: NonNullable<PackModel['changes']> = {
   ],
   notes: [
     'The data file regional (data/regional-summary-2024.xlsx) has a new fingerprint: 3f9a1c2b7d4e, was 09be72aa31c4.',
-    'C1: the rate at Coleg Gŵyr moved from 66% to 61%, beyond its earlier interval (63% to 69%).',
+    'C1: the rate at Coleg Ŵennalt moved from 66% to 61%, beyond its earlier interval (63% to 69%).',
   ],
 };
 
@@ -132,10 +132,10 @@ const EXTRA_CLAIMS: PackModel['claims'] = [
   },
   {
     id: 'C9',
-    statement: 'Agreement at Coleg Gŵyr is the same as at Ysgol Brynŷs, within 3 points.',
+    statement: 'Agreement at Coleg Ŵennalt is the same as at Ysgol Brynŷs, within 3 points.',
     verdict: 'supported',
     verdictLabel: 'Supported',
-    compared: 'Agreement at Coleg Gŵyr (840) and Ysgol Brynŷs (910).',
+    compared: 'Agreement at Coleg Ŵennalt (840) and Ysgol Brynŷs (910).',
     hypotheses: { null: 'The rates differ by 3 points or more.', alternative: 'The rates differ by less than 3 points.' },
     numbers: [
       { label: 'Difference', value: '+0.4 points (−1.5 to +2.1)' },
@@ -160,8 +160,8 @@ const EXTRA_SUMMARY: PackModel['summary'] = EXTRA_CLAIMS.map((c) => ({
 }));
 
 export const sampleModel: PackModel = {
-  title: 'Student voice claims 2024: Coleg Gŵyr and partners',
-  organisation: 'Coleg Gŵyr Quality Office',
+  title: 'Student voice claims 2024: Coleg Ŵennalt and partners',
+  organisation: 'Coleg Ŵennalt Quality Office',
   description:
     'Claims drafted by the quality committee before the 2024 results were opened, tested against the published ' +
     'summary tables and the college’s own respondent file.',
@@ -192,7 +192,7 @@ export const sampleModel: PackModel = {
   summary: [
     {
       id: 'C1',
-      statement: 'Our agreement rate on feedback at Coleg Gŵyr is below the rest of the region.',
+      statement: 'Our agreement rate on feedback at Coleg Ŵennalt is below the rest of the region.',
       verdict: 'supported',
       verdictLabel: 'Supported',
       keyFigure: '61% vs 67%, gap −6 points (−9 to −3)',
@@ -230,18 +230,18 @@ export const sampleModel: PackModel = {
   claims: [
     {
       id: 'C1',
-      statement: 'Our agreement rate on feedback at Coleg Gŵyr is below the rest of the region.',
+      statement: 'Our agreement rate on feedback at Coleg Ŵennalt is below the rest of the region.',
       verdict: 'supported',
       verdictLabel: 'Supported',
       compared:
-        'Agreement with “Feedback on my work has been timely” at Coleg Gŵyr (840 respondents) against the rest of ' +
+        'Agreement with “Feedback on my work has been timely” at Coleg Ŵennalt (840 respondents) against the rest of ' +
         'the region (18,500 respondents).',
       hypotheses: {
-        null: 'The agreement rate at Coleg Gŵyr equals the rate in the rest of the region.',
-        alternative: 'The agreement rate at Coleg Gŵyr is lower than the rate in the rest of the region.',
+        null: 'The agreement rate at Coleg Ŵennalt equals the rate in the rest of the region.',
+        alternative: 'The agreement rate at Coleg Ŵennalt is lower than the rate in the rest of the region.',
       },
       numbers: [
-        { label: 'Coleg Gŵyr', value: '61% (58% to 64%), 512 of 840' },
+        { label: 'Coleg Ŵennalt', value: '61% (58% to 64%), 512 of 840' },
         { label: 'Rest of region', value: '67% (66% to 68%), 12,395 of 18,500' },
         { label: 'Difference', value: '−6 points (−9 to −3)' },
         { label: 'z statistic', value: '−3.71' },
@@ -253,17 +253,17 @@ export const sampleModel: PackModel = {
           kind: 'rates',
           axisTitle: 'Agreeing (%)',
           bars: [
-            { label: 'Coleg Gŵyr', rate: 0.6095, lower: 0.5762, upper: 0.6418, n: 840 },
+            { label: 'Coleg Ŵennalt', rate: 0.6095, lower: 0.5762, upper: 0.6418, n: 840 },
             { label: 'Rest of region', rate: 0.67, lower: 0.6632, upper: 0.6767, n: 18500 },
           ],
           reference: { value: 0.75, label: 'Target 75%' },
         },
-        alt: 'Dot chart: Coleg Gŵyr 61% agreeing (interval 58% to 64%) against the rest of the region 67% (66% to 68%); target line at 75%.',
+        alt: 'Dot chart: Coleg Ŵennalt 61% agreeing (interval 58% to 64%) against the rest of the region 67% (66% to 68%); target line at 75%.',
       },
       verdictText: VERDICT_TEXTS.C1,
       cautions: [
         'The regional figure comes from published percentages rounded to whole numbers, so its count is approximate.',
-        'About 38% of eligible students at Coleg Gŵyr replied; those who did not may differ from those who did.',
+        'About 38% of eligible students at Coleg Ŵennalt replied; those who did not may differ from those who did.',
       ],
       methodLine: 'Two-proportion z test (pooled), one-sided; Wilson and Newcombe intervals.',
     },

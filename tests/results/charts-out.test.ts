@@ -71,7 +71,7 @@ describe('chartFiles', () => {
       expect(svg).toMatch(/^<svg/);
     }
     const c1 = JSON.parse(files.find(([p]) => p === 'charts/C1.vl.json')![1]);
-    expect(JSON.stringify(c1)).toContain('Coleg Gŵyr (n = 840)');
+    expect(JSON.stringify(c1)).toContain('Coleg Ŵennalt (n = 840)');
   });
 
   it('is deterministic', async () => {

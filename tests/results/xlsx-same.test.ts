@@ -108,7 +108,7 @@ function resultsWith(claims: ClaimResult[], over: Partial<ResultsFile> = {}): Re
     format: 1,
     tool: { name: 'warrant', version: '0.1.0' },
     title: 'Student voice review 2026',
-    organisation: 'Coleg Gŵyr',
+    organisation: 'Coleg Ŵennalt',
     date: '2026-03-03',
     claimsFile: { file: 'claims.yaml', sha256: 'ab'.repeat(32) },
     settings: { confidence: 0.95, adjust: 'holm', minRespondents: 10 },

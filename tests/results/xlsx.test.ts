@@ -18,7 +18,7 @@ const results: ResultsFile = {
   format: 1,
   tool: { name: 'warrant', version: '0.1.0' },
   title: 'Student voice review 2026',
-  organisation: 'Coleg Gŵyr',
+  organisation: 'Coleg Ŵennalt',
   date: '2026-03-03',
   claimsFile: { file: 'claims.yaml', sha256: 'ab'.repeat(32) },
   settings: { confidence: 0.95, adjust: 'holm', minRespondents: 10 },
@@ -44,7 +44,7 @@ const results: ResultsFile = {
       pAdjusted: 1.8735100387237858e-23,
       n: [2052, 6603],
       selections: [
-        { label: 'Coleg Gŵyr', n: 2052, agree: 1238, rate: 0.6033138401559455, interval: interval(0.5900409147958127, 0.6164363879748175, 'wilson'), population: 3358, approximate: false },
+        { label: 'Coleg Ŵennalt', n: 2052, agree: 1238, rate: 0.6033138401559455, interval: interval(0.5900409147958127, 0.6164363879748175, 'wilson'), population: 3358, approximate: false },
         { label: '+rest of region', n: 6603, agree: 4767, rate: 0.7219445706497046, interval: interval(0.715121871168112, 0.7286658676422942, 'wilson'), approximate: true },
       ],
       units: [],
