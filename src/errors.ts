@@ -49,12 +49,31 @@ export function formatProblem(p: Problem): string {
   return parts.join(' ');
 }
 
+/** How many problems a message spells out; the rest are counted (a broken or hostile file can hold thousands). */
+export const PROBLEMS_SHOWN = 30;
+
+/**
+ * The paragraphs of a list of problems: each of the first PROBLEMS_SHOWN in full, then one paragraph counting the rest
+ * and saying where the first of them is, so that a file with thousands of mistakes gives a message a person can read.
+ */
+export function formatProblems(list: readonly Problem[], more = 'warrant check --json lists every one'): string {
+  const shown = list.slice(0, PROBLEMS_SHOWN).map(formatProblem);
+  const rest = list.length - shown.length;
+  if (rest > 0) {
+    const next = list[PROBLEMS_SHOWN] as Problem;
+    shown.push(
+      `... and ${rest.toLocaleString('en-GB')} more problem${rest === 1 ? '' : 's'}, the next at ${formatPlace(next)}. Fix: Correct the ones above first and run again; ${more}.`,
+    );
+  }
+  return shown.join('\n\n');
+}
+
 /** A problem with the user's input. Carries one or more problems so that a check can report them all at once. */
 export class InputError extends Error {
   readonly problems: Problem[];
   constructor(problems: Problem | Problem[]) {
     const list = Array.isArray(problems) ? problems : [problems];
-    super(list.map(formatProblem).join('\n\n'));
+    super(formatProblems(list));
     this.name = 'InputError';
     this.problems = list;
   }

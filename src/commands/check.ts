@@ -17,7 +17,7 @@ import type { Claim, Filter, FilterScalar, FilterValue, SourceSpec } from '../cl
 import { locate, type ParsedYaml } from '../claims/yaml.js';
 import { claimsSpellings, readCube } from '../data/cube.js';
 import type { Cell, Cube } from '../data/types.js';
-import { formatProblem, InputError, type Problem } from '../errors.js';
+import { formatProblems, InputError, type Problem } from '../errors.js';
 import { findName, fixFor, nfc } from '../suggest.js';
 import { readingNotes } from '../data/reading-notes.js';
 import { Templates } from '../verdicts/templates.js';
@@ -381,7 +381,7 @@ export async function check(opts: CheckOptions): Promise<number> {
   if (ok) {
     write(`${report.file}: ${report.claims} claim${report.claims === 1 ? '' : 's'}, ${report.sources} source${report.sources === 1 ? '' : 's'}, all good.\n`);
   } else {
-    write(`${report.problems.map(formatProblem).join('\n\n')}\n\n${report.problems.length} problem${report.problems.length === 1 ? '' : 's'} found in ${report.file}.\n`);
+    write(`${formatProblems(report.problems, 'with --json every one is listed')}\n\n${report.problems.length.toLocaleString('en-GB')} problem${report.problems.length === 1 ? '' : 's'} found in ${report.file}.\n`);
   }
   return ok ? 0 : 2;
 }
