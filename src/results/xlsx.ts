@@ -42,13 +42,14 @@ function isProportion(c: ClaimResult): boolean {
   return c.estimate !== null && /proportion|rate|share|percentage/i.test(c.estimate.name);
 }
 
-interface Column {
+export interface Column {
   header: string;
   width: number;
   wrap?: boolean;
 }
 
-const CLAIM_COLUMNS: Column[] = [
+/** The columns of the Claims sheet (also used by the exceljs reference writer in the tests). */
+export const CLAIM_COLUMNS: readonly Column[] = [
   { header: 'Claim id', width: 24, wrap: true },
   { header: 'Claim', width: 60, wrap: true },
   { header: 'Kind', width: 13 },
@@ -64,7 +65,8 @@ const CLAIM_COLUMNS: Column[] = [
   { header: 'Cautions', width: 80, wrap: true },
 ];
 
-const SELECTION_COLUMNS: Column[] = [
+/** The columns of the Selections sheet. */
+export const SELECTION_COLUMNS: readonly Column[] = [
   { header: 'Claim id', width: 24, wrap: true },
   { header: 'Selection', width: 36, wrap: true },
   { header: 'Respondents (n)', width: 14 },
@@ -191,7 +193,7 @@ class Sheet {
   private readonly colsXml: string;
 
   constructor(
-    private readonly columns: Column[],
+    private readonly columns: readonly Column[],
     private readonly styles: Styles,
     private readonly strings: SharedStrings,
   ) {

@@ -3,21 +3,12 @@
 // cube, or the same InputError, whatever the chunk size. The tables mix multi-byte and padded group names, blank and
 // whitespace-only lines (also non-ASCII spaces), short and long lines, carriage returns inside fields, codes that are
 // not applicable, out of range, padded or not numbers at all.
-import { mkdtempSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { readCube } from '../../src/data/cube.js';
-import { respondentsSource } from './sources.js';
+import { respondentsSource, tempFiles } from './sources.js';
 
-const tmp = mkdtempSync(join(tmpdir(), 'warrant-byte-tally-'));
-let counter = 0;
-const file = (text: string) => {
-  const path = join(tmp, `f${counter++}.csv`);
-  writeFileSync(path, text);
-  return path;
-};
+const file = tempFiles('warrant-byte-tally-');
 
 async function outcome(path: string, chunkSize: number): Promise<unknown> {
   const src = respondentsSource(path, { questions: ['Q1', 'Q2'], notApplicableCodes: [0, 9] });

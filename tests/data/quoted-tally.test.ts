@@ -3,21 +3,12 @@
 // with a last column on every data line that only papaparse (an outside parser) can split (an unquoted value holding
 // a quote), so that every row there is split by papaparse and tallied row by row. The same cube or the same
 // InputError, whatever the chunk size.
-import { mkdtempSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { readCube } from '../../src/data/cube.js';
-import { respondentsSource } from './sources.js';
+import { respondentsSource, tempFiles } from './sources.js';
 
-const tmp = mkdtempSync(join(tmpdir(), 'warrant-quoted-tally-'));
-let counter = 0;
-const file = (text: string) => {
-  const path = join(tmp, `f${counter++}.csv`);
-  writeFileSync(path, text);
-  return path;
-};
+const file = tempFiles('warrant-quoted-tally-');
 
 async function outcome(path: string, chunkSize: number): Promise<unknown> {
   const src = respondentsSource(path, { questions: ['q1', 'q2', 'q3'], notApplicableCodes: [9], period: 'year' });

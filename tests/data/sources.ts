@@ -1,4 +1,18 @@
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import type { CubeSource } from '../../src/data/cube.js';
+
+/** A function writing each text it is given to a new file in a fresh temporary folder, returning the file's path. */
+export function tempFiles(prefix: string): (text: string) => string {
+  const dir = mkdtempSync(join(tmpdir(), prefix));
+  let counter = 0;
+  return (text: string): string => {
+    const path = join(dir, `f${counter++}.csv`);
+    writeFileSync(path, text);
+    return path;
+  };
+}
 
 /** Source specs as the claims reader would normalize them, for the fixtures in tests/fixtures/data. */
 export function summarySource(path: string, extra: Partial<CubeSource> = {}): CubeSource {

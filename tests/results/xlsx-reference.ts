@@ -3,7 +3,7 @@
  * here as the reference the new writer is compared with part by part (tests/results/xlsx-same.test.ts).
  */
 import type { ClaimResult, ResultsFile } from '../../src/results/results.js';
-import { neutralise, workbookDate } from '../../src/results/xlsx.js';
+import { CLAIM_COLUMNS, SELECTION_COLUMNS, neutralise, workbookDate, type Column } from '../../src/results/xlsx.js';
 
 type ExcelModule = typeof import('exceljs');
 type Worksheet = import('exceljs').Worksheet;
@@ -27,36 +27,8 @@ function setNumber(sheet: Worksheet, row: number, col: number, value: number | n
   cell.numFmt = format;
 }
 
-const CLAIM_COLUMNS: Array<{ header: string; width: number; wrap?: boolean }> = [
-  { header: 'Claim id', width: 24, wrap: true },
-  { header: 'Claim', width: 60, wrap: true },
-  { header: 'Kind', width: 13 },
-  { header: 'Verdict', width: 16 },
-  { header: 'Key estimate', width: 26, wrap: true },
-  { header: 'Estimate', width: 11 },
-  { header: 'Interval lower', width: 11 },
-  { header: 'Interval upper', width: 11 },
-  { header: 'Confidence', width: 11 },
-  { header: 'p-value', width: 11 },
-  { header: 'Adjusted p-value', width: 11 },
-  { header: 'Respondents or units (n)', width: 16, wrap: true },
-  { header: 'Cautions', width: 80, wrap: true },
-];
-
-const SELECTION_COLUMNS: Array<{ header: string; width: number; wrap?: boolean }> = [
-  { header: 'Claim id', width: 24, wrap: true },
-  { header: 'Selection', width: 36, wrap: true },
-  { header: 'Respondents (n)', width: 14 },
-  { header: 'Agreeing', width: 11 },
-  { header: 'Rate', width: 9 },
-  { header: 'Interval lower', width: 11 },
-  { header: 'Interval upper', width: 11 },
-  { header: 'Confidence', width: 11 },
-  { header: 'Eligible (population)', width: 13 },
-  { header: 'Counts approximate', width: 12 },
-];
-
-function header(sheet: Worksheet, columns: typeof CLAIM_COLUMNS): void {
+// The column lists are the writer's own: this reference checks how they are written, not which columns there are.
+function header(sheet: Worksheet, columns: readonly Column[]): void {
   columns.forEach((c, i) => {
     setText(sheet, 1, i + 1, c.header);
     const col = sheet.getColumn(i + 1);
