@@ -28,6 +28,7 @@ import { InputError } from '../errors.js';
 import { requireOrdinaryFile } from '../files.js';
 import { isTrimmedSpace } from './rows.js';
 import type { ReadOptions, SheetRow, SplitTally } from './rows.js';
+import { ASCII_TEXT } from './tally.js';
 
 export type Delimiter = ',' | ';' | '\t';
 type Newline = '\n' | '\r\n' | '\r';
@@ -334,8 +335,6 @@ export function splitPlainRows(
 /** Per kept column, texts already made into strings, by a hash of their bytes (see InternTables). */
 export type ByteInternTables = Array<Map<number, { text: string; bytes: Uint8Array }> | undefined>;
 
-/** One-character strings for the ASCII bytes. */
-const ASCII = Array.from({ length: 128 }, (_, i) => String.fromCharCode(i));
 
 /**
  * Rows of bytes[from, end), well-formed UTF-8 with no quote, where `end` is just past a line feed: as `splitPlainRows`
@@ -358,7 +357,7 @@ export function splitByteRows(
   let at = from;
   const field = (column: number, s: number, e: number, hash: number): string => {
     if (keep[column] !== true || e === s) return '';
-    if (e - s === 1 && b[s]! < 128) return ASCII[b[s]!]!;
+    if (e - s === 1 && b[s]! < 128) return ASCII_TEXT[b[s]!]!;
     let table = intern[column];
     if (table === undefined) {
       table = new Map();

@@ -6,7 +6,6 @@
  *   ChartData --chartSpec--> Vega-Lite spec --vega-lite compile--> Vega spec --View(renderer none)--> SVG
  */
 import type { ChartData } from './model.js';
-import type { ChartDrawing } from './chart-pdf.js';
 import { percent } from '../format/numbers.js';
 import { CHART_FONT_FAMILY, textWidth } from './fonts.js';
 import { compileVegaLite, drawSpec, keepDrawing } from './chart-runtime.js';
@@ -717,13 +716,9 @@ function rememberedSvg(data: ChartData, options: ChartSizeOptions, urgent: boole
 
 async function renderChartSvg(data: ChartData, options: ChartSizeOptions, urgent: boolean): Promise<string> {
   const thread = chartThread();
-  const { svg, drawing } = thread ? await thread.draw(data, options, urgent) : await drawInProcess(data, options);
+  const { svg, drawing } = thread ? await thread.draw(data, options, urgent) : await drawSpec(chartSpec(data, options));
   keepDrawing(svg, drawing);
   return svg;
-}
-
-async function drawInProcess(data: ChartData, options: ChartSizeOptions): Promise<{ svg: string; drawing: ChartDrawing | undefined }> {
-  return drawSpec(chartSpec(data, options));
 }
 
 /** Whether charts are drawn on a second thread (chart-thread.ts; a build starts it). */

@@ -117,13 +117,8 @@ export class Layout {
    * gives are kept for drawing (see drawText).
    */
   private measure(text: string, face: Face, size: number, width: number, lineGap: number): Measured {
-    let list = this.measured.get(text);
-    if (list === undefined) {
-      list = [];
-      this.measured.set(text, list);
-    } else {
-      for (const m of list) if (m.face === face && m.size === size && m.width === width && m.lineGap === lineGap) return m;
-    }
+    const known = this.measurement(text, face, size, width, lineGap);
+    if (known !== undefined) return known;
     const doc = this.doc;
     doc.font(FONT_NAME[face]).fontSize(size);
     const internals = doc as unknown as TextInternals;
@@ -140,8 +135,15 @@ export class Layout {
     const m: Measured = { face, size, width, lineGap, height: doc.y - y, lines };
     doc.x = x;
     doc.y = y;
-    list.push(m);
+    const list = this.measured.get(text);
+    if (list === undefined) this.measured.set(text, [m]);
+    else list.push(m);
     return m;
+  }
+
+  /** The measurement of this text in this face, size, width and line gap, if it has been measured. */
+  private measurement(text: string, face: Face, size: number, width: number, lineGap: number): Measured | undefined {
+    return this.measured.get(text)?.find((m) => m.face === face && m.size === size && m.width === width && m.lineGap === lineGap);
   }
 
   /**
@@ -153,7 +155,7 @@ export class Layout {
   drawText(text: string, face: Face, size: number, x: number, y: number, width: number, lineGap: number): void {
     const doc = this.doc;
     const internals = doc as unknown as TextInternals;
-    const m = this.measured.get(text)?.find((c) => c.face === face && c.size === size && c.width === width && c.lineGap === lineGap);
+    const m = this.measurement(text, face, size, width, lineGap);
     const step = doc.currentLineHeight(true) + ((lineGap || internals._lineGap) || 0);
     const lineHeight = doc.currentLineHeight(true);
     const bottom = doc.page.height - doc.page.margins.bottom - 1;
