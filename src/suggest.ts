@@ -4,34 +4,68 @@
  * Communications of the ACM 7(3), 1964), compared case-insensitively with separators ignored.
  */
 
+/** Rows of the distance table, kept between calls (suggestions are asked for once per problem, possibly thousands). */
+let rows = [new Int32Array(64), new Int32Array(64), new Int32Array(64)];
+
 /** Optimal string alignment distance between a and b (insertions, deletions, substitutions, adjacent swaps). */
 export function editDistance(a: string, b: string): number {
+  return boundedDistance(a, b, Infinity);
+}
+
+/**
+ * The optimal string alignment distance between a and b when it is at most `bound`, else some number above `bound`
+ * (the work stops as soon as the distance is known to exceed it).
+ */
+function boundedDistance(a: string, b: string, bound: number): number {
   const m = a.length;
   const n = b.length;
   if (m === 0) return n;
   if (n === 0) return m;
+  // The distance is at least the difference in length (each extra character costs one insertion).
+  if (Math.abs(m - n) > bound) return bound + 1;
+  if (rows[0]!.length <= n) rows = [new Int32Array(2 * n + 2), new Int32Array(2 * n + 2), new Int32Array(2 * n + 2)];
   // Three rolling rows: two back (for transpositions), previous, current.
-  let prev2 = new Array<number>(n + 1).fill(0);
-  let prev = Array.from({ length: n + 1 }, (_, j) => j);
-  let cur = new Array<number>(n + 1).fill(0);
+  let [prev2, prev, cur] = rows as [Int32Array, Int32Array, Int32Array];
+  for (let j = 0; j <= n; j++) prev[j] = j;
+  let prevMin = 0;
   for (let i = 1; i <= m; i++) {
     cur[0] = i;
+    let rowMin = i;
+    const ai = a.charCodeAt(i - 1);
     for (let j = 1; j <= n; j++) {
-      const cost = a[i - 1] === b[j - 1] ? 0 : 1;
+      const cost = ai === b.charCodeAt(j - 1) ? 0 : 1;
       let best = Math.min(prev[j]! + 1, cur[j - 1]! + 1, prev[j - 1]! + cost);
-      if (i > 1 && j > 1 && a[i - 1] === b[j - 2] && a[i - 2] === b[j - 1]) {
+      if (i > 1 && j > 1 && ai === b.charCodeAt(j - 2) && a.charCodeAt(i - 2) === b.charCodeAt(j - 1)) {
         best = Math.min(best, prev2[j - 2]! + 1);
       }
       cur[j] = best;
+      if (best < rowMin) rowMin = best;
     }
-    [prev2, prev, cur] = [prev, cur, prev2];
+    // Each cell of a row is at least the smallest cell of one of the two rows before it: once two rows in a row
+    // exceed the bound, so does every later row, and the distance with them.
+    if (rowMin > bound && prevMin > bound) return bound + 1;
+    prevMin = rowMin;
+    const t = prev2;
+    prev2 = prev;
+    prev = cur;
+    cur = t;
   }
   return prev[n]!;
 }
 
+/** Squashed candidates, remembered: the same few key and column names are candidates for every problem. */
+const SQUASHED_KEPT = 10_000;
+const squashed = new Map<string, string>();
+
 /** Lower case with separators removed, so that minRespondents, min-respondents and min_respondents compare equal. */
 function squash(s: string): string {
-  return s.toLowerCase().replace(/[\s_-]+/g, '');
+  let t = squashed.get(s);
+  if (t === undefined) {
+    t = s.toLowerCase().replace(/[\s_-]+/g, '');
+    if (squashed.size >= SQUASHED_KEPT) squashed.clear();
+    squashed.set(s, t);
+  }
+  return t;
 }
 
 /**
@@ -41,19 +75,31 @@ function squash(s: string): string {
  * "Computing" suggests "Computing and Informatics".
  */
 export function closest(word: string, candidates: readonly string[]): string | undefined {
-  const w = squash(word);
+  const w = word.toLowerCase().replace(/[\s_-]+/g, '');
   let best: string | undefined;
   let bestScore = Infinity;
   for (const c of candidates) {
     const cc = squash(c);
     if (cc === w) return c;
-    const d = editDistance(w, cc);
     const contains = w.length > 0 && (cc.includes(w) || w.includes(cc));
+    // One name inside the other: the distance is the difference in length (deletions only, and no fewer edits can
+    // make up the difference).
+    if (contains) {
+      const score = Math.abs(w.length - cc.length) / 2;
+      if (score < bestScore) {
+        best = c;
+        bestScore = score;
+      }
+      continue;
+    }
     const limit = Math.max(2, Math.floor(Math.max(w.length, cc.length) / 3));
-    const score = contains ? d / 2 : d;
-    if (score < bestScore && (contains || d <= limit)) {
+    // Only a distance within the limit and below the best so far can change the answer.
+    const bound = Math.min(limit, Math.ceil(bestScore) - 1);
+    if (bound < 0) continue;
+    const d = boundedDistance(w, cc, bound);
+    if (d <= bound && d < bestScore) {
       best = c;
-      bestScore = score;
+      bestScore = d;
     }
   }
   return best;
