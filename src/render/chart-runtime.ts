@@ -103,7 +103,7 @@ const SLOT_KEYS = new Set(['title', 'text', 'subtitle', 'height', 'tickCount', '
 const SLOT_ARRAYS = new Set(['sort', 'domain']);
 
 /** A place that varies: the value there, in the order met while walking the spec. */
-type Slot = string | number;
+export type Slot = string | number;
 
 /** A slot-holding leaf: non-empty strings and finite non-zero numbers (empty strings and zeros can change a compile). */
 function slotValue(v: unknown): v is Slot {
@@ -170,19 +170,19 @@ function hostileStandIns(slots: Slot[]): Slot[] {
  * How a stand-in written inside a string must be replaced: as it is, escaped as JSON writes a string (Vega-Lite's
  * string literals in expressions), or with only its double quotes escaped (Vega-Lite's tooltip and description keys).
  */
-type Writing = 'raw' | 'js' | 'dq';
+export type Writing = 'raw' | 'js' | 'dq';
 const WRITINGS: Writing[] = ['raw', 'js', 'dq'];
 const escapeJs = (s: string): string => JSON.stringify(s).slice(1, -1).replace(/\u2028/g, '\\u2028').replace(/\u2029/g, '\\u2029');
 
 /** A string of the template: the pieces between stand-ins, the slot of each stand-in and its writing. */
-interface StringPart {
+export interface StringPart {
   pieces: string[];
   slots: number[];
   writing: Writing;
 }
 
 /** The compiled shape: a runtime spec in which leaves are replaced by their slot's value. */
-type Template = { kind: 'value'; slot: number } | { kind: 'string'; part: StringPart } | { kind: 'array'; items: Template[] } | { kind: 'object'; entries: Array<[string, Template]> } | { kind: 'const'; value: unknown };
+export type Template = { kind: 'value'; slot: number } | { kind: 'string'; part: StringPart } | { kind: 'array'; items: Template[] } | { kind: 'object'; entries: Array<[string, Template]> } | { kind: 'const'; value: unknown };
 
 class NotTemplatable extends Error {}
 
@@ -266,8 +266,12 @@ function writeString(part: StringPart, values: Slot[]): string {
   return s;
 }
 
-/** The runtime spec of a chart: the template with its slots filled. Fresh objects every time (a view may change them). */
-function instantiate(t: Template, values: Slot[]): unknown {
+/**
+ * The runtime spec of a chart: the template with its slots filled, read walking the template. Fresh objects every
+ * time (a view may change them). The charts are drawn from the template compiled into a function
+ * (compileTemplate), which must give the very same spec; this walk is its reference.
+ */
+export function instantiate(t: Template, values: Slot[]): unknown {
   switch (t.kind) {
     case 'value':
       return values[t.slot];
@@ -277,7 +281,11 @@ function instantiate(t: Template, values: Slot[]): unknown {
       return t.items.map((x) => instantiate(x, values));
     case 'object': {
       const out: Record<string, unknown> = {};
-      for (const [k, x] of t.entries) out[k] = instantiate(x, values);
+      for (const [k, x] of t.entries) {
+        // An own property, as JSON.parse makes it (assigning "__proto__" would set the prototype instead).
+        if (k === '__proto__') Object.defineProperty(out, k, { value: instantiate(x, values), enumerable: true, writable: true, configurable: true });
+        else out[k] = instantiate(x, values);
+      }
       return out;
     }
     default:
@@ -285,12 +293,61 @@ function instantiate(t: Template, values: Slot[]): unknown {
   }
 }
 
+/** Fills a template's slots: the runtime spec of a chart of its shape, as fresh objects. */
+export type Filler = (values: Slot[]) => unknown;
+
+const escapeDq = (s: string): string => s.replace(/"/g, '\\"');
+
+/**
+ * A template compiled into one function that builds the runtime spec as object and array literals, with the slots
+ * read from its argument: the engine makes each chart's spec by copying the literals' constant parts, in objects of
+ * stable shapes, instead of walking the template entry by entry. Gives the same spec as instantiate (tested on
+ * hostile values); values that are not JSON primitives are handed over as they are, as instantiate does.
+ */
+export function compileTemplate(t: Template): Filler {
+  const consts: unknown[] = [];
+  const literal = (x: unknown): string => {
+    if (x === null || typeof x === 'boolean' || typeof x === 'string') return JSON.stringify(x);
+    if (typeof x === 'number' && Number.isFinite(x) && !Object.is(x, -0)) return JSON.stringify(x);
+    consts.push(x);
+    return `c[${consts.length - 1}]`;
+  };
+  const slotText = (slot: number, writing: Writing): string =>
+    writing === 'js' ? `e(String(v[${slot}]))` : writing === 'dq' ? `d(String(v[${slot}]))` : `String(v[${slot}])`;
+  const emit = (x: Template): string => {
+    switch (x.kind) {
+      case 'value':
+        return `v[${x.slot}]`;
+      case 'string': {
+        const { pieces, slots, writing } = x.part;
+        let code = `(${JSON.stringify(pieces[0])}`;
+        for (let i = 0; i < slots.length; i++) code += `+${slotText(slots[i] as number, writing)}+${JSON.stringify(pieces[i + 1])}`;
+        return `${code})`;
+      }
+      case 'array':
+        return `[${x.items.map(emit).join(',')}]`;
+      case 'object':
+        // A computed "__proto__" key makes an own property, as JSON.parse does; a plain one would set the prototype.
+        return `{${x.entries.map(([k, y]) => `${k === '__proto__' ? '["__proto__"]' : JSON.stringify(k)}:${emit(y)}`).join(',')}}`;
+      default:
+        return literal(x.value);
+    }
+  };
+  const body = emit(t);
+  const make = new Function('e', 'd', 'c', `'use strict';return function fill(v){return ${body};};`) as (
+    e: (s: string) => string,
+    d: (s: string) => string,
+    c: unknown[],
+  ) => Filler;
+  return make(escapeJs, escapeDq, consts);
+}
+
 /** A runtime spec as plain JSON values (vega.parse gives class instances that serialise to plain objects). */
 const plainJson = (x: unknown): unknown => JSON.parse(JSON.stringify(x)) as unknown;
 
-/** Shapes met so far: their template, null for a shape compiled chart by chart, 'seen' for a shape met once. */
+/** Shapes met so far: their compiled template, null for a shape compiled chart by chart, 'seen' for a shape met once. */
 const SHAPES_KEPT = 256;
-const shapes = new Map<string, Template | null | 'seen'>();
+const shapes = new Map<string, Filler | null | 'seen'>();
 
 async function runtimeSpecOf(spec: object): Promise<object> {
   const { vega, vl } = await loadChartLibs();
@@ -301,11 +358,11 @@ async function runtimeSpecOf(spec: object): Promise<object> {
   };
   const { key, slots } = splitSpec(spec as Json);
   const known = shapes.get(key);
-  if (known !== undefined && known !== 'seen') return known === null ? parse(spec) : (instantiate(known, slots) as object);
+  if (known !== undefined && known !== 'seen') return known === null ? parse(spec) : (known(slots) as object);
   // The first chart of a shape is compiled as it is (which also reports its warnings); a shape met a second time is
   // learnt, so that a shape drawn once costs no more than before.
   const own = parse(spec);
-  let template: Template | null | 'seen' = 'seen';
+  let template: Filler | null | 'seen' = 'seen';
   if (known === 'seen') {
     template = null;
     try {
@@ -313,9 +370,9 @@ async function runtimeSpecOf(spec: object): Promise<object> {
       const hostile = hostileStandIns(slots);
       const a = plainJson(parse(fillSpec(spec as Json, slots, plain) as object));
       const b = plainJson(parse(fillSpec(spec as Json, slots, hostile) as object));
-      const learnt = learn(a, b, plain, hostile);
+      const learnt = compileTemplate(learn(a, b, plain, hostile));
       // The chart's own values, written into the template, must give the chart's own compile.
-      const mine = instantiate(learnt, slots);
+      const mine = learnt(slots);
       if (isDeepStrictEqual(mine, plainJson(own))) template = learnt;
       else if (process.env.WARRANT_DEBUG_CHARTS) console.error('chart shape not templated:', firstDifference(mine, plainJson(own), ''));
     } catch (e) {

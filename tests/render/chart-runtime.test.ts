@@ -8,7 +8,8 @@ import fc from 'fast-check';
 import * as vega from 'vega';
 import * as vl from 'vega-lite';
 import { chartSpec } from '../../src/render/charts.js';
-import { loadChartLibs, shapeStats, specSvg } from '../../src/render/chart-runtime.js';
+import { isDeepStrictEqual } from 'node:util';
+import { compileTemplate, instantiate, loadChartLibs, shapeStats, specSvg, type Slot, type Template } from '../../src/render/chart-runtime.js';
 import { sampleModel } from './sample-model.js';
 import type { ChartData } from '../../src/render/model.js';
 
@@ -56,5 +57,67 @@ describe('specSvg', () => {
     );
     // The random charts share shapes, so templates were learnt and used.
     expect(shapeStats().templated).toBeGreaterThan(before);
+  });
+});
+
+/** Hostile text: quotes, backslashes, line and paragraph separators, template-literal and script-like pieces. */
+const hostileText = fc.oneof(
+  fc.string({ unit: fc.constantFrom('a', '"', "'", '\\', '\n', '\u2028', '\u2029', '`', '$', '{', '}', '</', 'é', '\u0000', ' '), maxLength: 12 }),
+  fc.constantFrom('__proto__', 'constructor', 'prototype', '1', '01', '', 'toString'),
+  fc.string({ unit: 'binary', maxLength: 8 }),
+);
+const hostileNumber = fc.oneof(fc.double(), fc.constantFrom(-0, 0, Number.NaN, Infinity, -Infinity, 1e308, 5e-324, -1));
+const SLOTS = 6;
+
+/** Templates of any form: every kind of node, nested, with hostile keys, pieces and constants. */
+const { template } = fc.letrec<{ template: Template }>((tie) => ({
+  template: fc.oneof(
+    { depthSize: 'small', withCrossShrink: true },
+    fc.record({ kind: fc.constant('const' as const), value: fc.oneof(fc.constant(null), fc.boolean(), hostileNumber, hostileText, fc.constant({ shared: true })) }),
+    fc.record({ kind: fc.constant('value' as const), slot: fc.integer({ min: 0, max: SLOTS - 1 }) }),
+    fc
+      .tuple(fc.array(fc.tuple(fc.integer({ min: 0, max: SLOTS - 1 }), hostileText), { minLength: 1, maxLength: 3 }), hostileText, fc.constantFrom('raw' as const, 'js' as const, 'dq' as const))
+      .map(([pairs, first, writing]): Template => ({ kind: 'string', part: { pieces: [first, ...pairs.map((p) => p[1])], slots: pairs.map((p) => p[0]), writing } })),
+    fc.record({ kind: fc.constant('array' as const), items: fc.array(tie('template'), { maxLength: 4 }) }),
+    fc
+      .uniqueArray(fc.tuple(hostileText, tie('template')), { maxLength: 5, selector: (e) => e[0] })
+      .map((entries): Template => ({ kind: 'object', entries })),
+  ),
+}));
+const slotValues = fc.array(fc.oneof(hostileText, hostileNumber) as fc.Arbitrary<Slot>, { minLength: SLOTS, maxLength: SLOTS });
+
+/** Same values, same own keys in the same order, same prototypes, all the way down. */
+function sameSpec(a: unknown, b: unknown): boolean {
+  if (!isDeepStrictEqual(a, b)) return false;
+  if (a === null || typeof a !== 'object') return true;
+  const ka = Object.keys(a);
+  const kb = Object.keys(b as object);
+  return ka.join('\u0000') === kb.join('\u0000') && ka.every((k) => sameSpec((a as Record<string, unknown>)[k], (b as Record<string, unknown>)[k]));
+}
+
+describe('compileTemplate', () => {
+  it('gives the same runtime spec as walking the template, for any template and hostile slot values', () => {
+    fc.assert(
+      fc.property(template, slotValues, (t, values) => {
+        const fill = compileTemplate(t);
+        const compiled = fill(values);
+        expect(sameSpec(compiled, instantiate(t, values))).toBe(true);
+        // Fresh objects every time: a view may change the spec it is given.
+        if (t.kind === 'object' || t.kind === 'array') expect(fill(values)).not.toBe(compiled);
+      }),
+      { numRuns: 400 },
+    );
+  });
+
+  it('writes a slot inside a string as the template says: as it is, escaped as a JSON string, or with its double quotes escaped', () => {
+    const part = (writing: 'raw' | 'js' | 'dq'): Template => ({ kind: 'string', part: { pieces: ['x=', ';'], slots: [0], writing } });
+    const values: Slot[] = ['a"b\\c\n'];
+    expect(compileTemplate(part('raw'))(values)).toBe('x=a"b\\c\n;');
+    expect(compileTemplate(part('js'))(values)).toBe('x=a\\"b\\\\c\\n;');
+    expect(compileTemplate(part('dq'))(values)).toBe('x=a\\"b\\c\n;');
+    // "__proto__" stays an own key, as JSON.parse leaves it.
+    const own = compileTemplate({ kind: 'object', entries: [['__proto__', { kind: 'value', slot: 0 }]] })(values) as object;
+    expect(Object.keys(own)).toEqual(['__proto__']);
+    expect(Object.getPrototypeOf(own)).toBe(Object.prototype);
   });
 });
