@@ -158,3 +158,11 @@ declare module 'pdfkit' {
   const PDFDocument: new (options?: PDFKit.DocumentOptions) => PDFKit.Document;
   export default PDFDocument;
 }
+
+declare module 'linebreak' {
+  /** The Unicode line breaking algorithm (UAX #14), as pdfkit's line wrapper uses it. */
+  export default class LineBreaker {
+    constructor(text: string);
+    nextBreak(): { position: number; required: boolean } | null;
+  }
+}

@@ -7,18 +7,12 @@ import { drawChart } from '../chart-pdf.js';
 import { chartDrawing } from '../chart-runtime.js';
 import { FONT_NAME, fontFor, type Face } from '../fonts.js';
 import { writeLine } from './fragment.js';
+import { wordsOf, wordWidth, wrapWords, type WidthFont, type WrappedLine, type Words } from './wrap.js';
 import {
   COLOR, CONTENT_BOTTOM, CONTENT_WIDTH, CONTINUATION_HEIGHT, LINE_GAP, MARGIN, SPACED_CAPS, PARA_GAP, SIZE, SLACK, svgSize,
   type Block, type Doc, type Struct,
 } from './style.js';
 
-/** One line of a wrapped text as pdfkit's line wrapper hands it to be drawn. */
-interface WrappedLine {
-  text: string;
-  textWidth: number;
-  wordCount: number;
-  lineWidth: number;
-}
 
 /** A text measured in one face, size, width and line gap: its height and the lines it wraps into. */
 interface Measured {
@@ -32,7 +26,7 @@ interface Measured {
 
 /** The parts of pdfkit's text machinery that measuring once and drawing from the measurement uses. */
 interface TextInternals {
-  _font: { name: string } | null;
+  _font: ({ name: string } & WidthFont) | null;
   _fontSize: number;
   _lineGap: number;
   _initOptions(x: number, y: number, options: Record<string, unknown>): Record<string, unknown>;
@@ -54,8 +48,9 @@ function postscriptName(face: Face): string {
 
 export class Layout {
   readonly doc: Doc;
-  /** Measured texts by their text (see measure). */
+  /** Measured texts by their text (see measure), with the text's words once it has been wrapped by wrapWords. */
   private readonly measured = new Map<string, Measured[]>();
+  private readonly wordsByText = new Map<string, Words>();
   /** Where blocks start on the current page (below a continuation line, when there is one). */
   private pageTop = MARGIN.top;
   /**
@@ -127,11 +122,16 @@ export class Layout {
     const options = internals._initOptions({ width, lineGap });
     options.height = Infinity;
     const gap = (options.lineGap as number) || internals._lineGap || 0;
-    const lines: WrappedLine[] = [];
-    internals._text(text, x, y, options, (line, o) => {
-      lines.push({ text: line, textWidth: o.textWidth, wordCount: o.wordCount, lineWidth: o.lineWidth });
-      doc.y += doc.currentLineHeight(true) + gap;
-    });
+    let lines = this.wrap(text, size, width);
+    if (lines === undefined) {
+      lines = [];
+      internals._text(text, x, y, options, (line, o) => {
+        lines!.push({ text: line, textWidth: o.textWidth, wordCount: o.wordCount, lineWidth: o.lineWidth });
+        doc.y += doc.currentLineHeight(true) + gap;
+      });
+    } else {
+      for (let i = 0; i < lines.length; i++) doc.y += doc.currentLineHeight(true) + gap;
+    }
     const m: Measured = { face, size, width, lineGap, height: doc.y - y, lines };
     doc.x = x;
     doc.y = y;
@@ -139,6 +139,21 @@ export class Layout {
     if (list === undefined) this.measured.set(text, [m]);
     else list.push(m);
     return m;
+  }
+
+  /**
+   * The lines pdfkit's wrapper would make of `text` in the current font at `size` in a line `width` wide (wrap.ts), or
+   * undefined for a text only pdfkit's wrapper wraps as it does.
+   */
+  private wrap(text: string, size: number, width: number): WrappedLine[] | undefined {
+    const font = (this.doc as unknown as TextInternals)._font;
+    if (!font) return undefined;
+    let words = this.wordsByText.get(text);
+    if (words === undefined) {
+      words = wordsOf(text);
+      this.wordsByText.set(text, words);
+    }
+    return wrapWords(words, width, (word) => wordWidth(font, size, word));
   }
 
   /** The measurement of this text in this face, size, width and line gap, if it has been measured. */

@@ -1,0 +1,140 @@
+/**
+ * Wrapping a text into lines as pdfkit's line wrapper (LineWrapper, pdfkit 0.20) wraps it for doc.text with
+ * { width, lineGap } and nothing else: the same break opportunities (the linebreak package's UAX #14 breaker, the one
+ * pdfkit uses), the same word widths to the last bit (pdfkit's sums, scalings and float32 rounding, done in the same
+ * order) and the same decisions, so the lines and their measures are the ones pdfkit's wrapper hands over. What costs in
+ * pdfkit is not the arithmetic but its machinery: an event emitter and listeners per line, the break finder run for
+ * every measurement, and every word's width worked out again on each call. Here a text's words are found once, whatever
+ * width or face it is measured in, and each word's advance is kept per font.
+ *
+ * A text this does not wrap exactly as pdfkit does is left to pdfkit (wrapWords returns undefined): a word wider than
+ * the line (pdfkit cuts it between letters), a soft hyphen (pdfkit may draw a hyphen for it), a width of zero or less.
+ */
+import LineBreaker from 'linebreak';
+
+/** One wrapped line as pdfkit's wrapper hands it to be drawn. */
+export interface WrappedLine {
+  text: string;
+  textWidth: number;
+  wordCount: number;
+  lineWidth: number;
+}
+
+/** A text cut at its break opportunities: each word with the spaces after it, and whether a line must end after it. */
+export interface Words {
+  words: string[];
+  required: boolean[];
+  /** False when the text holds a soft hyphen, which pdfkit's wrapper treats specially. */
+  plain: boolean;
+}
+
+/** The words of a text as pdfkit's wrapper takes them (LineWrapper.eachWord). */
+export function wordsOf(text: string): Words {
+  const words: string[] = [];
+  const required: boolean[] = [];
+  const breaker = new LineBreaker(text);
+  let last = 0;
+  for (let bk = breaker.nextBreak(); bk; bk = breaker.nextBreak()) {
+    words.push(text.slice(last, bk.position));
+    required.push(bk.required);
+    last = bk.position;
+  }
+  return { words, required, plain: !text.includes('\u00AD') };
+}
+
+const float = new Float32Array(1);
+const floatBits = new Uint32Array(float.buffer);
+
+/** pdfkit's PDFNumber: the nearest float32 at or below n's magnitude (widths are kept as float32 values). */
+export function pdfNumber(n: number): number {
+  const rounded = Math.fround(n);
+  if (rounded <= n) return rounded;
+  float[0] = n;
+  floatBits[0] = n <= 0 ? floatBits[0]! + 1 : floatBits[0]! - 1;
+  return float[0]!;
+}
+
+/** The part of pdfkit's embedded font that widths come from. */
+export interface WidthFont {
+  layout(text: string, features: undefined, onlyWidth: true): { advanceWidth: number };
+}
+
+/** Each font's word advances (in thousandths of the size), as pdfkit's font layout sums them. */
+const advances = new WeakMap<object, Map<string, number>>();
+
+/**
+ * The width pdfkit's wrapper gives a word in `font` at `size` (LineWrapper.wordWidth with no character or word
+ * spacing and horizontal scaling 100: doc.widthOfString, then PDFNumber), the word's advance kept per font.
+ */
+export function wordWidth(font: WidthFont, size: number, word: string): number {
+  let known = advances.get(font);
+  if (known === undefined) {
+    known = new Map();
+    advances.set(font, known);
+  }
+  let advance = known.get(word);
+  if (advance === undefined) {
+    advance = font.layout(word, undefined, true).advanceWidth;
+    known.set(word, advance);
+  }
+  // EmbeddedFont.widthOfString, then doc.widthOfString's spacing and scaling, then wordWidth's spacing: in pdfkit's order.
+  const fontWidth = advance * (size / 1000);
+  const docWidth = ((fontWidth + 0 * (word.length - 1)) * 100) / 100;
+  return pdfNumber(docWidth + 0 + 0);
+}
+
+/**
+ * The lines pdfkit's wrapper makes of `words` in a line `width` wide, each word's width given by `widthOf`; undefined
+ * when the text needs what only pdfkit's wrapper does (a word wider than the line, a soft hyphen, no width).
+ */
+export function wrapWords(words: Words, width: number, widthOf: (word: string) => number): WrappedLine[] | undefined {
+  if (!words.plain || !(width > 0)) return undefined;
+  // LineWrapper's line width: horizontal scaling 100, one column, the column gap of 18 times no other column.
+  const lineWidth = ((width * 100) / 100 - 18 * (1 - 1)) / 1;
+  const lines: WrappedLine[] = [];
+  let buffer = '';
+  let textWidth = 0;
+  let wc = 0;
+  let spaceLeft = lineWidth;
+  const emitLine = (): void => {
+    lines.push({ text: buffer, textWidth: textWidth + 0 * (wc - 1), wordCount: wc, lineWidth });
+  };
+  const list = words.words;
+  const required = words.required;
+  for (let i = 0; i < list.length; i++) {
+    const word = list[i]!;
+    const w = widthOf(word);
+    if (w > lineWidth + 0) return undefined;
+    if (i === 0 || required[i - 1]) spaceLeft = lineWidth;
+    const fits = w <= spaceLeft;
+    if (fits) {
+      buffer += word;
+      textWidth += w;
+      wc++;
+    }
+    if (required[i] || !fits) {
+      if (required[i] && w > spaceLeft) {
+        emitLine();
+        buffer = word;
+        textWidth = w;
+        wc = 1;
+      }
+      emitLine();
+      if (required[i]) {
+        spaceLeft = lineWidth;
+        buffer = '';
+        textWidth = 0;
+        wc = 0;
+      } else {
+        spaceLeft = lineWidth - w;
+        buffer = word;
+        textWidth = w;
+        wc = 1;
+      }
+    } else {
+      spaceLeft -= w;
+    }
+  }
+  if (wc > 0) emitLine();
+  return lines;
+}
