@@ -116,7 +116,9 @@ export function testClaims(
 ): { analyses: Analysis[]; decisions: Decision[]; tested: number; stability: Array<Stability | undefined> } {
   const byId = new Map(cubes.map((c) => [c.sourceId, c]));
   const periodColumns = Object.fromEntries(claims.sources.flatMap((s) => (s.period ? [[s.id, s.period]] : [])));
-  const ctx = { minRespondents: claims.minRespondents, claimsFile: claimsDisplay, periodColumns };
+  // No analysis here needs its detectable difference at 1 − confidence: atThreshold below works it out at the
+  // threshold that decided each verdict, and the analyses at other levels are for their verdicts only.
+  const ctx = { minRespondents: claims.minRespondents, claimsFile: claimsDisplay, periodColumns, detectable: false };
   const resolved = claims.claims.map((written) => {
     const cube = byId.get(written.source);
     if (!cube) throw new Error(`internal: no data loaded for source "${written.source}"`);

@@ -81,6 +81,7 @@ export function analyseChange(written: ChangeClaim, cube: Cube, ctx: CompareCont
     claim.sided,
     claim.confidence,
     wanted,
+    { detectable: ctx.detectable !== false },
   );
   return {
     ...base,

@@ -101,6 +101,7 @@ export function analyseCompare(claim: CompareClaim, cube: Cube, ctx: CompareCont
     claim.sided,
     claim.confidence,
     wanted,
+    { detectable: ctx.detectable !== false },
   );
   return {
     ...base,

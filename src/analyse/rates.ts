@@ -105,7 +105,8 @@ export interface TwoRates {
 
 /**
  * Test the first rate against the second in the claim's direction: pooled z test, or Fisher's exact test when an
- * expected count is below 5; Newcombe's interval for the difference; Cohen's h; the detectable difference.
+ * expected count is below 5; Newcombe's interval for the difference; Cohen's h; the detectable difference (unless
+ * `options.detectable` is false, see AnalysisSettings.detectable).
  */
 export function compareRates(
   firstIn: RateSummary,
@@ -114,6 +115,7 @@ export function compareRates(
   sided: Sided,
   confidence: number,
   wanted?: FpcChoice,
+  options: { detectable?: boolean } = {},
 ): TwoRates {
   const alternative = alternativeFor(expect, sided);
   const useFisher = smallExpected(firstIn.agree, firstIn.n, secondIn.agree, secondIn.n);
@@ -145,7 +147,7 @@ export function compareRates(
   // undirected claim, the larger of the two directions). Undefined when no gap in that direction is detectable.
   // With the correction each group counts as its effective size n / f (Cochran 1977, §3.3).
   let detectable: number | undefined;
-  if (second.rate > 0 && second.rate < 1) {
+  if (options.detectable !== false && second.rate > 0 && second.rate < 1) {
     const m1 = corrected ? effectiveSize(first.n, N1) : first.n;
     const m2 = corrected ? effectiveSize(second.n, N2) : second.n;
     const both = minDetectableDifference(m1, m2, second.rate, { alpha: 1 - confidence, power: 0.8, sided: testSided });

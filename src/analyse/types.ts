@@ -307,6 +307,12 @@ export interface AnalysisSettings {
   minRespondents: number;
   /** Period column per source id, where the claims file names one (for change, trend and relative periods). */
   periodColumns?: Record<string, string>;
+  /**
+   * False when the caller has no use for a compare or change claim's smallest detectable difference at
+   * 1 − confidence: the build works it out again at the threshold that decided the verdict (atThreshold in
+   * detectable.ts), and an analysis at another level only for its verdict needs none. Default true.
+   */
+  detectable?: boolean;
 }
 
 export type AnalysisFor<C extends Claim> = C extends CompareClaim ? CompareAnalysis : AssociationAnalysis;

@@ -287,6 +287,31 @@ export interface Related {
  * with the rest of the group).
  */
 export function relate(cube: Cube, focus: Filter, against: Filter): Related {
+  // A claim is analysed again at other confidence levels (verdict stability): its two selections are related once.
+  let known = relatedOf.get(cube);
+  if (known === undefined) {
+    known = new Map();
+    relatedOf.set(cube, known);
+  }
+  const key = `${filterKey(focus)}\n${filterKey(against)}`;
+  let r = known.get(key);
+  if (r === undefined) {
+    r = relateNow(cube, focus, against);
+    known.set(key, r);
+  }
+  return r;
+}
+
+/** Per cube: relate's answer by the two filters' texts (filterKey). Only answers are kept: a filter the cube cannot meet throws each time. */
+const relatedOf = new WeakMap<Cube, Map<string, Related>>();
+
+/** A filter as text: two filters with the same text select alike (JSON, with undefined kept apart from null). */
+function filterKey(filter: Filter): string {
+  return JSON.stringify(filter, (_, v: unknown) => (v === undefined ? UNDEFINED_KEY : v));
+}
+const UNDEFINED_KEY = { '\u0000undefined': true };
+
+function relateNow(cube: Cube, focus: Filter, against: Filter): Related {
   checkFilter(cube, focus);
   checkFilter(cube, against);
   const f = new Set(matching(cube, focus));
