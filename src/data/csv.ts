@@ -13,7 +13,8 @@
  *   the byte); text without double quotes is split on the newline and the delimiter.
  * - papaparse (loaded only then): text with quotes is fed, piece by piece, to papaparse's incremental parser
  *   (`Papa.Parser.parse(text, base, ignoreLastRow)`), which returns the complete records and where the unfinished one
- *   starts.
+ *   starts; but a line cut between two reads waits for the rest, and is then split on its own when it is plainly
+ *   regular (splitQuotedLine), so that a file with quoted names does not load papaparse for its cut lines.
  * Only the unfinished record is carried over, so memory does not grow with the file.
  *
  * The delimiter (',' ';' or tab) and the line ending are taken from the header line (the first non-empty line with a
@@ -628,6 +629,22 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
         pending = pending.slice(last + nl.length);
         yield rows;
         return;
+      }
+      // With quotes, no line feed means no whole record yet (a read that ended inside a line): it waits for the next
+      // piece, where papaparse would return nothing and leave it. One whole line is split on its own, as on the byte
+      // path (splitQuotedLine), so that lines cut between two reads do not load papaparse.
+      if (dialect!.newline !== '\r') {
+        const lf = pending.indexOf('\n');
+        if (lf < 0) return;
+        const crlf = dialect!.newline === '\r\n';
+        if (lf === pending.length - 1 && (!crlf || pending.charCodeAt(lf - 1) === 13)) {
+          const record = splitQuotedLine(pending.slice(0, lf - (crlf ? 1 : 0)), dialect!.delimiter);
+          if (record !== undefined) {
+            pending = '';
+            yield* emit([record]);
+            return;
+          }
+        }
       }
       const result = (await quotedParser()).parse(pending, 0, true) as Papa.ParseResult<string[]>;
       checkErrors(result.errors, result.data.length);
