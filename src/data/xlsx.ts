@@ -282,7 +282,7 @@ async function* parsePart<T>(
   kind: PartKind = 'small',
 ): AsyncGenerator<T> {
   const count = inflateCounter(file, entry, kind);
-  const stream = await openEntry(zip, entry);
+  let stream: (NodeJS.ReadableStream & { destroy(): void }) | undefined;
   const decoder = new TextDecoder('utf-8');
   const parser = new SaxesParser({ xmlns: false });
   let failure: Error | undefined;
@@ -296,6 +296,8 @@ async function* parsePart<T>(
     return drain();
   };
   try {
+    // Opening checks the part's local header, which a damaged zip can fail like any later step.
+    stream = await openEntry(zip, entry);
     for await (const raw of stream as AsyncIterable<Buffer>) {
       count(raw.length);
       const step = chunkSize !== undefined && chunkSize > 0 ? chunkSize : raw.length;
@@ -318,7 +320,7 @@ async function* parsePart<T>(
       fix: 'Open the workbook in a spreadsheet program and save it again as .xlsx',
     });
   } finally {
-    stream.destroy();
+    stream?.destroy();
   }
 }
 
@@ -564,8 +566,10 @@ async function* sheetRows(
   close: () => void,
 ): AsyncGenerator<SheetRow[]> {
   try {
-    const stream = await openSheetEntry(zip, entry, ctx.file);
+    let stream: (NodeJS.ReadableStream & { destroy(): void }) | undefined;
     try {
+      // Opening checks the part's local header, which a damaged zip can fail like any later step.
+      stream = await openSheetEntry(zip, entry, ctx.file);
       const decoder = new TextDecoder('utf-8');
       const scanner = new SheetScanner(ctx);
       // Plain rows are read from the bytes (feedBytes); the rest is decoded and scanned as text. The decoder may only
@@ -607,7 +611,7 @@ async function* sheetRows(
         fix: 'Open the workbook in a spreadsheet program and save it again as .xlsx',
       });
     } finally {
-      stream.destroy();
+      stream?.destroy();
     }
   } finally {
     close();
