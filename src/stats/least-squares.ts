@@ -41,9 +41,9 @@ export interface Coefficient {
   name: string;
   estimate: number;
   standardError: number;
-  /** estimate / standardError. */
+  /** estimate / standardError (NaN when both are exactly 0, in an exact fit). */
   t: number;
-  /** Two-sided p-value of t with dfResidual degrees of freedom. */
+  /** Two-sided p-value of t with dfResidual degrees of freedom (NaN when t is). */
   p: number;
 }
 
@@ -300,7 +300,10 @@ function solveAugmented(d: Design, b: Column | null, c: Float64Array | null): Fl
 
 function twoSidedTP(estimate: number, se: number, df: number): { t: number; p: number } {
   if (se === 0) {
-    if (estimate === 0) throw new Error('least squares: a coefficient and its standard error are both exactly 0.');
+    // 0/0: a coefficient that is exactly 0 in an exact fit (e.g. the intercept of y = x) has no t statistic. R's
+    // summary.lm prints NaN for such a ratio; callers test only coefficients that cannot be 0/0 (a slope of 0 with no
+    // residual means y does not vary, refused above).
+    if (estimate === 0) return { t: NaN, p: NaN };
     return { t: estimate > 0 ? Infinity : -Infinity, p: 0 };
   }
   const t = estimate / se;

@@ -163,4 +163,17 @@ describe('least squares: degenerate input', () => {
     expect(fit.coefficients.every((c) => c.p === 0 && Math.abs(c.t) === Infinity)).toBe(true);
     expect(fit.fTest!.value).toBe(Infinity);
   });
+
+  it('an exact fit through the origin: the slope is tested, the zero intercept has no t (0/0) instead of an error', () => {
+    // y = x at the rates 0.30, 0.35, ..., 0.65. R 4.2.2 summary(lm(y ~ x)) gives estimates 0 and 1 with standard
+    // errors at the rounding level (2.4e-17 and 4.9e-17), t 0 and 2.0e16; this fit leaves no residual at all, so the
+    // intercept's t is 0/0, which R prints as NaN.
+    const x = [0, 1, 2, 3, 4, 5, 6, 7].map((i) => (30 + i * 5) / 100);
+    const fit = leastSquares([x], x);
+    expect(fit.coefficients.map((c) => c.estimate)).toEqual([0, 1]);
+    expect(fit.coefficients.map((c) => c.standardError)).toEqual([0, 0]);
+    expect(Number.isNaN(fit.coefficients[0]!.t) && Number.isNaN(fit.coefficients[0]!.p)).toBe(true);
+    const line = simpleLinearFit(x, x);
+    expect([line.slope, line.slopeT, line.slopeP]).toEqual([1, Infinity, 0]);
+  });
 });
