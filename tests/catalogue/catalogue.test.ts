@@ -147,7 +147,7 @@ const failures: Case[] = [
     what: 'an unknown value, with the nearest suggested',
     folder: 'claim-unknown-value',
     message:
-      'claims.yaml:14:26: no row of source "results" has this value in column "Department", in claim "hanes-above-lacina" (field "Department", found "Hanse"). Fix: Did you mean "Hanes"? The values of "Department" found are "Hanes", "Łacina", "Gŵyr".',
+      'claims.yaml:14:26: no row of source "results" has this value in column "Department", in claim "hanes-above-lacina" (field "Department", found "Hanse"). Fix: Did you mean "Hanes"? The values of "Department" found are "Hanes", "Łacina", "Brithŵyr".',
   },
   {
     what: 'a relative period on a source without a period column',

@@ -92,7 +92,7 @@ const COMPARE = `claims:
     against: { Department: Łacina }
     expect: higher
 `;
-const CSV = 'Department,Year,Respondents,Agreeing\nHanes,2025,50,30\nŁacina,2025,40,20\nGŵyr,2025,30,12\nHanes,2026,52,31\nŁacina,2026,41,19\nGŵyr,2026,33,15\n';
+const CSV = 'Department,Year,Respondents,Agreeing\nHanes,2025,50,30\nŁacina,2025,40,20\nBrithŵyr,2025,30,12\nHanes,2026,52,31\nŁacina,2026,41,19\nBrithŵyr,2026,33,15\n';
 
 /** A summary case: claims.yaml naming data.csv, and the CSV itself. */
 function summaryCase(dir: string, claims = HEAD + SUMMARY_SOURCE('data.csv') + COMPARE, csv: string | null = CSV): void {
@@ -102,7 +102,7 @@ function summaryCase(dir: string, claims = HEAD + SUMMARY_SOURCE('data.csv') + C
 
 /** Departments and two questions for association claims: rates chosen by hand, different on Q1 and Q2. */
 function associationCsv(q1: (i: number) => number, q2: (i: number) => number): string {
-  const ds = ['Hanes', 'Łacina', 'Gŵyr', 'Morva', 'Tallis', 'Brenn', 'Corrow', 'Dunmere'];
+  const ds = ['Hanes', 'Łacina', 'Brithŵyr', 'Morva', 'Tallis', 'Brenn', 'Corrow', 'Dunmere'];
   const rows = ds.flatMap((d, i) => [`${d},Q1,100,${q1(i)}`, `${d},Q2,100,${q2(i)}`]);
   return `Department,Question,Respondents,Agreeing\n${rows.join('\n')}\n`;
 }
@@ -608,9 +608,9 @@ const cases: Case[] = [
     what: 'a value typed with a non-breaking space: the message says it differs only in Unicode form',
     group: 'refuse nonsense',
     cousin: true,
-    setup: (dir) => summaryCase(dir, HEAD + SUMMARY_SOURCE('data.csv') + COMPARE.replace('against: { Department: Łacina }', 'against: { Department: "Gŵyr\u00a0Vale" }'), CSV.replaceAll('Gŵyr', 'Gŵyr Vale')),
+    setup: (dir) => summaryCase(dir, HEAD + SUMMARY_SOURCE('data.csv') + COMPARE.replace('against: { Department: Łacina }', 'against: { Department: "Brithŵyr\u00a0Vale" }'), CSV.replaceAll('Brithŵyr', 'Brithŵyr Vale')),
     message:
-      'claims.yaml:15:28: no row of source "results" has this value in column "Department", in claim "hanes-above-lacina" (field "Department", found "Gŵyr\u00a0Vale"). Fix: Did you mean "Gŵyr Vale"? They look the same but differ in their Unicode form (special spaces, invisible characters, ligatures or full-width letters): retype the name. The values of "Department" found are "Hanes", "Łacina", "Gŵyr Vale".',
+      'claims.yaml:15:28: no row of source "results" has this value in column "Department", in claim "hanes-above-lacina" (field "Department", found "Brithŵyr\u00a0Vale"). Fix: Did you mean "Brithŵyr Vale"? They look the same but differ in their Unicode form (special spaces, invisible characters, ligatures or full-width letters): retype the name. The values of "Department" found are "Hanes", "Łacina", "Brithŵyr Vale".',
   },
 ];
 

@@ -51,7 +51,7 @@ const SHEET =
   '<row r="2"><c r="A2" t="s"><v>2</v></c><c r="B2"><v>50</v></c><c r="C2"><f>B2-20</f><v>30</v></c></row>' +
   '<row r="3"><c r="A3" s="1"><v>45717</v></c><c r="B3"><v>20</v></c><c r="C3"><v>5</v></c></row>' +
   '</sheetData></worksheet>';
-const STRINGS = `<?xml version="1.0"?><sst xmlns="${NS}"><si><t>Group</t></si><si><t>Agreeing</t></si><si><r><t>Ł</t></r><r><t>ąka &amp; Gŵyr</t></r></si></sst>`;
+const STRINGS = `<?xml version="1.0"?><sst xmlns="${NS}"><si><t>Group</t></si><si><t>Agreeing</t></si><si><r><t>Ł</t></r><r><t>ąka &amp; Brithŵyr</t></r></si></sst>`;
 const STYLES = `<?xml version="1.0"?><styleSheet xmlns="${NS}"><cellXfs count="2"><xf numFmtId="0"/><xf numFmtId="14"/></cellXfs></styleSheet>`;
 const source = (path: string) => summarySource(path, {});
 
@@ -60,7 +60,7 @@ describe('XLSX reader under fuzzing', () => {
     const cube = await readCube(source(file('xlsx', zip(parts(SHEET, STRINGS, STYLES)))), ['Group'], 'w.xlsx');
     // Serial 45717 with a built-in date format (id 14) is 2025-03-01 (1900 date system; worked by hand: 45717 days
     // after 1899-12-30).
-    expect(cube.values['Group']).toEqual(['Łąka & Gŵyr', '2025-03-01']);
+    expect(cube.values['Group']).toEqual(['Łąka & Brithŵyr', '2025-03-01']);
   });
 
   it('random bytes written into an entry\'s XML: a cube or an InputError', async () => {
@@ -93,6 +93,33 @@ describe('XLSX reader under fuzzing', () => {
       }),
       { numRuns: 120, seed: 20260402 },
     );
+  });
+});
+
+describe('XLSX reader on a damaged local header', () => {
+  // Each part of a zip starts with a local file header whose signature is the bytes 50 4B 03 04 (PKWARE APPNOTE.TXT
+  // 4.3.7). A damaged signature is found only when that part is opened, after the directory has been read.
+  it('every part: an InputError naming the damage, never a bare zip error', async () => {
+    const good = readFileSync(fx('summary.xlsx'));
+    const headers: number[] = [];
+    for (let at = good.indexOf('PK\u0003\u0004', 0, 'latin1'); at >= 0; at = good.indexOf('PK\u0003\u0004', at + 1, 'latin1')) headers.push(at);
+    expect(headers.length).toBeGreaterThan(3);
+    const found: string[] = [];
+    for (const at of headers) {
+      const b = Buffer.from(good);
+      b[at] = 0;
+      try {
+        await readCube(summarySource(file('xlsx', b), { population: 'Population' }), [], 's.xlsx');
+        found.push('cube');
+      } catch (e) {
+        if (!(e instanceof InputError)) throw e;
+        found.push(e.message);
+      }
+    }
+    // A part warrant never opens (e.g. document properties) reads on as a cube; every part it opens says damaged.
+    expect(found.filter((m) => /The workbook is damaged/.test(m) && /invalid local file header signature/.test(m)).length).toBeGreaterThan(2);
+    expect(found.some((m) => /sheet cannot be unpacked/.test(m))).toBe(true);
+    expect(found.every((m) => m === 'cube' || /The workbook is damaged/.test(m))).toBe(true);
   });
 });
 

@@ -19,9 +19,9 @@ const sha256sum = (path: string): string => execFileSync('sha256sum', [path], { 
 
 describe('CSV file hash', () => {
   it('equals sha256sum for summary and respondent files, whatever the chunk size', async () => {
-    const summary = file('\uFEFFGroup;Respondents;Agreeing\r\n"Łąka";12;5\r\nGŵyr;9;2\r\nDépartement;8;3\r\n');
+    const summary = file('\uFEFFGroup;Respondents;Agreeing\r\n"Łąka";12;5\r\nBrithŵyr;9;2\r\nDépartement;8;3\r\n');
     const rows = ['ID,Department,Q01,Q02,Q03,Q04,Q05'];
-    for (let i = 0; i < 300; i++) rows.push(`${i},${['Łąka', 'Gŵyr', 'Hanes'][i % 3]},${i % 5 + 1},${(i * 3) % 5 + 1},,9,${i % 2 + 1}`);
+    for (let i = 0; i < 300; i++) rows.push(`${i},${['Łąka', 'Brithŵyr', 'Hanes'][i % 3]},${i % 5 + 1},${(i * 3) % 5 + 1},,9,${i % 2 + 1}`);
     const respondents = file(rows.join('\n') + '\n');
     for (const chunkSize of [1, 5, 64, 1 << 16]) {
       const a = await readCube(summarySource(summary), ['Group'], 's.csv', { chunkSize });

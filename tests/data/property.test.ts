@@ -13,7 +13,7 @@ import { respondentsSource, summarySource } from './sources.js';
 const tmp = mkdtempSync(join(tmpdir(), 'warrant-prop-'));
 let counter = 0;
 
-const names = ['Gŵyr', 'Tŷ', 'Łąka', 'Naïve', 'A,B', 'say "x"', 'ok', '🌱'];
+const names = ['Brithŵyr', 'Tŷ', 'Łąka', 'Naïve', 'A,B', 'say "x"', 'ok', '🌱'];
 const layout = fc.record({
   delimiter: fc.constantFrom(',', ';', '\t'),
   newline: fc.constantFrom('\n', '\r\n'),

@@ -206,14 +206,14 @@ describe('CSV reader', () => {
 
   it('numbers rows as a spreadsheet would: blank lines count, a quoted line break stays in one row', async () => {
     const path = join(tmp, 'rows.csv');
-    writeFileSync(path, '\n\nName\tNote\n"Gŵyr\tCollege"\t"two\r\nlines"\n\nŁąka\t"say ""hi"""');
+    writeFileSync(path, '\n\nName\tNote\n"Brithŵyr\tCollege"\t"two\r\nlines"\n\nŁąka\t"say ""hi"""');
     for (const chunkSize of [undefined, 1, 2, 5]) {
       const rows = await all(readCsvRows(path, chunkSize === undefined ? {} : { chunkSize }));
       expect(rows).toEqual([
         { row: 1, values: [''] },
         { row: 2, values: [''] },
         { row: 3, values: ['Name', 'Note'] },
-        { row: 4, values: ['Gŵyr\tCollege', 'two\r\nlines'] },
+        { row: 4, values: ['Brithŵyr\tCollege', 'two\r\nlines'] },
         { row: 5, values: [''] },
         { row: 6, values: ['Łąka', 'say "hi"'] },
       ]);

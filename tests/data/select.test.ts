@@ -50,9 +50,9 @@ const focusRegion = () => summary.find((r) => r.provider === focusName)!.region;
 
 describe('matches', () => {
   it('compares as text, and a list means any of', () => {
-    const cell = { dims: { Year: '2026', Provider: 'Tŷ Dysgu Llŷn' }, n: 1, agree: 0, approximate: false, firstRow: 2 };
+    const cell = { dims: { Year: '2026', Provider: 'Tŷ Dysgu Cefnŷdd' }, n: 1, agree: 0, approximate: false, firstRow: 2 };
     expect(matches(cell, { Year: 2026 })).toBe(true);
-    expect(matches(cell, { Year: '2026', Provider: 'Tŷ Dysgu Llŷn' })).toBe(true);
+    expect(matches(cell, { Year: '2026', Provider: 'Tŷ Dysgu Cefnŷdd' })).toBe(true);
     expect(matches(cell, { Year: [2024, 2025] })).toBe(false);
     expect(matches(cell, { Year: [2025, ' 2026 '] })).toBe(true);
     expect(matches(cell, { Region: 'x' })).toBe(false);
@@ -83,7 +83,7 @@ describe('matching', () => {
   });
 
   it('finds a value written in two Unicode forms, and cells without a column, as a scan does', () => {
-    // "Gŵyr" composed (U+0175) and decomposed (w + U+0302): one value under NFC (Unicode Standard Annex #15).
+    // "Brithŵyr" composed (U+0175) and decomposed (w + U+0302): one value under NFC (Unicode Standard Annex #15).
     const composed = 'G\u0175yr';
     const decomposed = 'Gw\u0302yr';
     const names = [composed, 'Hanes', decomposed, 'Hanes', composed, decomposed];

@@ -28,8 +28,8 @@ const stacked: ChartData = {
   kind: 'stacked',
   axisTitle: 'Share of respondents (%)',
   rows: [
-    { label: 'Llŷn campus', parts: [{ label: 'Agree', count: 60 }, { label: 'Neutral', count: 25 }, { label: 'Disagree', count: 15 }] },
-    { label: 'Łódź exchange', parts: [{ label: 'Agree', count: 30 }, { label: 'Neutral', count: 10 }, { label: 'Disagree', count: 12 }] },
+    { label: 'Cefnŷdd campus', parts: [{ label: 'Agree', count: 60 }, { label: 'Neutral', count: 25 }, { label: 'Disagree', count: 15 }] },
+    { label: 'Łóźmir exchange', parts: [{ label: 'Agree', count: 30 }, { label: 'Neutral', count: 10 }, { label: 'Disagree', count: 12 }] },
   ],
 };
 const means: ChartData = {
@@ -37,7 +37,7 @@ const means: ChartData = {
   axisTitle: 'Mean rating (1–5)',
   domain: [1, 5],
   bars: [
-    { label: 'Ynys Môn', mean: 3.9, lower: 3.7, upper: 4.1, n: 120 },
+    { label: 'Ynys Fôrlas', mean: 3.9, lower: 3.7, upper: 4.1, n: 120 },
     { label: 'Naïve Arts', mean: 3.4, lower: 3.1, upper: 3.7, n: 45 },
   ],
 };
@@ -84,7 +84,7 @@ describe('chartSvg', () => {
   it('draws every other kind with its labels', async () => {
     expect(await chartSvg(periods)).toContain('2022 (n = 230)');
     const st = await chartSvg(stacked);
-    expect(st).toContain('Llŷn campus (n = 100)');
+    expect(st).toContain('Cefnŷdd campus (n = 100)');
     expect(st).toContain('Disagree');
     expect(await chartSvg(means)).toContain('Naïve Arts (n = 45)');
     expect(await chartSvg(difference)).toContain('Shaded: margin ±3 points.');
@@ -131,7 +131,7 @@ describe('axis ranges, values and labels', () => {
 
   it('prints each part of a stacked bar with its share (rounded, as in the table)', async () => {
     const labels = texts(await chartSvg(stacked));
-    // Llŷn campus 60/25/15 of 100; Łódź exchange 30/10/12 of 52: 57.7% 19.2% 23.1%.
+    // Cefnŷdd campus 60/25/15 of 100; Łóźmir exchange 30/10/12 of 52: 57.7% 19.2% 23.1%.
     for (const share of ['60%', '25%', '15%', '58%', '19%', '23%']) expect(labels).toContain(share);
   });
 
@@ -191,7 +191,7 @@ describe('textWidth', () => {
 
 describe('hasGlyphs', () => {
   it('finds Welsh and Polish letters in Noto Sans, and reports Han characters it lacks', () => {
-    expect(hasGlyphs('Gŵyr Brynŷs Łąka Naïve')).toBe(true);
+    expect(hasGlyphs('Brithŵyr Brynŷs Łąka Naïve')).toBe(true);
     // Noto Sans (Latin, Greek, Cyrillic) has no CJK ideographs; those live in Noto Sans CJK (font coverage, common practice).
     expect(hasGlyphs('满意度')).toBe(false);
   });

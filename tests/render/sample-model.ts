@@ -7,7 +7,7 @@ import type { PackModel } from '../../src/render/model.js';
 export const LONG_STATEMENT =
   'Departments in the Faculty of Health where final-year students rate the library, study spaces and online ' +
   'learning resources more highly also report higher overall satisfaction with their course, across every campus ' +
-  'including Ynys Môn, Llŷn and the Łódź exchange programme, and this holds after the 2023 timetable change';
+  'including Ynys Fôrlas, Cefnŷdd and the Łóźmir exchange programme, and this holds after the 2023 timetable change';
 
 export const VERDICT_TEXTS = {
   C1:
@@ -48,10 +48,10 @@ export const CHANGES: NonNullable<PackModel['changes']> = {
 const EXTRA_CLAIMS: PackModel['claims'] = [
   {
     id: 'C6',
-    statement: 'Satisfaction at Llŷn campus has been falling over the last four years.',
+    statement: 'Satisfaction at Cefnŷdd campus has been falling over the last four years.',
     verdict: 'supported',
     verdictLabel: 'Supported',
-    compared: 'Overall satisfaction at Llŷn campus in 2021 to 2024 (1,010 respondents in all).',
+    compared: 'Overall satisfaction at Cefnŷdd campus in 2021 to 2024 (1,010 respondents in all).',
     hypotheses: { null: 'The rate does not change from year to year.', alternative: 'The rate falls from year to year.' },
     numbers: [
       { label: '2021', value: '74% of 240' },
@@ -71,18 +71,18 @@ const EXTRA_CLAIMS: PackModel['claims'] = [
         ],
         fit: [0.737, 0.701, 0.665, 0.629],
       },
-      alt: 'Line chart of satisfaction at Llŷn campus by year: 74% in 2021 falling to 63% in 2024, with a fitted falling line.',
+      alt: 'Line chart of satisfaction at Cefnŷdd campus by year: 74% in 2021 falling to 63% in 2024, with a fitted falling line.',
     },
-    verdictText: 'Supported. Satisfaction at Llŷn campus fell by about 3.6 points a year from 2021 to 2024.',
+    verdictText: 'Supported. Satisfaction at Cefnŷdd campus fell by about 3.6 points a year from 2021 to 2024.',
     cautions: ['Each year is a different cohort of students.'],
     methodLine: 'Cochran–Armitage test for trend; Wilson intervals per year.',
   },
   {
     id: 'C7',
-    statement: 'Answers on workload differ between Llŷn campus and the Łódź exchange.',
+    statement: 'Answers on workload differ between Cefnŷdd campus and the Łóźmir exchange.',
     verdict: 'not-supported',
     verdictLabel: 'Not supported',
-    compared: 'Agree, neutral and disagree answers at Llŷn campus (100) and the Łódź exchange (52).',
+    compared: 'Agree, neutral and disagree answers at Cefnŷdd campus (100) and the Łóźmir exchange (52).',
     hypotheses: { null: 'The mix of answers is the same at both.', alternative: 'The mix of answers differs.' },
     numbers: [
       { label: 'Chi-square', value: '3.1 on 2 df' },
@@ -93,11 +93,11 @@ const EXTRA_CLAIMS: PackModel['claims'] = [
         kind: 'stacked',
         axisTitle: 'Share of respondents (%)',
         rows: [
-          { label: 'Llŷn campus', parts: [{ label: 'Agree', count: 60 }, { label: 'Neutral', count: 25 }, { label: 'Disagree', count: 15 }] },
-          { label: 'Łódź exchange', parts: [{ label: 'Agree', count: 30 }, { label: 'Neutral', count: 10 }, { label: 'Disagree', count: 12 }] },
+          { label: 'Cefnŷdd campus', parts: [{ label: 'Agree', count: 60 }, { label: 'Neutral', count: 25 }, { label: 'Disagree', count: 15 }] },
+          { label: 'Łóźmir exchange', parts: [{ label: 'Agree', count: 30 }, { label: 'Neutral', count: 10 }, { label: 'Disagree', count: 12 }] },
         ],
       },
-      alt: 'Stacked bars: Llŷn campus 60% agree, 25% neutral, 15% disagree; Łódź exchange 58% agree, 19% neutral, 23% disagree.',
+      alt: 'Stacked bars: Cefnŷdd campus 60% agree, 25% neutral, 15% disagree; Łóźmir exchange 58% agree, 19% neutral, 23% disagree.',
     },
     verdictText: 'Not supported. The mix of answers at the two is within what chance alone produces.',
     cautions: [],
@@ -105,13 +105,13 @@ const EXTRA_CLAIMS: PackModel['claims'] = [
   },
   {
     id: 'C8',
-    statement: 'Ynys Môn students rate teaching higher on average than Naïve Arts students.',
+    statement: 'Ynys Fôrlas students rate teaching higher on average than Naïve Arts students.',
     verdict: 'estimate',
     verdictLabel: 'Estimate only',
-    compared: 'Mean teaching rating (1 to 5) at Ynys Môn (120) and Naïve Arts (45).',
+    compared: 'Mean teaching rating (1 to 5) at Ynys Fôrlas (120) and Naïve Arts (45).',
     hypotheses: { null: 'No hypothesis is tested.', alternative: 'No hypothesis is tested.' },
     numbers: [
-      { label: 'Ynys Môn', value: '3.90 (3.70 to 4.10)' },
+      { label: 'Ynys Fôrlas', value: '3.90 (3.70 to 4.10)' },
       { label: 'Naïve Arts', value: '3.40 (3.10 to 3.70)' },
     ],
     chart: {
@@ -120,13 +120,13 @@ const EXTRA_CLAIMS: PackModel['claims'] = [
         axisTitle: 'Mean rating (1–5)',
         domain: [1, 5],
         bars: [
-          { label: 'Ynys Môn', mean: 3.9, lower: 3.7, upper: 4.1, n: 120 },
+          { label: 'Ynys Fôrlas', mean: 3.9, lower: 3.7, upper: 4.1, n: 120 },
           { label: 'Naïve Arts', mean: 3.4, lower: 3.1, upper: 3.7, n: 45 },
         ],
       },
-      alt: 'Dot chart of mean ratings: Ynys Môn 3.90 (3.70 to 4.10), Naïve Arts 3.40 (3.10 to 3.70).',
+      alt: 'Dot chart of mean ratings: Ynys Fôrlas 3.90 (3.70 to 4.10), Naïve Arts 3.40 (3.10 to 3.70).',
     },
-    verdictText: 'An estimate: Ynys Môn averages 3.90 and Naïve Arts 3.40 on the five-point scale.',
+    verdictText: 'An estimate: Ynys Fôrlas averages 3.90 and Naïve Arts 3.40 on the five-point scale.',
     cautions: [],
     methodLine: 'Means with Student t intervals.',
   },
