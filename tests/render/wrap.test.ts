@@ -13,7 +13,7 @@ import PDFDocument from 'pdfkit';
 import { afterAll, describe, expect, it } from 'vitest';
 import { FONT_NAME, fontFor, shapeQuickly, type Face } from '../../src/render/fonts.js';
 import { Layout } from '../../src/render/pdf/layout.js';
-import { pdfNumber, wordsOf, wordWidth, wrapWords, type WidthFont, type WrappedLine } from '../../src/render/pdf/wrap.js';
+import { pdfNumber, widthOfString, wordsOf, wordWidth, wrapWords, type WidthFont, type WrappedLine } from '../../src/render/pdf/wrap.js';
 import { build } from '../../src/pipeline.js';
 
 interface Internals {
@@ -91,6 +91,25 @@ describe('wrapWords', () => {
     );
     // Nearly every text is wrapped here rather than handed to pdfkit (only over-long words and soft hyphens are).
     expect(handled / total).toBeGreaterThan(0.6);
+  });
+
+  it('measures a text as doc.widthOfString does, to the last bit', () => {
+    const doc = newDoc();
+    fc.assert(
+      fc.property(
+        textArb,
+        fc.constantFrom<Face>('regular', 'bold', 'italic'),
+        fc.oneof(fc.constantFrom(8, 9.5, 10.5, 11, 13), fc.double({ min: 4, max: 40, noNaN: true })),
+        (text, face, size) => {
+          doc.font(FONT_NAME[face]).fontSize(size);
+          const font = (doc as unknown as Internals)._font;
+          // Twice: the second time from the advance kept for the text.
+          expect(widthOfString(font, size, text)).toBe(doc.widthOfString(text));
+          expect(widthOfString(font, size, text)).toBe(doc.widthOfString(text));
+        },
+      ),
+      { numRuns: 1500, seed: 77 },
+    );
   });
 
   it('breaks as pdfkit does where words fill the line exactly', () => {

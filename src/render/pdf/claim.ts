@@ -4,7 +4,6 @@
  */
 import type { ClaimSection, PackModel, VerdictKind, VerdictStability } from '../model.js';
 import { chartSvg, MIN_CHART_HEIGHT } from '../charts.js';
-import { FONT_NAME } from '../fonts.js';
 import { blocksHeight, type Layout } from './layout.js';
 import { badgeWidth, drawBadge } from './marks.js';
 import { numberLabelWidth, numberPairs, table } from './tables.js';
@@ -231,8 +230,7 @@ function stabilityRows(L: Layout, s: VerdictStability, labelW: number, sp: Claim
     });
   }
   // The grid's label column also holds its heading on one line (bold, over the row labels).
-  L.doc.font(FONT_NAME.bold).fontSize(sp.table);
-  const gridLabelW = Math.min(CONTENT_WIDTH / 2, Math.max(labelW, Math.ceil(L.doc.widthOfString(s.heading) + 11)));
+  const gridLabelW = Math.min(CONTENT_WIDTH / 2, Math.max(labelW, Math.ceil(L.widthOfString(s.heading, 'bold', sp.table) + 11)));
   const cellW = (CONTENT_WIDTH - gridLabelW) / 3;
   const line = (name: string, pick: (c: VerdictStability['cells'][number]) => { kind: VerdictKind; word: string }): Cell[] => [
     { text: name, color: COLOR.muted },

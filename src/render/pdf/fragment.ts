@@ -36,9 +36,6 @@ interface DocInternals {
   _fontSize: number;
   page: { height: number; fonts: Record<string, unknown> };
   addContent(data: string): unknown;
-  save(): unknown;
-  restore(): unknown;
-  transform(a: number, b: number, c: number, d: number, e: number, f: number): unknown;
 }
 
 /** A word's glyph codes, cut after each kerned glyph (with its adjustment in thousandths of the font size). */
@@ -83,16 +80,11 @@ function segments(font: EmbeddedFont, words: Map<string, Segment[] | null>, word
   return segs;
 }
 
-/**
- * Write `line` at (x, y) in the current font and size as pdfkit's _fragment would with plain options. Returns false,
- * having written nothing, when the line needs pdfkit's own (a font without a layout cache, or glyphs off the baseline).
- */
-export function writeLine(doc: PDFKit.Document, line: string, x: number, y: number): boolean {
-  const d = doc as unknown as DocInternals;
-  const font = d._font;
-  if (!font || !font.layoutCache || !font.subset) return false;
-  const text = line.replace(/\n/g, '');
-  if (text.length === 0) return true;
+/** Each font's lines already written: the line's TJ operator ('' for none), or null when it needs pdfkit's own. */
+const linesByFont = new WeakMap<object, Map<string, string | null>>();
+
+/** The TJ operator that writes `text` (no line breaks) in `font`, '' for none, or null when a glyph is off the baseline. */
+function showText(font: EmbeddedFont, text: string): string | null {
   let words = wordsByFont.get(font);
   if (words === undefined) {
     words = new Map();
@@ -105,39 +97,62 @@ export function writeLine(doc: PDFKit.Document, line: string, x: number, y: numb
     const c = text.charCodeAt(i);
     if (c !== 32 && c !== 9) continue;
     const segs = segments(font, words, text.slice(last, i + 1));
-    if (segs === null) return false;
+    if (segs === null) return null;
     runs.push(segs);
     last = i + 1;
   }
   if (last < text.length) {
     const segs = segments(font, words, text.slice(last));
-    if (segs === null) return false;
+    if (segs === null) return null;
     runs.push(segs);
   }
-  const commands: string[] = [];
+  let commands = '';
   let hex = '';
   for (const segs of runs) {
     for (const seg of segs) {
       hex += seg.hex;
       if (seg.adjust !== null) {
-        commands.push(`<${hex}> ${number(-seg.adjust)}`);
+        commands += `${commands ? ' ' : ''}<${hex}> ${number(-seg.adjust)}`;
         hex = '';
       }
     }
   }
-  if (hex) commands.push(`<${hex}> ${number(-0)}`);
+  if (hex) commands += `${commands ? ' ' : ''}<${hex}> ${number(-0)}`;
+  return commands ? `[${commands}] TJ` : '';
+}
 
+/**
+ * Write `line` at (x, y) in the current font and size as pdfkit's _fragment would with plain options. Returns false,
+ * having written nothing, when the line needs pdfkit's own (a font without a layout cache, or glyphs off the baseline).
+ * A line's TJ operator is kept per font (labels such as "Compared" recur on every claim's page), and the operators
+ * from "q" to "Q" are handed over as one piece of content, each ending with the line break pdfkit ends it with; the
+ * graphics state pdfkit's save, transform and restore would keep is the same after "Q" as before "q".
+ */
+export function writeLine(doc: PDFKit.Document, line: string, x: number, y: number): boolean {
+  const d = doc as unknown as DocInternals;
+  const font = d._font;
+  if (!font || !font.layoutCache || !font.subset) return false;
+  const text = line.includes('\n') ? line.replace(/\n/g, '') : line;
+  if (text.length === 0) return true;
+  let lines = linesByFont.get(font);
+  if (lines === undefined) {
+    lines = new Map();
+    linesByFont.set(font, lines);
+  }
+  let shown = lines.get(text);
+  if (shown === undefined) {
+    shown = showText(font, text);
+    lines.set(text, shown);
+  }
+  if (shown === null) return false;
   const size = d._fontSize;
-  d.save();
-  d.transform(1, 0, 0, -1, 0, d.page.height);
+  const height = d.page.height;
   const dy = (font.ascender / 1000) * size;
-  const top = d.page.height - y - dy;
+  const top = height - y - dy;
   if (d.page.fonts[font.id] == null) d.page.fonts[font.id] = font.ref();
-  d.addContent('BT');
-  d.addContent(`1 0 0 1 ${number(x)} ${number(top)} Tm`);
-  d.addContent(`/${font.id} ${number(size)} Tf`);
-  if (commands.length > 0) d.addContent(`[${commands.join(' ')}] TJ`);
-  d.addContent('ET');
-  d.restore();
+  d.addContent(
+    `q\n1 0 0 -1 0 ${number(height)} cm\nBT\n1 0 0 1 ${number(x)} ${number(top)} Tm\n/${font.id} ${number(size)} Tf\n` +
+      `${shown ? `${shown}\n` : ''}ET\nQ`,
+  );
   return true;
 }

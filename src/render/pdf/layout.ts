@@ -7,7 +7,7 @@ import { drawChart } from '../chart-pdf.js';
 import { chartDrawing } from '../chart-runtime.js';
 import { FONT_NAME, fontFor, type Face } from '../fonts.js';
 import { writeLine } from './fragment.js';
-import { wordsOf, wordWidth, wrapWords, type WidthFont, type WrappedLine, type Words } from './wrap.js';
+import { widthOfString, wordsOf, wordWidth, wrapWords, type WidthFont, type WrappedLine, type Words } from './wrap.js';
 import {
   COLOR, CONTENT_BOTTOM, CONTENT_WIDTH, CONTINUATION_HEIGHT, LINE_GAP, MARGIN, SPACED_CAPS, PARA_GAP, SIZE, SLACK, svgSize,
   type Block, type Doc, type Struct,
@@ -101,6 +101,15 @@ export class Layout {
     this.doc.font(FONT_NAME[face]).fontSize(size).fillColor(color);
   }
 
+  /**
+   * doc.widthOfString(text) in a face and size, which it leaves set as the current font, as doc.font and fontSize do;
+   * each text's advance is kept (wrap.ts), as labels and values are measured for every layout of a claim.
+   */
+  widthOfString(text: string, face: Face, size: number): number {
+    const doc = this.doc.font(FONT_NAME[face]).fontSize(size);
+    return widthOfString((doc as unknown as TextInternals)._font!, size, text);
+  }
+
   textHeight(text: string, face: Face, size: number, width: number, lineGap = LINE_GAP): number {
     return this.measure(text, face, size, width, lineGap).height;
   }
@@ -188,12 +197,19 @@ export class Layout {
       doc.text(text, x, y, { width, lineGap });
       return;
     }
-    const options = internals._initOptions(x, y, { width, lineGap });
+    // Where doc.text starts (its _initOptions moves the cursor there); a line writeLine cannot write goes to pdfkit's
+    // _fragment with the options doc.text would give it.
+    doc.x = x;
+    doc.y = y;
+    let options: Record<string, unknown> | undefined;
     for (const line of m.lines) {
-      options.textWidth = line.textWidth;
-      options.wordCount = line.wordCount;
-      options.lineWidth = line.lineWidth;
-      if (!writeLine(doc, line.text, doc.x, doc.y)) internals._fragment(line.text, doc.x, doc.y, options);
+      if (!writeLine(doc, line.text, doc.x, doc.y)) {
+        options ??= internals._initOptions({ width, lineGap });
+        options.textWidth = line.textWidth;
+        options.wordCount = line.wordCount;
+        options.lineWidth = line.lineWidth;
+        internals._fragment(line.text, doc.x, doc.y, options);
+      }
       doc.y += step;
     }
     doc.x = x;

@@ -3,7 +3,6 @@
  * claim's heading and in the summary.
  */
 import type { VerdictKind } from '../model.js';
-import { FONT_NAME } from '../fonts.js';
 import type { Layout } from './layout.js';
 import { BADGE, COLOR, CONTENT_WIDTH, type Struct } from './style.js';
 
@@ -72,9 +71,9 @@ function badgeRoom(size: number): { padX: number; mark: number } {
 
 /** Width of a badge holding `label` at `size` points (never wider than `max`). */
 export function badgeWidth(L: Layout, label: string, kind: VerdictKind = 'supported', size: number = BADGE.size, max: number = CONTENT_WIDTH): number {
-  L.doc.font(FONT_NAME[BADGE_STYLE[kind].face]).fontSize(size);
+  const width = L.widthOfString(label, BADGE_STYLE[kind].face, size);
   const { padX, mark } = badgeRoom(size);
-  return Math.min(max, L.doc.widthOfString(label) + 2 * padX + mark);
+  return Math.min(max, width + 2 * padX + mark);
 }
 
 /** Height of a badge at `size` points. */

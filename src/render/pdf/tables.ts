@@ -210,7 +210,7 @@ const PAIR_PAD_X = 5;
  */
 export function numberLabelWidth(L: Layout, labels: string[], face: Face = 'regular', size: number = SIZE.table): number {
   L.doc.font(FONT_NAME[face]).fontSize(size);
-  const longest = Math.max(0, ...labels.map((l) => L.doc.widthOfString(l)));
+  const longest = Math.max(0, ...labels.map((l) => L.widthOfString(l, face, size)));
   return Math.min(NUMBER_LABEL_MAX, Math.max(NUMBER_LABEL_WIDTH, Math.ceil(longest + 2 * PAIR_PAD_X + 1)));
 }
 
@@ -234,10 +234,8 @@ export function numberPairs(
   const shortValueW = half - labelW;
   const fullValueW = CONTENT_WIDTH - labelW;
   const fitsShort = (r: { label: string; value: string }): boolean => {
-    L.doc.font(FONT_NAME[labelFace]).fontSize(size);
-    const labelFits = L.doc.widthOfString(r.label) <= labelW - 2 * padX;
-    L.doc.font(FONT_NAME.regular).fontSize(size);
-    return labelFits && L.doc.widthOfString(r.value) <= shortValueW - 2 * padX;
+    const labelFits = L.widthOfString(r.label, labelFace, size) <= labelW - 2 * padX;
+    return labelFits && L.widthOfString(r.value, 'regular', size) <= shortValueW - 2 * padX;
   };
   type Line = Array<{ label: string; value: string; valueW: number }>;
   const lines: Line[] = [];

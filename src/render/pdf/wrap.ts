@@ -63,24 +63,31 @@ export interface WidthFont {
 const advances = new WeakMap<object, Map<string, number>>();
 
 /**
- * The width pdfkit's wrapper gives a word in `font` at `size` (LineWrapper.wordWidth with no character or word
- * spacing and horizontal scaling 100: doc.widthOfString, then PDFNumber), the word's advance kept per font.
+ * What pdfkit's doc.widthOfString(text) gives in `font` at `size` with no options (no character spacing, horizontal
+ * scaling 100), the text's advance kept per font.
  */
-export function wordWidth(font: WidthFont, size: number, word: string): number {
+export function widthOfString(font: WidthFont, size: number, text: string): number {
   let known = advances.get(font);
   if (known === undefined) {
     known = new Map();
     advances.set(font, known);
   }
-  let advance = known.get(word);
+  let advance = known.get(text);
   if (advance === undefined) {
-    advance = font.layout(word, undefined, true).advanceWidth;
-    known.set(word, advance);
+    advance = font.layout(text, undefined, true).advanceWidth;
+    known.set(text, advance);
   }
-  // EmbeddedFont.widthOfString, then doc.widthOfString's spacing and scaling, then wordWidth's spacing: in pdfkit's order.
+  // EmbeddedFont.widthOfString, then doc.widthOfString's spacing and scaling, in pdfkit's order.
   const fontWidth = advance * (size / 1000);
-  const docWidth = ((fontWidth + 0 * (word.length - 1)) * 100) / 100;
-  return pdfNumber(docWidth + 0 + 0);
+  return ((fontWidth + 0 * (text.length - 1)) * 100) / 100;
+}
+
+/**
+ * The width pdfkit's wrapper gives a word in `font` at `size` (LineWrapper.wordWidth with no character or word
+ * spacing and horizontal scaling 100: doc.widthOfString, then PDFNumber).
+ */
+export function wordWidth(font: WidthFont, size: number, word: string): number {
+  return pdfNumber(widthOfString(font, size, word) + 0 + 0);
 }
 
 /**
