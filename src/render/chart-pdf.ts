@@ -12,6 +12,8 @@
  */
 import type { Face } from './fonts.js';
 import { faceFor, FONT_NAME } from './fonts.js';
+import { writeLine } from './pdf/fragment.js';
+import { widthOfString, type WidthFont } from './pdf/wrap.js';
 
 /** A path: moveTo (M), lineTo (L), cubic curve (C), rectangle (R) and close (Z), in the coordinates in force. */
 type Segment = ['M', number, number] | ['L', number, number] | ['C', number, number, number, number, number, number] | ['R', number, number, number, number] | ['Z'];
@@ -366,11 +368,14 @@ export function drawChart(doc: Doc, drawing: ChartDrawing, x: number, y: number,
         break;
       default: {
         doc.font(FONT_NAME[o.face]).fontSize(o.size).fillColor(o.paint.color, o.paint.alpha);
-        const w = o.align === 'center' || o.align === 'right' || o.align === 'end' ? doc.widthOfString(o.text) : 0;
+        // doc.widthOfString(o.text), each text's advance kept per font (labels recur from chart to chart).
+        const w = o.align === 'center' || o.align === 'right' || o.align === 'end' ? widthOfString((doc as unknown as { _font: WidthFont })._font, o.size, o.text) : 0;
         const left = o.x - (o.align === 'center' ? w / 2 : w);
         doc.save();
         doc.transform(...o.m);
-        doc.text(o.text, left, o.y, { lineBreak: false, baseline: 'alphabetic' });
+        // As doc.text(o.text, left, o.y, { lineBreak: false, baseline: 'alphabetic' }) writes it, without laying the
+        // text out again and measuring it twice (doc.x and doc.y, which that moves, are put back below).
+        if (!writeLine(doc, o.text, left, o.y, 'alphabetic')) doc.text(o.text, left, o.y, { lineBreak: false, baseline: 'alphabetic' });
         doc.restore();
       }
     }

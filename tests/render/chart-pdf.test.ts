@@ -13,7 +13,8 @@ import PDFDocument from 'pdfkit';
 import { chartSpec } from '../../src/render/charts.js';
 import { chartDrawing, specSvg } from '../../src/render/chart-runtime.js';
 import { drawChart, type ChartDrawing } from '../../src/render/chart-pdf.js';
-import { FONT_NAME, fontBytes } from '../../src/render/fonts.js';
+import { FONT_NAME, fontBytes, fontFor } from '../../src/render/fonts.js';
+import fc from 'fast-check';
 import { sampleModel } from './sample-model.js';
 
 const sample = sampleModel.claims.flatMap((c) => (c.chart ? [c.chart.data] : []));
@@ -96,5 +97,73 @@ describe('charts drawn from the scene', () => {
     } finally {
       rmSync(dir, { recursive: true, force: true });
     }
+  });
+});
+
+/** A document as the pack sets one up (parsed faces, fixed dates), and its bytes once ended. */
+function newDoc(): { doc: PDFKit.Document; done: Promise<Buffer> } {
+  const doc = new PDFDocument({
+    size: 'A4',
+    autoFirstPage: true,
+    font: null,
+    info: { CreationDate: new Date(Date.UTC(2000, 0, 1)), ModDate: new Date(Date.UTC(2000, 0, 1)) },
+  } as PDFKit.DocumentOptions);
+  for (const face of ['regular', 'bold', 'italic'] as const) doc.registerFont(FONT_NAME[face], fontFor(face));
+  const chunks: Buffer[] = [];
+  doc.on('data', (c: Buffer) => chunks.push(c));
+  return { doc, done: new Promise<Buffer>((resolve) => doc.on('end', () => resolve(Buffer.concat(chunks)))) };
+}
+
+/** The texts of a drawing written with pdfkit's own doc.text, as drawChart wrote them before writeLine. */
+function drawTextsWithPdfkit(doc: PDFKit.Document, drawing: ChartDrawing, x: number, y: number): void {
+  const keep = { x: doc.x, y: doc.y };
+  doc.save();
+  doc.translate(x, y);
+  for (const o of drawing.ops) {
+    if (o.op !== 'text') continue;
+    doc.font(FONT_NAME[o.face]).fontSize(o.size).fillColor(o.paint.color, o.paint.alpha);
+    const w = o.align === 'center' || o.align === 'right' || o.align === 'end' ? doc.widthOfString(o.text) : 0;
+    const left = o.x - (o.align === 'center' ? w / 2 : w);
+    doc.save();
+    doc.transform(...o.m);
+    doc.text(o.text, left, o.y, { lineBreak: false, baseline: 'alphabetic' });
+    doc.restore();
+  }
+  doc.restore();
+  doc.x = keep.x;
+  doc.y = keep.y;
+}
+
+describe('chart texts in the PDF', () => {
+  const label = fc.string({ unit: fc.constantFrom('a', 'Z', ' ', 'fi', 'ffi', 'AV', 'To', 'ŵ', 'Ł', 'ï', 'i\u0308', '%', '(', '1', '.', '-', '–', '"'), minLength: 1, maxLength: 20 });
+  const textOp = fc.record({
+    text: label.map((t) => t.replace(/\s+/g, ' ').trim()).filter((t) => t.length > 0),
+    x: fc.double({ min: -50, max: 400, noNaN: true }),
+    y: fc.double({ min: -50, max: 300, noNaN: true }),
+    face: fc.constantFrom('regular' as const, 'bold' as const, 'italic' as const),
+    size: fc.constantFrom(8, 9, 9.5, 11),
+    align: fc.constantFrom('left', 'center', 'right', 'start', 'end'),
+    m: fc.constantFrom<[number, number, number, number, number, number]>([1, 0, 0, 1, 0, 0], [0, -1, 1, 0, 12.5, 80.25], [1, 0, 0, 1, 3.5, -2]),
+    color: fc.constantFrom('#1d2733', '#ffffff'),
+  });
+
+  it('writes each text with the same bytes as doc.text with an alphabetic baseline (pdfkit 0.20)', async () => {
+    await fc.assert(
+      fc.asyncProperty(fc.array(textOp, { minLength: 1, maxLength: 8 }), async (texts) => {
+        const drawing: ChartDrawing = {
+          width: 460,
+          height: 200,
+          ops: texts.map((t) => ({ op: 'text' as const, text: t.text, x: t.x, y: t.y, m: t.m, face: t.face, size: t.size, align: t.align, paint: { color: t.color, alpha: 1 } })),
+        };
+        const mine = newDoc();
+        drawChart(mine.doc, drawing, 40.5, 60.25, 1);
+        mine.doc.end();
+        const theirs = newDoc();
+        drawTextsWithPdfkit(theirs.doc, drawing, 40.5, 60.25);
+        theirs.doc.end();
+        expect((await mine.done).equals(await theirs.done)).toBe(true);
+      }),
+      { numRuns: 60 },
+    );
   });
 });

@@ -122,13 +122,14 @@ function showText(font: EmbeddedFont, text: string): string | null {
 }
 
 /**
- * Write `line` at (x, y) in the current font and size as pdfkit's _fragment would with plain options. Returns false,
+ * Write `line` at (x, y) in the current font and size as pdfkit's _fragment would with plain options (and the
+ * baseline given: 'top', pdfkit's default, or 'alphabetic', as charts' labels are placed). Returns false,
  * having written nothing, when the line needs pdfkit's own (a font without a layout cache, or glyphs off the baseline).
  * A line's TJ operator is kept per font (labels such as "Compared" recur on every claim's page), and the operators
  * from "q" to "Q" are handed over as one piece of content, each ending with the line break pdfkit ends it with; the
  * graphics state pdfkit's save, transform and restore would keep is the same after "Q" as before "q".
  */
-export function writeLine(doc: PDFKit.Document, line: string, x: number, y: number): boolean {
+export function writeLine(doc: PDFKit.Document, line: string, x: number, y: number, baseline: 'top' | 'alphabetic' = 'top'): boolean {
   const d = doc as unknown as DocInternals;
   const font = d._font;
   if (!font || !font.layoutCache || !font.subset) return false;
@@ -147,7 +148,8 @@ export function writeLine(doc: PDFKit.Document, line: string, x: number, y: numb
   if (shown === null) return false;
   const size = d._fontSize;
   const height = d.page.height;
-  const dy = (font.ascender / 1000) * size;
+  // pdfkit's _fragment: y is the top of the line, or with baseline 'alphabetic' the baseline itself (dy 0).
+  const dy = ((baseline === 'alphabetic' ? 0 : font.ascender) / 1000) * size;
   const top = height - y - dy;
   if (d.page.fonts[font.id] == null) d.page.fonts[font.id] = font.ref();
   d.addContent(
