@@ -183,7 +183,7 @@ export async function renderPdf(model: PackModel, options: RenderOptions = {}): 
   await drawClaims(L, model, svgs, root);
   options.chartsDrawn?.();
   drawBackMatter(L, model, root, bookmark);
-  drawFurniture(doc, model);
+  drawFurniture(L, model);
 
   root.end();
   doc.end();

@@ -106,3 +106,62 @@ describe('Layout.drawText', () => {
     expect(bytesA.equals(bytesB)).toBe(true);
   });
 });
+
+describe('Layout.textLine', () => {
+  type Opts = { width: number; lineGap?: number; lineBreak?: false; align?: 'right'; spaced?: boolean };
+  const SPACED = { characterSpacing: 0.8, features: { kern: false } };
+  const LINES: Array<[string, Face, number, Opts]> = [
+    ['CLAIM FEEDBACK-BELOW-REGION', 'bold', 8.5, { width: 300, spaced: true, lineGap: 1 }],
+    ['NOTES', 'bold', 8.5, { width: 200, spaced: true, lineBreak: false }],
+    ['CLAIM TŶ ŁĄKA AVA TO (CONTINUED)', 'bold', 8.5, { width: 479.28, spaced: true, lineBreak: false }],
+    ['Supported', 'bold', 11, { width: 80, lineBreak: false }],
+    ['Not supported', 'regular', 9.5, { width: 90.5, lineBreak: false }],
+    ['Student voice review 2026 — Pant-yr-ŵyn, naïve office figures', 'regular', 8, { width: 479.28, lineBreak: false }],
+    ['Page 12 of 225', 'regular', 8, { width: 239.64, align: 'right', lineBreak: false }],
+    ['Page 3 of 9  ', 'regular', 8, { width: 239.64, align: 'right', lineBreak: false }],
+    // Handed to doc.text: two lines, a mark off the baseline, nothing to draw, letter-spaced text at the right.
+    ['A label long enough to wrap onto a second line in this narrow width', 'bold', 8.5, { width: 90, spaced: true, lineGap: 1 }],
+    ['Two lines\nof badge', 'regular', 9.5, { width: 200, lineBreak: false }],
+    ['Marks a\u0328 i\u0308', 'regular', 9.5, { width: 200, lineBreak: false }],
+    ['', 'regular', 9.5, { width: 200, lineBreak: false }],
+    ['SPACED RIGHT', 'bold', 8.5, { width: 200, spaced: true, align: 'right' }],
+  ];
+
+  /** Each line at a few places, the last near the foot of the page (where doc.text moves to a new page). */
+  function drawLines(doc: PDFKit.Document, draw: (text: string, face: Face, size: number, x: number, y: number, opts: Opts) => void): void {
+    let y = 60;
+    for (const [text, face, size, opts] of LINES) {
+      for (const at of [y, y + 0.3]) {
+        doc.font(FONT_NAME[face]).fontSize(size).fillColor('#5b6673');
+        draw(text, face, size, 58, at, opts);
+        doc.moveTo(58, doc.y).lineTo(60, doc.x).stroke();
+      }
+      y += 30;
+    }
+    doc.font(FONT_NAME.bold).fontSize(8.5);
+    draw('CLAIM C1', 'bold', 8.5, 58, 790, { width: 300, spaced: true, lineGap: 1 });
+    doc.font(FONT_NAME.regular).fontSize(9.5);
+    draw('Supported', 'regular', 9.5, 58, 786, { width: 80, lineBreak: false });
+  }
+
+  it('writes the same bytes as doc.text and leaves the cursor where doc.text does', async () => {
+    const a = newDoc();
+    const L = new Layout(a.doc);
+    let handed = 0;
+    const text = a.doc.text.bind(a.doc);
+    a.doc.text = ((...args: Parameters<typeof text>) => {
+      handed++;
+      return text(...args);
+    }) as typeof text;
+    drawLines(a.doc, (t, face, size, x, y, opts) => L.textLine(t, face, size, x, y, opts));
+    a.doc.end();
+    const b = newDoc();
+    drawLines(b.doc, (t, _face, _size, x, y, { spaced, ...opts }) => b.doc.text(t, x, y, { ...opts, ...(spaced ? SPACED : {}) }));
+    b.doc.end();
+    const [bytesA, bytesB] = await Promise.all([a.done, b.done]);
+    expect(bytesA.length).toBeGreaterThan(1000);
+    expect(bytesA.equals(bytesB)).toBe(true);
+    // The first eight lines, twice each, are written here; the other five (twice) and the two near the foot go to doc.text.
+    expect(handed).toBe(12);
+  });
+});

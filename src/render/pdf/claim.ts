@@ -8,7 +8,7 @@ import { blocksHeight, type Layout } from './layout.js';
 import { badgeWidth, drawBadge } from './marks.js';
 import { numberLabelWidth, numberPairs, table } from './tables.js';
 import {
-  BADGE, CLAIM_GAP, COLOR, CONTENT_WIDTH, CONTINUATION_HEIGHT, LINE_GAP, MARGIN, NUMBER_LABEL_WIDTH, SPACED_CAPS, PAGE, PAGE_ROOM, SIZE, shorten,
+  BADGE, CLAIM_GAP, COLOR, CONTENT_WIDTH, CONTINUATION_HEIGHT, LINE_GAP, MARGIN, NUMBER_LABEL_WIDTH, PAGE, PAGE_ROOM, SIZE, shorten,
   svgSize, type Block, type Cell, type Struct,
 } from './style.js';
 
@@ -49,7 +49,7 @@ export function notices(L: Layout, items: string[], opts: { spaceAfter?: number 
           box.add(
             L.doc.struct('P', {}, () => {
               L.setFont('bold', SIZE.small, COLOR.noticeInk);
-              L.doc.text(items.length > 1 ? 'NOTES' : 'NOTE', x, top, { width, ...SPACED_CAPS, lineBreak: false });
+              L.textLine(items.length > 1 ? 'NOTES' : 'NOTE', 'bold', SIZE.small, x, top, { width, spaced: true, lineBreak: false });
             }),
           );
           let y = top + labelH;
@@ -144,7 +144,7 @@ function claimBlocks(
       parent.add(
         L.doc.struct('H2', {}, () => {
           L.setFont('bold', SIZE.small, COLOR.accent);
-          L.doc.text(label, MARGIN.left, labelTop, { width: lw, ...SPACED_CAPS, lineGap: 1 });
+          L.textLine(label, 'bold', SIZE.small, MARGIN.left, labelTop, { width: lw, spaced: true, lineGap: 1 });
           L.setFont('bold', SIZE.h3);
           L.drawText(claim.statement, 'bold', SIZE.h3, MARGIN.left, statementTop, CONTENT_WIDTH, 1.5);
         }),

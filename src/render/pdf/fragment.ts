@@ -5,8 +5,9 @@
  * are the same. What costs in pdfkit is turning each line back into glyphs: it lays the line out again word by word,
  * joins the words' glyph arrays, and writes four hex digits per glyph. Here each word's glyph codes and kerning are
  * worked out the first time the word is written in a font (adding its glyphs to the font's subset in the order pdfkit
- * would) and reused for every line after. A word with glyphs moved off their baseline (marks) makes the line go to
- * pdfkit's own _fragment.
+ * would) and reused for every line after. A line set with character spacing and OpenType features (SPACED_CAPS) is
+ * shaped whole, as pdfkit shapes it then, and gets pdfkit's "Tc" operator. A word with glyphs moved off their baseline
+ * (marks) makes the line go to pdfkit's own _fragment.
  */
 
 interface Glyph {
@@ -29,6 +30,7 @@ interface EmbeddedFont {
   subset: { includeGlyph(id: number): number };
   layoutCache?: unknown;
   layoutCached(text: string): { glyphs: Glyph[]; positions: Position[] };
+  layout(text: string, features: unknown): { glyphs: Glyph[]; positions: Position[] };
   ref(): unknown;
 }
 interface DocInternals {
@@ -52,16 +54,13 @@ function number(n: number): number {
   throw new Error(`unsupported number: ${n}`);
 }
 
-/** A word's segments, or null when one of its glyphs is moved off the baseline. */
-function segments(font: EmbeddedFont, words: Map<string, Segment[] | null>, word: string): Segment[] | null {
-  let segs = words.get(word);
-  if (segs !== undefined) return segs;
-  const run = font.layoutCached(word);
-  if (run.positions.some((p) => p.xOffset || p.yOffset)) {
-    words.set(word, null);
-    return null;
-  }
-  segs = [];
+/**
+ * A run's glyph codes cut after each kerned glyph, its glyphs added to the font's subset (with their widths and code
+ * points) in order, as pdfkit's encode adds them; null, having added nothing, when a glyph is moved off the baseline.
+ */
+function encodeRun(font: EmbeddedFont, run: { glyphs: Glyph[]; positions: Position[] }): Segment[] | null {
+  if (run.positions.some((p) => p.xOffset || p.yOffset)) return null;
+  const segs: Segment[] = [];
   let hex = '';
   for (let i = 0; i < run.glyphs.length; i++) {
     const glyph = run.glyphs[i]!;
@@ -76,12 +75,45 @@ function segments(font: EmbeddedFont, words: Map<string, Segment[] | null>, word
     }
   }
   if (hex) segs.push({ hex, adjust: null });
+  return segs;
+}
+
+/** A word's segments, or null when one of its glyphs is moved off the baseline. */
+function segments(font: EmbeddedFont, words: Map<string, Segment[] | null>, word: string): Segment[] | null {
+  let segs = words.get(word);
+  if (segs !== undefined) return segs;
+  segs = encodeRun(font, font.layoutCached(word));
   words.set(word, segs);
   return segs;
 }
 
+/** The TJ operator of runs of segments, '' for none. */
+function operator(runs: Segment[][]): string {
+  let commands = '';
+  let hex = '';
+  for (const segs of runs) {
+    for (const seg of segs) {
+      hex += seg.hex;
+      if (seg.adjust !== null) {
+        commands += `${commands ? ' ' : ''}<${hex}> ${number(-seg.adjust)}`;
+        hex = '';
+      }
+    }
+  }
+  if (hex) commands += `${commands ? ' ' : ''}<${hex}> ${number(-0)}`;
+  return commands ? `[${commands}] TJ` : '';
+}
+
 /** Each font's lines already written: the line's TJ operator ('' for none), or null when it needs pdfkit's own. */
 const linesByFont = new WeakMap<object, Map<string, string | null>>();
+/** The same for lines written with spacing and features, by the features and the line. */
+const spacedByFont = new WeakMap<object, Map<string, string | null>>();
+
+/** Character spacing and OpenType features a line is written with, as pdfkit's text options give them. */
+export interface Spacing {
+  characterSpacing: number;
+  features: Readonly<Record<string, boolean>>;
+}
 
 /** The TJ operator that writes `text` (no line breaks) in `font`, '' for none, or null when a glyph is off the baseline. */
 function showText(font: EmbeddedFont, text: string): string | null {
@@ -106,19 +138,7 @@ function showText(font: EmbeddedFont, text: string): string | null {
     if (segs === null) return null;
     runs.push(segs);
   }
-  let commands = '';
-  let hex = '';
-  for (const segs of runs) {
-    for (const seg of segs) {
-      hex += seg.hex;
-      if (seg.adjust !== null) {
-        commands += `${commands ? ' ' : ''}<${hex}> ${number(-seg.adjust)}`;
-        hex = '';
-      }
-    }
-  }
-  if (hex) commands += `${commands ? ' ' : ''}<${hex}> ${number(-0)}`;
-  return commands ? `[${commands}] TJ` : '';
+  return operator(runs);
 }
 
 /**
@@ -129,21 +149,34 @@ function showText(font: EmbeddedFont, text: string): string | null {
  * from "q" to "Q" are handed over as one piece of content, each ending with the line break pdfkit ends it with; the
  * graphics state pdfkit's save, transform and restore would keep is the same after "Q" as before "q".
  */
-export function writeLine(doc: PDFKit.Document, line: string, x: number, y: number, baseline: 'top' | 'alphabetic' = 'top'): boolean {
+export function writeLine(
+  doc: PDFKit.Document,
+  line: string,
+  x: number,
+  y: number,
+  baseline: 'top' | 'alphabetic' = 'top',
+  spacing?: Spacing,
+): boolean {
   const d = doc as unknown as DocInternals;
   const font = d._font;
   if (!font || !font.layoutCache || !font.subset) return false;
   const text = line.includes('\n') ? line.replace(/\n/g, '') : line;
   if (text.length === 0) return true;
-  let lines = linesByFont.get(font);
+  const byFont = spacing ? spacedByFont : linesByFont;
+  let lines = byFont.get(font);
   if (lines === undefined) {
     lines = new Map();
-    linesByFont.set(font, lines);
+    byFont.set(font, lines);
   }
-  let shown = lines.get(text);
+  const key = spacing ? `${JSON.stringify(spacing.features)}\u0000${text}` : text;
+  let shown = lines.get(key);
   if (shown === undefined) {
-    shown = showText(font, text);
-    lines.set(text, shown);
+    // With OpenType features pdfkit shapes the line whole (EmbeddedFont.layout), not word by word.
+    if (spacing) {
+      const segs = encodeRun(font, font.layout(text, spacing.features));
+      shown = segs === null ? null : operator([segs]);
+    } else shown = showText(font, text);
+    lines.set(key, shown);
   }
   if (shown === null) return false;
   const size = d._fontSize;
@@ -154,6 +187,7 @@ export function writeLine(doc: PDFKit.Document, line: string, x: number, y: numb
   if (d.page.fonts[font.id] == null) d.page.fonts[font.id] = font.ref();
   d.addContent(
     `q\n1 0 0 -1 0 ${number(height)} cm\nBT\n1 0 0 1 ${number(x)} ${number(top)} Tm\n/${font.id} ${number(size)} Tf\n` +
+      `${spacing?.characterSpacing ? `${number(spacing.characterSpacing)} Tc\n` : ''}` +
       `${shown ? `${shown}\n` : ''}ET\nQ`,
   );
   return true;

@@ -6,8 +6,8 @@ import SVGtoPDF from 'svg-to-pdfkit';
 import { drawChart } from '../chart-pdf.js';
 import { chartDrawing } from '../chart-runtime.js';
 import { FONT_NAME, fontFor, type Face } from '../fonts.js';
-import { writeLine } from './fragment.js';
-import { widthOfString, wordsOf, wordWidth, wrapWords, type WidthFont, type WrappedLine, type Words } from './wrap.js';
+import { writeLine, type Spacing } from './fragment.js';
+import { pdfNumber, spacedWordWidth, widthOfString, wordsOf, wordWidth, wrapWords, type WidthFont, type WrappedLine, type Words } from './wrap.js';
 import {
   COLOR, CONTENT_BOTTOM, CONTENT_WIDTH, CONTINUATION_HEIGHT, LINE_GAP, MARGIN, SPACED_CAPS, PARA_GAP, SIZE, SLACK, svgSize,
   type Block, type Doc, type Struct,
@@ -27,6 +27,7 @@ interface Measured {
 /** The parts of pdfkit's text machinery that measuring once and drawing from the measurement uses. */
 interface TextInternals {
   _font: ({ name: string } & WidthFont) | null;
+  page: { maxY(): number };
   _fontSize: number;
   _lineGap: number;
   _initOptions(x: number, y: number, options: Record<string, unknown>): Record<string, unknown>;
@@ -86,7 +87,7 @@ export class Layout {
       const text = this.continuation;
       this.artifact(() => {
         this.setFont('bold', SIZE.small, COLOR.muted);
-        this.doc.text(text, MARGIN.left, MARGIN.top, { width: CONTENT_WIDTH, ...SPACED_CAPS, lineBreak: false });
+        this.textLine(text, 'bold', SIZE.small, MARGIN.left, MARGIN.top, { width: CONTENT_WIDTH, spaced: true, lineBreak: false });
       });
       this.pageTop = MARGIN.top + CONTINUATION_HEIGHT;
       this.doc.y = this.pageTop;
@@ -213,6 +214,60 @@ export class Layout {
       doc.y += step;
     }
     doc.x = x;
+  }
+
+  /**
+   * Draw a text that fits on one line, in the face and size already set (with setFont), as doc.text(text, x, y, {
+   * width, lineGap, lineBreak, align, ...SPACED_CAPS }) draws it: wrapped as pdfkit's wrapper wraps it (into one line,
+   * or it goes to doc.text), the line written by writeLine (at the right edge for align 'right', as pdfkit's
+   * _fragment places it), the cursor left where doc.text leaves it. A text of several lines or none, one whose line
+   * would pass the foot of the page (where doc.text moves on to a new page), a letter-spaced text set at the right,
+   * and a line writeLine cannot write go to doc.text.
+   */
+  textLine(
+    text: string,
+    face: Face,
+    size: number,
+    x: number,
+    y: number,
+    opts: { width: number; lineGap?: number; lineBreak?: false; align?: 'right'; spaced?: boolean },
+  ): void {
+    const doc = this.doc;
+    const internals = doc as unknown as TextInternals;
+    const spacing: Spacing | undefined = opts.spaced ? SPACED_CAPS : undefined;
+    const font = internals._font;
+    const fallback = (): void => {
+      doc.text(text, x, y, {
+        width: opts.width,
+        ...(spacing ?? {}),
+        ...(opts.lineGap !== undefined ? { lineGap: opts.lineGap } : {}),
+        ...(opts.lineBreak === false ? { lineBreak: false } : {}),
+        ...(opts.align ? { align: opts.align } : {}),
+      });
+    };
+    if (!font || internals._fontSize !== size || font.name !== postscriptName(face) || (spacing && opts.align)) return fallback();
+    let lines: WrappedLine[] | undefined;
+    if (spacing) {
+      let words = this.wordsByText.get(text);
+      if (words === undefined) {
+        words = wordsOf(text);
+        this.wordsByText.set(text, words);
+      }
+      const { characterSpacing, features } = spacing;
+      lines = wrapWords(words, opts.width, (word) => spacedWordWidth(font, size, word, characterSpacing, features));
+    } else lines = this.wrap(text, size, opts.width);
+    const lineHeight = doc.currentLineHeight(true);
+    const maxY = pdfNumber(internals.page.maxY());
+    if (lines?.length !== 1 || y > maxY || y + lineHeight > maxY) return fallback();
+    const line = lines[0]!;
+    let at = x;
+    if (opts.align === 'right') {
+      const shown = line.text.replace(/\n/g, '').replace(/\s+$/, '');
+      at += line.lineWidth - widthOfString(font, size, shown);
+    }
+    if (!writeLine(doc, line.text, at, y, 'top', spacing)) return fallback();
+    doc.x = x;
+    doc.y = y + (lineHeight + ((opts.lineGap || internals._lineGap) || 0));
   }
 
   /** Draw decoration (rules, shading, marks) as an Artifact so that assistive technology skips it. */

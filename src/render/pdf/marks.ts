@@ -109,7 +109,7 @@ export function drawBadge(L: Layout, kind: VerdictKind, label: string, x: number
   parent.add(
     L.doc.struct('P', {}, () => {
       L.setFont(style.face, size, style.ink);
-      L.doc.text(label, at.textX, at.textY, { width: at.width + 2, lineBreak: false });
+      L.textLine(label, style.face, size, at.textX, at.textY, { width: at.width + 2, lineBreak: false });
     }),
   );
 }

@@ -121,7 +121,7 @@ export function table(
           draws.push(() => {
             const bs = BADGE_STYLE[kind];
             L.setFont(bs.face, badgeSize, bs.ink);
-            L.doc.text(p.text, box.textX, box.textY, { width: box.width + 2, lineBreak: false });
+            L.textLine(p.text, bs.face, badgeSize, box.textX, box.textY, { width: box.width + 2, lineBreak: false });
           });
         } else {
           draws.push(() => {

@@ -56,7 +56,7 @@ export function pdfNumber(n: number): number {
 
 /** The part of pdfkit's embedded font that widths come from. */
 export interface WidthFont {
-  layout(text: string, features: undefined, onlyWidth: true): { advanceWidth: number };
+  layout(text: string, features: unknown, onlyWidth: true): { advanceWidth: number };
 }
 
 /** Each font's word advances (in thousandths of the size), as pdfkit's font layout sums them. */
@@ -144,4 +144,29 @@ export function wrapWords(words: Words, width: number, widthOf: (word: string) =
   }
   if (wc > 0) emitLine();
   return lines;
+}
+
+/** Each font's advances with OpenType features set, by the features and the text. */
+const featuredAdvances = new WeakMap<object, Map<string, number>>();
+
+/**
+ * The width pdfkit's wrapper gives a word set with character spacing and OpenType features (as SPACED_CAPS sets it),
+ * horizontal scaling 100: pdfkit shapes the word whole with the features (EmbeddedFont.layout), adds the spacing
+ * between its characters (doc.widthOfString) and once more after it (LineWrapper.wordWidth), then rounds (PDFNumber).
+ */
+export function spacedWordWidth(font: WidthFont, size: number, word: string, characterSpacing: number, features: object): number {
+  let known = featuredAdvances.get(font);
+  if (known === undefined) {
+    known = new Map();
+    featuredAdvances.set(font, known);
+  }
+  const key = `${JSON.stringify(features)}\u0000${word}`;
+  let advance = known.get(key);
+  if (advance === undefined) {
+    advance = font.layout(word, features, true).advanceWidth;
+    known.set(key, advance);
+  }
+  const spacing = (characterSpacing * 100) / 100;
+  const fontWidth = advance * (size / 1000);
+  return pdfNumber(((fontWidth + spacing * (word.length - 1)) * 100) / 100 + spacing + 0);
 }
