@@ -11,8 +11,11 @@
  * A shape is used this way only when it is proven to behave: when first met, it is compiled with two different sets
  * of stand-ins (the second full of quotes, backslashes, line breaks and negative numbers), how each stand-in must be
  * written at each place where it lands (as it is, or escaped inside expression code) is learnt from the two, and the
- * second set, written into the first compile, must give exactly what compiling the second gave. A shape that fails is
- * compiled and parsed anew for every chart, as before.
+ * second set, written into the first compile, must give exactly what compiling the second gave; and the template,
+ * written with the values of the shape's first chart, must give exactly that chart's own compile. A shape is learnt
+ * when it is met a second time (that chart is then drawn from the template), so that a shape drawn once costs one
+ * compile as before; the chart thread's warm-up learns its shape at once. A shape that fails is compiled and parsed
+ * anew for every chart, as before.
  */
 import { isDeepStrictEqual } from 'node:util';
 import { faceFor, textWidth } from './fonts.js';
@@ -349,7 +352,47 @@ const plainJson = (x: unknown): unknown => JSON.parse(JSON.stringify(x)) as unkn
 const SHAPES_KEPT = 256;
 const shapes = new Map<string, Filler | null | 'seen'>();
 
-async function runtimeSpecOf(spec: object): Promise<object> {
+/**
+ * The runtime spec of the first chart of each shape met once, as plain JSON, with that chart's slot values: the
+ * template learnt when the shape is met again is proven against it, so the second chart needs no compile of its own.
+ * Only the latest few are kept (a runtime spec is some 50 KB); a shape met again after its first was let go is
+ * proven against its own compile instead.
+ */
+const FIRSTS_KEPT = 16;
+const firsts = new Map<string, { slots: Slot[]; runtime: unknown }>();
+
+/**
+ * Learn a shape's template from the spec of one of its charts (two compiles, with the plain and the hostile
+ * stand-ins) and prove it: written with `proof`'s slot values, it must give `proof`'s runtime spec exactly.
+ * Null when the shape cannot be templated.
+ */
+function learnShape(parse: (s: object) => object, spec: Json, slots: Slot[], proof: { slots: Slot[]; runtime: unknown }): Filler | null {
+  try {
+    const plain = plainStandIns(slots);
+    const hostile = hostileStandIns(slots);
+    const a = plainJson(parse(fillSpec(spec, slots, plain) as object));
+    const b = plainJson(parse(fillSpec(spec, slots, hostile) as object));
+    const learnt = compileTemplate(learn(a, b, plain, hostile));
+    const mine = learnt(proof.slots);
+    if (isDeepStrictEqual(mine, proof.runtime)) return learnt;
+    if (process.env.WARRANT_DEBUG_CHARTS) console.error('chart shape not templated:', firstDifference(mine, proof.runtime, ''));
+  } catch (e) {
+    // A stand-in the compiler cannot take (or a shape that differs by more than its stand-ins): no template.
+    if (process.env.WARRANT_DEBUG_CHARTS) console.error('chart shape not templated:', e);
+  }
+  return null;
+}
+
+function keepShape(key: string, known: Filler | null | 'seen' | undefined, template: Filler | null | 'seen'): void {
+  if (known === undefined && shapes.size >= SHAPES_KEPT) shapes.delete(shapes.keys().next().value as string);
+  shapes.set(key, template);
+}
+
+/**
+ * The runtime spec of a chart. `learnNow`: learn the chart's shape at once rather than when it is met a second time
+ * (the chart thread's warm-up charts, whose shape the pack's charts will have).
+ */
+async function runtimeSpecOf(spec: object, learnNow = false): Promise<object> {
   const { vega, vl } = await loadChartLibs();
   const parse = (s: object): object => {
     const { vegaSpec, warnings } = compileWith(vl, s);
@@ -359,29 +402,24 @@ async function runtimeSpecOf(spec: object): Promise<object> {
   const { key, slots } = splitSpec(spec as Json);
   const known = shapes.get(key);
   if (known !== undefined && known !== 'seen') return known === null ? parse(spec) : (known(slots) as object);
-  // The first chart of a shape is compiled as it is (which also reports its warnings); a shape met a second time is
-  // learnt, so that a shape drawn once costs no more than before.
-  const own = parse(spec);
-  let template: Filler | null | 'seen' = 'seen';
-  if (known === 'seen') {
-    template = null;
-    try {
-      const plain = plainStandIns(slots);
-      const hostile = hostileStandIns(slots);
-      const a = plainJson(parse(fillSpec(spec as Json, slots, plain) as object));
-      const b = plainJson(parse(fillSpec(spec as Json, slots, hostile) as object));
-      const learnt = compileTemplate(learn(a, b, plain, hostile));
-      // The chart's own values, written into the template, must give the chart's own compile.
-      const mine = learnt(slots);
-      if (isDeepStrictEqual(mine, plainJson(own))) template = learnt;
-      else if (process.env.WARRANT_DEBUG_CHARTS) console.error('chart shape not templated:', firstDifference(mine, plainJson(own), ''));
-    } catch (e) {
-      // A stand-in the compiler cannot take (or a shape that differs by more than its stand-ins): no template.
-      if (process.env.WARRANT_DEBUG_CHARTS) console.error('chart shape not templated:', e);
-    }
+  const first = known === 'seen' ? firsts.get(key) : undefined;
+  if (first) {
+    // The shape met again: learnt, proven against its first chart, and this chart drawn from the template.
+    firsts.delete(key);
+    const template = learnShape(parse, spec as Json, slots, first);
+    keepShape(key, known, template);
+    return template ? (template(slots) as object) : parse(spec);
   }
-  if (known === undefined && shapes.size >= SHAPES_KEPT) shapes.delete(shapes.keys().next().value as string);
-  shapes.set(key, template);
+  // The first chart of a shape is compiled as it is (which also reports its warnings); the shape is learnt when it is
+  // met again, so that a shape drawn once costs no more than before.
+  const own = parse(spec);
+  if (known === 'seen' || learnNow) {
+    keepShape(key, known, learnShape(parse, spec as Json, slots, { slots, runtime: plainJson(own) }));
+  } else {
+    if (firsts.size >= FIRSTS_KEPT) firsts.delete(firsts.keys().next().value as string);
+    firsts.set(key, { slots, runtime: plainJson(own) });
+    keepShape(key, known, 'seen');
+  }
   return own;
 }
 
@@ -404,11 +442,12 @@ export function keepDrawing(svg: string, drawing: ChartDrawing | undefined): voi
 /**
  * Draw a Vega-Lite spec headless (no canvas): its SVG string, and the same scene recorded as paint operations for the
  * PDF (undefined when the scene holds something the recorder does not draw). Plain data both, so the chart thread
- * can hand them to the main thread as they are.
+ * can hand them to the main thread as they are. `learnShape`: learn the spec's shape now rather than when it is met
+ * again (for charts drawn ahead of the pack's own, of the same shape).
  */
-export async function drawSpec(spec: object): Promise<{ svg: string; drawing: ChartDrawing | undefined }> {
+export async function drawSpec(spec: object, options: { learnShape?: boolean } = {}): Promise<{ svg: string; drawing: ChartDrawing | undefined }> {
   const { vega } = await loadChartLibs();
-  const runtime = await runtimeSpecOf(spec);
+  const runtime = await runtimeSpecOf(spec, options.learnShape === true);
   const view = new vega.View(runtime as ReturnType<VegaModule['parse']>, { renderer: 'none' });
   try {
     const svg = await view.toSVG();

@@ -71,7 +71,8 @@ async function pump(): Promise<void> {
       else if (warmed < WARM_UPS && asked === 0) {
         try {
           await ready;
-          await drawSpec(chartSpec(warmUp(warmed++)));
+          // The first learns the shape at once, so that the pack's first charts of it come from its template.
+          await drawSpec(chartSpec(warmUp(warmed++)), { learnShape: true });
         } catch {
           warmed = WARM_UPS;
         }

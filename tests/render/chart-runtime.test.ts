@@ -9,7 +9,7 @@ import * as vega from 'vega';
 import * as vl from 'vega-lite';
 import { chartSpec } from '../../src/render/charts.js';
 import { isDeepStrictEqual } from 'node:util';
-import { compileTemplate, instantiate, loadChartLibs, shapeStats, specSvg, type Slot, type Template } from '../../src/render/chart-runtime.js';
+import { compileTemplate, drawSpec, instantiate, loadChartLibs, shapeStats, specSvg, type Slot, type Template } from '../../src/render/chart-runtime.js';
 import { sampleModel } from './sample-model.js';
 import type { ChartData } from '../../src/render/model.js';
 
@@ -57,6 +57,23 @@ describe('specSvg', () => {
     );
     // The random charts share shapes, so templates were learnt and used.
     expect(shapeStats().templated).toBeGreaterThan(before);
+  });
+
+  it('learns a shape at once when asked (the warm-up), and draws the next chart of it from the template as a fresh compile does', async () => {
+    // A shape no other test draws: three bars, one label holding a backslash and a quote.
+    const bars = [
+      { label: 'Ŵern \\ "north"', rate: 0.41, lower: 0.33, upper: 0.49, n: 140 },
+      { label: 'Cefnŷdd', rate: 0.57, lower: 0.5, upper: 0.64, n: 190 },
+      { label: 'Tŷ Łąka (n)', rate: 0.22, lower: 0.15, upper: 0.31, n: 120 },
+    ];
+    const first: ChartData = { kind: 'rates', axisTitle: 'Content (%)', bars };
+    const before = shapeStats();
+    const drawn = await drawSpec(chartSpec(first), { learnShape: true });
+    expect(drawn.svg).toBe(await fromScratch(chartSpec(first)));
+    expect(shapeStats()).toEqual({ shapes: before.shapes + 1, templated: before.templated + 1 });
+    const next: ChartData = { kind: 'rates', axisTitle: 'Settled "well" (%)', bars: bars.map((b, i) => ({ ...b, label: `${b.label} ${i}'`, rate: b.rate + 0.01 })) };
+    expect(await specSvg(chartSpec(next))).toBe(await fromScratch(chartSpec(next)));
+    expect(shapeStats()).toEqual({ shapes: before.shapes + 1, templated: before.templated + 1 });
   });
 });
 
