@@ -13,7 +13,6 @@
 import type { Face } from './fonts.js';
 import { faceFor, FONT_NAME } from './fonts.js';
 import { writeLine } from './pdf/fragment.js';
-import { widthOfString, type WidthFont } from './pdf/wrap.js';
 
 /** A path: moveTo (M), lineTo (L), cubic curve (C), rectangle (R) and close (Z), in the coordinates in force. */
 type Segment = ['M', number, number] | ['L', number, number] | ['C', number, number, number, number, number, number] | ['R', number, number, number, number] | ['Z'];
@@ -368,8 +367,7 @@ export function drawChart(doc: Doc, drawing: ChartDrawing, x: number, y: number,
         break;
       default: {
         doc.font(FONT_NAME[o.face]).fontSize(o.size).fillColor(o.paint.color, o.paint.alpha);
-        // doc.widthOfString(o.text), each text's advance kept per font (labels recur from chart to chart).
-        const w = o.align === 'center' || o.align === 'right' || o.align === 'end' ? widthOfString((doc as unknown as { _font: WidthFont })._font, o.size, o.text) : 0;
+        const w = o.align === 'center' || o.align === 'right' || o.align === 'end' ? doc.widthOfString(o.text) : 0;
         const left = o.x - (o.align === 'center' ? w / 2 : w);
         doc.save();
         doc.transform(...o.m);
