@@ -43,6 +43,10 @@ const written = await bundle.write({
   dir: out,
   format: 'esm',
   entryFileNames: '[name].js',
+  // Plain ASCII (non-ASCII characters in strings escaped, doc comments left out): Node then decodes each file on its
+  // fast path and V8 keeps its source in one byte per character rather than two.
+  charset: 'ascii',
+  comments: { legal: true, annotation: false, jsdoc: false },
   chunkFileNames: '[name]-[hash].js',
   banner: (chunk) => (chunk.moduleIds.some((id) => id.includes('/node_modules/')) ? NOTICE : ''),
 });
