@@ -97,10 +97,18 @@ function dataKey(a: Analysis): string | undefined {
   return JSON.stringify([a.kind === 'means' ? 'means' : 'rates', c.source, canon(c.where ?? {}), pair]);
 }
 
-/** For each claim, the indexes of the other claims tested on the same data. */
+/** For each claim, the indexes of the other claims tested on the same data (ascending). */
 export function linkedClaims(analyses: Analysis[]): number[][] {
   const keys = analyses.map(dataKey);
-  return keys.map((k, i) => (k === undefined ? [] : keys.flatMap((other, j) => (j !== i && other === k ? [j] : []))));
+  // The claims of each data key, in order: one pass, rather than every claim compared with every other.
+  const byKey = new Map<string, number[]>();
+  keys.forEach((k, i) => {
+    if (k === undefined) return;
+    const same = byKey.get(k);
+    if (same === undefined) byKey.set(k, [i]);
+    else same.push(i);
+  });
+  return keys.map((k, i) => (k === undefined ? [] : (byKey.get(k) as number[]).filter((j) => j !== i)));
 }
 
 /** Defaults for a difference worth reporting when the claim sets none (common practice; see the file comment). */
