@@ -38,7 +38,7 @@ function newDoc(): { doc: PDFKit.Document; chunks: Buffer[]; done: Promise<Buffe
 /** Draw every text in a few faces, sizes and widths, down the page and near its foot, by `draw`. */
 function drawAll(
   doc: PDFKit.Document,
-  draw: (text: string, face: Face, size: number, x: number, y: number, width: number, gap: number) => void,
+  draw: (text: string, face: Face, size: number, x: number, y: number, width: number, gap: number, again?: boolean) => void,
 ): void {
   const cases: Array<[Face, number, number, number]> = [
     ['regular', 10.5, 479.28, 2.2],
@@ -57,6 +57,14 @@ function drawAll(
       }
     }
   }
+  // The same texts drawn again (from their kept measurement, wrapped again for drawing), one of them by pdfkit's wrapper.
+  doc.addPage();
+  for (const y of [100, 250]) {
+    for (const text of [TEXTS[1]!, TEXTS[3]!]) {
+      doc.font(FONT_NAME.regular).fontSize(10.5).fillColor('#1d2733');
+      draw(text, 'regular', 10.5, 58, y + (text === TEXTS[3] ? 70 : 0), 300, 2.2, true);
+    }
+  }
   // Near the foot of the page, where pdfkit moves the rest of a text to a new page.
   doc.font(FONT_NAME.regular).fontSize(10.5).fillColor('#1d2733');
   draw(TEXTS[1]!, 'regular', 10.5, 58, 770, 400, 2.2);
@@ -67,9 +75,12 @@ describe('Layout.drawText', () => {
     const a = newDoc();
     const L = new Layout(a.doc);
     const heights: number[] = [];
-    drawAll(a.doc, (text, face, size, x, y, width, gap) => {
+    drawAll(a.doc, (text, face, size, x, y, width, gap, again) => {
       a.doc.y = y;
-      heights.push(L.textHeight(text, face, size, width, gap));
+      // A text measured before keeps its first height (which pdfkit's, from another place on the page, can differ
+      // from in the last bits), so only first measurements are compared.
+      const height = L.textHeight(text, face, size, width, gap);
+      if (!again) heights.push(height);
       a.doc.font(FONT_NAME[face]).fontSize(size);
       L.drawText(text, face, size, x, y, width, gap);
     });
@@ -77,9 +88,9 @@ describe('Layout.drawText', () => {
 
     const b = newDoc();
     const expected: number[] = [];
-    drawAll(b.doc, (text, _face, _size, x, y, width, gap) => {
+    drawAll(b.doc, (text, _face, _size, x, y, width, gap, again) => {
       b.doc.y = y;
-      expected.push(b.doc.heightOfString(text, { width, lineGap: gap }));
+      if (!again) expected.push(b.doc.heightOfString(text, { width, lineGap: gap }));
       b.doc.text(text, x, y, { width, lineGap: gap });
     });
     b.doc.end();

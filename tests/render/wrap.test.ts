@@ -125,7 +125,8 @@ describe('wrapWords', () => {
           doc.font(FONT_NAME[face]).fontSize(size);
           const font = (doc as unknown as Internals)._font;
           const text = words.join(' ');
-          const pieces = wordsOf(text).words;
+          const { ends } = wordsOf(text);
+          const pieces = ends.map((end, i) => text.slice(i === 0 ? 0 : ends[i - 1], end));
           const k = 1 + (cut % pieces.length);
           // The line as wide as its first k words, added up as the wrapper adds them.
           const width = pieces.slice(0, k).reduce((a, w) => a + wordWidth(font, size, w), 0);

@@ -104,6 +104,12 @@ function operator(runs: Segment[][]): string {
   return commands ? `[${commands}] TJ` : '';
 }
 
+/**
+ * Lines up to this long are kept once written: labels, badge words and numbers recur from claim to claim, while a
+ * longer line is nearly always written once, and keeping it would only keep its glyph codes alive to the end.
+ */
+const KEPT_LINE = 40;
+
 /** Each font's lines already written: the line's TJ operator ('' for none), or null when it needs pdfkit's own. */
 const linesByFont = new WeakMap<object, Map<string, string | null>>();
 /** The same for lines written with spacing and features, by the features and the line. */
@@ -145,7 +151,7 @@ function showText(font: EmbeddedFont, text: string): string | null {
  * Write `line` at (x, y) in the current font and size as pdfkit's _fragment would with plain options (and the
  * baseline given: 'top', pdfkit's default, or 'alphabetic', as charts' labels are placed). Returns false,
  * having written nothing, when the line needs pdfkit's own (a font without a layout cache, or glyphs off the baseline).
- * A line's TJ operator is kept per font (labels such as "Compared" recur on every claim's page), and the operators
+ * A short line's TJ operator is kept per font (labels such as "Compared" recur on every claim's page), and the operators
  * from "q" to "Q" are handed over as one piece of content, each ending with the line break pdfkit ends it with; the
  * graphics state pdfkit's save, transform and restore would keep is the same after "Q" as before "q".
  */
@@ -169,14 +175,14 @@ export function writeLine(
     byFont.set(font, lines);
   }
   const key = spacing ? `${JSON.stringify(spacing.features)}\u0000${text}` : text;
-  let shown = lines.get(key);
+  let shown = text.length <= KEPT_LINE ? lines.get(key) : undefined;
   if (shown === undefined) {
     // With OpenType features pdfkit shapes the line whole (EmbeddedFont.layout), not word by word.
     if (spacing) {
       const segs = encodeRun(font, font.layout(text, spacing.features));
       shown = segs === null ? null : operator([segs]);
     } else shown = showText(font, text);
-    lines.set(key, shown);
+    if (text.length <= KEPT_LINE) lines.set(key, shown);
   }
   if (shown === null) return false;
   const size = d._fontSize;

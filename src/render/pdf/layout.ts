@@ -14,14 +14,18 @@ import {
 } from './style.js';
 
 
-/** A text measured in one face, size, width and line gap: its height and the lines it wraps into. */
+/**
+ * A text measured in one face, size, width and line gap: its height, how many lines it wraps into, and the lines until
+ * it is drawn (a text drawn again is wrapped again: the lines come out the same, and most texts are drawn once).
+ */
 interface Measured {
   face: Face;
   size: number;
   width: number;
   lineGap: number;
   height: number;
-  lines: WrappedLine[];
+  count: number;
+  lines: WrappedLine[] | undefined;
 }
 
 /** The parts of pdfkit's text machinery that measuring once and drawing from the measurement uses. */
@@ -129,26 +133,37 @@ export class Layout {
     const internals = doc as unknown as TextInternals;
     // What heightOfString does, keeping each line and its measures as the wrapper hands them over.
     const { x, y } = doc;
-    const options = internals._initOptions({ width, lineGap });
-    options.height = Infinity;
-    const gap = (options.lineGap as number) || internals._lineGap || 0;
-    let lines = this.wrap(text, size, width);
-    if (lines === undefined) {
-      lines = [];
-      internals._text(text, x, y, options, (line, o) => {
-        lines!.push({ text: line, textWidth: o.textWidth, wordCount: o.wordCount, lineWidth: o.lineWidth });
-        doc.y += doc.currentLineHeight(true) + gap;
-      });
-    } else {
-      for (let i = 0; i < lines.length; i++) doc.y += doc.currentLineHeight(true) + gap;
-    }
-    const m: Measured = { face, size, width, lineGap, height: doc.y - y, lines };
+    const gap = lineGap || internals._lineGap || 0;
+    const lines = this.linesOf(text, size, width);
+    for (let i = 0; i < lines.length; i++) doc.y += doc.currentLineHeight(true) + gap;
+    const m: Measured = { face, size, width, lineGap, height: doc.y - y, count: lines.length, lines };
     doc.x = x;
     doc.y = y;
     const list = this.measured.get(text);
     if (list === undefined) this.measured.set(text, [m]);
     else list.push(m);
     return m;
+  }
+
+  /**
+   * The lines pdfkit's wrapper makes of `text` in the current font at `size` in a line `width` wide: from wrap.ts, or
+   * from pdfkit's wrapper itself for a text only it wraps as it does (as heightOfString runs it).
+   */
+  private linesOf(text: string, size: number, width: number): WrappedLine[] {
+    const lines = this.wrap(text, size, width);
+    if (lines !== undefined) return lines;
+    const doc = this.doc;
+    const internals = doc as unknown as TextInternals;
+    const { x, y } = doc;
+    const options = internals._initOptions({ width });
+    options.height = Infinity;
+    const out: WrappedLine[] = [];
+    internals._text(text, x, y, options, (line, o) => {
+      out.push({ text: line, textWidth: o.textWidth, wordCount: o.wordCount, lineWidth: o.lineWidth });
+    });
+    doc.x = x;
+    doc.y = y;
+    return out;
   }
 
   /**
@@ -189,7 +204,7 @@ export class Layout {
       // pdfkit checks before the first line and after each line whether the next would pass the foot of the page.
       let at = y;
       if (at + lineHeight > bottom) fits = false;
-      for (let i = 0; fits && i < m.lines.length; i++) {
+      for (let i = 0; fits && i < m.count; i++) {
         at += step;
         if (at + lineHeight > bottom) fits = false;
       }
@@ -203,7 +218,9 @@ export class Layout {
     doc.x = x;
     doc.y = y;
     let options: Record<string, unknown> | undefined;
-    for (const line of m.lines) {
+    const lines = m.lines ?? this.linesOf(text, size, width);
+    m.lines = undefined;
+    for (const line of lines) {
       if (!writeLine(doc, line.text, doc.x, doc.y)) {
         options ??= internals._initOptions({ width, lineGap });
         options.textWidth = line.textWidth;

@@ -20,9 +20,13 @@ export interface WrappedLine {
   lineWidth: number;
 }
 
-/** A text cut at its break opportunities: each word with the spaces after it, and whether a line must end after it. */
+/**
+ * A text cut at its break opportunities: where each word ends (a word holds the spaces after it) and whether a line
+ * must end after it. Kept as positions, not as strings, as every text measured is kept for the whole pack.
+ */
 export interface Words {
-  words: string[];
+  text: string;
+  ends: number[];
   required: boolean[];
   /** False when the text holds a soft hyphen, which pdfkit's wrapper treats specially. */
   plain: boolean;
@@ -30,16 +34,14 @@ export interface Words {
 
 /** The words of a text as pdfkit's wrapper takes them (LineWrapper.eachWord). */
 export function wordsOf(text: string): Words {
-  const words: string[] = [];
+  const ends: number[] = [];
   const required: boolean[] = [];
   const breaker = new LineBreaker(text);
-  let last = 0;
   for (let bk = breaker.nextBreak(); bk; bk = breaker.nextBreak()) {
-    words.push(text.slice(last, bk.position));
+    ends.push(bk.position);
     required.push(bk.required);
-    last = bk.position;
   }
-  return { words, required, plain: !text.includes('\u00AD') };
+  return { text, ends, required, plain: !text.includes('\u00AD') };
 }
 
 const float = new Float32Array(1);
@@ -99,42 +101,47 @@ export function wrapWords(words: Words, width: number, widthOf: (word: string) =
   // LineWrapper's line width: horizontal scaling 100, one column, the column gap of 18 times no other column.
   const lineWidth = ((width * 100) / 100 - 18 * (1 - 1)) / 1;
   const lines: WrappedLine[] = [];
-  let buffer = '';
+  const { text, ends, required } = words;
+  // The line so far (pdfkit's buffer) is always a run of whole words: text.slice(from, to).
+  let from = 0;
+  let to = 0;
   let textWidth = 0;
   let wc = 0;
   let spaceLeft = lineWidth;
   const emitLine = (): void => {
-    lines.push({ text: buffer, textWidth: textWidth + 0 * (wc - 1), wordCount: wc, lineWidth });
+    lines.push({ text: text.slice(from, to), textWidth: textWidth + 0 * (wc - 1), wordCount: wc, lineWidth });
   };
-  const list = words.words;
-  const required = words.required;
-  for (let i = 0; i < list.length; i++) {
-    const word = list[i]!;
-    const w = widthOf(word);
+  for (let i = 0; i < ends.length; i++) {
+    const start = i === 0 ? 0 : ends[i - 1]!;
+    const end = ends[i]!;
+    const w = widthOf(text.slice(start, end));
     if (w > lineWidth + 0) return undefined;
     if (i === 0 || required[i - 1]) spaceLeft = lineWidth;
     const fits = w <= spaceLeft;
     if (fits) {
-      buffer += word;
+      if (from === to) from = start;
+      to = end;
       textWidth += w;
       wc++;
     }
     if (required[i] || !fits) {
       if (required[i] && w > spaceLeft) {
         emitLine();
-        buffer = word;
+        from = start;
+        to = end;
         textWidth = w;
         wc = 1;
       }
       emitLine();
       if (required[i]) {
         spaceLeft = lineWidth;
-        buffer = '';
+        from = to = end;
         textWidth = 0;
         wc = 0;
       } else {
         spaceLeft = lineWidth - w;
-        buffer = word;
+        from = start;
+        to = end;
         textWidth = w;
         wc = 1;
       }
