@@ -17,6 +17,7 @@ import type { Claim, ClaimsFile } from './claims/types.js';
 import { readCube } from './data/cube.js';
 import type { Cube } from './data/types.js';
 import { analyse, columnsUsed } from './analyse/index.js';
+import { compareAtLevel } from './analyse/compare.js';
 import { periodColumnOf, resolvePeriods } from './analyse/periods.js';
 import { PERIOD_NAME } from './claims/periods.js';
 import type { Analysis } from './analyse/types.js';
@@ -153,7 +154,10 @@ export function testClaims(
     analyses[i] = atThreshold(a, threshold.get(i));
   });
   // The verdict at 90, 95 and 99% confidence, with and without the adjustment: each claim analysed again at each level.
+  // A compare claim's verdict depends on the level only through alpha, so it is decided again on the same figures.
   const stability = verdictStability(claims, analyses, (i, confidence) => {
+    const a = analyses[i]!;
+    if (a.kind === 'compare') return compareAtLevel(a, confidence);
     const { claim } = resolved[i]!;
     return analyseOne(i, { ...claim, confidence } as typeof claim);
   });

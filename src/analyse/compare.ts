@@ -119,3 +119,17 @@ export function analyseCompare(claim: CompareClaim, cube: Cube, ctx: CompareCont
     methods: rates.methods,
   };
 }
+
+/**
+ * The same claim's analysis at another confidence level, for its verdict only (verdict stability, which decides each
+ * claim again at 90, 95 and 99%). What `decide` reads of a compare analysis does not depend on the level: the test
+ * and its p-values (the z test, Fisher's exact test and the corrected z test take the level only for their
+ * intervals), the direction of the difference, the shortfall and the smallest difference that matters; the level
+ * enters the verdict only as alpha, read from the claim. So the verdict at another level is decided on the same
+ * figures, with the claim at that level, instead of analysing the claim again (tests/analyse/compare-levels.test.ts
+ * checks the two agree). The intervals and detectable difference are still those of the analysis's own level: use
+ * analyseCompare for anything but the verdict.
+ */
+export function compareAtLevel(a: CompareAnalysis, confidence: number): CompareAnalysis {
+  return { ...a, claim: { ...a.claim, confidence } };
+}

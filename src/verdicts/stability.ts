@@ -1,8 +1,10 @@
 /**
  * Verdict stability: each claim's verdict at 90%, 95% and 99% confidence, with and without the adjustment for many
  * claims. A sceptical reader's first question is whether the verdict hangs on the level chosen; this answers it for
- * every claim. Each level is a full re-run of the claim's analysis at that level (intervals, detectable differences
- * and margins that depend on it change too), then the same adjustment across the same claims, then `decide`.
+ * every claim. Each level is a re-run of the claim's analysis at that level (intervals, detectable differences and
+ * margins that depend on it change too; a compare claim, whose verdict depends on the level only through alpha, is
+ * decided on the same figures: compareAtLevel in src/analyse/compare.ts), then the same adjustment across the same
+ * claims, then `decide`.
  * Nothing here chooses words: src/verdicts/words/stability.ts does.
  */
 import type { Analysis } from '../analyse/types.js';
