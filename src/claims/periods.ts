@@ -15,13 +15,17 @@ export { periodsBack, RELATIVE_PERIOD } from './amounts.js';
 export const PERIOD_NAME = /^(year|period|wave|session|cycle|round|academic[ _-]?year|survey[ _-]?year)$/i;
 
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)$/;
-const collator = new Intl.Collator('en', { numeric: true, sensitivity: 'base' });
+/** Made on first use: a collator's first making loads the locale's collation data (about 10 ms), which periods that
+ * are all numbers never need. */
+let collator: Intl.Collator | undefined;
 
 /** The distinct periods in the data, oldest first. */
 export function orderPeriods(values: readonly string[]): string[] {
   const distinct = [...new Set(values.map((v) => v.trim()))].filter((v) => v !== '');
   if (distinct.every((v) => NUMBER.test(v))) return distinct.sort((a, b) => Number(a) - Number(b));
-  return distinct.sort((a, b) => collator.compare(a, b));
+  collator ??= new Intl.Collator('en', { numeric: true, sensitivity: 'base' });
+  const c = collator;
+  return distinct.sort((a, b) => c.compare(a, b));
 }
 
 export type PeriodResolution = { ok: true; period: string } | { ok: false; reason: string };

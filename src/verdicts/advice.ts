@@ -90,8 +90,9 @@ export function effectInterval(a: Analysis): EffectInterval | undefined {
 function dataKey(a: Analysis): string | undefined {
   const c = a.claim as unknown as { source: string; where?: Record<string, unknown>; focus?: Record<string, unknown>; against?: Record<string, unknown> };
   if (!c.focus || !c.against || !['compare', 'equivalence', 'means'].includes(a.kind)) return undefined;
+  // Keys in code-unit order: any fixed order makes equal selections equal text (no collation data needed).
   const canon = (v: unknown): string =>
-    JSON.stringify(v, (_k, x: unknown) => (x && typeof x === 'object' && !Array.isArray(x) ? Object.fromEntries(Object.entries(x as Record<string, unknown>).sort(([p], [q]) => p.localeCompare(q))) : x));
+    JSON.stringify(v, (_k, x: unknown) => (x && typeof x === 'object' && !Array.isArray(x) ? Object.fromEntries(Object.entries(x as Record<string, unknown>).sort(([p], [q]) => (p < q ? -1 : p > q ? 1 : 0))) : x));
   const pair = [canon(c.focus), canon(c.against)].sort();
   // Means claims measure scores, not agreement: they link only with other means claims.
   return JSON.stringify([a.kind === 'means' ? 'means' : 'rates', c.source, canon(c.where ?? {}), pair]);

@@ -49,13 +49,25 @@ function questionColumn(spec: SourceSpec | undefined, cube: Cube): string | unde
   return cube.dimensions.find((d) => /^(question|item|question code)$/i.test(d.trim()));
 }
 
+/** Whole numbers written plainly (no sign, no leading zero): their numeric collation order is their numeric order. */
+const PLAIN_WHOLE = /^(0|[1-9][0-9]{0,14})$/;
+
+/**
+ * Periods in numeric collation order (2 before 10). Plain whole numbers, such as years, are put in order as numbers,
+ * the same order without loading the locale's collation data (about 10 ms the first time).
+ */
+function sortPeriods(values: readonly string[]): string[] {
+  if (values.every((v) => PLAIN_WHOLE.test(v))) return [...values].sort((p, q) => Number(p) - Number(q));
+  return [...values].sort((p, q) => p.localeCompare(q, 'en', { numeric: true }));
+}
+
 /**
  * Respondents per period for the cover: for each period, the number who answered the most-answered question (the
  * closest a file of answers per question comes to a head count). Undefined without a question column.
  */
 export function respondentsByPeriod(spec: SourceSpec | undefined, cube: Cube): { periods: string[]; respondents: Array<{ period: string; n: number }> | undefined } {
   const period = spec?.period && cube.dimensions.includes(spec.period) ? spec.period : undefined;
-  const periods = period ? [...(cube.values[period] ?? [])].sort((p, q) => p.localeCompare(q, 'en', { numeric: true })) : [];
+  const periods = period ? sortPeriods(cube.values[period] ?? []) : [];
   const question = questionColumn(spec, cube);
   if (!question) return { periods, respondents: undefined };
   const totals = new Map<string, Map<string, number>>();
