@@ -101,6 +101,49 @@ function keepContentAsBytes(): (content: ContentStream) => () => void {
   };
 }
 
+/** The parts of pdfkit's document that setting a colour goes through. */
+export interface ColorSetter {
+  fillColor(color: unknown, opacity?: unknown): unknown;
+  strokeColor(color: unknown, opacity?: unknown): unknown;
+  addContent(data: string): unknown;
+  _fillColor: unknown;
+}
+
+/**
+ * Colours set as '#rrggbb' without an opacity (every colour of the pack's pages) are written from the operators pdfkit
+ * wrote for them the first time — "/DeviceRGB cs" (or CS) and the three parts over 255 with "scn" (or SCN), as
+ * _setColorCore writes them — instead of parsing the colour again each time (setFont sets one for every text);
+ * pdfkit's own handles any other colour.
+ */
+export function quickColors(doc: ColorSetter): void {
+  const fill = doc.fillColor.bind(doc);
+  const stroke = doc.strokeColor.bind(doc);
+  const operators = new Map<string, [string, string]>();
+  const plain = (color: unknown, opacity: unknown): color is string =>
+    opacity === undefined && typeof color === 'string' && color.length === 7 && /^#[0-9a-fA-F]{6}$/.test(color);
+  const ops = (color: string): [string, string] => {
+    let known = operators.get(color);
+    if (known === undefined) {
+      const hex = parseInt(color.slice(1), 16);
+      const parts = [hex >> 16, (hex >> 8) & 0xff, hex & 0xff].map((part) => part / 255).join(' ');
+      known = [`/DeviceRGB cs\n${parts} scn`, `/DeviceRGB CS\n${parts} SCN`];
+      operators.set(color, known);
+    }
+    return known;
+  };
+  doc.fillColor = (color: unknown, opacity?: unknown): unknown => {
+    if (!plain(color, opacity)) return fill(color, opacity);
+    doc.addContent(ops(color)[0]);
+    doc._fillColor = [color, opacity];
+    return doc;
+  };
+  doc.strokeColor = (color: unknown, opacity?: unknown): unknown => {
+    if (!plain(color, opacity)) return stroke(color, opacity);
+    doc.addContent(ops(color)[1]);
+    return doc;
+  };
+}
+
 /** The part of pdfkit's document that writes the file's bytes. */
 export interface OutputStream {
   _offset: number;
@@ -183,6 +226,7 @@ export async function renderPdf(model: PackModel, options: RenderOptions = {}): 
   });
   for (const face of ['regular', 'bold', 'italic'] as const) doc.registerFont(FONT_NAME[face], fontFor(face));
   shapeQuickly(doc);
+  quickColors(doc as unknown as ColorSetter);
   const keepContent = keepContentAsBytes();
   let lastPage: (() => void) | undefined;
   doc.on('pageAdded', () => {

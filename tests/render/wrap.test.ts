@@ -13,7 +13,7 @@ import PDFDocument from 'pdfkit';
 import { afterAll, describe, expect, it } from 'vitest';
 import { FONT_NAME, fontFor, shapeQuickly, type Face } from '../../src/render/fonts.js';
 import { Layout } from '../../src/render/pdf/layout.js';
-import { pdfNumber, widthOfString, wordsOf, wordWidth, wrapWords, type WidthFont, type WrappedLine } from '../../src/render/pdf/wrap.js';
+import { pdfNumber, spacedWordWidth, widthOfString, wordsOf, wordWidth, wordWidths, wrapWords, type WidthFont, type WrappedLine } from '../../src/render/pdf/wrap.js';
 import { build } from '../../src/pipeline.js';
 
 interface Internals {
@@ -45,9 +45,25 @@ function pdfkitLines(doc: PDFKit.Document, text: string, width: number): Wrapped
   return lines;
 }
 
+/** pdfkit's lines for a letter-spaced text without kerning (SPACED_CAPS). */
+function pdfkitSpacedLines(doc: PDFKit.Document, text: string, width: number): WrappedLine[] {
+  const d = doc as unknown as Internals;
+  const lines: WrappedLine[] = [];
+  const { x, y } = doc;
+  const options = d._initOptions({ width, characterSpacing: 0.8, features: { kern: false } });
+  options.height = Infinity;
+  d._text(text, x, y, options, (line, o) => {
+    lines.push({ text: line, textWidth: o.textWidth, wordCount: o.wordCount, lineWidth: o.lineWidth });
+  });
+  doc.x = x;
+  doc.y = y;
+  return lines;
+}
+
 function ours(doc: PDFKit.Document, text: string, size: number, width: number): WrappedLine[] | undefined {
   const font = (doc as unknown as Internals)._font;
-  return wrapWords(wordsOf(text), width, (word) => wordWidth(font, size, word));
+  const words = wordsOf(text);
+  return wrapWords(words, width, wordWidths(words, font, size, false, (word) => wordWidth(font, size, word)));
 }
 
 const WORDS = [
@@ -91,6 +107,30 @@ describe('wrapWords', () => {
     );
     // Nearly every text is wrapped here rather than handed to pdfkit (only over-long words and soft hyphens are).
     expect(handled / total).toBeGreaterThan(0.6);
+  });
+
+  it('gives pdfkit’s own lines for letter-spaced text without kerning (SPACED_CAPS)', () => {
+    const doc = newDoc();
+    let handled = 0;
+    fc.assert(
+      fc.property(
+        textArb.map((t) => t.toUpperCase()),
+        fc.constantFrom<Face>('regular', 'bold', 'italic'),
+        fc.constantFrom(8, 8.5, 9.5, 11),
+        fc.oneof(fc.constantFrom(479.28, 300, 120), fc.double({ min: 1, max: 600, noNaN: true })),
+        (text, face, size, width) => {
+          doc.font(FONT_NAME[face]).fontSize(size);
+          const font = (doc as unknown as Internals)._font;
+          const words = wordsOf(text);
+          const mine = wrapWords(words, width, wordWidths(words, font, size, true, (w) => spacedWordWidth(font, size, w, 0.8, { kern: false })));
+          if (mine === undefined) return;
+          handled++;
+          expect(mine).toEqual(pdfkitSpacedLines(doc, text, width));
+        },
+      ),
+      { numRuns: 1500, seed: 808 },
+    );
+    expect(handled).toBeGreaterThan(900);
   });
 
   it('measures a text as doc.widthOfString does, to the last bit', () => {

@@ -7,7 +7,7 @@ import { drawChart } from '../chart-pdf.js';
 import { chartDrawing } from '../chart-runtime.js';
 import { FONT_NAME, fontFor, type Face } from '../fonts.js';
 import { writeLine, type Spacing } from './fragment.js';
-import { pdfNumber, spacedWordWidth, widthOfString, wordsOf, wordWidth, wrapWords, type WidthFont, type WrappedLine, type Words } from './wrap.js';
+import { advancesOf, pdfNumber, spacedWordWidth, widthOfString, wordsOf, wordWidth, wordWidths, wrapWords, type WidthFont, type WrappedLine, type Words } from './wrap.js';
 import {
   COLOR, CONTENT_BOTTOM, CONTENT_WIDTH, CONTINUATION_HEIGHT, LINE_GAP, MARGIN, SPACED_CAPS, PARA_GAP, SIZE, SLACK, svgSize,
   type Block, type Doc, type Struct,
@@ -178,7 +178,8 @@ export class Layout {
       words = wordsOf(text);
       this.wordsByText.set(text, words);
     }
-    return wrapWords(words, width, (word) => wordWidth(font, size, word));
+    const known = advancesOf(font);
+    return wrapWords(words, width, wordWidths(words, font, size, false, (word) => wordWidth(font, size, word, known)));
   }
 
   /** The measurement of this text in this face, size, width and line gap, if it has been measured. */
@@ -271,7 +272,8 @@ export class Layout {
         this.wordsByText.set(text, words);
       }
       const { characterSpacing, features } = spacing;
-      lines = wrapWords(words, opts.width, (word) => spacedWordWidth(font, size, word, characterSpacing, features));
+      const widths = wordWidths(words, font, size, true, (word) => spacedWordWidth(font, size, word, characterSpacing, features));
+      lines = wrapWords(words, opts.width, widths);
     } else lines = this.wrap(text, size, opts.width);
     const lineHeight = doc.currentLineHeight(true);
     const maxY = pdfNumber(internals.page.maxY());

@@ -30,6 +30,22 @@ export interface Words {
   required: boolean[];
   /** False when the text holds a soft hyphen, which pdfkit's wrapper treats specially. */
   plain: boolean;
+  /** The words' widths in the font, size and spacing the text was last wrapped in (texts are re-wrapped at other widths). */
+  widths?: { font: object; size: number; spaced: boolean; values: Float64Array };
+}
+
+/**
+ * The widths of a text's words in `font` at `size` (spaced: letter-spaced as SPACED_CAPS), each from `widthOf`, kept
+ * with the words for the next wrap of the same text in the same font, size and spacing.
+ */
+export function wordWidths(words: Words, font: object, size: number, spaced: boolean, widthOf: (word: string) => number): Float64Array {
+  const kept = words.widths;
+  if (kept && kept.font === font && kept.size === size && kept.spaced === spaced) return kept.values;
+  const { text, ends } = words;
+  const values = new Float64Array(ends.length);
+  for (let i = 0; i < ends.length; i++) values[i] = widthOf(text.slice(i === 0 ? 0 : ends[i - 1], ends[i]));
+  words.widths = { font, size, spaced, values };
+  return values;
 }
 
 /** The words of a text as pdfkit's wrapper takes them (LineWrapper.eachWord). */
@@ -64,16 +80,21 @@ export interface WidthFont {
 /** Each font's word advances (in thousandths of the size), as pdfkit's font layout sums them. */
 const advances = new WeakMap<object, Map<string, number>>();
 
-/**
- * What pdfkit's doc.widthOfString(text) gives in `font` at `size` with no options (no character spacing, horizontal
- * scaling 100), the text's advance kept per font.
- */
-export function widthOfString(font: WidthFont, size: number, text: string): number {
+/** The advances kept for a font. */
+export function advancesOf(font: WidthFont): Map<string, number> {
   let known = advances.get(font);
   if (known === undefined) {
     known = new Map();
     advances.set(font, known);
   }
+  return known;
+}
+
+/**
+ * What pdfkit's doc.widthOfString(text) gives in `font` at `size` with no options (no character spacing, horizontal
+ * scaling 100), the text's advance kept per font.
+ */
+export function widthOfString(font: WidthFont, size: number, text: string, known: Map<string, number> = advancesOf(font)): number {
   let advance = known.get(text);
   if (advance === undefined) {
     advance = font.layout(text, undefined, true).advanceWidth;
@@ -88,15 +109,15 @@ export function widthOfString(font: WidthFont, size: number, text: string): numb
  * The width pdfkit's wrapper gives a word in `font` at `size` (LineWrapper.wordWidth with no character or word
  * spacing and horizontal scaling 100: doc.widthOfString, then PDFNumber).
  */
-export function wordWidth(font: WidthFont, size: number, word: string): number {
-  return pdfNumber(widthOfString(font, size, word) + 0 + 0);
+export function wordWidth(font: WidthFont, size: number, word: string, known: Map<string, number> = advancesOf(font)): number {
+  return pdfNumber(widthOfString(font, size, word, known) + 0 + 0);
 }
 
 /**
- * The lines pdfkit's wrapper makes of `words` in a line `width` wide, each word's width given by `widthOf`; undefined
+ * The lines pdfkit's wrapper makes of `words` in a line `width` wide, the words' widths given; undefined
  * when the text needs what only pdfkit's wrapper does (a word wider than the line, a soft hyphen, no width).
  */
-export function wrapWords(words: Words, width: number, widthOf: (word: string) => number): WrappedLine[] | undefined {
+export function wrapWords(words: Words, width: number, widths: ArrayLike<number>): WrappedLine[] | undefined {
   if (!words.plain || !(width > 0)) return undefined;
   // LineWrapper's line width: horizontal scaling 100, one column, the column gap of 18 times no other column.
   const lineWidth = ((width * 100) / 100 - 18 * (1 - 1)) / 1;
@@ -114,7 +135,7 @@ export function wrapWords(words: Words, width: number, widthOf: (word: string) =
   for (let i = 0; i < ends.length; i++) {
     const start = i === 0 ? 0 : ends[i - 1]!;
     const end = ends[i]!;
-    const w = widthOf(text.slice(start, end));
+    const w = widths[i]!;
     if (w > lineWidth + 0) return undefined;
     if (i === 0 || required[i - 1]) spaceLeft = lineWidth;
     const fits = w <= spaceLeft;
