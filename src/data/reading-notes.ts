@@ -6,8 +6,9 @@
  */
 import type { Templates } from '../verdicts/templates.js';
 import type { Cube } from './types.js';
+import { grouped } from '../format/numbers.js';
 
-const count = (n: number): string => n.toLocaleString('en-GB');
+const count = grouped;
 const quoteList = (xs: string[]): string => xs.map((x) => `"${x}"`).join(', ');
 
 export function readingNotes(cube: Cube, t: Templates): string[] {

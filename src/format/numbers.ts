@@ -127,7 +127,20 @@ export function statistic(value: number): string {
 
 /** A whole count with thousands separators ("18,500"). */
 export function count(n: number): string {
-  return Math.round(n).toLocaleString('en-GB');
+  return grouped(Math.round(n));
+}
+
+/**
+ * A number as toLocaleString('en-GB') writes it ("18,500"). Safe whole numbers are grouped here, the same text
+ * without loading the locale's number-format data (about 20 ms on a process's first use, on each thread); anything
+ * else (fractions, minus zero, beyond 2^53, not finite) is left to toLocaleString.
+ */
+export function grouped(n: number): string {
+  if (!Number.isSafeInteger(n) || Object.is(n, -0)) return n.toLocaleString('en-GB');
+  const digits = String(Math.abs(n));
+  let out = digits.slice(0, ((digits.length - 1) % 3) + 1);
+  for (let i = out.length; i < digits.length; i += 3) out += `,${digits.slice(i, i + 3)}`;
+  return n < 0 ? `-${out}` : out;
 }
 
 /** A confidence level as people say it: 0.95 -> "95%", 0.975 -> "97.5%". */

@@ -6,7 +6,7 @@
  *   ChartData --chartSpec--> Vega-Lite spec --vega-lite compile--> Vega spec --View(renderer none)--> SVG
  */
 import type { ChartData } from './model.js';
-import { percent } from '../format/numbers.js';
+import { count, percent } from '../format/numbers.js';
 import { CHART_FONT_FAMILY, textWidth } from './fonts.js';
 import { compileVegaLite, drawSpec, keepDrawing } from './chart-runtime.js';
 import { chartThread } from './chart-thread.js';
@@ -92,11 +92,6 @@ export function roundDomain(values: number[]): [number, number] {
   const step = ([1, 2, 5, 10].find((m) => m * power >= raw) ?? 10) * power;
   const pad = (hi - lo) * 0.02;
   return [Math.floor((lo - pad) / step) * step, Math.ceil((hi + pad) / step) * step];
-}
-
-/** Group digits of a count with commas, e.g. 18500 -> "18,500". */
-function count(n: number): string {
-  return Math.round(n).toLocaleString('en-GB');
 }
 
 /** Outer height of a rates chart: about 30 pt a row plus the axis, within 110..CHART_HEIGHT + 60. */

@@ -22,6 +22,7 @@
 import * as zlib from 'node:zlib';
 import { createRequire } from 'node:module';
 import type { ClaimResult, ResultsFile } from './results.js';
+import { grouped } from '../format/numbers.js';
 
 /** Characters that make a spreadsheet read a cell's text as a formula when they come first. */
 const FORMULA_START = /^[=+\-@\t\r]/;
@@ -292,7 +293,7 @@ export async function writeResultsXlsx(results: ResultsFile, path?: string): Pro
     claims.number(9, c.interval?.level ?? c.confidence, '0%');
     claims.number(10, c.p, '0.0000');
     claims.number(11, c.pAdjusted, '0.0000');
-    if (c.n.length > 0) claims.text(12, c.n.map((n) => n.toLocaleString('en-GB')).join('; '));
+    if (c.n.length > 0) claims.text(12, c.n.map(grouped).join('; '));
     if (c.cautions.length > 0) claims.text(13, c.cautions.join('\n'));
   }
   const claimsXml = claims.xml();

@@ -106,3 +106,25 @@ describe('one precision for compared figures', () => {
     expect(fmt.comparedCoefficientDigits([3.8, 3.67, 3.93], [3.973, 3.968, 3.977])).toBe(3);
   });
 });
+
+// grouped() writes safe whole numbers itself, so that a build need not load ICU's number data; the reference is
+// Node's own toLocaleString('en-GB') (ICU with CLDR's en-GB grouping), which it must match character for character.
+describe('grouped: the text of toLocaleString("en-GB")', () => {
+  it('matches it for whole numbers of every length and sign', () => {
+    fc.assert(
+      fc.property(fc.integer({ min: Number.MIN_SAFE_INTEGER, max: Number.MAX_SAFE_INTEGER }), (n) => {
+        expect(fmt.grouped(n)).toBe(n.toLocaleString('en-GB'));
+      }),
+      { numRuns: 3000 },
+    );
+    for (const n of [0, 7, 999, 1000, -1000, 18500, 999999, 1000000, -1234567, Number.MAX_SAFE_INTEGER]) expect(fmt.grouped(n)).toBe(n.toLocaleString('en-GB'));
+    expect(fmt.grouped(18500)).toBe('18,500');
+  });
+  it('leaves fractions, minus zero, huge and non-finite numbers to toLocaleString', () => {
+    for (const n of [-0, 1234.5, 2 ** 53, 1e21, Number.NaN, Number.POSITIVE_INFINITY, Number.NEGATIVE_INFINITY]) expect(fmt.grouped(n)).toBe(n.toLocaleString('en-GB'));
+  });
+  it('count rounds first', () => {
+    expect(fmt.count(18499.5)).toBe('18,500');
+    expect(fmt.count(-0.4)).toBe((-0).toLocaleString('en-GB'));
+  });
+});

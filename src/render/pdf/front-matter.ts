@@ -5,6 +5,7 @@
 import type { ClaimAction, PackModel, SummaryRow, VerdictKind } from '../model.js';
 import { blocksHeight, type Layout } from './layout.js';
 import { table } from './tables.js';
+import { grouped } from '../../format/numbers.js';
 import { COLOR, MARGIN, PAGE_ROOM, SIZE, shortHash, shorten, type Block, type Cell, type Struct } from './style.js';
 
 type Bookmark = (title: string) => PDFKit.OutlineItem;
@@ -55,7 +56,7 @@ export function drawCover(L: Layout, model: PackModel, root: Struct, bookmark: B
           { text: s.respondentsText ?? 'not counted' },
           {
             text: s.file,
-            sub: `${s.description ? `${s.description}; ` : ''}${s.rows.toLocaleString('en-GB')} rows; SHA-256 ${shortHash(s.sha256)}`,
+            sub: `${s.description ? `${s.description}; ` : ''}${grouped(s.rows)} rows; SHA-256 ${shortHash(s.sha256)}`,
           },
         ]),
       ),
