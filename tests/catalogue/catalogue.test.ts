@@ -621,6 +621,8 @@ function ensureBuilt(): void {
     // tsc still writes dist/ when some file has a type error; the cases say whether the command works.
     if (!existsSync(join(root, 'dist/cli.js'))) throw e;
   }
+  // The modules joined as an installed warrant has them (scripts/bundle.mjs), which bin/warrant.js then runs.
+  execFileSync(process.execPath, [join(root, 'scripts/bundle.mjs')], { stdio: 'pipe' });
 }
 
 const DEBUG_CASE = 'claims-unknown-kind';
