@@ -19,6 +19,7 @@
  */
 import { isDeepStrictEqual } from 'node:util';
 import { faceFor, textWidth } from './fonts.js';
+import { KeptUntilUsed } from './kept.js';
 import { recordScene, type ChartDrawing } from './chart-pdf.js';
 
 type VegaModule = typeof import('vega');
@@ -423,9 +424,12 @@ async function runtimeSpecOf(spec: object, learnNow = false): Promise<object> {
   return own;
 }
 
-/** Drawings of the charts drawn lately, by their SVG: the PDF draws a chart from its scene rather than its SVG. */
+/**
+ * Drawings of the charts drawn lately, by their SVG: the PDF draws a chart from its scene rather than its SVG. A
+ * drawing not yet used by a page is never forgotten (the chart thread draws ahead of the pages).
+ */
 const DRAWINGS_KEPT = 512;
-const drawings = new Map<string, ChartDrawing>();
+const drawings = new KeptUntilUsed<ChartDrawing>(DRAWINGS_KEPT);
 
 /** The chart drawn as this SVG, as paint operations for the PDF (undefined when it must be drawn from the SVG). */
 export function chartDrawing(svg: string): ChartDrawing | undefined {
@@ -435,8 +439,7 @@ export function chartDrawing(svg: string): ChartDrawing | undefined {
 /** Remember the paint operations of the chart drawn as this SVG (drawn here, or on the chart thread). */
 export function keepDrawing(svg: string, drawing: ChartDrawing | undefined): void {
   if (!drawing || drawings.has(svg)) return;
-  if (drawings.size >= DRAWINGS_KEPT) drawings.delete(drawings.keys().next().value as string);
-  drawings.set(svg, drawing);
+  drawings.set(svg, drawing, false);
 }
 
 /**

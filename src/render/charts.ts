@@ -9,6 +9,7 @@ import type { ChartData } from './model.js';
 import { count, percent } from '../format/numbers.js';
 import { CHART_FONT_FAMILY, textWidth } from './fonts.js';
 import { compileVegaLite, drawSpec, keepDrawing } from './chart-runtime.js';
+import { KeptUntilUsed } from './kept.js';
 import { chartThread } from './chart-thread.js';
 import { shareRange, shareValues, WHOLE_SHARE } from './chart-scales.js';
 
@@ -686,9 +687,12 @@ export async function compileChart(
   return compileVegaLite(chartSpec(data, options));
 }
 
-/** SVGs remembered: the pack and the chart files beside it draw each chart with the same data and size. */
+/**
+ * SVGs remembered: the pack and the chart files beside it draw each chart with the same data and size. A chart asked
+ * for ahead (prefetchCharts) is kept until it is first asked for by chartSvg.
+ */
 const SVGS_KEPT = 512;
-const svgs = new Map<string, Promise<string>>();
+const svgs = new KeptUntilUsed<Promise<string>>(SVGS_KEPT);
 
 /**
  * The chart as an SVG string, rendered headless (no canvas). Pure, so a chart already drawn with the same data and
@@ -700,11 +704,10 @@ export function chartSvg(data: ChartData, options: ChartSizeOptions = {}): Promi
 
 function rememberedSvg(data: ChartData, options: ChartSizeOptions, urgent: boolean): Promise<string> {
   const key = JSON.stringify([data, options]);
-  const known = svgs.get(key);
+  const known = svgs.get(key, urgent);
   if (known !== undefined) return known;
   const made = renderChartSvg(data, options, urgent);
-  if (svgs.size >= SVGS_KEPT) svgs.delete(svgs.keys().next().value as string);
-  svgs.set(key, made);
+  svgs.set(key, made, urgent);
   made.catch(() => svgs.delete(key));
   return made;
 }
