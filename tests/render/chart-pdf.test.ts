@@ -13,7 +13,8 @@ import PDFDocument from 'pdfkit';
 import { chartSpec } from '../../src/render/charts.js';
 import { chartDrawing, specSvg } from '../../src/render/chart-runtime.js';
 import { drawChart, type ChartDrawing } from '../../src/render/chart-pdf.js';
-import { FONT_NAME, fontBytes, fontFor } from '../../src/render/fonts.js';
+import { FONT_NAME, fontBytes } from '../../src/render/fonts.js';
+import { testDoc } from '../helpers/pdf-doc.js';
 import fc from 'fast-check';
 import { sampleModel } from './sample-model.js';
 
@@ -102,16 +103,7 @@ describe('charts drawn from the scene', () => {
 
 /** A document as the pack sets one up (parsed faces, fixed dates), and its bytes once ended. */
 function newDoc(): { doc: PDFKit.Document; done: Promise<Buffer> } {
-  const doc = new PDFDocument({
-    size: 'A4',
-    autoFirstPage: true,
-    font: null,
-    info: { CreationDate: new Date(Date.UTC(2000, 0, 1)), ModDate: new Date(Date.UTC(2000, 0, 1)) },
-  } as PDFKit.DocumentOptions);
-  for (const face of ['regular', 'bold', 'italic'] as const) doc.registerFont(FONT_NAME[face], fontFor(face));
-  const chunks: Buffer[] = [];
-  doc.on('data', (c: Buffer) => chunks.push(c));
-  return { doc, done: new Promise<Buffer>((resolve) => doc.on('end', () => resolve(Buffer.concat(chunks)))) };
+  return testDoc();
 }
 
 /** The texts of a drawing written with pdfkit's own doc.text, as drawChart wrote them before writeLine. */

@@ -5,8 +5,8 @@
  * two documents set up alike, give the very same PDF bytes; and textHeight equals pdfkit's heightOfString.
  */
 import { describe, it, expect } from 'vitest';
-import PDFDocument from 'pdfkit';
-import { FONT_NAME, fontFor, type Face } from '../../src/render/fonts.js';
+import { FONT_NAME, type Face } from '../../src/render/fonts.js';
+import { testDoc } from '../helpers/pdf-doc.js';
 import { Layout } from '../../src/render/pdf/layout.js';
 
 const TEXTS = [
@@ -20,19 +20,9 @@ const TEXTS = [
 ];
 
 function newDoc(): { doc: PDFKit.Document; chunks: Buffer[]; done: Promise<Buffer> } {
-  const doc = new PDFDocument({
-    size: 'A4',
-    margins: { top: 50, bottom: 48, left: 58, right: 58 },
-    autoFirstPage: false,
-    font: null,
-    info: { CreationDate: new Date(Date.UTC(2000, 0, 1)), ModDate: new Date(Date.UTC(2000, 0, 1)) },
-  } as PDFKit.DocumentOptions);
-  for (const face of ['regular', 'bold', 'italic'] as const) doc.registerFont(FONT_NAME[face], fontFor(face));
-  const chunks: Buffer[] = [];
-  doc.on('data', (c: Buffer) => chunks.push(c));
-  const done = new Promise<Buffer>((resolve) => doc.on('end', () => resolve(Buffer.concat(chunks))));
-  doc.addPage();
-  return { doc, chunks, done };
+  const made = testDoc({ margins: { top: 50, bottom: 48, left: 58, right: 58 }, firstPage: false });
+  made.doc.addPage();
+  return made;
 }
 
 /** Draw every text in a few faces, sizes and widths, down the page and near its foot, by `draw`. */
