@@ -58,10 +58,15 @@ const SQUASHED_KEPT = 10_000;
 const squashed = new Map<string, string>();
 
 /** Lower case with separators removed, so that minRespondents, min-respondents and min_respondents compare equal. */
+function squashText(s: string): string {
+  return s.toLowerCase().replace(/[\s_-]+/g, '');
+}
+
+/** squashText of a candidate, remembered. */
 function squash(s: string): string {
   let t = squashed.get(s);
   if (t === undefined) {
-    t = s.toLowerCase().replace(/[\s_-]+/g, '');
+    t = squashText(s);
     if (squashed.size >= SQUASHED_KEPT) squashed.clear();
     squashed.set(s, t);
   }
@@ -75,7 +80,8 @@ function squash(s: string): string {
  * "Computing" suggests "Computing and Informatics".
  */
 export function closest(word: string, candidates: readonly string[]): string | undefined {
-  const w = word.toLowerCase().replace(/[\s_-]+/g, '');
+  // The word itself is not remembered: each problem brings a new one.
+  const w = squashText(word);
   let best: string | undefined;
   let bestScore = Infinity;
   for (const c of candidates) {
