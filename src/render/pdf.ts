@@ -45,6 +45,11 @@ interface ContentStream {
   finalize(): void;
 }
 
+/** Node's Buffer#latin1Write (what buf.write(text, offset, 'latin1') calls after checking its arguments). */
+interface Latin1Writer {
+  latin1Write(text: string, offset: number): number;
+}
+
 /**
  * pdfkit turns every content operator it is given into a small byte array of its own and, with buffered pages, keeps
  * them all until the document ends: some 160,000 arrays for a pack of 200 charted claims, most of the renderer's
@@ -54,11 +59,6 @@ interface ContentStream {
  * The bytes are the very same: pdfkit keeps the low byte of each character (latin1) and ends each operator with a line
  * break, as done here. Returns, for each page's content stream, the function that hands over what it has gathered.
  */
-/** Node's Buffer#latin1Write (what buf.write(text, offset, 'latin1') calls after checking its arguments). */
-interface Latin1Writer {
-  latin1Write(text: string, offset: number): number;
-}
-
 function keepContentAsBytes(): (content: ContentStream) => () => void {
   let scratch = Buffer.allocUnsafe(64 * 1024);
   let used = 0;

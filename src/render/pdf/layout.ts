@@ -13,7 +13,6 @@ import {
   type Block, type Doc, type Struct,
 } from './style.js';
 
-
 /**
  * A text measured in one face, size, width and line gap: its height, how many lines it wraps into, and the lines until
  * it is drawn (a text drawn again is wrapped again: the lines come out the same, and most texts are drawn once).
@@ -166,6 +165,16 @@ export class Layout {
     return out;
   }
 
+  /** A text's words (wordsOf), found once whatever width, face or spacing it is wrapped in. */
+  private wordsOfText(text: string): Words {
+    let words = this.wordsByText.get(text);
+    if (words === undefined) {
+      words = wordsOf(text);
+      this.wordsByText.set(text, words);
+    }
+    return words;
+  }
+
   /**
    * The lines pdfkit's wrapper would make of `text` in the current font at `size` in a line `width` wide (wrap.ts), or
    * undefined for a text only pdfkit's wrapper wraps as it does.
@@ -173,11 +182,7 @@ export class Layout {
   private wrap(text: string, size: number, width: number): WrappedLine[] | undefined {
     const font = (this.doc as unknown as TextInternals)._font;
     if (!font) return undefined;
-    let words = this.wordsByText.get(text);
-    if (words === undefined) {
-      words = wordsOf(text);
-      this.wordsByText.set(text, words);
-    }
+    const words = this.wordsOfText(text);
     const known = advancesOf(font);
     return wrapWords(words, width, wordWidths(words, font, size, false, (word) => wordWidth(font, size, word, known)));
   }
@@ -266,11 +271,7 @@ export class Layout {
     if (!font || internals._fontSize !== size || font.name !== postscriptName(face) || (spacing && opts.align)) return fallback();
     let lines: WrappedLine[] | undefined;
     if (spacing) {
-      let words = this.wordsByText.get(text);
-      if (words === undefined) {
-        words = wordsOf(text);
-        this.wordsByText.set(text, words);
-      }
+      const words = this.wordsOfText(text);
       const { characterSpacing, features } = spacing;
       const widths = wordWidths(words, font, size, true, (word) => spacedWordWidth(font, size, word, characterSpacing, features));
       lines = wrapWords(words, opts.width, widths);
