@@ -302,13 +302,16 @@ export class Layout {
   /** Lay blocks out in order under `parent`, moving to a new page where a block (with any kept heading) does not fit. */
   flow(blocks: Block[], parent: Struct): void {
     blocks.forEach((block, i) => {
-      let need = block.minHeight();
+      // A block kept with the next must fit whole (when its turn comes, it is checked as the head of its own chain);
+      // the last block of the chain needs only its least height. So a heading over a paragraph kept with its source
+      // line moves on with both, rather than staying alone at the foot of a page.
+      let need = 0;
       let j = i;
-      while (blocks[j]?.keepWithNext && blocks[j + 1]) {
-        need += blocks[j + 1]!.minHeight();
+      while (blocks[j]!.keepWithNext && blocks[j + 1]) {
+        need += blocks[j]!.height();
         j++;
       }
-      if (j > i) need = need - block.minHeight() + block.height();
+      need += blocks[j]!.minHeight();
       this.ensure(need - (blocks[j]!.after ?? 0));
       block.draw(parent);
     });
