@@ -37,27 +37,30 @@ if (!haveTime) console.log('GNU time (/usr/bin/time) not found: peak memory is n
 /** Run a command; wall seconds and peak memory (maxRSS, MB) of the process. */
 function timed(cmd, args) {
   const memFile = join(tmpdir(), `warrant-bench-mem-${process.pid}`);
-  const [c, a] = haveTime ? ['/usr/bin/time', ['-f', '%M', '-o', memFile, cmd, ...args]] : [cmd, args];
+  const [c, a] = haveTime ? ['/usr/bin/time', ['-f', '%M %U %S', '-o', memFile, cmd, ...args]] : [cmd, args];
   const t0 = performance.now();
   const r = spawnSync(c, a, { encoding: 'utf8', maxBuffer: 1 << 24 });
   const seconds = (performance.now() - t0) / 1000;
   if (r.status !== 0) throw new Error(`${cmd} ${args.join(' ')} failed (${r.status}):\n${r.stderr}`);
   let peakMB = NaN;
+  let cpu = NaN;
   if (haveTime) {
-    peakMB = Number(readFileSync(memFile, 'utf8').trim().split('\n').pop()) / 1024;
+    const [kb, user, sys] = readFileSync(memFile, 'utf8').trim().split('\n').pop().split(' ').map(Number);
+    peakMB = kb / 1024;
+    cpu = user + sys;
     rmSync(memFile, { force: true });
   }
-  return { seconds, peakMB };
+  return { seconds, peakMB, cpu };
 }
 
-function runWarrant(job) {
+function runWarrant(job, measureFloor) {
   const out = mkdtempSync(join(tmpdir(), 'warrant-bench-job-'));
   try {
     const m = timed(process.execPath, [join(root, 'bin/warrant.js'), 'build', job.yaml, '--out', out]);
     const pack = readdirSync(out).find((f) => f !== 'latest');
     const charts = readdirSync(join(out, pack, 'charts')).filter((f) => f.endsWith('.svg')).length;
     const results = JSON.parse(readFileSync(join(out, pack, 'results.json'), 'utf8'));
-    return { ...m, charts, results };
+    return { ...m, charts, results, ...(measureFloor ? { floor: vegaFloor(join(out, pack, 'charts')) } : {}) };
   } finally {
     rmSync(out, { recursive: true, force: true });
   }
@@ -73,6 +76,14 @@ function runR(job) {
   } finally {
     rmSync(out, { recursive: true, force: true });
   }
+}
+
+/** Vega alone on the pack's charts (bench/vega-floor.mjs, a fresh process): seconds of wall and CPU. */
+function vegaFloor(chartsDir) {
+  const r = spawnSync(process.execPath, [join(here, 'vega-floor.mjs'), chartsDir], { encoding: 'utf8' });
+  if (r.status !== 0) throw new Error(`bench/vega-floor.mjs failed (${r.status}):\n${r.stderr}`);
+  const m = JSON.parse(r.stdout);
+  return { wall: (m.load.wall + m.draw.wall) / 1000, cpu: (m.load.cpu + m.draw.cpu) / 1000, charts: m.charts };
 }
 
 const median = (xs) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
@@ -121,7 +132,8 @@ function disagreements(results, csv) {
 const f = (x, d = 2) => (Number.isFinite(x) ? x.toFixed(d) : '-');
 console.log(`machine: ${cpus().length} x ${cpus()[0]?.model ?? 'cpu'}, ${f(totalmem() / 2 ** 30, 1)} GiB, Node ${process.version}; load average at start ${loadavg().map((x) => x.toFixed(1)).join(' ')}`);
 console.log(`whole job: ${CLAIMS} compare claims with a chart each; median of ${RUNS} runs, warrant and R in turn; peak memory = largest maxRSS`);
-const rows = [['whole job', 'wall s', 'peak MB', 'ratio to R', 'runs (s)']];
+const rows = [['whole job', 'wall s', 'CPU s', 'peak MB', 'ratio to R', 'runs (s)']];
+const floors = [];
 let failed = false;
 for (const size of SIZES) {
   const data = join(dir, `job-${size}.csv`);
@@ -135,7 +147,8 @@ for (const size of SIZES) {
     // Alternate which goes first, so that neither always meets the other's leftovers (page cache, load).
     const order = i % 2 === 0 ? ['R', 'w'] : ['w', 'R'];
     for (const who of order) {
-      if (who === 'w') w.push(runWarrant(made));
+      // The floor is measured once per size, after warrant's second run, when the machine is as warm as for the others.
+      if (who === 'w') w.push(runWarrant(made, w.length === 1 || RUNS === 1));
       else if (haveR) r.push(runR(made));
     }
   }
@@ -144,8 +157,15 @@ for (const size of SIZES) {
   const wm = Math.max(...w.map((x) => x.peakMB));
   const rs = haveR ? median(r.map((x) => x.seconds)) : NaN;
   const rm = haveR ? Math.max(...r.map((x) => x.peakMB)) : NaN;
-  rows.push([`warrant build, ${label}`, f(ws), f(wm, 0), f(ws / rs), w.map((x) => f(x.seconds, 1)).join(' ')]);
-  if (haveR) rows.push([`base R script (bench/job.R), ${label}`, f(rs), f(rm, 0), '1.00', r.map((x) => f(x.seconds, 1)).join(' ')]);
+  const wc = median(w.map((x) => x.cpu));
+  const rc = haveR ? median(r.map((x) => x.cpu)) : NaN;
+  rows.push([`warrant build, ${label}`, f(ws), f(wc), f(wm, 0), f(ws / rs), w.map((x) => f(x.seconds, 1)).join(' ')]);
+  if (haveR) rows.push([`base R script (bench/job.R), ${label}`, f(rs), f(rc), f(rm, 0), '1.00', r.map((x) => f(x.seconds, 1)).join(' ')]);
+  const fl = w.find((x) => x.floor)?.floor;
+  if (fl) {
+    rows.push([`Vega alone, the pack's ${fl.charts} charts (bench/vega-floor.mjs)`, f(fl.wall), f(fl.cpu), '-', f(fl.wall / rs), '']);
+    floors.push({ label, fl, rs });
+  }
   for (const x of w) {
     if (x.charts !== CLAIMS) {
       console.error(`warrant drew ${x.charts} charts for ${CLAIMS} claims (${label})`);
@@ -169,9 +189,18 @@ for (const size of SIZES) {
   }
 }
 const widths = rows[0].map((_, c) => Math.max(...rows.map((r) => r[c].length)));
-const line = (r) => `| ${r.map((v, c) => (c === 0 || c === 4 ? v.padEnd(widths[c]) : v.padStart(widths[c]))).join(' | ')} |`;
+const left = (c) => c === 0 || c === 5;
+const line = (r) => `| ${r.map((v, c) => (left(c) ? v.padEnd(widths[c]) : v.padStart(widths[c]))).join(' | ')} |`;
 console.log(line(rows[0]));
-console.log(`|${widths.map((w, c) => (c === 0 || c === 4 ? '-'.repeat(w + 2) : '-'.repeat(w + 1) + ':')).join('|')}|`);
+console.log(`|${widths.map((w, c) => (left(c) ? '-'.repeat(w + 2) : '-'.repeat(w + 1) + ':')).join('|')}|`);
 for (const r of rows.slice(1)) console.log(line(r));
+// The floor row: Vega's own cost for the same charts, with nothing else. Two cores can at best halve its CPU time.
+for (const { label, fl, rs } of floors) {
+  const best = fl.cpu / cpus().length;
+  console.log(
+    `${label}: Vega alone needs ${f(fl.cpu)} s of CPU for the charts; spread perfectly over ${cpus().length} cores that is ${f(best)} s, ` +
+      `${best > rs ? 'more' : 'less'} than the R script's whole job (${f(rs)} s), before any data is read or page laid out.`,
+  );
+}
 console.log(`load average at end ${loadavg().map((x) => x.toFixed(1)).join(' ')}`);
 if (failed) process.exitCode = 1;
