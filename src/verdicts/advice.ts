@@ -201,6 +201,8 @@ export interface AdviceInput {
   /** The kind's key figure (as on the summary), quoted in the advice where a figure is needed. */
   key: string;
   templates: Templates;
+  /** True when the p-values were adjusted for many claims (ComposeContext.adjusted). */
+  adjusted: boolean;
 }
 
 /** The words of the worth-reporting threshold and where it came from, for templates. */
@@ -277,6 +279,7 @@ export function adviseClaim(input: AdviceInput): ClaimAdvice {
     unitWord: e?.unit === 'r' ? '' : ` ${e?.unit ?? ''}`,
     association: a.kind === 'association',
     twoSided: a.expectSign === 0,
+    adjusted: input.adjusted,
     ...worthView(worth, e?.unit),
   };
   const make = (action: ClaimAdvice['action'], reason: string, wording?: string): ClaimAdvice => ({

@@ -75,7 +75,7 @@ export function composeClaim(a: Analysis, decision: Decision, ctx: ComposeContex
   section.numbers = section.numbers.map((row) => ({ ...row, label: sentence(row.label) }));
   const detail = extras.detail;
   const verdictLabel = ctx.templates.render(detail ? `verdict.${decision.verdict}.${detail}` : `verdict.${decision.verdict}`, {});
-  const advice = adviseClaim({ analysis: a, decision, detail, worth: extras.worth, key: built.key, templates: ctx.templates });
+  const advice = adviseClaim({ analysis: a, decision, detail, worth: extras.worth, key: built.key, templates: ctx.templates, adjusted: ctx.adjusted });
   const head = { id: a.claim.id, statement: a.claim.statement, verdict: decision.verdict, verdictLabel, ...(detail ? { verdictDetail: detail } : {}), advice };
   // The level of the interval in the key figure (claims in one pack may use 90, 95 and 99%).
   const h = headline(a);

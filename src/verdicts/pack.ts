@@ -79,8 +79,14 @@ export function composePack(input: {
   methodIds.push('rounding');
   const view = {
     claimsTested: input.claimsTested,
+    // The words about the adjustment follow the one made: none with adjust: none or a single claim tested; a false
+    // discovery rate (Benjamini–Hochberg, –Yekutieli) is not the chance of even one false finding.
+    adjusted: claims.adjust !== 'none' && input.claimsTested > 1,
+    unadjustedMany: claims.adjust === 'none' && input.claimsTested > 1,
+    falseDiscovery: claims.adjust === 'benjamini-hochberg' || claims.adjust === 'benjamini-yekutieli',
     minRespondents: claims.minRespondents,
     adjustName,
+    adjustNameStart: `${adjustName.charAt(0).toUpperCase()}${adjustName.slice(1)}`,
     level: fmt.level(claims.confidence),
     alphaPercent: fmt.level(1 - claims.confidence),
     sealSentence: input.sealText ?? '',
