@@ -8,7 +8,7 @@ import { basename, dirname, extname, resolve } from 'node:path';
 import type { Problem } from '../errors.js';
 import { CONFIDENCE_FORMS, readConfidence } from './confidence.js';
 import { POINTS_FORMS, readPoints, readShare, readWorth, SHARE_FORMS, periodsBack, WORTH_FORMS, worthMeasureOf, type WorthMeasure } from './amounts.js';
-import { closest } from '../suggest.js';
+import { closest, nfc } from '../suggest.js';
 import { impossibleDate } from './dates.js';
 import { samenessProblems } from './sameness.js';
 import { notOrdinaryProblem, otherThanFile } from '../files.js';
@@ -249,6 +249,7 @@ export function crossFieldProblems(parsed: ParsedYaml, file: string, claimsDir: 
         });
       }
     }
+    if (hasPeriod) problems.push(...unpinnedPeriodProblems(c, claimPath, String(src.period), String(sourceId), file, at, describeOwner(data, claimPath)));
     for (const [path, m] of measures(c, claimPath)) {
       if (m === 'mean' && src.shape === 'summary') {
         problems.push({
@@ -491,4 +492,72 @@ function worthProblems(data: Rec, file: string, at: (path: Array<string | number
     if (measure !== undefined) size(raw, measure, path, owner);
   });
   return problems;
+}
+
+/**
+ * A claim on a source with a period column must say which periods each of its selections covers: in `where`, in the
+ * selection itself, or by making the period a grouping (association units, crosstab rows or columns). Without it a
+ * selection silently pools every period in the data (next year's release adds one more), counting several surveys'
+ * respondents as one group, and the pack's labels name no period. Change and trend claims set their periods
+ * themselves. Listing periods (`Year: [previous, latest]`, `{ not: 2023 }`) pools them on purpose.
+ */
+function unpinnedPeriodProblems(
+  c: Rec,
+  claimPath: Path,
+  period: string,
+  sourceId: string,
+  file: string,
+  at: (path: Path, prefer?: 'key' | 'value') => { line: number; column: number },
+  owner: string,
+): Problem[] {
+  const kind = c.kind;
+  if (typeof kind !== 'string' || kind === 'change' || kind === 'trend') return [];
+  const same = (name: unknown): boolean => typeof name === 'string' && nfc(name.trim()).toLowerCase() === nfc(period).toLowerCase();
+  const names = (f: unknown): boolean => isRec(f) && Object.keys(f).some(same);
+  if (names(c.where)) return [];
+  const grouped = (key: string): boolean => (Array.isArray(c[key]) ? (c[key] as unknown[]) : [c[key]]).some(same);
+  const missing: Array<{ path: Path; what: string; key: string }> = [];
+  let extra = '';
+  if (kind === 'compare' || kind === 'means' || kind === 'equivalence') {
+    if (c.against === 'rest') {
+      // The rest is everything else under where: only where can keep it to the focus's periods.
+      missing.push({ path: [...claimPath, 'against'], what: 'against: rest', key: 'against' });
+    } else {
+      for (const key of ['focus', 'against']) if (key in c && !names(c[key])) missing.push({ path: [...claimPath, key], what: `the selection under ${key}`, key });
+    }
+  } else if (kind === 'target' || kind === 'estimate') {
+    if ('select' in c && !names(c.select)) missing.push({ path: [...claimPath, 'select'], what: 'the selection under select', key: 'select' });
+  } else if (kind === 'association') {
+    if (grouped('units')) return [];
+    for (const key of ['x', 'y']) if (key in c && !names(c[key])) missing.push({ path: [...claimPath, key], what: `the measure under ${key}`, key });
+    if (Array.isArray(c.controls)) {
+      c.controls.forEach((ctl, j) => {
+        if (!isRec(ctl)) return;
+        if ('column' in ctl || !names(ctl.where)) missing.push({ path: [...claimPath, 'controls', j], what: `control ${j + 1}`, key: 'controls' });
+      });
+    }
+    extra = `, or make each unit a period by adding ${period} to units`;
+  } else if (kind === 'crosstab') {
+    if (grouped('rows') || grouped('columns')) return [];
+    missing.push({ path: claimPath, what: 'the table', key: 'where' });
+    extra = `, or make the periods the table's rows (rows: ${period})`;
+  }
+  if (missing.length === 0) return [];
+  // against: rest is everything else under where, so only where can keep it to the focus's periods.
+  const first = missing[0]!;
+  const one = missing.length === 1 && !(first.key === 'against' && c.against === 'rest');
+  const single = kind === 'target' || kind === 'estimate';
+  const whole = kind === 'crosstab' || single || !one;
+  const place = whole ? ('where' in c ? at([...claimPath, 'where'], 'key') : at(claimPath)) : at(first.path, 'key');
+  const which = whole ? owner : `${first.what} of ${owner}`;
+  const inWords = single ? 'where or select' : whole ? 'where' : `where or ${first.key === 'controls' ? 'the control' : `under ${first.key}`}`;
+  return [
+    {
+      file,
+      ...place,
+      field: whole ? 'where' : first.key,
+      problem: `${which} does not say which period it covers: source "${sourceId}" has its periods in column "${period}", and with no ${period} in ${inWords} it pools every period in the data (one more with each new release), counting the respondents of several surveys as one group`,
+      fix: `Add ${period}: latest to where (the newest period in the data), or list the periods to pool on purpose, e.g. ${period}: [previous, latest]${extra}`,
+    },
+  ];
 }

@@ -235,6 +235,7 @@ export function starterText(scan: TableScan, guess: Guess, dataFile: string, sch
     '  - id: association-example',
     `    claim: Where agreement on ${q1 ?? 'one question'} is higher, agreement on ${q2 ?? 'another'} is higher too.`,
     '    kind: association',
+    guess.period !== undefined ? `    where: ${flow([[guess.period, 'latest']])}` : undefined,
     `    units: ${yamlScalar(unitName)}`,
     qCol && q1 !== undefined ? `    x: ${flow([[qCol.name, q1]])}` : `    x: ${flow([[other?.name ?? unitName, other?.values[0] ?? u1]])}`,
     qCol && q2 !== undefined ? `    y: ${flow([[qCol.name, q2]])}` : `    y: ${flow([[other?.name ?? unitName, other?.values[1] ?? u2]])}`,
@@ -271,7 +272,7 @@ export function starterText(scan: TableScan, guess: Guess, dataFile: string, sch
     '  - id: crosstab-example',
     `    claim: Agreement differs across ${unitName}.`,
     '    kind: crosstab',
-    whereLine,
+    whereWithLatest,
     `    rows: ${yamlScalar(unitName)}`,
     other !== undefined && guess.shape === 'respondents' ? `    columns: ${yamlScalar(other.name)}` : '    columns: agreement',
   ]);
@@ -279,7 +280,7 @@ export function starterText(scan: TableScan, guess: Guess, dataFile: string, sch
     '  - id: means-example',
     `    claim: ${u1} scores lower than the others.`,
     '    kind: means',
-    whereLine,
+    whereWithLatest,
     ...pair,
     measureLine ?? '    measure: { column: COLUMN }',
     '    expect: lower',
@@ -288,7 +289,7 @@ export function starterText(scan: TableScan, guess: Guess, dataFile: string, sch
     '  - id: equivalence-example',
     `    claim: ${u1} and ${u2} agree to within 5 points.`,
     '    kind: equivalence',
-    whereLine,
+    whereWithLatest,
     `    focus: ${flow([[unitName, u1]])}`,
     `    against: ${flow([[unitName, u2]])}`,
     '    margin: 5 points',
@@ -297,7 +298,7 @@ export function starterText(scan: TableScan, guess: Guess, dataFile: string, sch
     '  - id: estimate-example',
     `    claim: About three in four at ${u1} agree.`,
     '    kind: estimate',
-    whereLine,
+    whereWithLatest,
     `    select: ${flow([[unitName, u1]])}`,
   ]);
   return L.join('\n') + '\n';

@@ -295,3 +295,72 @@ describe('new rules name line:column and give a fix', () => {
     });
   }
 });
+
+// A source with a period column: a claim that names no period pools every period in the data (common practice in
+// survey reporting: a figure is for one survey round unless rounds are pooled on purpose and said to be).
+const HEAD_PERIOD = HEAD.replace('    numeric: [StaffRatio]\n', '    numeric: [StaffRatio]\n    period: year\n');
+
+describe('a claim on a source with periods says which periods it covers', () => {
+  const refused: Array<{ name: string; claim: string; at: string; field: string; phrases: string[] }> = [
+    {
+      name: 'an estimate with no period anywhere',
+      claim: '  - { id: a, claim: c, kind: estimate, where: { question: Q09 }, select: { provider: Tarnquill College } }',
+      at: 'where',
+      field: 'where',
+      phrases: ['claim "a" does not say which period it covers', 'column "year"', 'no year in where or select it pools every period', 'Add year: latest to where', 'year: [previous, latest]'],
+    },
+    {
+      name: 'a compare claim whose focus names the period but whose against does not',
+      claim: '  - { id: a, claim: c, kind: compare, focus: { provider: Tarnquill College, year: latest }, against: { region: Glimmerholt Vale }, expect: lower }',
+      at: 'against',
+      field: 'against',
+      phrases: ['the selection under against of claim "a" does not say which period', 'no year in where or under against'],
+    },
+    {
+      name: 'against: rest with the period only in the focus (the rest would span every period)',
+      claim: '  - { id: a, claim: c, kind: compare, where: { question: Q09 }, focus: { provider: Tarnquill College, year: latest }, against: rest, expect: lower }',
+      at: 'where',
+      field: 'where',
+      phrases: ['claim "a" does not say which period', 'no year in where it pools'],
+    },
+    {
+      name: 'a crosstab over every period',
+      claim: '  - { id: a, claim: c, kind: crosstab, where: { question: Q09 }, rows: region }',
+      at: 'where',
+      field: 'where',
+      phrases: ['does not say which period', "or make the periods the table's rows (rows: year)"],
+    },
+    {
+      name: 'an association whose control column spans every period',
+      claim: '  - { id: a, claim: c, kind: association, units: provider, x: { question: Q01, year: latest }, y: { question: Q09, year: latest }, expect: any, controls: [{ label: L, column: StaffRatio }] }',
+      at: '{ label: L',
+      field: 'controls',
+      phrases: ['control 1 of claim "a" does not say which period', 'where or the control', 'adding year to units'],
+    },
+  ];
+  for (const c of refused) {
+    it(`refused: ${c.name}`, () => {
+      const got = problems(HEAD_PERIOD + c.claim + '\n');
+      const hit = got.find((p) => p.field === c.field);
+      expect(hit, JSON.stringify(got, null, 1)).toBeDefined();
+      expect({ line: hit!.line, column: hit!.column }).toEqual({ line: 12, column: c.claim.indexOf(c.at) + 1 });
+      const text = new InputError(hit!).message;
+      for (const phrase of c.phrases) expect(text).toContain(phrase);
+    });
+  }
+  const accepted: Array<{ name: string; claim: string }> = [
+    { name: 'the period in where', claim: '  - { id: a, claim: c, kind: estimate, where: { year: latest }, select: { provider: Tarnquill College } }' },
+    { name: 'periods pooled on purpose', claim: '  - { id: a, claim: c, kind: estimate, where: { year: [previous, latest] }, select: { provider: Tarnquill College } }' },
+    { name: 'every period but one', claim: '  - { id: a, claim: c, kind: estimate, select: { provider: Tarnquill College, year: { not: 2023 } } }' },
+    { name: 'the period in both selections', claim: '  - { id: a, claim: c, kind: compare, focus: { provider: Tarnquill College, year: latest }, against: { provider: Tarnquill College, year: previous }, expect: lower }' },
+    { name: 'periods as a crosstab\'s rows', claim: '  - { id: a, claim: c, kind: crosstab, where: { question: Q09 }, rows: year }' },
+    { name: 'a period in each unit', claim: '  - { id: a, claim: c, kind: association, units: [provider, year], x: { question: Q01 }, y: { question: Q09 }, expect: any }' },
+    { name: 'a change sets its own periods', claim: '  - { id: a, claim: c, kind: change, where: { question: Q09 }, from: previous, expect: lower }' },
+  ];
+  for (const c of accepted) {
+    it(`accepted: ${c.name}`, () => {
+      const file = parseClaimsText(HEAD_PERIOD + c.claim + '\n', { absPath: fx('inline.yaml'), file: 'claims.yaml', sha256: '' });
+      expect(file.claims).toHaveLength(1);
+    });
+  }
+});
