@@ -11,25 +11,24 @@
  * rates are clearly further apart than the margin (Newcombe's hybrid score interval at the claim's confidence lies
  * entirely beyond +margin or −margin); otherwise not supported, because the interval reaches beyond the margin.
  * The smallest difference that matters does not apply: the margin plays that part.
+ *
+ * Where the number eligible is known, every figure carries the finite-population correction (Cochran (1977),
+ * Sampling Techniques, §3.3), as a compare claim's do: the two one-sided tests' standard error, each rate's Wilson
+ * interval and Newcombe's interval for the difference. Otherwise a compare claim and an equivalence claim on the
+ * same two selections would read different spreads from the same data, and the pack could call a gap of the margin
+ * both ruled out (on the compare claim's page) and not ruled out (on this one).
  */
 import type { EquivalenceClaim } from '../claims/types.js';
-import type { Cube, Pooled } from '../data/types.js';
+import type { Cube } from '../data/types.js';
 import { relate } from '../data/select.js';
 import { InputError } from '../errors.js';
 import { newcombeInterval } from '../stats/newcombe.js';
 import { tostTwoProportions } from '../stats/tost-two-proportions.js';
-import { wilson } from '../stats/wilson.js';
 import { refuseOverlap, type CompareContext } from './compare.js';
 import { filterLabel, restLabel, sign } from './labels.js';
-import { fpcWanted } from './rates.js';
+import { fpcWanted, rateSummary } from './rates.js';
 import { shortfall } from './thresholds.js';
-import { suppressedOf } from './rates.js';
-import type { EquivalenceAnalysis, RateSummary } from './types.js';
-
-function rateSummary(label: string, pooled: Pooled, confidence: number): RateSummary {
-  const est = wilson(pooled.agree, pooled.n, confidence);
-  return { label, n: pooled.n, agree: pooled.agree, rate: est.p, interval: est.interval, approximate: pooled.approximate, ...suppressedOf(pooled) };
-}
+import type { EquivalenceAnalysis } from './types.js';
 
 export function analyseEquivalence(claim: EquivalenceClaim, cube: Cube, ctx: CompareContext): EquivalenceAnalysis {
   const place = { file: ctx.claimsFile, line: claim.place.line, column: claim.place.column };
@@ -55,8 +54,15 @@ export function analyseEquivalence(claim: EquivalenceClaim, cube: Cube, ctx: Com
     focusPooled = related.rest;
     focusLabel = `the rest of ${focusLabel}`;
   }
-  // The equivalence test has no corrected form here: no figure of the claim carries the finite-population correction.
-  const fpc = fpcWanted(claim, cube, 'the equivalence test');
+  // One decision for every figure, as for compare: where the number eligible is known (and the claims file does not
+  // turn it off) the test, each rate's interval and the difference's interval all carry the finite-population
+  // correction, so that a compare claim on the same two selections and this one read the same spread.
+  const wanted = fpcWanted(claim, cube);
+  const population = (p: { n: number; population?: number }): number | undefined => (p.population !== undefined && p.population >= p.n ? p.population : undefined);
+  const N1 = population(focusPooled);
+  const N2 = population(againstPooled);
+  const corrected = wanted?.used === true && N1 !== undefined && N2 !== undefined;
+  const fpc = wanted === undefined ? undefined : corrected || wanted.used === false ? wanted : { used: false as const, why: 'no-population' as const };
   const base = { kind: 'equivalence' as const, claim, relation: related.relation, expectSign: 0 as const, methods: [] as string[], ...(fpc !== undefined ? { fpc } : {}) };
   const why = shortfall(claim, [
     { label: focusLabel, pooled: focusPooled },
@@ -76,11 +82,13 @@ export function analyseEquivalence(claim: EquivalenceClaim, cube: Cube, ctx: Com
     };
   }
   const alpha = Number((1 - claim.confidence).toFixed(12));
-  const test = tostTwoProportions(x1, n1, x2, n2, claim.margin, { alpha });
-  const focus = rateSummary(focusLabel, { ...focusPooled, agree: x1 }, claim.confidence);
-  const against = rateSummary(againstLabel, { ...againstPooled, agree: x2 }, claim.confidence);
+  const populations = corrected ? { populationSize1: N1, populationSize2: N2 } : {};
+  const test = tostTwoProportions(x1, n1, x2, n2, claim.margin, { alpha, ...populations });
+  const focus = rateSummary(focusLabel, { ...focusPooled, agree: x1 }, claim.confidence, corrected);
+  const against = rateSummary(againstLabel, { ...againstPooled, agree: x2 }, claim.confidence, corrected);
   const diff = focus.rate - against.rate;
-  const interval = newcombeInterval(x1, n1, x2, n2, { level: claim.confidence });
+  const interval = newcombeInterval(x1, n1, x2, n2, { level: claim.confidence, ...populations });
+  const rates = [focus, against].filter((r) => r.population !== undefined).map((r) => r.n / (r.population as number));
   return {
     ...base,
     status: 'tested',
@@ -91,6 +99,7 @@ export function analyseEquivalence(claim: EquivalenceClaim, cube: Cube, ctx: Com
     difference: { value: diff, interval },
     ...(test.interval ? { equivalenceInterval: test.interval } : {}),
     beyondMargin: interval.lower > claim.margin || interval.upper < -claim.margin,
-    methods: ['tost-two-proportions', 'wilson', 'newcombe-hybrid'],
+    ...(rates.length > 0 ? { responseRate: Math.min(...rates) } : {}),
+    methods: ['tost-two-proportions', corrected ? 'wilson-fpc' : 'wilson', 'newcombe-hybrid', ...(corrected ? ['finite-population-correction'] : [])],
   };
 }

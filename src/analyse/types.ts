@@ -227,6 +227,8 @@ export interface EquivalenceAnalysis extends AnalysisBase {
   equivalenceInterval?: Interval;
   /** True when the Newcombe interval lies entirely beyond + margin or - margin: clearly different. */
   beyondMargin?: boolean;
+  /** Lowest response rate among the two, where eligible is known. */
+  responseRate?: number;
 }
 
 /** Claim kind "change": the same selection in an earlier and a later period. */

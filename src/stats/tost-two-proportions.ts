@@ -17,6 +17,12 @@
  *
  * Equivalence at level alpha (p < alpha) is the same as the Wald interval d -/+ z_{1-alpha} se, reported here at
  * confidence 1 - 2 alpha, lying inside (-margin, margin). The Newcombe interval is not used for this test.
+ *
+ * Finite-population correction (W. G. Cochran (1977), Sampling Techniques, 3rd ed., Wiley, §3.3): where the number
+ * eligible N is given for a group, its variance p q / n takes the factor f = (N - n)/(N - 1), so
+ * se = sqrt(f1 p1 q1/n1 + f2 p2 q2/n2), as in the corrected z test and Newcombe interval (finite-population.ts).
+ * When both groups are a census (se = 0) the difference is known exactly: each one-sided p is 0 when its bound is
+ * beaten and 1 when it is not.
  */
 import type { TestResult } from './result.js';
 import { normalCdf, normalSf, normalSfQuantile } from './distributions/normal.js';
@@ -42,6 +48,23 @@ export interface EquivalenceResult extends TestResult {
 export interface TostOptions {
   /** Level of each one-sided test (default 0.05, giving a 90% interval). */
   alpha?: number;
+  /** Number eligible in the first group, for the finite-population correction. */
+  populationSize1?: number;
+  /** Number eligible in the second group, for the finite-population correction. */
+  populationSize2?: number;
+}
+
+/** (N − n)/(N − 1), or 1 without a number eligible. */
+function factor(n: number, populationSize: number | undefined, fn: string): number {
+  if (populationSize === undefined) return 1;
+  if (!(Number.isFinite(populationSize) && populationSize >= n)) throw new Error(`${fn}: the number eligible must be at least n = ${n}, got ${populationSize}`);
+  return populationSize === 1 ? 0 : (populationSize - n) / (populationSize - 1);
+}
+
+/** z = d / se, with a zero standard error giving ±Infinity for a nonzero d and 0 for none. */
+function ratio(d: number, se: number): number {
+  if (se > 0) return d / se;
+  return d === 0 ? 0 : d > 0 ? Infinity : -Infinity;
 }
 
 /**
@@ -67,15 +90,18 @@ export function tostTwoProportions(
   const p1 = x1 / n1;
   const p2 = x2 / n2;
   const d = p1 - p2;
-  const se = Math.sqrt((p1 * (1 - p1)) / n1 + (p2 * (1 - p2)) / n2);
-  if (se === 0) {
+  const f1 = factor(n1, options.populationSize1, fn);
+  const f2 = factor(n2, options.populationSize2, fn);
+  const spread = (p1 * (1 - p1)) / n1 + (p2 * (1 - p2)) / n2;
+  const se = Math.sqrt((f1 * p1 * (1 - p1)) / n1 + (f2 * p2 * (1 - p2)) / n2);
+  if (spread === 0) {
     throw new Error(
       `${fn}: each group answered all alike (${x1} of ${n1} and ${x2} of ${n2} agreeing), so the standard error ` +
         'is 0 and the test is undefined; report the two rates with their intervals instead',
     );
   }
-  const zLower = (d + margin) / se;
-  const zUpper = (d - margin) / se;
+  const zLower = ratio(d + margin, se);
+  const zUpper = ratio(d - margin, se);
   const lowerTest = { z: zLower, p: normalSf(zLower) };
   const upperTest = { z: zUpper, p: normalCdf(zUpper) };
   const binding = lowerTest.p >= upperTest.p ? lowerTest : upperTest;

@@ -148,11 +148,20 @@ describe('the finite-population correction, one decision for every figure', () =
     expect(claimOff.text).toContain('Finite-population correction not used (turned off)');
   });
 
-  it('an equivalence claim (no corrected form of its test) uses it in no figure and says so plainly', () => {
+  it('an equivalence claim on the same two groups uses it in every figure too, so both claims read the same spread', () => {
     const c = on.results.claims.find((x) => x.id === 'brackenholt-like-vellmoor') as Record<string, any>;
-    expect(c.finitePopulationCorrection).toEqual({ used: false, why: 'no-form', form: 'the equivalence test' });
-    expect(c.selections.every((s: { interval: { method: string } }) => s.interval.method === 'wilson')).toBe(true);
-    expect(on.text).toContain('Finite-population correction not used in any figure (the equivalence test has no corrected form)');
+    const cmp = on.results.claims.find((x) => x.id === 'brackenholt-below-vellmoor') as Record<string, any>;
+    expect(c.finitePopulationCorrection).toEqual({ used: true });
+    expectClose(c.p, R.fpc.tost_p, 'p', 'TOST with f1 and f2 on the unpooled variance, written out in R');
+    expectClose(c.interval.lower, R.fpc.tost_lower, 'closed', '90% interval with f, written out in R');
+    expectClose(c.interval.upper, R.fpc.tost_upper, 'closed', '90% interval with f, written out in R');
+    // Each rate's interval and the difference's interval are the compare claim's, which R checked above.
+    expect(c.selections.map((s: { interval: unknown }) => s.interval)).toEqual(cmp.selections.map((s: { interval: unknown }) => s.interval));
+    expectClose(c.difference.interval.lower, R.fpc.diff_lower, 'closed', 'Newcombe hybrid from the corrected Wilson limits');
+    expectClose(c.difference.interval.upper, R.fpc.diff_upper, 'closed', 'Newcombe hybrid from the corrected Wilson limits');
+    expect(on.text).not.toContain('the equivalence test has no corrected form');
+    // The source line gives the response rate of the two groups (it said "not computed for a claim across units").
+    expect(on.text).not.toContain('not computed for a claim across units');
   });
 
   it('a trend (no corrected form) uses it in no figure and says so', () => {

@@ -304,8 +304,12 @@ function rates(): void {
     }
   }
   for (const r of P.tost) {
-    const res = tostTwoProportions(num(r, 'x1'), num(r, 'n1'), num(r, 'x2'), num(r, 'n2'), num(r, 'margin'), { alpha: num(r, 'alpha') });
-    const what = `TOST ${num(r, 'x1')}/${num(r, 'n1')} vs ${num(r, 'x2')}/${num(r, 'n2')} margin=${num(r, 'margin')} alpha=${num(r, 'alpha')}`;
+    const fpc = r.population1 !== null && r.population1 !== undefined;
+    const res = tostTwoProportions(num(r, 'x1'), num(r, 'n1'), num(r, 'x2'), num(r, 'n2'), num(r, 'margin'), {
+      alpha: num(r, 'alpha'),
+      ...(fpc ? { populationSize1: num(r, 'population1'), populationSize2: num(r, 'population2') } : {}),
+    });
+    const what = `TOST ${num(r, 'x1')}/${num(r, 'n1')} vs ${num(r, 'x2')}/${num(r, 'n2')} margin=${num(r, 'margin')} alpha=${num(r, 'alpha')}${fpc ? ` N=${num(r, 'population1')},${num(r, 'population2')}` : ''}`;
     add('equivalence', R, `${what} z lower`, res.lowerTest.z, num(r, 'z_lower'), 'closed');
     add('equivalence', R, `${what} z upper`, res.upperTest.z, num(r, 'z_upper'), 'closed');
     add('equivalence', R, `${what} p lower`, res.lowerTest.p, num(r, 'p_lower'), 'p');

@@ -180,10 +180,11 @@ describe("cohensH against 2 asin(sqrt p1) - 2 asin(sqrt p2) evaluated in R (Cohe
   });
 });
 
-describe('tostTwoProportions against the Schuirmann (1987) TOST with unpooled z, written in R', () => {
+describe('tostTwoProportions against the Schuirmann (1987) TOST with unpooled z, with and without the finite-population correction (Cochran 1977, §3.3), written in R', () => {
   it.each(fixture.tost.map((r) => [describeRow(r), r] as const))('%s', (_, r) => {
     const res = tostTwoProportions(num(r, 'x1'), num(r, 'n1'), num(r, 'x2'), num(r, 'n2'), num(r, 'margin'), {
       alpha: num(r, 'alpha'),
+      ...(r.population1 !== null ? { populationSize1: num(r, 'population1'), populationSize2: num(r, 'population2') } : {}),
     });
     expectClose(res.lowerTest.z, num(r, 'z_lower'), 'closed', 'z lower');
     expectClose(res.upperTest.z, num(r, 'z_upper'), 'closed', 'z upper');
@@ -205,8 +206,19 @@ describe('degenerate input', () => {
     expect(() => clopperPearsonInterval(2.5, 10)).toThrow(/whole numbers/);
     expect(() => oneSampleScoreTest(3, 10, 1)).toThrow(/strictly between 0 and 1/);
     expect(() => tostTwoProportions(0, 10, 0, 12, 0.05)).toThrow(/standard error is 0/);
+    expect(() => tostTwoProportions(3, 10, 4, 12, 0.05, { populationSize1: 9 })).toThrow(/number eligible must be at least/);
     expect(() => powerTwoProportions(10, 10, 0, 0)).toThrow(/power is undefined/);
     expect(() => minDetectableDifference(10, 10, 1)).toThrow(/base rate/);
+  });
+
+  it('TOST on two censuses: the difference is known exactly, so each one-sided test is decided outright', () => {
+    // Everyone eligible answered in both groups (f = 0, Cochran 1977, §3.3): 30/40 against 28/40, a gap of 5 points.
+    const inside = tostTwoProportions(30, 40, 28, 40, 0.06, { populationSize1: 40, populationSize2: 40 });
+    expect(inside.p).toBe(0);
+    expect(inside.interval!.lower).toBeCloseTo(0.05, 12);
+    expect(inside.interval!.upper).toBeCloseTo(0.05, 12);
+    const beyond = tostTwoProportions(30, 40, 28, 40, 0.04, { populationSize1: 40, populationSize2: 40 });
+    expect(beyond.p).toBe(1);
   });
 
   it('collapses the FPC interval to the observed rate when everyone answered (census)', () => {

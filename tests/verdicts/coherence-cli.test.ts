@@ -102,3 +102,60 @@ describe('the adjustment for many claims is described as made', () => {
     expect(t).toContain("the p-values were adjusted for this with Holm's method");
   }, 60_000);
 });
+
+/** An invented release where most of each cohort answered: two groups at 50%, 200 of 210 and 300 of 320 eligible. */
+const CENSUS_LIKE = ['Unit,Question,Respondents,Agreeing,Eligible', 'Corrow,Q1,200,100,210', 'Dunmere,Q1,300,150,320', ''].join('\n');
+
+describe('a compare claim and an equivalence claim on the same two groups read the same data alike', () => {
+  it('with the number eligible, the equivalence test carries the finite-population correction as the compare claim does', () => {
+    const dir = join(work, 'linked');
+    mkdirSync(dir, { recursive: true });
+    writeFileSync(join(dir, 'release.csv'), CENSUS_LIKE);
+    const yaml = `title: Linked claims
+organisation: Corrow Students Forum
+data_date: 2026-03-01
+adjust: none
+sources:
+  s:
+    file: release.csv
+    shape: summary
+    respondents: Respondents
+    agree: Agreeing
+    population: Eligible
+claims:
+  - id: corrow-differs
+    claim: Corrow and Dunmere differ on Q1.
+    kind: compare
+    source: s
+    where: { Question: Q1 }
+    focus: { Unit: Corrow }
+    against: { Unit: Dunmere }
+    expect: different
+  - id: corrow-like-dunmere
+    claim: Corrow and Dunmere are within 5 points of each other on Q1.
+    kind: equivalence
+    source: s
+    where: { Question: Q1 }
+    focus: { Unit: Corrow }
+    against: { Unit: Dunmere }
+    margin: 5 points
+`;
+    const pack = buildPack(dir, yaml);
+    const [cmp, eq] = pack.results.claims as Array<Record<string, any>>;
+    // The compare claim is ruled out by the equivalence claim's margin: its interval excludes ±5 points.
+    expect(cmp!.verdictDetail).toBe('ruled-out');
+    expect(cmp!.worthReporting.basis).toBe('linked-margin');
+    expect(Math.max(-cmp!.interval.lower, cmp!.interval.upper)).toBeLessThan(0.05);
+    // The equivalence claim reads the same spread, so its 90% interval lies inside the margin too: supported.
+    // Its figures, from f = (N - n)/(N - 1) (Cochran 1977, §3.3) on the unpooled variance (Schuirmann 1987), written
+    // out in R 4.x: f1 = 10/209, f2 = 20/319; se = sqrt(f1 * .25/200 + f2 * .25/300) = 0.010585614;
+    // p = pnorm(-0.05/se) = 1.159717e-06; 90% interval ±qnorm(0.95) * se = ±0.017411785.
+    expect(eq!.finitePopulationCorrection).toEqual({ used: true });
+    expect(eq!.verdict).toBe('supported');
+    expect(eq!.interval.upper).toBeCloseTo(0.017411785, 8);
+    expect(eq!.interval.lower).toBeCloseTo(-0.017411785, 8);
+    expect(eq!.p / 1.159717e-6).toBeCloseTo(1, 5);
+    // Both give the response rate (the lower of the two groups: 200 of 210).
+    expect(pack.text.match(/Response rate: 94% of those eligible answered \(the lowest of the groups compared\)/g)).toHaveLength(2);
+  }, 60_000);
+});

@@ -39,6 +39,7 @@ export function composeEquivalence(a: EquivalenceAnalysis, decision: Decision, c
     tostLower: fmt.points(e.lower, { sign: true, digits }),
     tostUpper: fmt.points(e.upper, { sign: true, digits }),
     adjustName: ctx.adjustName,
+    fpc: a.methods.includes('wilson-fpc'),
     ...pView(decision, ctx),
   };
   const numbers: NumberRow[] = [
@@ -50,7 +51,7 @@ export function composeEquivalence(a: EquivalenceAnalysis, decision: Decision, c
     ...commonRows(a, decision, ctx),
   ];
   const cautions: string[] = restOfGroupCaution(a.relation, claim, { focus: a.focus.n, against: a.against.n }, t);
-  cautions.push(...rateCautions([a.focus, a.against], undefined, t));
+  cautions.push(...rateCautions([a.focus, a.against], a.responseRate, t));
   const chart: Chart = {
     data: { kind: 'difference', value: d.value, lower: e.lower, upper: e.upper, margin: claim.margin, axisTitle: `Difference, ${a.focus.label} minus ${a.against.label} (points)`, intervalLabel: `${view.tostLevel} interval (1 − 2α)` },
     alt: `Chart of the difference of ${view.diff} points with its ${view.tostLevel} interval (${view.tostLower} to ${view.tostUpper}) against a band of ±${margin} points.`,
