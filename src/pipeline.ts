@@ -28,7 +28,7 @@ import { composeClaims } from './verdicts/compose.js';
 import { sourceLine } from './verdicts/source.js';
 import { atThreshold } from './analyse/detectable.js';
 import { verdictStability, type Stability } from './verdicts/stability.js';
-import { adjustedConfidence, headline } from './verdicts/adjusted-interval.js';
+import { decidingConfidence, headline } from './verdicts/adjusted-interval.js';
 import { stabilityView } from './verdicts/words/stability.js';
 import { sealStatus } from './verdicts/words/seal.js';
 import { readSeal, sealPath } from './commands/seal.js';
@@ -161,12 +161,14 @@ export function testClaims(
     const { claim } = resolved[i]!;
     return analyseOne(i, { ...claim, confidence } as typeof claim);
   });
-  // Where the adjustment lowered a claim's threshold, its headline interval again at the level that decided it.
+  // Where the adjustment lowered a claim's threshold, or the claim was tested one-sided, its headline interval again at
+  // the level that agrees with the test that decided it (src/verdicts/adjusted-interval.ts, decidingConfidence).
   const adjustedIntervals = analyses.map((a, i) => {
     const d = decisions[i] as Decision;
-    if (d.effectiveAlpha === undefined || !(d.effectiveAlpha < d.alpha) || !headline(a)) return undefined;
+    const level = decidingConfidence(a, d.effectiveAlpha, d.alpha);
+    if (level === undefined || !headline(a)) return undefined;
     const { claim, cube } = resolved[i]!;
-    return headline(analyse({ ...claim, confidence: adjustedConfidence(d.effectiveAlpha) } as typeof claim, cube, ctx));
+    return headline(analyse({ ...claim, confidence: level } as typeof claim, cube, ctx));
   });
   return {
     analyses,

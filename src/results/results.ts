@@ -16,7 +16,6 @@ import { WORTH_DEFAULTS, type Worth } from '../verdicts/advice.js';
 import { responseRateOf } from '../verdicts/source.js';
 import { shownSlope, shownSlopeUnit } from '../verdicts/words/association.js';
 import { cohensDIntervalAt } from '../analyse/means.js';
-import { adjustedConfidence } from '../verdicts/adjusted-interval.js';
 import { POWER } from '../analyse/detectable.js';
 
 export const RESULTS_FORMAT = 1;
@@ -55,7 +54,10 @@ export interface ClaimResult {
   pAdjusted: number | null;
   /** The threshold the adjustment applied to this claim's raw p-value (src/stats/p-adjust-thresholds.ts). */
   effectiveAlpha: number | null;
-  /** The headline interval again at the level that decided the adjusted verdict (1 - effectiveAlpha); null when not adjusted. */
+  /**
+   * The headline interval again at the level that agrees with the test that decided the verdict: 1 - effectiveAlpha
+   * where the adjustment lowered the threshold, 1 - 2 effectiveAlpha for a claim tested one-sided; null otherwise.
+   */
   adjustedInterval: Interval | null;
   /** The verdict at 90, 95 and 99% confidence with and without adjustment; null for estimates and untested claims. */
   stability: {
@@ -325,7 +327,7 @@ export function claimResult(a: Analysis, decision: Decision, section: ClaimSecti
     cohensDInterval: a.kind === 'means' ? a.cohensDInterval ?? null : null,
     cohensDAdjustedInterval:
       a.kind === 'means' && a.cohensDInterval && decision.adjustedInterval && decision.effectiveAlpha !== undefined
-        ? cohensDIntervalAt(a, adjustedConfidence(decision.effectiveAlpha)) ?? null
+        ? cohensDIntervalAt(a, decision.adjustedInterval.interval.level) ?? null
         : null,
     ...(a.kind === 'crosstab' ? { notableCells: a.notable } : {}),
     suppression: suppressionOf(a, rates),

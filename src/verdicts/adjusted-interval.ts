@@ -44,3 +44,23 @@ export function headline(a: Analysis): Headline | undefined {
 export function adjustedConfidence(effectiveAlpha: number): number {
   return Number((1 - effectiveAlpha).toFixed(12));
 }
+
+/** True for a claim tested one-sided (its direction stated in advance): not an equivalence claim, whose TOST is its own. */
+export function testedOneSided(a: Analysis): boolean {
+  return a.kind !== 'equivalence' && a.test !== undefined && a.test.alternative !== 'two-sided';
+}
+
+/**
+ * The confidence level at which a claim's headline interval agrees with the test that decided its verdict, or
+ * undefined where the interval at the claim's own level already does. A two-sided test at threshold t agrees with the
+ * two-sided interval at 1 − t: so wherever the adjustment for many claims lowered t below 1 − confidence. A one-sided
+ * test at threshold t agrees with the two-sided interval at 1 − 2t (its end on the claimed side is the one-sided
+ * 1 − t bound; Schuirmann's (1987) correspondence, as for equivalence): so for every one-sided claim, adjusted or not,
+ * since the claim's own two-sided interval at 1 − alpha matches a one-sided test at alpha / 2, and a one-sided claim
+ * supported at p = 0.03 would otherwise be shown with a 95% interval that holds no difference.
+ */
+export function decidingConfidence(a: Analysis, effectiveAlpha: number | undefined, alpha: number): number | undefined {
+  if (effectiveAlpha === undefined || a.status !== 'tested') return undefined;
+  if (testedOneSided(a)) return 2 * effectiveAlpha < 1 ? adjustedConfidence(2 * effectiveAlpha) : undefined;
+  return effectiveAlpha < alpha ? adjustedConfidence(effectiveAlpha) : undefined;
+}

@@ -159,3 +159,28 @@ claims:
     expect(pack.text.match(/Response rate: 94% of those eligible answered \(the lowest of the groups compared\)/g)).toHaveLength(2);
   }, 60_000);
 });
+
+describe('a claim tested one-sided is shown with the interval that matches its test', () => {
+  it('supported one-sided at p = 0.032: the 90% interval excludes no difference; the two-sided 95% one keeps its signs', () => {
+    const yaml = `${header('none')}${compareClaim('q1-higher', 'Q1')}    test: one-sided\n`;
+    const pack = build('one-sided', yaml);
+    const c = pack.results.claims[0] as Record<string, any>;
+    // R 4.x prop.test(c(236, 210), c(400, 400), correct = FALSE, alternative = "greater")$p.value = 0.0321023.
+    expect(c.p / 0.0321023).toBeCloseTo(1, 5);
+    expect(c.verdict).toBe('supported');
+    // The one-sided test at 5% matches the two-sided 90% interval (Newcombe's hybrid score interval, method 10,
+    // written out in R 4.x from Wilson's limits at 90%): 0.007238551439 to 0.122152167065.
+    expect(c.adjustedInterval.level).toBeCloseTo(0.9, 12);
+    expect(c.adjustedInterval.lower).toBeCloseTo(0.007238551439, 9);
+    expect(c.adjustedInterval.upper).toBeCloseTo(0.122152167065, 9);
+    // The claim's own 95% interval holds zero (−0.4 to +13.3): the sentence keeps its signs, and says which interval
+    // decided the verdict, on the page and in the summary's key figure.
+    expect(c.interval.lower).toBeLessThan(0);
+    expect(pack.text).toContain('Alderholt is 6.5 points higher (95% interval −0.4 to +13.3 points)');
+    expect(pack.text).not.toContain('95% interval 0.4 to 13.3 points');
+    expect(pack.text).toContain('The 95% interval is two-sided; at the level that decided the verdict (90%, matching the one-sided test) it runs from +0.7 to +12.2 points.');
+    // (The summary's narrow column may break "one-sided" at its hyphen.)
+    expect(pack.text).toMatch(/90% interval matching the one-?sided test: \+0\.7 to \+12\.2/);
+    expect(pack.text).toContain('95% interval −0.4 to +13.3, two-sided; 90% interval +0.7 to +12.2, matching the one-sided test');
+  }, 60_000);
+});

@@ -7,7 +7,7 @@
 import type { Analysis } from '../../analyse/types.js';
 import * as fmt from '../../format/numbers.js';
 import type { NumberRow } from '../../render/model.js';
-import { headline, type HeadlineUnit } from '../adjusted-interval.js';
+import { headline, testedOneSided, type HeadlineUnit } from '../adjusted-interval.js';
 import { decide, type Decision } from '../decide.js';
 import type { ComposeContext, Composed } from './common.js';
 import { scalePoints } from './means.js';
@@ -45,7 +45,8 @@ export function preciseLevel(confidence: number): string {
 export function withAdjustedInterval(built: Composed, a: Analysis, decision: Decision, ctx: ComposeContext): Composed {
   const adjusted = decision.adjustedInterval;
   const own = headline(a);
-  if (!ctx.adjusted || !adjusted || !own) return built;
+  const oneSided = testedOneSided(a);
+  if ((!ctx.adjusted && !oneSided) || !adjusted || !own) return built;
   const t = ctx.templates;
   // The headline row: the first whose value shows the unadjusted interval's two bounds, at the decimals its kind
   // chose for them (one more at a time from the kind's usual, see fmt.distinctDigits).
@@ -69,6 +70,9 @@ export function withAdjustedInterval(built: Composed, a: Analysis, decision: Dec
     adjustedUpper: adjustedEnds.upper,
     claimsTested: ctx.claimsTested,
     unitWord: own.unit === 'coefficient' ? '' : ` ${own.unit}`,
+    // Which reasons the two intervals differ: the adjustment lowered the threshold, the test is one-sided, or both.
+    adjusted: ctx.adjusted && decision.effectiveAlpha !== undefined && decision.effectiveAlpha < decision.alpha,
+    oneSided,
   };
   const pair = `${lower} to ${upper}`;
   const numbers: NumberRow[] = built.section.numbers.slice();
@@ -87,7 +91,10 @@ export function withAdjustedInterval(built: Composed, a: Analysis, decision: Dec
   // Where the unadjusted verdict differs from the adjusted one (where the interval at the claim's own level alone
   // would suggest another verdict), the verdict paragraph and the summary also give the interval that decided it.
   const unadjusted = a.test ? decide(a, a.test.p).verdict : decision.verdict;
-  const differs = unadjusted !== decision.verdict;
+  // A one-sided claim: where the claim's own two-sided interval and the one that matches its test disagree on
+  // whether there is no difference (supported at p = 0.03, with a 95% interval that holds zero), say which is which.
+  const excludesZero = (i: { lower: number; upper: number }): boolean => i.lower > 0 || i.upper < 0;
+  const differs = unadjusted !== decision.verdict || (oneSided && excludesZero(own.interval) !== excludesZero(adjusted.interval));
   const verdictText = differs ? `${built.section.verdictText} ${t.render('interval.adjusted-sentence', view)}` : built.section.verdictText;
   const key = differs ? `${built.key}${t.render('interval.adjusted-key', view)}` : built.key;
   return { section: { ...built.section, numbers, verdictText }, key };

@@ -204,14 +204,28 @@ export function rateRow(r: RateSummary, label: string = r.label, digits?: number
  */
 export function differenceView(d: { value: number; interval: { lower: number; upper: number } }, observedSign: number) {
   const digits = fmt.pointsDigits(d.value, d.interval.lower, d.interval.upper);
+  const sizes = intervalSizes(d.interval, observedSign, (v, sign) => (sign ? fmt.points(v, { sign: true, digits }) : fmt.pointsSize(v, digits)));
   return {
     signed: fmt.points(d.value, { sign: true, digits }),
     signedLower: fmt.points(d.interval.lower, { sign: true, digits }),
     signedUpper: fmt.points(d.interval.upper, { sign: true, digits }),
     size: fmt.pointsSize(d.value, digits),
-    sizeLower: fmt.pointsSize(observedSign < 0 ? d.interval.upper : d.interval.lower, digits),
-    sizeUpper: fmt.pointsSize(observedSign < 0 ? d.interval.lower : d.interval.upper, digits),
+    sizeLower: sizes.lower,
+    sizeUpper: sizes.upper,
   };
+}
+
+/**
+ * An interval's ends as sizes in the observed direction ("6.5 points higher (interval 0.4 to 13.3 points)"): each end
+ * measured the way the estimate lies. Where the interval holds no difference, its end on the other side of zero is
+ * not a size the same way, so both ends are then written with their signs in that frame ("−0.4 to +13.3"), never
+ * as a bare "0.4" that reads as the wrong side of zero.
+ */
+export function intervalSizes(interval: { lower: number; upper: number }, observedSign: number, write: (v: number, sign: boolean) => string): { lower: string; upper: string } {
+  const flip = observedSign < 0 ? -1 : 1;
+  const [near, far] = observedSign < 0 ? [interval.upper, interval.lower] : [interval.lower, interval.upper];
+  const straddles = interval.lower < 0 && interval.upper > 0;
+  return straddles ? { lower: write(flip * near, true), upper: write(flip * far, true) } : { lower: write(near, false), upper: write(far, false) };
 }
 
 /** The test used for two rates, in words. */

@@ -2,7 +2,6 @@
 import type { MeanSummary, MeansAnalysis } from '../../analyse/types.js';
 import { cohensDIntervalAt } from '../../analyse/means.js';
 import type { Interval } from '../../stats/result.js';
-import { adjustedConfidence } from '../adjusted-interval.js';
 import { preciseLevel } from './adjusted.js';
 import { filterLabel } from '../../analyse/labels.js';
 import * as fmt from '../../format/numbers.js';
@@ -67,7 +66,10 @@ export function composeMeans(a: MeansAnalysis, decision: Decision, ctx: ComposeC
   }
   const d = a.difference;
   // Cohen's d's interval also at the level that decided an adjusted verdict, beside the difference's.
-  const dAdjusted = decision.adjustedInterval && a.cohensDInterval ? cohensDIntervalAt(a, adjustedConfidence(decision.effectiveAlpha as number)) : undefined;
+  const dAdjusted =
+    decision.adjustedInterval && a.cohensDInterval && ctx.adjusted && (decision.effectiveAlpha as number) < decision.alpha
+      ? cohensDIntervalAt(a, decision.adjustedInterval.interval.level)
+      : undefined;
   // One precision for the two means, their intervals and the difference, all in scale points (src/format/numbers.ts).
   const dDigits = fmt.comparedCoefficientDigits([a.focus.mean, a.focus.interval.lower, a.focus.interval.upper], [a.against.mean, a.against.interval.lower, a.against.interval.upper], [d.value, d.interval.lower, d.interval.upper]);
   // The other family of test as a check: does it reach the same verdict at the threshold that decided this one?

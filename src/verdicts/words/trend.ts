@@ -5,7 +5,7 @@ import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
 import { scopeOf } from './change.js';
-import { commonRows, detectableLabel, pView, rateCautions, rateRow, sharedDigits, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, detectableLabel, intervalSizes, pView, rateCautions, rateRow, sharedDigits, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
@@ -51,8 +51,8 @@ export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeC
     slopeLower: iv ? fmt.points(iv.lower, { sign: true, digits: slopeDigits }) : '',
     slopeUpper: iv ? fmt.points(iv.upper, { sign: true, digits: slopeDigits }) : '',
     // As sizes, low to high, for a sentence that has already said "rose" or "fell".
-    sizeLower: iv ? fmt.pointsSize(a.slope < 0 ? iv.upper : iv.lower, slopeDigits) : '',
-    sizeUpper: iv ? fmt.pointsSize(a.slope < 0 ? iv.lower : iv.upper, slopeDigits) : '',
+    sizeLower: iv ? intervalSizes(iv, a.slope < 0 ? -1 : 1, (v, sign) => (sign ? fmt.points(v, { sign: true, digits: slopeDigits }) : fmt.pointsSize(v, slopeDigits))).lower : '',
+    sizeUpper: iv ? intervalSizes(iv, a.slope < 0 ? -1 : 1, (v, sign) => (sign ? fmt.points(v, { sign: true, digits: slopeDigits }) : fmt.pointsSize(v, slopeDigits))).upper : '',
     hasInterval: iv !== undefined,
     fittedFirst: fmt.percent(fittedFirst, fitDigits),
     fittedLast: fmt.percent(fittedLast, fitDigits),
