@@ -249,7 +249,9 @@ export function crossFieldProblems(parsed: ParsedYaml, file: string, claimsDir: 
         });
       }
     }
-    if (hasPeriod) problems.push(...unpinnedPeriodProblems(c, claimPath, String(src.period), String(sourceId), file, at, describeOwner(data, claimPath)));
+    // A period column that also plays another part (respondents, a question) is refused at the source; no claim can name it.
+    const otherParts = [src.respondents, src.agree, src.agree_percent, src.population, ...(Array.isArray(src.questions) ? src.questions : []), ...(Array.isArray(src.numeric) ? src.numeric : [])];
+    if (hasPeriod && !otherParts.includes(src.period)) problems.push(...unpinnedPeriodProblems(c, claimPath, String(src.period), String(sourceId), file, at, describeOwner(data, claimPath)));
     for (const [path, m] of measures(c, claimPath)) {
       if (m === 'mean' && src.shape === 'summary') {
         problems.push({
