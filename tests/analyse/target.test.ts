@@ -59,6 +59,10 @@ describe('target claims: a rate against a fixed value', () => {
     const { d, w } = run(claim('A', 0.8, 'lower', { sided: 'one-sided' }));
     expect(d.verdict).toBe('supported');
     expect(w.section.verdictText).toMatch(/^Supported\. 75% of the 200 respondents in A agreed: 5\.0 points below the value of 80%/);
+    // With no value_label the value is named once, not twice ("the value of 80% (80%)").
+    expect(w.section.verdictText).not.toContain('the value of 80% (80%)');
+    expect(w.section.compared).toBe('A (200 respondents) against the value of 80%.');
+    expect(w.section.hypotheses.null).not.toContain('(80%)');
     expect(w.section.chart?.data).toMatchObject({ kind: 'rates', reference: { value: 0.8 } });
     expect(w.section.cautions.join(' ')).toMatch(/is a target/);
   });

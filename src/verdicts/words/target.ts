@@ -20,8 +20,9 @@ export function composeTarget(a: TargetAnalysis, decision: Decision, ctx: Compos
   const label = a.rate?.label ?? claim.selectLabel ?? filterLabel({ ...claim.where, ...claim.select }, claim.naming);
   const target = fmt.percent(claim.value);
   const valueLabel = claim.valueLabel ?? `the value of ${target}`;
-  // "the 80% target" already names the value; "the national benchmark" gets it added: "the national benchmark (72%)".
-  const valueName = claim.valueLabel !== undefined && claim.valueLabel.includes(target) ? claim.valueLabel : `${valueLabel} (${target})`;
+  // "the 80% target" (and "the value of 80%", said when the claim names none) already names the value; "the national
+  // benchmark" gets it added: "the national benchmark (72%)".
+  const valueName = valueLabel.includes(target) ? valueLabel : `${valueLabel} (${target})`;
   const head = { label, target, valueLabel, valueName, expectWord, oneSided };
   const hypotheses = { null: t.render('target.null', head), alternative: t.render('target.alternative', head) };
   if (a.status === 'too-little-data' || !a.rate || !a.difference || !a.test) {
