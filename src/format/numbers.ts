@@ -38,6 +38,17 @@ export function pointsSize(diff: number, digits = 1): string {
 }
 
 /**
+ * A size in points that is not zero, never written as zero: one decimal, or as many more (up to four) as it takes
+ * ("0.04" rather than "0.0"). For a detectable difference, "about 0.0 points" would say any gap, however small, is
+ * found (common practice: a non-zero figure keeps a significant digit).
+ */
+export function pointsSizeNonZero(diff: number): string {
+  let digits = 1;
+  while (digits < 4 && diff !== 0 && Number(pointsSize(diff, digits)) === 0) digits++;
+  return pointsSize(diff, digits);
+}
+
+/**
  * The fewest decimals (at least `base`, at most `max`) at which every two of `values` that differ also print
  * differently: an interval's two ends never collapse ("80% to 80%"), nor does an estimate onto an end it differs from
  * ("75% (75% to 76%)"). Values closer than the finest step allowed may still print alike.

@@ -16,6 +16,10 @@ describe('number formatting', () => {
     expect(fmt.points(0.0623, { sign: true })).toBe('+6.2');
     expect(fmt.points(0.00004, { sign: true })).toBe('0.0');
     expect(fmt.pointsSize(-0.0623)).toBe('6.2');
+    // A detectable difference from a very large sample is never written as zero (common practice).
+    expect(fmt.pointsSizeNonZero(0.000384)).toBe('0.04');
+    expect(fmt.pointsSizeNonZero(0.0000042)).toBe('0.0004');
+    expect(fmt.pointsSizeNonZero(0.0623)).toBe('6.2');
   });
   it('writes p-values without claiming more precision than is useful', () => {
     expect(fmt.pValue(0.0004)).toBe('< 0.001');

@@ -40,7 +40,7 @@ export function composeChange(a: ChangeAnalysis, decision: Decision, ctx: Compos
     sizeLower: dv.sizeLower,
     sizeUpper: dv.sizeUpper,
     observedVerb: d.value < 0 ? 'fell' : 'rose',
-    detectable: a.detectable !== undefined ? fmt.pointsSize(a.detectable) : '',
+    detectable: a.detectable !== undefined ? fmt.pointsSizeNonZero(a.detectable) : '',
     testName: twoRateTestName(a.methods),
     fpc: a.methods.includes('wilson-fpc'),
     adjustName: ctx.adjustName,

@@ -38,7 +38,7 @@ export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: Comp
     gapLower: dv.sizeLower,
     gapUpper: dv.sizeUpper,
     diffWord: d.value < 0 ? 'lower' : 'higher',
-    detectable: a.detectable !== undefined ? fmt.pointsSize(a.detectable) : '',
+    detectable: a.detectable !== undefined ? fmt.pointsSizeNonZero(a.detectable) : '',
     testName: twoRateTestName(a.methods),
     fpc: a.methods.includes('wilson-fpc'),
     adjustName: ctx.adjustName,

@@ -45,7 +45,7 @@ export function composeTarget(a: TargetAnalysis, decision: Decision, ctx: Compos
     sizeLower: dv.sizeLower,
     sizeUpper: dv.sizeUpper,
     observedWord: d.value < 0 ? 'below' : 'above',
-    detectable: a.detectable !== undefined ? fmt.pointsSize(a.detectable) : '',
+    detectable: a.detectable !== undefined ? fmt.pointsSizeNonZero(a.detectable) : '',
     testName: exact ? 'Exact binomial test against the fixed value' : 'Score test against the fixed value',
     fpc: a.methods.includes('wilson-fpc'),
     adjustName: ctx.adjustName,

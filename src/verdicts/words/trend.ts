@@ -58,7 +58,7 @@ export function composeTrend(a: TrendAnalysis, decision: Decision, ctx: ComposeC
     fittedLast: fmt.percent(fittedLast, fitDigits),
     fittedChange,
     observedWord: a.slope < 0 ? 'fell' : 'rose',
-    detectable: a.detectable !== undefined ? fmt.pointsSize(a.detectable) : '',
+    detectable: a.detectable !== undefined ? fmt.pointsSizeNonZero(a.detectable) : '',
     fpc: a.methods.includes('wilson-fpc'),
     adjustName: ctx.adjustName,
     ...pView(decision, ctx),
