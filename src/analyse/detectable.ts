@@ -43,7 +43,7 @@ export function detectableAt(a: Analysis, alpha: number): number | undefined {
     case 'compare':
     case 'change': {
       const [first, second] = a.kind === 'compare' ? [a.focus, a.against] : [a.later, a.earlier];
-      if (!first || !second || !(second.rate > 0 && second.rate < 1)) return undefined;
+      if (!first || !second || !(second.rate >= 0 && second.rate <= 1)) return undefined;
       // As src/analyse/rates.ts: with the finite-population correction each group counts as its effective size n / f.
       const corrected = a.fpc?.used === true && first.population !== undefined && second.population !== undefined;
       const m1 = corrected ? effectiveSize(first.n, first.population as number) : first.n;

@@ -147,7 +147,7 @@ export function compareRates(
   // undirected claim, the larger of the two directions). Undefined when no gap in that direction is detectable.
   // With the correction each group counts as its effective size n / f (Cochran 1977, §3.3).
   let detectable: number | undefined;
-  if (options.detectable !== false && second.rate > 0 && second.rate < 1) {
+  if (options.detectable !== false && second.rate >= 0 && second.rate <= 1) {
     const m1 = corrected ? effectiveSize(first.n, N1) : first.n;
     const m2 = corrected ? effectiveSize(second.n, N2) : second.n;
     const both = minDetectableDifference(m1, m2, second.rate, { alpha: 1 - confidence, power: 0.8, sided: testSided });

@@ -85,7 +85,7 @@ export interface DetectableDifference {
  * baseRate - delta (decrease). Found by bisection on the power function to full double precision; a direction is
  * null when even the largest possible gap (to a rate of 1 or 0) does not reach the power.
  *
- * @throws Error when sizes, alpha or power are out of range, or the base rate is not strictly between 0 and 1.
+ * @throws Error when sizes, alpha or power are out of range, or the base rate is not between 0 and 1.
  */
 export function minDetectableDifference(
   n1: number,
@@ -96,14 +96,18 @@ export function minDetectableDifference(
   const { alpha = 0.05, power: targetPower = 0.8, sided = 'two-sided' } = settings;
   const fn = 'minDetectableDifference';
   checkArgs(n1, n2, alpha, fn);
-  if (!(baseRate > 0 && baseRate < 1)) {
-    throw new Error(`${fn}: the base rate must be strictly between 0 and 1, got ${baseRate}`);
+  if (!(baseRate >= 0 && baseRate <= 1)) {
+    throw new Error(`${fn}: the base rate must be between 0 and 1, got ${baseRate}`);
   }
   if (!(targetPower > 0 && targetPower < 1)) {
     throw new Error(`${fn}: the power must be between 0 and 1, got ${targetPower}`);
   }
   const zq = normalSfQuantile(sided === 'two-sided' ? alpha / 2 : alpha);
-  const solve = (sign: 1 | -1): number | null =>
-    smallestGapReaching((delta) => power(n1, n2, baseRate + sign * delta, baseRate, zq, false), sign === 1 ? 1 - baseRate : baseRate, targetPower);
+  // A base rate of 0% or 100% leaves room on one side only: a fall from 100% (or a rise from 0%) is still detectable,
+  // its power rising with the gap as for any base; the side with no room has no detectable gap.
+  const solve = (sign: 1 | -1): number | null => {
+    const room = sign === 1 ? 1 - baseRate : baseRate;
+    return room > 0 ? smallestGapReaching((delta) => power(n1, n2, baseRate + sign * delta, baseRate, zq, false), room, targetPower) : null;
+  };
   return { increase: solve(1), decrease: solve(-1) };
 }

@@ -208,7 +208,7 @@ describe('degenerate input', () => {
     expect(() => tostTwoProportions(0, 10, 0, 12, 0.05)).toThrow(/standard error is 0/);
     expect(() => tostTwoProportions(3, 10, 4, 12, 0.05, { populationSize1: 9 })).toThrow(/number eligible must be at least/);
     expect(() => powerTwoProportions(10, 10, 0, 0)).toThrow(/power is undefined/);
-    expect(() => minDetectableDifference(10, 10, 1)).toThrow(/base rate/);
+    expect(() => minDetectableDifference(10, 10, 1.2)).toThrow(/base rate/);
   });
 
   it('TOST on two censuses: the difference is known exactly, so each one-sided test is decided outright', () => {

@@ -184,3 +184,38 @@ describe('a claim tested one-sided is shown with the interval that matches its t
     expect(pack.text).toContain('95% interval −0.4 to +13.3, two-sided; 90% interval +0.7 to +12.2, matching the one-sided test');
   }, 60_000);
 });
+
+describe('the smallest detectable difference when the comparison group is at 100%', () => {
+  it('a fall from 100% is still within reach: the pack gives its size, not "none within reach"', () => {
+    const dir = join(work, 'edge');
+    mkdirSync(dir, { recursive: true });
+    writeFileSync(join(dir, 'release.csv'), ['Unit,Question,Respondents,Agreeing', 'Fenwick,Q1,40,40', 'Glenmoor,Q1,40,36', ''].join('\n'));
+    const yaml = `title: Edge rates
+organisation: Fenwick Forum
+data_date: 2026-03-01
+sources:
+  s:
+    file: release.csv
+    shape: summary
+    respondents: Respondents
+    agree: Agreeing
+claims:
+  - id: glenmoor-lower
+    claim: Glenmoor agrees less than Fenwick on Q1.
+    kind: compare
+    source: s
+    where: { Question: Q1 }
+    focus: { Unit: Glenmoor }
+    against: { Unit: Fenwick }
+    expect: lower
+`;
+    const pack = buildPack(dir, yaml);
+    const c = pack.results.claims[0] as Record<string, any>;
+    expect(c.verdict).toBe('not-supported');
+    // R 4.x power.prop.test(n = 40, p1 = 1e-20, power = 0.8, tol = 1e-14)$p2 = 0.1739402: the rise from 0% that the
+    // test finds 80% of the time at two-sided 5%, which by the formula's symmetry is the fall from 100%.
+    expect(c.detectable).toBeCloseTo(0.1739402, 6);
+    expect(pack.text).toContain('a difference of about 17.4 points or more would be detected 80% of the time');
+    expect(pack.text).not.toContain('none within reach');
+  }, 60_000);
+});
