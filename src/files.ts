@@ -8,7 +8,8 @@
  * File-system failures (permission denied, a path too long, a full disk) become plain sentences here, so that every
  * reader and writer says them the same way.
  */
-import { closeSync, constants, fstatSync, openSync, readSync, statSync, type Stats } from 'node:fs';
+import { closeSync, constants, existsSync, fstatSync, linkSync, mkdirSync, openSync, readSync, renameSync, rmSync, statSync, writeFileSync, type Stats } from 'node:fs';
+import { dirname } from 'node:path';
 import { InputError, type Problem } from './errors.js';
 
 /** Where a problem with a file is reported: the file as the user knows it, and optionally the line and field. */
@@ -49,6 +50,9 @@ export function requireOrdinaryFile(abs: string, place: Place, role: string, fix
   if (kind !== undefined) throw new InputError(notOrdinaryProblem(abs, kind, place, role, fix));
 }
 
+/** The code of the error makeFolders throws when a folder exists but refuses a new folder inside it (mkdir says ENOENT). */
+const NO_NEW_FOLDERS = 'WARRANT_NO_NEW_FOLDERS';
+
 /** A file-system failure as a sentence ("permission was denied"), or undefined when it is not one warrant knows. */
 export function fsReason(e: unknown): string | undefined {
   const code = (e as { code?: unknown } | null)?.code;
@@ -81,8 +85,47 @@ export function fsReason(e: unknown): string | undefined {
       return 'the file is in use by another program';
     case 'EEXIST':
       return 'something with that name is already there';
+    case NO_NEW_FOLDERS:
+      return 'the folder above it takes no new folders or files (a system folder such as /proc or /sys)';
     default:
       return undefined;
+  }
+}
+
+/**
+ * Make a folder and any missing folders above it, one at a time from the top. Node's own recursive mkdir retries for
+ * ever (at full speed) when a folder exists but mkdir in it says ENOENT, as in /proc/self; here that is an error
+ * with its own code (said by fsReason as a folder that takes no new folders), as is a file in the path (ENOTDIR).
+ */
+export function makeFolders(abs: string): void {
+  const missing: string[] = [];
+  for (let dir = abs; ; dir = dirname(dir)) {
+    try {
+      if (!statSync(dir).isDirectory()) throw Object.assign(new Error(`ENOTDIR: not a directory, mkdir '${abs}'`), { code: 'ENOTDIR' });
+      break;
+    } catch (e) {
+      if ((e as { code?: string }).code !== 'ENOENT' || dirname(dir) === dir) throw e;
+      missing.push(dir);
+    }
+  }
+  for (const dir of missing.reverse()) {
+    try {
+      mkdirSync(dir);
+    } catch (e) {
+      const code = (e as { code?: string }).code;
+      if (code === 'EEXIST' && notFolder(dir) === false) continue; // made meanwhile by another build
+      if (code === 'ENOENT') throw Object.assign(new Error(`the folder ${dirname(dir)} takes no new folders (mkdir '${dir}' said ENOENT)`), { code: NO_NEW_FOLDERS });
+      throw e;
+    }
+  }
+}
+
+/** Whether something at `abs` is not a folder (undefined when nothing can be found there, e.g. a broken link). */
+function notFolder(abs: string): boolean | undefined {
+  try {
+    return !statSync(abs).isDirectory();
+  } catch {
+    return undefined;
   }
 }
 
@@ -99,6 +142,9 @@ export function fsFailure(e: unknown, place: Place, doing: string, fix?: string)
     EPERM: 'Allow access to the file and its folder, or copy the file somewhere you can use',
     ENAMETOOLONG: 'Use a shorter path or shorter folder and file names',
     EROFS: 'Choose a folder on a writable disk',
+    ENOTDIR: 'Check each folder named in the path: one of them is a file',
+    ELOOP: 'Check the symbolic links in the path: one leads back to itself',
+    [NO_NEW_FOLDERS]: 'Choose a folder of your own to write into, e.g. out',
   };
   return new InputError({ ...place, problem: `${doing} failed: ${reason}`, fix: fix ?? fixes[code] ?? 'Check the path and the file, then run the command again' });
 }
@@ -136,5 +182,41 @@ export function readOrdinaryFile(abs: string, cap: number, place: Place, role: s
     throw fsFailure(e, place, `reading the ${role}`) ?? e;
   } finally {
     closeSync(fd);
+  }
+}
+
+/**
+ * Write a file whole or not at all: into a temporary file beside it (`<name>.<pid>.partial`), then renamed over the
+ * file (`replace`) or linked to its name, which fails when anything is there already (so an existing file is never
+ * touched). A full disk or an interruption leaves the file as it was and no temporary file behind. File-system
+ * failures are thrown as they come; callers turn them into sentences with fsFailure.
+ */
+export function writeWhole(abs: string, data: string | Buffer, { replace }: { replace: boolean }): void {
+  const temporary = `${abs}.${process.pid}.partial`;
+  try {
+    try {
+      writeFileSync(temporary, data);
+    } catch (e) {
+      // The folder is there, yet the new file "does not exist": a folder that takes no new files, as in /proc.
+      if ((e as { code?: string }).code === 'ENOENT' && notFolder(dirname(abs)) === false) throw Object.assign(new Error(`the folder ${dirname(abs)} takes no new files`), { code: NO_NEW_FOLDERS });
+      throw e;
+    }
+    if (replace) renameSync(temporary, abs);
+    else {
+      try {
+        linkSync(temporary, abs);
+      } catch (e) {
+        // A file system without hard links (some network and FAT disks): rename, having looked first.
+        const code = (e as { code?: string }).code;
+        if ((code !== 'EPERM' && code !== 'ENOTSUP' && code !== 'EXDEV') || existsSync(abs)) throw e;
+        renameSync(temporary, abs);
+      }
+    }
+  } finally {
+    try {
+      rmSync(temporary, { force: true });
+    } catch {
+      // Not ours to remove (a folder of that name): the error that matters was thrown above.
+    }
   }
 }

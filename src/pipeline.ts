@@ -10,7 +10,7 @@
  * half-written pack or harms an earlier one. When an earlier pack exists, the new one says what changed.
  */
 import { readFile } from 'node:fs/promises';
-import { existsSync, readdirSync, statSync } from 'node:fs';
+import { accessSync, constants, existsSync, lstatSync, readdirSync, readlinkSync, statSync, type Stats } from 'node:fs';
 import { basename, dirname, extname, join, relative, resolve } from 'node:path';
 import { readClaims } from './claims/read.js';
 import type { Claim, ClaimsFile } from './claims/types.js';
@@ -230,6 +230,17 @@ function overrideSources(claims: ClaimsFile, data: Record<string, string>, cwd: 
   return { ...claims, sources };
 }
 
+const OUT_FIX = 'Give --out a folder of your own that you can write in, e.g. out';
+
+/** Whether `abs` is a symbolic link (whatever it leads to). */
+function isLink(abs: string): boolean {
+  try {
+    return lstatSync(abs).isSymbolicLink();
+  } catch {
+    return false;
+  }
+}
+
 /** The options that name folders must name folders: checked before any work, so a typo costs nothing. */
 function checkFolders(options: BuildOptions, root: string, templatesDir: string | undefined): void {
   if (templatesDir !== undefined) {
@@ -251,20 +262,36 @@ function checkFolders(options: BuildOptions, root: string, templatesDir: string 
   // its very end, so it is reported before any work.
   const inTheWay = latestInTheWay(root);
   if (inTheWay !== undefined) throw latestProblem(options.outDir ?? displayPath(root), inTheWay);
-  // The history folder, or the nearest part of its path that exists, must be a folder.
+  // The history folder, or the nearest part of its path that exists, must be a folder that can be written in (a loop
+  // of links or a read-only disk is found now, not after the pack is drawn).
+  const outPlace = { file: options.outDir ?? displayPath(root), field: '--out' };
   for (let dir = root; ; dir = dirname(dir)) {
-    if (existsSync(dir)) {
-      if (!statSync(dir).isDirectory()) {
-        throw new InputError({
-          file: options.outDir ?? displayPath(root),
-          field: '--out',
-          problem: dir === root ? 'this is a file, not a history folder for packs' : `${dir} is a file, so the history folder cannot be made inside it`,
-          fix: 'Give --out a folder (new or used before for packs of this claims file)',
-        });
+    let there: Stats;
+    try {
+      there = statSync(dir);
+    } catch (e) {
+      if ((e as { code?: string }).code === 'ENOENT' && dirname(dir) !== dir) {
+        if (isLink(dir)) {
+          throw new InputError({ ...outPlace, problem: `${dir} is a symbolic link to ${readlinkSync(dir)}, which does not exist, so the history folder cannot be made there`, fix: 'Make the folder the link leads to, or give --out another folder' });
+        }
+        continue;
       }
-      return;
+      throw fsFailure(e, outPlace, 'writing the pack into the history folder') ?? e;
     }
-    if (dirname(dir) === dir) return;
+    if (!there.isDirectory()) {
+      throw new InputError({
+        ...outPlace,
+        problem: dir === root ? 'this is a file, not a history folder for packs' : `${dir} is a file, so the history folder cannot be made inside it`,
+        fix: 'Give --out a folder (new or used before for packs of this claims file)',
+      });
+    }
+    try {
+      accessSync(dir, constants.W_OK | constants.X_OK);
+    } catch (e) {
+      const denied = ['EACCES', 'EPERM'].includes((e as { code?: string }).code ?? '');
+      throw fsFailure(e, outPlace, `writing into ${dir === root ? 'the history folder' : dir}`, denied ? OUT_FIX : undefined) ?? e;
+    }
+    return;
   }
 }
 

@@ -8,11 +8,12 @@
  * file is written under a temporary name and renamed into place, so a failure leaves no half-written file.
  */
 import { existsSync, readdirSync, statSync } from 'node:fs';
-import { mkdir, readFile, rename, rm, writeFile } from 'node:fs/promises';
+import { readFile } from 'node:fs/promises';
 import { dirname, join, relative, resolve, sep } from 'node:path';
 import { displayPathFor } from '../claims/read.js';
 import { claimsSchemaPath } from '../claims/schema.js';
 import { InputError } from '../errors.js';
+import { fsFailure, makeFolders, writeWhole } from '../files.js';
 import { packageRoot } from '../paths.js';
 
 export interface DemoOptions {
@@ -92,14 +93,12 @@ export async function writeDemo(opts: DemoOptions): Promise<DemoWritten> {
     const to = join(folder, ...f.split('/'));
     let bytes: Buffer | string = await readFile(from);
     if (f === CLAIMS) bytes = bytes.toString('utf8').replace(SCHEMA_LINE, `# yaml-language-server: $schema=${schemaRef}`);
-    await mkdir(dirname(to), { recursive: true });
-    const temporary = `${to}.${process.pid}.partial`;
     try {
-      await writeFile(temporary, bytes);
-      await rename(temporary, to);
+      makeFolders(dirname(to));
+      writeWhole(to, bytes, { replace: true });
     } catch (e) {
-      await rm(temporary, { force: true });
-      throw e;
+      // A read-only or system folder, a file in the path, a full disk: the user's to fix (files written before stay whole).
+      throw fsFailure(e, { file: join(shown, ...f.split('/')) }, 'writing the demo file') ?? e;
     }
   }
   const dataFiles = files.filter((f) => f !== CLAIMS);

@@ -4,15 +4,15 @@
  * values, a list of the columns and their values, and one commented example of every kind of claim, written with
  * the file's own column names and values so that uncommenting an example gives a claim `warrant check` accepts.
  */
-import { existsSync } from 'node:fs';
-import { writeFile } from 'node:fs/promises';
-import { basename, dirname, extname, relative, resolve, sep } from 'node:path';
+import { existsSync, statSync } from 'node:fs';
+import { basename, dirname, extname, join, relative, resolve, sep } from 'node:path';
 import { DATA_EXTENSIONS } from '../claims/rules.js';
 import { LIST_LIMIT, scanTable, type ColumnScan, type TableScan } from '../claims/scan.js';
 import { claimsSchemaPath } from '../claims/schema.js';
 import { displayPathFor } from '../claims/read.js';
 import { PERIOD_NAME } from '../claims/periods.js';
 import { InputError } from '../errors.js';
+import { fsFailure, writeWhole } from '../files.js';
 
 export interface InitOptions {
   /** The data file (.csv or .xlsx). */
@@ -377,8 +377,21 @@ export async function init(opts: InitOptions): Promise<number> {
   // In the current folder unless --out says otherwise: never beside the data unasked.
   const outPath = resolve(opts.out ?? 'claims.yaml');
   const outDisplay = displayPathFor(outPath);
+  if (existsSync(outPath) && statSync(outPath).isDirectory()) {
+    throw new InputError({ file: outDisplay, field: '--out', problem: 'this is a folder, and warrant init writes a claims file', fix: `Give --out the name of the file to write, e.g. ${join(outDisplay, 'claims.yaml')}` });
+  }
   if (existsSync(outPath) && !opts.force) {
     throw new InputError({ file: outDisplay, problem: 'this file already exists, and warrant init does not overwrite it', fix: 'Choose another name with --out, or add --force to replace it' });
+  }
+  // The folder it goes in must be there: found before the data are read, so a typo costs nothing.
+  const outFolder = dirname(outPath);
+  if (!existsSync(outFolder) || !statSync(outFolder).isDirectory()) {
+    throw new InputError({
+      file: outDisplay,
+      field: '--out',
+      problem: `${existsSync(outFolder) ? `${displayPathFor(outFolder)} is a file, not a folder` : `the folder ${displayPathFor(outFolder)} does not exist`}, so the claims file cannot be written there`,
+      fix: 'Give --out a file name in a folder that exists (warrant init makes no folders)',
+    });
   }
   const dataDisplay = displayPathFor(dataPath);
   let sheet = opts.sheet;
@@ -395,8 +408,12 @@ export async function init(opts: InitOptions): Promise<number> {
   if (skipped.length > 0) {
     text = text.replace(/\n    sheet: [^\n]*/, (line) => `${line}   # the sheet with the table; passed over: ${skipped.join(', ')}`);
   }
-  // Written through a new file that is never an existing one (flag wx), unless --force.
-  await writeFile(outPath, text, { encoding: 'utf8', flag: opts.force ? 'w' : 'wx' });
+  // Written whole or not at all, never over an existing file unless --force.
+  try {
+    writeWhole(outPath, text, { replace: opts.force === true });
+  } catch (e) {
+    throw fsFailure(e, { file: outDisplay, field: '--out' }, 'writing the starter claims file') ?? e;
+  }
   const said: string[] = [`${outDisplay}: written with ${scan.columns.length} columns (${guess.shape} data, ${scan.rows} rows) and an example of every kind of claim; uncomment one and run warrant check ${outDisplay}`];
   if (format === 'xlsx') said.push(`  sheet "${scan.sheet}"${skipped.length > 0 ? `; passed over ${skipped.join(', ')}` : ''}`);
   if (scan.headerRows === 2) said.push(`  the header spans rows ${scan.headerRow} and ${scan.headerRow + 1} (header_rows: 2)`);

@@ -12,11 +12,12 @@
  * A seal is evidence the organisation keeps, not proof against someone who edits the file by hand: it is worth what
  * the place it is kept in (version control, an email to the committee) is worth.
  */
-import { existsSync, readFileSync, renameSync, statSync, writeFileSync } from 'node:fs';
+import { existsSync, readFileSync, statSync } from 'node:fs';
 import { basename, dirname, extname, join, resolve } from 'node:path';
 import { readClaims } from '../claims/read.js';
 import type { ClaimsFile } from '../claims/types.js';
 import { InputError } from '../errors.js';
+import { fsFailure, writeWhole } from '../files.js';
 import { claimFingerprint } from '../history/fingerprint.js';
 import { today } from '../history/store.js';
 
@@ -99,9 +100,11 @@ export async function seal(options: SealOptions): Promise<number> {
   const previous = readSeal(path, target);
   const sealed = sealClaims(claims, basename(path), day, previous);
   // Written through a temporary file renamed into place, so an interrupted seal never leaves half a file.
-  const temporary = `${target}.tmp`;
-  writeFileSync(temporary, `${JSON.stringify(sealed, null, 2)}\n`);
-  renameSync(temporary, target);
+  try {
+    writeWhole(target, `${JSON.stringify(sealed, null, 2)}\n`, { replace: true });
+  } catch (e) {
+    throw fsFailure(e, { file: target }, 'writing the seal') ?? e;
+  }
   const kept = sealed.claims.filter((c) => c.sealed !== day).length;
   const fresh = sealed.claims.length - kept;
   write(

@@ -4,12 +4,12 @@
  * A `latest` link names the newest. A pack is written into a temporary folder and renamed into place, so an
  * interrupted build leaves the earlier packs intact and no half-written pack behind.
  */
-import { existsSync, lstatSync, mkdirSync, readdirSync, readlinkSync, realpathSync, statSync, writeFileSync } from 'node:fs';
-import { mkdir, readlink, rename, rm, symlink } from 'node:fs/promises';
+import { existsSync, lstatSync, readdirSync, readlinkSync, realpathSync, statSync, writeFileSync } from 'node:fs';
+import { readlink, rename, rm, symlink } from 'node:fs/promises';
 import { basename, dirname, join } from 'node:path';
 import type { ResultsFile } from '../results/results.js';
 import { InputError } from '../errors.js';
-import { fsFailure, fsReason, otherThanFile, readOrdinaryFile } from '../files.js';
+import { fsFailure, fsReason, makeFolders, otherThanFile, readOrdinaryFile } from '../files.js';
 
 export const LATEST = 'latest';
 const TEMP_PREFIX = '.building-';
@@ -171,7 +171,7 @@ export function hooksFromEnv(env: NodeJS.ProcessEnv = process.env): WriteHooks {
  * same name exists already (same inputs), it is left as it is and only `latest` moves.
  */
 export async function storePack(root: string, name: string, files: Array<[string, string | Buffer]>, hooks: WriteHooks = {}): Promise<{ path: string; reused: boolean }> {
-  await mkdir(root, { recursive: true });
+  makeFolders(root);
   await sweepTemporary(root);
   const target = join(root, name);
   let reused = true;
@@ -192,7 +192,7 @@ export async function storePack(root: string, name: string, files: Array<[string
         const file = join(tmp, rel);
         const folder = dirname(file);
         if (!made.has(folder)) {
-          mkdirSync(folder, { recursive: true });
+          makeFolders(folder);
           made.add(folder);
         }
         writeFileSync(file, content);

@@ -330,6 +330,37 @@ const cases: Case[] = [
     message:
       'old: the pack old cannot be read: the results.json of an earlier pack <case>/old/results.json is a named pipe (FIFO), not an ordinary file; warrant reads only ordinary files, since reading from a named pipe (FIFO) could wait for ever or never end. Fix: Name another pack, or build this one again from its claims file and data.',
   },
+  {
+    what: '--out inside /proc/self, a folder that exists yet refuses new folders',
+    group: 'never hang',
+    cousin: true,
+    setup: (dir) => summaryCase(dir),
+    argv: ['build', 'claims.yaml', '--out', '/proc/self/packs'],
+    message:
+      '/proc/self/packs: writing into /proc/self failed: permission was denied (field "--out"). Fix: Give --out a folder of your own that you can write in, e.g. out.',
+  },
+  {
+    what: 'warrant demo into a new folder inside /proc/self',
+    group: 'never hang',
+    cousin: true,
+    setup: () => undefined,
+    argv: ['demo', '/proc/self/warrant-demo', '--no-build'],
+    message:
+      '/proc/self/warrant-demo/claims.yaml: writing the demo file failed: the folder above it takes no new folders or files (a system folder such as /proc or /sys). Fix: Choose a folder of your own to write into, e.g. out.',
+  },
+  {
+    what: '--out a symbolic link that leads to itself through another',
+    group: 'never hang',
+    cousin: true,
+    setup: (dir) => {
+      summaryCase(dir);
+      symlinkSync('loop-b', join(dir, 'loop-a'));
+      symlinkSync('loop-a', join(dir, 'loop-b'));
+    },
+    argv: ['build', 'claims.yaml', '--out', 'loop-a'],
+    message:
+      'loop-a: writing the pack into the history folder failed: the path goes round a loop of symbolic links (field "--out"). Fix: Check the symbolic links in the path: one leads back to itself.',
+  },
   // ---- never an internal error ----
   {
     what: 'an association of a measure with itself',
@@ -345,6 +376,48 @@ const cases: Case[] = [
     argv: ['check', 'claims.yaml'],
     message:
       'claims.yaml:16:8: claim "q1-with-q2" measures the same thing on both axes (x and y select the same answers with the same measure), so it could only find a perfect association (field "y", found "{ Question: Q1 }"). Fix: Select a different question or measure for y than for x.\n\n1 problem found in claims.yaml.',
+  },
+  {
+    what: '--out a symbolic link to a folder that does not exist',
+    group: 'never an internal error',
+    cousin: true,
+    setup: (dir) => {
+      summaryCase(dir);
+      symlinkSync('gone', join(dir, 'packs'));
+    },
+    argv: ['build', 'claims.yaml', '--out', 'packs'],
+    message:
+      'packs: <case>/packs is a symbolic link to gone, which does not exist, so the history folder cannot be made there (field "--out"). Fix: Make the folder the link leads to, or give --out another folder.',
+  },
+  {
+    what: 'warrant init --out into a folder that does not exist',
+    group: 'never an internal error',
+    cousin: true,
+    setup: (dir) => summaryCase(dir),
+    argv: ['init', 'data.csv', '--out', 'drafts/claims.yaml'],
+    message:
+      'drafts/claims.yaml: the folder drafts does not exist, so the claims file cannot be written there (field "--out"). Fix: Give --out a file name in a folder that exists (warrant init makes no folders).',
+  },
+  {
+    what: 'warrant init --out naming a folder, with --force',
+    group: 'never an internal error',
+    cousin: true,
+    setup: (dir) => {
+      summaryCase(dir);
+      mkdirSync(join(dir, 'drafts'));
+    },
+    argv: ['init', 'data.csv', '--out', 'drafts', '--force'],
+    message:
+      'drafts: this is a folder, and warrant init writes a claims file (field "--out"). Fix: Give --out the name of the file to write, e.g. drafts/claims.yaml.',
+  },
+  {
+    what: 'warrant demo into a path through a file',
+    group: 'never an internal error',
+    cousin: true,
+    setup: (dir) => summaryCase(dir),
+    argv: ['demo', 'data.csv/demo', '--no-build'],
+    message:
+      'data.csv/demo/claims.yaml: writing the demo file failed: a part of the path is a file where a folder was expected. Fix: Check each folder named in the path: one of them is a file.',
   },
   {
     what: 'an association whose first measure is the same in every unit: too little data, said in words',
