@@ -39,7 +39,8 @@ import { readingNotes } from './data/reading-notes.js';
 import type { PackModel } from './render/model.js';
 import { useChartThread } from './render/chart-thread.js';
 import { packageRoot } from './paths.js';
-import { InputError } from './errors.js';
+import { formatProblem, InputError } from './errors.js';
+import { wordsProblems } from './claims/wording.js';
 import { fsFailure, readOrdinaryFile, requireOrdinaryFile } from './files.js';
 import { impossibleDate } from './claims/dates.js';
 import { canonicalJson, packFingerprint, sha256Hex } from './history/fingerprint.js';
@@ -501,6 +502,12 @@ async function buildPack(options: BuildOptions, chartsDrawn: () => void): Promis
     // A full disk, a read-only folder, a name too long: the user's to fix, and no half-written pack is left.
     throw fsFailure(e, { file: options.outDir ?? displayPath(root), field: '--out' }, 'writing the pack into the history folder') ?? e;
   }
+  // Said on the terminal even with --quiet: a claim whose words and fields disagree (its page carries a caution too),
+  // and an earlier pack that could not be read.
+  const warnings = [
+    ...wordsProblems(claims, claimsDisplay).map((p) => `warning: ${formatProblem(p)}`),
+    ...(unreadable ? [`The latest earlier pack, ${unreadable.name}, could not be read (${unreadable.reason}), so the pack cannot say what changed since it; it says so in place of "What changed".`] : []),
+  ];
   return {
     claims,
     cubes,
@@ -509,7 +516,7 @@ async function buildPack(options: BuildOptions, chartsDrawn: () => void): Promis
     results,
     model,
     ...(diff ? { diff } : {}),
-    ...(unreadable ? { warnings: [`The latest earlier pack, ${unreadable.name}, could not be read (${unreadable.reason}), so the pack cannot say what changed since it; it says so in place of "What changed".`] } : {}),
+    ...(warnings.length > 0 ? { warnings } : {}),
     files: { folder: stored.path, pdf: join(stored.path, 'pack.pdf'), results: join(stored.path, 'results.json'), reused: stored.reused },
   };
 }

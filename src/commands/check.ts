@@ -17,10 +17,11 @@ import type { Claim, Filter, FilterScalar, FilterValue, SourceSpec } from '../cl
 import { locate, type ParsedYaml } from '../claims/yaml.js';
 import { claimsSpellings, readCube } from '../data/cube.js';
 import type { Cell, Cube } from '../data/types.js';
-import { formatProblems, InputError, type Problem } from '../errors.js';
+import { formatProblem, formatProblems, InputError, type Problem } from '../errors.js';
 import { findName, fixFor, nfc } from '../suggest.js';
 import { readingNotes } from '../data/reading-notes.js';
 import { Templates } from '../verdicts/templates.js';
+import { wordsProblems } from '../claims/wording.js';
 
 export interface CheckOptions {
   /** The claims file. */
@@ -39,6 +40,8 @@ export interface CheckReport {
   sources?: number;
   /** Every problem found, claims-file problems first in file order, then data problems. */
   problems: Problem[];
+  /** Claims whose own words and fields say different things (src/claims/wording.ts): warnings, not problems. */
+  warnings?: Problem[];
   /** How each source's table was read (rows taken as notes, suppressed rows, footnote markers), when there is anything to say. */
   reading?: Array<{ source: string; file: string; notes: string[] }>;
 }
@@ -115,7 +118,15 @@ export async function checkClaimsFile(path: string, displayPath?: string): Promi
     if (notes.length > 0) reading.push({ source: source.id, file: cube.file, notes });
     for (const { claim, i } of users) if (!skip.has(claim)) claimProblems.push(...claimDataProblems(claim, i, source, cube, file, place, parsed));
   }
-  return { file, claims: claims.claims.length, sources: claims.sources.length, problems: [...inFileOrder(claimProblems), ...dataProblems], ...(reading.length > 0 ? { reading } : {}) };
+  const warnings = wordsProblems(claims, file);
+  return {
+    file,
+    claims: claims.claims.length,
+    sources: claims.sources.length,
+    problems: [...inFileOrder(claimProblems), ...dataProblems],
+    ...(warnings.length > 0 ? { warnings } : {}),
+    ...(reading.length > 0 ? { reading } : {}),
+  };
 }
 
 function isFile(path: string): boolean {
@@ -373,15 +384,24 @@ export async function check(opts: CheckOptions): Promise<number> {
   const report = await checkClaimsFile(opts.claims);
   const ok = report.problems.length === 0;
   if (opts.json) {
-    write(`${JSON.stringify({ file: report.file, ok, claims: report.claims ?? null, sources: report.sources ?? null, problems: report.problems, reading: report.reading ?? [] }, null, 2)}\n`);
+    write(`${JSON.stringify({ file: report.file, ok, claims: report.claims ?? null, sources: report.sources ?? null, problems: report.problems, warnings: report.warnings ?? [], reading: report.reading ?? [] }, null, 2)}\n`);
     return ok ? 0 : 2;
   }
   // How the data were read comes first: a wrong guess about where a table ends explains problems that follow.
   for (const r of report.reading ?? []) write(`${r.file} (source "${r.source}"):\n${r.notes.map((n) => `  - ${n}`).join('\n')}\n`);
+  // Warnings do not change the exit code: reading words is never certain, but a verdict under words it does not answer
+  // misleads, so each is said, and the pack repeats it on the claim's page.
+  const warnings = report.warnings ?? [];
+  const warned = warnings.length > 0 ? `${warnings.map((w) => `warning: ${formatProblem(w)}`).join('\n\n')}\n\n` : '';
+  const warnCount = `${warnings.length} warning${warnings.length === 1 ? '' : 's'} (a claim's words and its fields say different things; the pack repeats ${warnings.length === 1 ? 'it' : 'each'} on the claim's page)`;
   if (ok) {
-    write(`${report.file}: ${report.claims} claim${report.claims === 1 ? '' : 's'}, ${report.sources} source${report.sources === 1 ? '' : 's'}, all good.\n`);
+    write(
+      `${warned}${report.file}: ${report.claims} claim${report.claims === 1 ? '' : 's'}, ${report.sources} source${report.sources === 1 ? '' : 's'}, ${warnings.length === 0 ? 'all good' : `no problems, ${warnCount}`}.\n`,
+    );
   } else {
-    write(`${formatProblems(report.problems, 'with --json every one is listed')}\n\n${report.problems.length.toLocaleString('en-GB')} problem${report.problems.length === 1 ? '' : 's'} found in ${report.file}.\n`);
+    write(
+      `${formatProblems(report.problems, 'with --json every one is listed')}\n\n${warned}${report.problems.length.toLocaleString('en-GB')} problem${report.problems.length === 1 ? '' : 's'} found in ${report.file}${warnings.length > 0 ? `, and ${warnCount}` : ''}.\n`,
+    );
   }
   return ok ? 0 : 2;
 }

@@ -20,6 +20,7 @@ import { adviseClaim, linkedClaims, linkNote, notSupportedAs, worthReporting, ty
 import type { NotSupportedAs } from '../render/model.js';
 import { withAdjustedInterval } from './words/adjusted.js';
 import { headline } from './adjusted-interval.js';
+import { wordsAgainstFields } from '../claims/wording.js';
 
 export type { ComposeContext } from './words/common.js';
 
@@ -71,7 +72,9 @@ export function composeClaim(a: Analysis, decision: Decision, ctx: ComposeContex
   section.compared = sentence(section.compared);
   section.hypotheses = { null: sentence(section.hypotheses.null), alternative: sentence(section.hypotheses.alternative) };
   section.verdictText = sentence(section.verdictText);
-  section.cautions = section.cautions.map(sentence);
+  // A claim whose own words and fields say different things: said first, since the verdict answers the fields.
+  const mismatched = wordsAgainstFields(a.claim).map((m) => ctx.templates.render('caution.words-fields', { said: m.said }));
+  section.cautions = [...mismatched, ...section.cautions].map(sentence);
   section.numbers = section.numbers.map((row) => ({ ...row, label: sentence(row.label) }));
   const detail = extras.detail;
   const verdictLabel = ctx.templates.render(detail ? `verdict.${decision.verdict}.${detail}` : `verdict.${decision.verdict}`, {});

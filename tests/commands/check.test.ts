@@ -54,6 +54,22 @@ describe('warrant check', () => {
     expect(parsed.problems).toHaveLength(9);
   });
 
+  it("a claim whose words and fields disagree: a warning at the claim, exit 0 (words are read, never certain)", async () => {
+    let out = '';
+    const code = await check({ claims: fx('check-words.yaml'), write: (t) => (out += t) });
+    expect(code).toBe(0);
+    expect(out).toMatch(/^warning: .*check-words\.yaml:11:5: the claim's words say "less" \(lower\), but expect is higher, so the pack tests the opposite of what the words say, in claim "below-tested-higher" \(field "expect", found "less"\)\. Fix: If the words are right, set expect: lower/);
+    expect(out).toMatch(/check-words\.yaml: 2 claims, 1 source, no problems, 1 warning \(a claim's words and its fields say different things; the pack repeats it on the claim's page\)\.\n$/);
+    expect(out).not.toContain('agrees-with-itself');
+    let json = '';
+    expect(await check({ claims: fx('check-words.yaml'), json: true, write: (t) => (json += t) })).toBe(0);
+    const parsed = JSON.parse(json) as { ok: boolean; problems: unknown[]; warnings: Array<Record<string, unknown>> };
+    expect(parsed.ok).toBe(true);
+    expect(parsed.problems).toEqual([]);
+    expect(parsed.warnings).toHaveLength(1);
+    expect(parsed.warnings[0]).toMatchObject({ line: 11, column: 5, field: 'expect', found: 'less' });
+  });
+
   it('a file the schema rejects reports the schema problems and exit 2', async () => {
     let out = '';
     expect(await check({ claims: fx('errors/unknown-kind.yaml'), write: (t) => (out += t) })).toBe(2);

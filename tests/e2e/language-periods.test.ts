@@ -33,13 +33,13 @@ sources:
 const CLAIMS = `
 claims:
   - id: brackenholt-rising
-    claim: Agreement at Brackenholt has risen steadily over five years.
+    claim: Agreement at Brackenholt has moved over five years, one way or the other.
     kind: trend
     where: { Institution: Brackenholt College, Question: Q01 }
     last: 5
     expect: any
   - id: vellmoor-rising
-    claim: Agreement at Vellmoor has risen steadily over five years.
+    claim: Agreement at Vellmoor has moved over five years, one way or the other.
     kind: trend
     where: { Institution: Vellmoor Institute, Question: Q01 }
     last: 5
@@ -77,7 +77,7 @@ describe('trends that rise then fall', () => {
 describe('the finite-population correction, one decision for every figure', () => {
   const compare = (extra: string) => `
   - id: brackenholt-below-vellmoor
-    claim: Fewer Brackenholt students agree on Q01 than Vellmoor students.
+    claim: Brackenholt and Vellmoor students differ in how often they agree on Q01.
     kind: compare
     where: { Year: 2026, Question: Q01 }
     focus: { Institution: Brackenholt College }

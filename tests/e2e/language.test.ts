@@ -98,7 +98,7 @@ const CLAIMS = `
     columns: answers
     expect: related
   - id: harrowfen-against-the-rest
-    claim: Harrowfen students agree on Q01 less often than the rest of the college.
+    claim: Harrowfen students and the rest of the college differ in how often they agree on Q01.
     kind: compare
     source: survey
     where: { Year: 2026, Question: Q01 }

@@ -1,0 +1,253 @@
+/**
+ * Do a claim's own words and its fields say the same thing? The words (`claim:`) are what the pack quotes and a
+ * committee reads; the fields (`expect`, `value`, `margin`, `last`, `from`, `kind`) are what is tested. When they part
+ * (words "below" with `expect: higher`, "the 80% target" with `value: 75%`, "no real difference" tested as a
+ * difference), a verdict is printed under words it does not answer.
+ *
+ * Reading words is never certain ("fewer students disagree" is a higher rate of agreeing), so these are warnings, not
+ * errors: `warrant check` lists them, `warrant build` prints them and the claim's page carries a caution. Each rule
+ * speaks only when the words are plain: one direction and no negation near it, a number the field does not hold.
+ */
+import type { Problem } from '../errors.js';
+import type { Claim, ClaimsFile } from './types.js';
+import { periodsBack } from './amounts.js';
+
+/** One disagreement between a claim's words and one of its fields. */
+export interface WordsMismatch {
+  /** The field the words disagree with, as written in the claims file. */
+  field: 'expect' | 'value' | 'margin' | 'last' | 'periods' | 'from' | 'to' | 'kind';
+  /** The words of the claim that disagree, as written. */
+  words: string;
+  /** The field as written. */
+  written: string;
+  /** For the pack, after "The claim's words": what the words say and what was tested instead. */
+  said: string;
+  /** For the terminal: the problem and the fix, as sentences without a final full stop. */
+  problem: string;
+  fix: string;
+}
+
+type Direction = 'lower' | 'higher';
+
+/** Words that put a rate or score below (or, in a trend, falling) and above (rising). Lower case; phrases allowed. */
+const LOWER = [
+  'below', 'lower', 'less', 'fewer', 'fell', 'fallen', 'fall', 'falls', 'falling', 'decline', 'declined', 'declines', 'declining',
+  'drop', 'dropped', 'drops', 'dropping', 'worse', 'worsened', 'worsening', 'poorer', 'lags', 'lagged', 'lagging', 'behind', 'short of',
+  'smaller', 'decrease', 'decreased', 'decreases', 'decreasing', 'weaker', 'downward', 'slipped', 'shrunk', 'shrank',
+];
+const HIGHER = [
+  'above', 'higher', 'more', 'greater', 'rose', 'risen', 'rise', 'rises', 'rising', 'increase', 'increased', 'increases', 'increasing',
+  'better', 'improve', 'improved', 'improves', 'improving', 'exceed', 'exceeds', 'exceeded', 'exceeding', 'ahead', 'at least',
+  'stronger', 'upward', 'grew', 'grown', 'climbed', 'outperform', 'outperforms', 'outperformed', 'beats', 'surpasses', 'surpassed',
+];
+/** Words that turn a direction round or deny it ("not below", "no longer behind", "no more than"). */
+const NEGATION = /\b(not|no|never|nor|neither|none|cannot|isn't|aren't|wasn't|weren't|hasn't|haven't|didn't|doesn't|don't|won't)\b|n't\b/;
+
+/** Find each phrase of a list in lower-cased words, as whole words; returns the phrases found with their offsets. */
+function findPhrases(text: string, phrases: readonly string[]): Array<{ phrase: string; at: number }> {
+  const found: Array<{ phrase: string; at: number }> = [];
+  for (const p of phrases) {
+    const re = new RegExp(`(^|[^\\p{L}\\p{N}'’-])(${p.replace(/ /g, '\\s+')})(?=$|[^\\p{L}\\p{N}'’-])`, 'gu');
+    for (let m = re.exec(text); m !== null; m = re.exec(text)) found.push({ phrase: m[2]!, at: m.index + m[1]!.length });
+  }
+  return found.sort((a, b) => a.at - b.at);
+}
+
+/**
+ * The direction words of a text, unless it holds a negation anywhere (then it is not plain enough to read: "no longer
+ * below", "not more than"). "more and more" and "fewer and fewer" count once.
+ */
+function directions(text: string): Array<{ dir: Direction; words: string }> | undefined {
+  // "more and more", "fewer and fewer": one word.
+  const plain = text.replace(/\b([a-z]+) and \1\b/g, '$1');
+  const all = [...findPhrases(plain, LOWER).map((f) => ({ ...f, dir: 'lower' as const })), ...findPhrases(plain, HIGHER).map((f) => ({ ...f, dir: 'higher' as const }))].sort(
+    (a, b) => a.at - b.at,
+  );
+  if (NEGATION.test(plain)) return undefined;
+  return all.map((f) => ({ dir: f.dir, words: f.phrase }));
+}
+
+/** The one direction of a text's words, or undefined when there is none, both, or a negation. */
+function oneDirection(text: string): { dir: Direction; words: string } | undefined {
+  const found = directions(text);
+  if (found === undefined || found.length === 0) return undefined;
+  const kinds = new Set(found.map((f) => f.dir));
+  if (kinds.size !== 1) return undefined;
+  return { dir: found[0]!.dir, words: [...new Set(found.map((f) => f.words))].join('", "') };
+}
+
+/** Numbers written with a unit in the text: percents ("80%", "80 per cent") or points ("5 points"). */
+function numbersWith(text: string, unit: 'percent' | 'points'): number[] {
+  const re = unit === 'percent' ? /(\d+(?:\.\d+)?)\s*(?:%|per\s*cent\b|percent\b)/g : /(\d+(?:\.\d+)?)\s*(?:percentage\s+)?(?:points?|pts?|pp)\b/g;
+  const out: number[] = [];
+  for (let m = re.exec(text); m !== null; m = re.exec(text)) out.push(Number(m[1]));
+  return out;
+}
+
+const COUNT_WORDS: Record<string, number> = { two: 2, three: 3, four: 4, five: 5, six: 6, seven: 7, eight: 8, nine: 9, ten: 10 };
+
+/** "three surveys", "4 rounds", "five years": the counts of periods the text names, with their units. */
+function periodCounts(text: string): Array<{ n: number; unit: string; words: string }> {
+  const re = /\b(two|three|four|five|six|seven|eight|nine|ten|\d{1,2})\s+(?:consecutive\s+|successive\s+|annual\s+|straight\s+)?(years?|surveys?|rounds?|waves?|releases?|periods?|cycles?)\b/g;
+  const out: Array<{ n: number; unit: string; words: string }> = [];
+  for (let m = re.exec(text); m !== null; m = re.exec(text)) out.push({ n: COUNT_WORDS[m[1]!] ?? Number(m[1]), unit: m[2]!.replace(/s$/, ''), words: m[0] });
+  return out;
+}
+
+const pct = (v: number): string => `${Number((v * 100).toPrecision(12))}`;
+
+const SAYS_ALIKE = /\b(no (?:real |meaningful |notable |significant |important )?difference|(?:about|roughly|much) the same|equally|similar(?:ly)?|alike|on a par|in line with|within \d+(?:\.\d+)?\s*(?:percentage\s+)?(?:points?|%))/;
+
+/**
+ * Words that make agreeing the unwelcome answer ("fewer students disagree", "less dissatisfied"): a direction in such
+ * words is the reverse of the rate's, so the direction rules keep quiet.
+ */
+const REVERSED = /\b(disagree\w*|dissatisf\w*|unhapp\w*|unsatisf\w*|discontent\w*|complain\w*|dislike\w*|negative\w*)\b/;
+
+/** Every disagreement between a claim's words and its fields (empty when they agree or the words are not plain). */
+export function wordsAgainstFields(claim: Claim): WordsMismatch[] {
+  const text = claim.statement.toLowerCase().replace(/[‘’]/g, "'");
+  const out: WordsMismatch[] = [];
+
+  const directional = claim.kind === 'compare' || claim.kind === 'change' || claim.kind === 'target' || claim.kind === 'means';
+  if (directional || claim.kind === 'trend') {
+    const expect = claim.expect as string;
+    const one = REVERSED.test(text) ? undefined : oneDirection(text);
+    const up = claim.kind === 'trend' ? 'rising' : 'higher';
+    const down = claim.kind === 'trend' ? 'falling' : 'lower';
+    const either = claim.kind === 'trend' ? 'any' : 'different';
+    if (one !== undefined) {
+      const meant = one.dir === 'higher' ? up : down;
+      if (expect !== either && expect !== meant) {
+        out.push({
+          field: 'expect',
+          words: one.words,
+          written: expect,
+          said: `say "${one.words}" (${meant}), but the claim was tested as expecting ${expect}`,
+          problem: `the claim's words say "${one.words}" (${meant}), but expect is ${expect}, so the pack tests the opposite of what the words say`,
+          fix: `If the words are right, set expect: ${meant}; if the test is right, reword the claim (where agreeing is the unwelcome answer, say it in terms of agreeing)`,
+        });
+      } else if (expect === either) {
+        out.push({
+          field: 'expect',
+          words: one.words,
+          written: expect,
+          said: `say "${one.words}" (${meant}), but the claim was tested as expecting any ${claim.kind === 'trend' ? 'trend' : 'difference'}, so a result the other way would also count as support`,
+          problem: `the claim's words say "${one.words}" (${meant}), but expect is ${expect}, which counts a ${claim.kind === 'trend' ? 'trend' : 'difference'} either way as support, the opposite of the words included`,
+          fix: `Set expect: ${meant} to test what the words say, or reword the claim without a direction`,
+        });
+      }
+    }
+  }
+
+  if ((claim.kind === 'compare' || claim.kind === 'means') && claim.expect === 'different') {
+    const m = SAYS_ALIKE.exec(text);
+    if (m !== null) {
+      out.push({
+        field: 'kind',
+        words: m[0],
+        written: claim.kind,
+        said: `say "${m[0]}", but the claim was tested for a difference; a result that is not supported would not show that the two are alike`,
+        problem: `the claim's words say "${m[0]}", but kind ${claim.kind} tests for a difference, and finding none does not show that the two are alike`,
+        fix: 'Write it as kind: equivalence with the margin within which the two count as alike (e.g. margin: 5 points)',
+      });
+    }
+  }
+
+  if (claim.kind === 'target') {
+    const written = numbersWith(text, 'percent');
+    if (written.length > 0 && !written.some((n) => Math.abs(n / 100 - claim.value) < 1e-9)) {
+      const words = `${written.join('%, ')}%`;
+      out.push({
+        field: 'value',
+        words,
+        written: claim.valueWritten,
+        said: `name ${words}, but the claim was tested against ${pct(claim.value)}%`,
+        problem: `the claim's words name ${words}, but value is ${claim.valueWritten}${/%$/.test(claim.valueWritten) ? '' : ` (${pct(claim.value)}%)`}`,
+        fix: `Make value the figure the words name (value: ${written[0]}%), or correct the words`,
+      });
+    }
+  }
+
+  if (claim.kind === 'equivalence') {
+    const written = [...numbersWith(text, 'points'), ...numbersWith(text, 'percent')];
+    if (written.length > 0 && !written.some((n) => Math.abs(n / 100 - claim.margin) < 1e-9)) {
+      const words = written.map((n) => `${n} points`).join(', ');
+      out.push({
+        field: 'margin',
+        words,
+        written: `${pct(claim.margin)} points`,
+        said: `name ${words}, but the claim was tested with a margin of ${pct(claim.margin)} points`,
+        problem: `the claim's words name ${words}, but margin is ${pct(claim.margin)} points`,
+        fix: `Make margin the figure the words name (margin: ${written[0]} points), or correct the words`,
+      });
+    }
+  }
+
+  if (claim.kind === 'trend') {
+    const count = Array.isArray(claim.periods) ? claim.periods.length : claim.periods.last;
+    const field = Array.isArray(claim.periods) ? 'periods' : 'last';
+    for (const c of periodCounts(text)) {
+      // "over three years" may mean three surveys or the three years between four: both are read as agreeing.
+      const fits = c.unit === 'year' ? c.n === count || c.n === count - 1 : c.n === count;
+      if (fits) continue;
+      out.push({
+        field,
+        words: c.words,
+        written: Array.isArray(claim.periods) ? `[${claim.periods.join(', ')}]` : String(count),
+        said: `say "${c.words}", but the claim was tested over ${count} periods`,
+        problem: `the claim's words say "${c.words}", but ${field} gives ${count} periods`,
+        fix: field === 'last' ? `Set last: ${c.unit === 'year' ? `${c.n} (or ${c.n + 1} to span ${c.n} years)` : c.n}, or correct the words` : 'List the periods the words name, or correct the words',
+      });
+      break;
+    }
+  }
+
+  if (claim.kind === 'change') {
+    const lastYear = /\b(last|previous|a) (year|survey|round|wave|release)('s)?\b|\b(a year ago|year on year)\b/.exec(text);
+    const back = periodsBack(claim.from);
+    const toBack = periodsBack(claim.to);
+    if (lastYear !== null && back !== undefined && toBack !== undefined && back - toBack !== 1) {
+      out.push({
+        field: 'from',
+        words: lastYear[0],
+        written: String(claim.from),
+        said: `say "${lastYear[0]}", but the claim compared periods ${back - toBack} apart (from ${String(claim.from)} to ${String(claim.to)})`,
+        problem: `the claim's words say "${lastYear[0]}", but from ${String(claim.from)} and to ${String(claim.to)} are ${back - toBack} periods apart`,
+        fix: toBack === 0 ? 'Set from: previous, or correct the words' : 'Set from one period before to, or correct the words',
+      });
+    }
+    const years = [...text.matchAll(/\b(19|20)\d\d\b/g)].map((m) => m[0]);
+    for (const [key, v] of [['from', claim.from], ['to', claim.to]] as const) {
+      if (years.length > 0 && /^(19|20)\d\d$/.test(String(v).trim()) && !years.includes(String(v).trim())) {
+        out.push({
+          field: key,
+          words: years.join(', '),
+          written: String(v),
+          said: `name ${years.join(' and ')}, but the claim compared ${key === 'from' ? 'from' : 'to'} ${String(v)}`,
+          problem: `the claim's words name ${years.join(' and ')}, but ${key} is ${String(v)}`,
+          fix: `Set ${key} to the year the words name, or correct the words`,
+        });
+      }
+    }
+  }
+  return out;
+}
+
+/**
+ * The disagreements of every claim of a file as problems for the terminal (`warrant check`, `warrant build`), placed
+ * at the claim; they are warnings, never a reason to stop.
+ */
+export function wordsProblems(claims: ClaimsFile, file: string): Problem[] {
+  return claims.claims.flatMap((c) =>
+    wordsAgainstFields(c).map((m) => ({
+      file,
+      line: c.place.line,
+      column: c.place.column,
+      field: m.field,
+      found: m.words,
+      problem: `${m.problem}, in claim "${c.id}"`,
+      fix: m.fix,
+    })),
+  );
+}
