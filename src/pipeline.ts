@@ -405,7 +405,8 @@ async function buildPack(options: BuildOptions, chartsDrawn: () => void): Promis
   const ctx = {
     templates,
     claimsTested,
-    adjustName: ADJUST_NAMES[claims.adjust],
+    // Each claim's method line names the adjustment made: none when only one claim was tested, whatever the file asks.
+    adjustName: ADJUST_NAMES[claims.adjust !== 'none' && claimsTested > 1 ? claims.adjust : 'none'],
     adjusted: claims.adjust !== 'none' && claimsTested > 1,
     minRespondents: claims.minRespondents,
     periodColumns: periodColumns(claims, cubes),

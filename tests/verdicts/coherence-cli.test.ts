@@ -83,6 +83,9 @@ describe('the adjustment for many claims is described as made', () => {
     expect(t).not.toContain('after adjusting for the other claims tested');
     expect(t).not.toContain("Holm's method does this");
     expect(t).toContain('This pack makes none, as only one claim was tested');
+    // The claim's method line agrees with the cover ("None: each claim is judged on its own p-value").
+    expect(t).toContain('95% confidence; no adjustment.');
+    expect(t).not.toContain("Holm's method");
   }, 60_000);
 
   it('Benjamini–Hochberg: the glossary speaks of a false discovery rate, as the method note does', () => {
