@@ -462,6 +462,7 @@ async function buildPack(options: BuildOptions, chartsDrawn: () => void): Promis
     command: options.command ?? `warrant build ${claimsDisplay}`,
     templates,
     sealText: sealed.text,
+    periodColumns: ctx.periodColumns,
   });
   if (diff) model.changes = changeSection(diff, templates);
   if (unreadable) {

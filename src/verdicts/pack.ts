@@ -16,6 +16,7 @@ import type { Templates } from './templates.js';
 import { termDefinitions } from './compose.js';
 import { originText, respondentsByPeriod, respondentsText } from './source.js';
 import { packWorthSizes } from './advice.js';
+import { comparesPeriods, relatesMeasures } from './words/common.js';
 
 /** A template of "Label | meaning" lines (verdict and action definitions). */
 function definitions(templates: Templates, name: string, view: Record<string, unknown>): Array<{ label: string; text: string }> {
@@ -69,6 +70,8 @@ export function composePack(input: {
   templates: Templates;
   /** What the seal beside the claims file proves about when the claims were written (src/verdicts/words/seal.ts). */
   sealText?: string;
+  /** The source columns that hold periods (years), to tell which general cautions apply (words/common.ts). */
+  periodColumns?: string[];
 }): PackModel {
   const { claims, templates } = input;
   const adjustName = ADJUST_NAMES[claims.adjust];
@@ -91,6 +94,9 @@ export function composePack(input: {
     alphaPercent: fmt.level(1 - claims.confidence),
     sealSentence: input.sealText ?? '',
     worthSizes: packWorthSizes(claims),
+    // The general cautions on cohorts between periods and on cause and effect, only where a claim of that sort is made.
+    cohorts: input.analyses.some((a) => comparesPeriods(a, input.periodColumns ?? [])),
+    relations: input.analyses.some(relatesMeasures),
   };
   if (input.sections.some((s) => s.verdictDetail === 'inconclusive' || s.verdictDetail === 'ruled-out')) methodIds.push('worth-reporting');
   const ordered = Object.keys(METHODS).filter((id) => methodIds.includes(id));

@@ -222,3 +222,65 @@ claims:
     expect(pack.text).not.toContain('none within reach');
   }, 60_000);
 });
+
+describe('cautions about cohorts and about cause and effect appear where a claim needs them, and only there', () => {
+  /** Invented respondents: two years, two campuses, answers 1-5 to one question, spread by a fixed rule. */
+  function respondents(): string {
+    const lines = ['Year,Campus,Q1'];
+    for (const year of [2025, 2026]) {
+      for (const campus of ['Harrowfen', 'Lisswater']) {
+        for (let i = 0; i < 60; i++) lines.push(`${year},${campus},${1 + ((i * 7 + (year === 2026 ? 2 : 0) + (campus === 'Lisswater' ? 1 : 0)) % 5)}`);
+      }
+    }
+    return `${lines.join('\n')}\n`;
+  }
+  const head = `title: Cohorts
+organisation: Harrowfen Learners Council
+data_date: 2026-03-01
+sources:
+  r:
+    file: answers.csv
+    shape: respondents
+    questions: [Q1]
+    question_column: Question
+    period: Year
+claims:
+`;
+
+  it('a crosstab of the answers by year, and a comparison of mean scores between years, carry the cohorts caution', () => {
+    const dir = join(work, 'cohorts');
+    mkdirSync(dir, { recursive: true });
+    writeFileSync(join(dir, 'answers.csv'), respondents());
+    const yaml = `${head}  - id: answers-by-year
+    claim: The answers to Q1 shifted between 2025 and 2026.
+    kind: crosstab
+    source: r
+    where: { Question: Q1 }
+    rows: Year
+    columns: answers
+    expect: related
+  - id: mean-by-year
+    claim: The mean score on Q1 rose between 2025 and 2026.
+    kind: means
+    source: r
+    where: { Question: Q1 }
+    focus: { Year: 2026 }
+    against: { Year: 2025 }
+    expect: higher
+`;
+    const pack = buildPack(dir, yaml);
+    const [crosstab, means] = pack.results.claims as Array<Record<string, any>>;
+    expect(crosstab!.cautions.join(' ')).toContain("Each period's respondents are treated as a separate sample");
+    expect(means!.cautions.join(' ')).toContain("The two years' respondents are treated as separate samples");
+    // The pack makes claims across years and a claim of a relation (a crosstab): both general cautions apply.
+    expect(pack.text).toContain('A change between years compares two groups of respondents that may overlap');
+    expect(pack.text).toContain('An association between two measures does not show that one causes the other');
+  }, 60_000);
+
+  it('a pack of comparisons within one year says nothing of changes between years or of cause and effect', () => {
+    const pack = build('within-year', header('holm') + compareClaim('q1-higher', 'Q1') + compareClaim('q2-higher', 'Q2'));
+    expect(pack.text).not.toContain('A change between years compares');
+    expect(pack.text).not.toContain('An association between two measures');
+    expect(pack.text).toContain('Every interval and verdict assumes the respondents are like a random sample');
+  }, 60_000);
+});

@@ -56,6 +56,27 @@ export function restOfGroupCaution(
   return [t.render('caution.rest-of-group', { inner, outer, restN: fmt.count(restN) })];
 }
 
+/**
+ * Whether a claim sets respondents of different periods against each other, so that the cohorts caution applies:
+ * change and trend always; a comparison of two selections (compare, means, equivalence) whose focus and against
+ * both name a period; a crosstab whose rows or columns are a period column. The general cautions speak of cohorts
+ * only in a pack that has such a claim.
+ */
+export function comparesPeriods(a: Analysis, periodColumns: readonly string[]): boolean {
+  if (a.kind === 'change' || a.kind === 'trend') return true;
+  const c = a.claim as unknown as { focus?: Filter; against?: Filter; rows?: string[]; columns?: string | string[] };
+  if ((a.kind === 'compare' || a.kind === 'means' || a.kind === 'equivalence') && c.focus && c.against) {
+    return periodColumns.some((p) => p in (c.focus as Filter) && p in (c.against as Filter));
+  }
+  if (a.kind === 'crosstab') return periodColumns.some((p) => (c.rows ?? []).includes(p) || (Array.isArray(c.columns) && c.columns.includes(p)));
+  return false;
+}
+
+/** True for a claim of a relation between two measures or variables (association, crosstab): causation caution. */
+export function relatesMeasures(a: Analysis): boolean {
+  return a.kind === 'association' || a.kind === 'crosstab';
+}
+
 export function scopeText(where: Filter, naming?: Naming): string {
   return Object.keys(where).length > 0 ? filterLabel(where, naming) : '';
 }

@@ -5,7 +5,7 @@ import { filterLabel } from '../../analyse/labels.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, detectableLabel, differenceView, pView, rateCautions, rateRow, rateView, restOfGroupCaution, sharedDigits, scopeText, tooLittle, twoRateTestName, type ComposeContext, type Composed } from './common.js';
+import { commonRows, comparesPeriods, detectableLabel, differenceView, pView, rateCautions, rateRow, rateView, restOfGroupCaution, sharedDigits, scopeText, tooLittle, twoRateTestName, type ComposeContext, type Composed } from './common.js';
 
 export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
@@ -53,7 +53,7 @@ export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: Comp
     { label: detectableLabel('difference', decision), value: view.detectable ? `about ${view.detectable} points` : 'none within reach of these samples' },
   ];
   const cautions: string[] = restOfGroupCaution(a.relation, claim, { focus: a.focus.n, against: a.against.n }, t);
-  if (ctx.periodColumns.some((c) => c in claim.focus && c in claim.against)) cautions.push(t.render('caution.cohorts', {}));
+  if (comparesPeriods(a, ctx.periodColumns)) cautions.push(t.render('caution.cohorts', {}));
   cautions.push(...rateCautions([a.focus, a.against], a.responseRate, t));
   if (a.methods.includes('fisher-exact-2x2')) cautions.push(t.render('caution.fisher', {}));
   const chart: Chart = {

@@ -6,7 +6,7 @@ import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
 import { unitWords } from './association.js';
 import { questionWords } from '../../analyse/labels.js';
-import { commonRows, detectableLabel, pView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, comparesPeriods, detectableLabel, pView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 /** Test names for people, by method machine name. */
 const TEST_NAMES: Record<string, string> = {
@@ -72,6 +72,7 @@ export function composeCrosstab(a: CrosstabAnalysis, decision: Decision, ctx: Co
   if (a.suppressedRows.length > 0) cautions.push(t.render('crosstab.caution-suppressed', { names: a.suppressedRows.join(', '), minRespondents: claim.minRespondents }));
   if (a.test.method.startsWith('fisher')) cautions.push(t.render('caution.fisher', {}));
   if (a.fisherTooLarge) cautions.push(t.render('crosstab.caution-fisher-too-large', {}));
+  if (comparesPeriods(a, ctx.periodColumns)) cautions.push(t.render('crosstab.caution-cohorts', {}));
   // With answers as the columns, the legend names each code in the scale's wording where the source gives it.
   const answerWords = a.answers !== undefined ? claim.naming?.answers : undefined;
   const partLabel = (col: string): string => (answerWords?.[col] !== undefined ? `${col} ${answerWords[col] as string}` : col);

@@ -5,7 +5,7 @@ import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, pView, rateCautions, rateRow, rateView, restOfGroupCaution, sharedDigits, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, comparesPeriods, pView, rateCautions, rateRow, rateView, restOfGroupCaution, sharedDigits, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 export function composeEquivalence(a: EquivalenceAnalysis, decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
@@ -51,6 +51,7 @@ export function composeEquivalence(a: EquivalenceAnalysis, decision: Decision, c
     ...commonRows(a, decision, ctx),
   ];
   const cautions: string[] = restOfGroupCaution(a.relation, claim, { focus: a.focus.n, against: a.against.n }, t);
+  if (comparesPeriods(a, ctx.periodColumns)) cautions.push(t.render('caution.cohorts', {}));
   cautions.push(...rateCautions([a.focus, a.against], a.responseRate, t));
   const chart: Chart = {
     data: { kind: 'difference', value: d.value, lower: e.lower, upper: e.upper, margin: claim.margin, axisTitle: `Difference, ${a.focus.label} minus ${a.against.label} (points)`, intervalLabel: `${view.tostLevel} interval (1 − 2α)` },

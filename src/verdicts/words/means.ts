@@ -8,7 +8,7 @@ import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, detectableLabel, pView, thresholdText, restOfGroupCaution, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, comparesPeriods, detectableLabel, pView, thresholdText, restOfGroupCaution, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 /** A mean score or a difference in scale points: two decimals, proper minus sign. */
 export function scalePoints(value: number, options: { sign?: boolean; digits?: number } = {}): string {
@@ -122,6 +122,7 @@ export function composeMeans(a: MeansAnalysis, decision: Decision, ctx: ComposeC
       : []),
   ];
   const cautions: string[] = restOfGroupCaution(a.relation, claim, { focus: a.focus.n, against: a.against.n }, t);
+  if (comparesPeriods(a, ctx.periodColumns)) cautions.push(t.render('caution.cohorts', {}));
   // Cohen's d's interval assumes equal spreads (Student's t); where, at the level that decided the verdict, it and the
   // interval for the difference disagree about whether no difference is inside, say which one goes with the verdict.
   const dDecisive = dAdjusted ?? a.cohensDInterval;
