@@ -125,6 +125,20 @@ class Problems {
   }
 }
 
+/**
+ * The largest count of people a row may hold: more people than live on Earth is no survey's count but a misread cell
+ * (an ID, a sum of money, a number in exponent form). Counts above it would also leave whole numbers behind: from
+ * 2^53 (about 9 * 10^15) a double cannot hold every whole number, and 1e300 passes as "a whole number".
+ */
+export const MAX_COUNT = 10_000_000_000;
+
+/**
+ * The largest size of a value in a numeric column (a ratio, a spend, a score): beyond it the sums of squares behind
+ * a correlation or a line lose every digit or overflow to Infinity (a value of 1e306 stopped a build as a predictor
+ * "(almost) a linear combination of the ones before it").
+ */
+export const MAX_NUMERIC = 1e15;
+
 /** A number written in decimal (optionally with an exponent); hexadecimal, "Infinity" and the like are not numbers here. */
 const DECIMAL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 
@@ -165,6 +179,10 @@ function parseCount(text: string, row: number, field: string, problems: Problems
     problems.add({ row, field, found: text, problem: 'A count is not a whole number', fix: 'Write the number of people as a whole number; if this is a percentage, name the column with agree_percent instead' });
     return undefined;
   }
+  if (x > MAX_COUNT) {
+    problems.add({ row, field, found: text, problem: 'A count is larger than any survey could hold (more than 10,000,000,000 people, more than live on Earth)', fix: 'Check the cell: it may hold another figure (an ID, a sum of money, a date); write the number of people as digits' });
+    return undefined;
+  }
   return x;
 }
 
@@ -203,6 +221,10 @@ function parseNumeric(text: string, row: number, field: string, problems: Proble
       problem: 'A value in a numeric column is not a number',
       fix: `Write a number such as 4.2${style.decimalComma ? ' or 4,2' : ''}, or leave the cell blank where there is no value; remove notes, units and markers from the cell`,
     });
+    return undefined;
+  }
+  if (Math.abs(x) > MAX_NUMERIC) {
+    problems.add({ row, field, found: text, problem: 'A value in a numeric column is too large to compute with (more than 10^15, a thousand million million, in size)', fix: 'Check the cell: it may hold another figure (an ID, a number in the wrong unit); write the value the column measures, or leave the cell blank where there is none' });
     return undefined;
   }
   return x;

@@ -685,6 +685,39 @@ const cases: Case[] = [
     message:
       'claims.yaml:15:28: no row of source "results" has this value in column "Department", in claim "hanes-above-lacina" (field "Department", found "Brithŵyr\u00a0Vale"). Fix: Did you mean "Brithŵyr Vale"? They look the same but differ in their Unicode form (special spaces, invisible characters, ligatures or full-width letters): retype the name. The values of "Department" found are "Hanes", "Łacina", "Brithŵyr Vale".',
   },
+  {
+    what: 'a count of 1e300 respondents, a whole number to JavaScript',
+    group: 'refuse nonsense',
+    cousin: true,
+    setup: (dir) => summaryCase(dir, undefined, CSV.replace('Hanes,2025,50,30', 'Hanes,2025,1e300,30')),
+    message:
+      'data.csv, row 2: A count is larger than any survey could hold (more than 10,000,000,000 people, more than live on Earth) (field "Respondents", found "1e300"). Fix: Check the cell: it may hold another figure (an ID, a sum of money, a date); write the number of people as digits.',
+  },
+  {
+    what: 'a workbook count beyond the whole numbers a double holds',
+    group: 'refuse nonsense',
+    cousin: true,
+    setup: (dir) => writeXlsxCase(dir, workbook({ name: 'xl/worksheets/sheet1.xml', data: Buffer.from(SHEET_HEAD + SHEET_ROWS.replace('<c r="B3"><v>40</v></c><c r="C3"><v>20</v></c>', '<c r="B3"><v>1E+23</v></c><c r="C3"><v>99999999999999991611392</v></c>') + SHEET_TAIL) })),
+    message:
+      'data.xlsx, sheet "Results", row 3: A count is larger than any survey could hold (more than 10,000,000,000 people, more than live on Earth) (field "Respondents", found "1e+23"). Fix: Check the cell: it may hold another figure (an ID, a sum of money, a date); write the number of people as digits.\n\n' +
+      'data.xlsx, sheet "Results", row 3: A count is larger than any survey could hold (more than 10,000,000,000 people, more than live on Earth) (field "Agreeing", found "1e+23"). Fix: Check the cell: it may hold another figure (an ID, a sum of money, a date); write the number of people as digits.',
+  },
+  {
+    what: 'a numeric column holding 1e306, whose squares overflow',
+    group: 'refuse nonsense',
+    cousin: true,
+    setup: (dir) => {
+      const rows = ['Hanes', 'Łacina', 'Brithŵyr', 'Morva', 'Tallis', 'Brenn'].map((d, i) => `${d},Q1,100,${40 + 3 * i},${i === 2 ? '1e306' : 10 + i}`);
+      writeFileSync(join(dir, 'data.csv'), `Department,Question,Respondents,Agreeing,Ratio\n${rows.join('\n')}\n`);
+      writeFileSync(
+        join(dir, 'claims.yaml'),
+        HEAD + SUMMARY_SOURCE('data.csv', '    numeric: [Ratio]\n') +
+          'claims:\n  - id: ratio-with-agree\n    claim: Departments with more staff per student agree more.\n    kind: association\n    units: Department\n    x: { Question: Q1 }\n    x_measure: { column: Ratio }\n    y: { Question: Q1 }\n    expect: positive\n',
+      );
+    },
+    message:
+      'data.csv, row 4: A value in a numeric column is too large to compute with (more than 10^15, a thousand million million, in size) (field "Ratio", found "1e306"). Fix: Check the cell: it may hold another figure (an ID, a number in the wrong unit); write the value the column measures, or leave the cell blank where there is none.',
+  },
 ];
 
 // ---- running ---------------------------------------------------------------------------------------------------------
