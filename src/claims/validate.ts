@@ -6,6 +6,7 @@ import type { ErrorObject } from 'ajv';
 import type { Problem } from '../errors.js';
 import { claimsSchema, claimsValidator, type JsonSchema } from './schema.js';
 import { closest } from '../suggest.js';
+import { KIND_WORDS, meantExpect, meantKind } from './meant.js';
 import { locate, type ParsedYaml } from './yaml.js';
 
 type Segment = string | number;
@@ -231,6 +232,12 @@ function toProblem(e: ErrorObject, path: Segment[], parsed: ParsedYaml, file: st
         p.fix = `Remove ${field}`;
         return p;
       }
+      if (isClaim && (current === 'change' || current === 'trend') && (field === 'focus' || field === 'against')) {
+        // Two groups followed over periods: "the gap between part-time and full-time students narrowed".
+        p.problem = `"${field}" does not apply to ${article(current)} ${current} claim, which follows one selection (where) over periods, in ${describeOwner(data, owner)}; warrant has no claim that a gap between two groups changed between periods (narrowed or widened)`;
+        p.fix = `To follow one group, put its filter in where and delete focus and against; to compare two groups, use kind: compare in one period (where: { Year: latest }), one claim per period if both matter. Neither says whether the gap itself changed, so do not claim that it did`;
+        return p;
+      }
       p.problem = `"${field}" does not apply when ${selector} is ${current}${belongs ? ` (it belongs with ${belongs})` : ''}, in ${describeOwner(data, owner)}`;
       p.fix = belongs ? `Remove ${field}, or change the line to ${belongs} if that is what you meant` : `Remove ${field}`;
       return p;
@@ -340,6 +347,21 @@ function toProblem(e: ErrorObject, path: Segment[], parsed: ParsedYaml, file: st
       p.problem = `${foundWords(value)} is not an allowed value of ${field}${forKind} in ${describeOwner(data, path.slice(0, -1))}`;
       const guess = typeof value === 'string' ? closest(value, allowed) : undefined;
       p.fix = `Use one of: ${allowed.join(', ')}${guess !== undefined ? ` (did you mean ${guess}?)` : ''}`;
+      // A word of the user's own for a kind or a direction: name the one meant, or say plainly what no kind can claim.
+      if (field === 'kind' && path[0] === 'claims' && typeof value === 'string' && guess === undefined) {
+        const meant = meantKind(value);
+        const list = allowed.map((k) => `${k} (${KIND_WORDS[k] ?? k})`).join(', ');
+        if (meant !== undefined && 'kind' in meant) p.fix = `Did you mean ${meant.kind} (${KIND_WORDS[meant.kind]})? Write kind: ${meant.kind}`;
+        else if (meant !== undefined) {
+          p.problem += `: ${meant.why}`;
+          p.fix = meant.instead;
+        } else p.fix = `Use one of: ${list}`;
+      }
+      if (field === 'expect' && path[0] === 'claims' && typeof value === 'string' && guess === undefined) {
+        const meant = meantExpect(value, allowed);
+        if (meant !== undefined && 'value' in meant) p.fix = `Did you mean ${meant.value}? Write expect: ${meant.value} (one of: ${allowed.join(', ')})`;
+        else if (meant !== undefined) p.fix = `Use one of: ${allowed.join(', ')}; ${meant.other}`;
+      }
       return p;
     }
     case 'pattern': {

@@ -59,7 +59,7 @@ const failures: Case[] = [
     what: 'unknown claim kind',
     folder: 'claims-unknown-kind',
     message:
-      'claims.yaml:13:11: "comparison" is not an allowed value of kind in claim "hanes-above-lacina" (field "kind", found "comparison"). Fix: Use one of: compare, association, change, trend, target, crosstab, means, equivalence, estimate.',
+      'claims.yaml:13:11: "comparison" is not an allowed value of kind in claim "hanes-above-lacina" (field "kind", found "comparison"). Fix: Did you mean compare (two selections\' rates)? Write kind: compare.',
   },
   {
     what: 'missing field (against, in a compare claim)',

@@ -241,12 +241,12 @@ const cases: Array<{ name: string; file: string; line: number; column: number; f
     phrases: ['"feedback-below-region" is used twice', 'line 16', 'line 10, column 9'],
   },
   {
-    name: 'unknown kind lists the allowed kinds',
+    name: 'unknown kind: another name for a kind names the kind meant',
     file: 'errors/unknown-kind.yaml',
     line: 12,
     column: 11,
     field: 'kind',
-    phrases: ['"comparison" is not an allowed value of kind', 'Use one of: compare, association'],
+    phrases: ['"comparison" is not an allowed value of kind', "Did you mean compare (two selections' rates)? Write kind: compare"],
   },
   {
     name: 'missing data file, with the near-miss name in the folder',
@@ -343,7 +343,7 @@ describe('all problems are reported at once, in file order', () => {
     expect(byField(4)).toContain('Did you mean "min_respondents"?');
     expect(byField(16)).toContain('gives both agree and agree_percent');
     expect(byField(27)).toContain('put true/false or dates in quotes');
-    expect(byField(28)).toContain('Use one of: lower, higher, different');
+    expect(byField(28)).toContain('Did you mean higher? Write expect: higher (one of: lower, higher, different)');
     expect(byField(31)).toContain('Did you mean "results"?');
     expect(byField(35)).toContain('Write it as corr-one');
     expect(byField(48)).toContain('it belongs with kind: compare');

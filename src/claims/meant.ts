@@ -1,0 +1,87 @@
+/**
+ * What a word written where warrant expects one of its own names probably meant: the claim kinds people call by other
+ * names (a "correlation" is an association, a "benchmark" a target), the claims no kind can say (a place in a
+ * ranking, a gap that narrowed, every unit at once) with what can be said instead, and the directions people write
+ * in their own words ("below", "fell"). Used by the schema messages (src/claims/validate.ts) so that a refusal leads
+ * to the form meant.
+ */
+
+/** The word as a key: lower case, spaces and underscores as hyphens. */
+function key(word: string): string {
+  return word.trim().toLowerCase().replace(/[\s_]+/g, '-');
+}
+
+const KIND_SYNONYMS: Record<string, string[]> = {
+  compare: ['comparison', 'compared', 'versus', 'vs', 'gap', 'difference', 'differ', 'two-proportions', 'z-test'],
+  association: ['correlation', 'correlate', 'correlates', 'correlated', 'relationship', 'relation', 'related', 'regression', 'scatter', 'associated', 'pearson', 'spearman'],
+  change: ['year-on-year', 'yoy', 'since', 'before-after', 'change-over-time', 'fall', 'rise', 'improvement', 'decline'],
+  trend: ['trends', 'over-time', 'time-series', 'steady', 'trajectory', 'cochran-armitage'],
+  target: ['benchmark', 'threshold', 'goal', 'standard', 'kpi', 'at-least', 'minimum', 'one-sample'],
+  crosstab: ['chi-square', 'chisq', 'chi-squared', 'contingency', 'table', 'cross-tab', 'cross-tabulation', 'distribution', 'spread', 'breakdown'],
+  means: ['mean', 'average', 'averages', 'score', 'scores', 'mean-score', 't-test', 'ttest', 'welch', 'mann-whitney'],
+  equivalence: ['equal', 'equality', 'same', 'similar', 'no-difference', 'parity', 'tost', 'alike', 'equivalent'],
+  estimate: ['proportion', 'percentage', 'percent', 'rate', 'share', 'figure', 'margin-of-error', 'interval', 'confidence-interval', 'descriptive'],
+};
+
+/** Kinds of claim warrant has no test for, with what can be claimed instead. */
+const UNSAYABLE: Array<{ words: string[]; why: string; instead: string }> = [
+  {
+    words: ['rank', 'ranking', 'rankings', 'ranked', 'top', 'top-third', 'top-quarter', 'league', 'league-table', 'position', 'percentile', 'quartile', 'tercile', 'best', 'worst'],
+    why: 'warrant has no claim of a place in a ranking ("in the top third"): a place depends on every other unit\'s result and its sampling error, and no test here gives it an interval',
+    instead: 'Claim what the place stands for: kind: compare with against: rest (above the rest of the group), or kind: target with value: the rate that marks the top third',
+  },
+  {
+    words: ['interaction', 'diff-in-diff', 'difference-in-differences', 'did', 'gap-change', 'gap-narrowed', 'narrowed', 'narrowing', 'widened', 'widening', 'closing-gap', 'gap-closed'],
+    why: 'warrant has no claim that a gap between two groups changed between periods (narrowed or widened)',
+    instead: 'Write a compare claim of the gap in each period, or a change claim for each group; neither says whether the gap itself changed, so do not claim that it did',
+  },
+  {
+    words: ['each', 'every', 'all', 'for-each', 'per-unit', 'every-unit', 'all-units', 'none'],
+    why: 'no kind tests every unit at once ("no subject is more than 5 points from the institution")',
+    instead: 'Write one claim for each unit (for instance one equivalence claim per subject, each with margin: 5 points, against: rest); the adjustment for many claims then applies across them',
+  },
+];
+
+/** What an unknown kind probably meant: a kind of warrant's, or a claim no kind can say and what to write instead. */
+export function meantKind(word: string): { kind: string } | { why: string; instead: string } | undefined {
+  const k = key(word);
+  for (const [kind, words] of Object.entries(KIND_SYNONYMS)) if (words.includes(k)) return { kind };
+  for (const u of UNSAYABLE) if (u.words.includes(k)) return { why: u.why, instead: u.instead };
+  return undefined;
+}
+
+/** Each kind in a few words, for the list of kinds in a message. */
+export const KIND_WORDS: Record<string, string> = {
+  compare: 'two selections\' rates',
+  association: 'two measures across units, a correlation',
+  change: 'one selection between two periods',
+  trend: 'a steady rise or fall over three or more periods',
+  target: 'a selection against a fixed value or benchmark',
+  crosstab: 'a table of counts, related or not',
+  means: 'mean scores of two selections',
+  equivalence: 'two rates within a margin, no real difference',
+  estimate: 'a figure with its margin of error',
+};
+
+const LOWER = ['below', 'less', 'fewer', 'worse', 'down', 'decrease', 'decreased', 'decreasing', 'fell', 'fall', 'falls', 'fallen', 'declined', 'decline', 'dropped', 'drop', 'smaller', 'under', 'lower-than', 'less-than', 'negative'];
+const HIGHER = ['above', 'more', 'greater', 'better', 'up', 'increase', 'increased', 'increasing', 'rose', 'rise', 'rises', 'risen', 'improved', 'improve', 'bigger', 'over', 'exceeds', 'higher-than', 'more-than', 'positive'];
+const EITHER = ['differ', 'differs', 'difference', 'two-sided', 'either', 'both', 'unequal', 'not-equal', 'changed', 'change', 'moved', 'related', 'any-direction'];
+
+/**
+ * The allowed value of expect a word written in its place probably meant, for a claim of the given kind (allowed: the
+ * values it accepts), or a sentence when the word asks for another kind ("same" is an equivalence claim).
+ */
+export function meantExpect(word: string, allowed: readonly string[]): { value: string } | { other: string } | undefined {
+  const k = key(word);
+  const pick = (...vs: string[]): { value: string } | undefined => {
+    const v = vs.find((x) => allowed.includes(x));
+    return v !== undefined ? { value: v } : undefined;
+  };
+  if (LOWER.includes(k)) return pick('lower', 'falling', 'negative');
+  if (HIGHER.includes(k)) return pick('higher', 'rising', 'positive');
+  if (EITHER.includes(k)) return pick('different', 'any', 'related');
+  if (['same', 'equal', 'similar', 'none', 'no-difference', 'alike', 'equivalent'].includes(k)) {
+    return { other: 'to claim that there is no real difference, use kind: equivalence with a margin (e.g. margin: 5 points), which has no expect' };
+  }
+  return undefined;
+}
