@@ -86,6 +86,7 @@ export function analyseCompare(claim: CompareClaim, cube: Cube, ctx: CompareCont
     relation,
     expectSign: expectSign as 1 | -1 | 0,
     methods: [] as string[],
+    compared: { focus: focusName, against: againstLabel },
   };
   const why = shortfall(claim, [
     { label: focusName, pooled: focusPooled },

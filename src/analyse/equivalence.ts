@@ -63,7 +63,7 @@ export function analyseEquivalence(claim: EquivalenceClaim, cube: Cube, ctx: Com
   const N2 = population(againstPooled);
   const corrected = wanted?.used === true && N1 !== undefined && N2 !== undefined;
   const fpc = wanted === undefined ? undefined : corrected || wanted.used === false ? wanted : { used: false as const, why: 'no-population' as const };
-  const base = { kind: 'equivalence' as const, claim, relation: related.relation, expectSign: 0 as const, methods: [] as string[], ...(fpc !== undefined ? { fpc } : {}) };
+  const base = { kind: 'equivalence' as const, claim, relation: related.relation, expectSign: 0 as const, methods: [] as string[], compared: { focus: focusLabel, against: againstLabel }, ...(fpc !== undefined ? { fpc } : {}) };
   const why = shortfall(claim, [
     { label: focusLabel, pooled: focusPooled },
     { label: againstLabel, pooled: againstPooled },

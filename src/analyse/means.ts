@@ -82,7 +82,7 @@ export function analyseMeans(claim: MeansClaim, cube: Cube, ctx: CompareContext)
   const fp: Pooled = poolCells(cube, focusCells);
   const ap: Pooled = poolCells(cube, againstCells);
   const expectSign = claim.expect === 'lower' ? -1 : claim.expect === 'higher' ? 1 : 0;
-  const base = { kind: 'means' as const, claim, relation: related.relation, expectSign: expectSign as 1 | -1 | 0, methods: [] as string[] };
+  const base = { kind: 'means' as const, claim, relation: related.relation, expectSign: expectSign as 1 | -1 | 0, methods: [] as string[], compared: { focus: focusLabel, against: againstLabel } };
   const tooLittle = (why: string): MeansAnalysis => ({ ...base, status: 'too-little-data', shortfall: why, observedSign: 0 });
   for (const p of [fp, ap]) {
     if (p.n > 0 && !p.codes) {

@@ -54,6 +54,11 @@ interface AnalysisBase {
   /** Method machine names used (the test, the intervals), for the method notes. */
   methods: string[];
   /**
+   * Two-selection kinds (compare, means, equivalence): the two groups as compared, named as their rates are ("the
+   * rest of the region" where one selection holds the other, or `against: rest`), also when too few answered.
+   */
+  compared?: { focus: string; against: string };
+  /**
    * The estimate and the smallest difference that matters, in the same units, when the claim sets one
    * (claim.smallestDifference). 'points' are proportion units (0.05 = 5 points); 'scale points' are answer-scale
    * units (for mean scores the fraction is read as a share of the scale's range: 0.05 on a 1-5 scale is 0.2).

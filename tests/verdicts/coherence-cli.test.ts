@@ -284,3 +284,38 @@ claims:
     expect(pack.text).toContain('Every interval and verdict assumes the respondents are like a random sample');
   }, 60_000);
 });
+
+describe('a claim with too few respondents names its groups as a tested one would', () => {
+  it('the rest of a group stays "the rest" (or "everyone else") in what was compared and the hypotheses', () => {
+    const dir = join(work, 'rest-too-few');
+    mkdirSync(dir, { recursive: true });
+    writeFileSync(join(dir, 'release.csv'), ['Unit,Region,Question,Respondents,Agreeing', 'Tarnhollow,Marsh Reach,Q1,6,3', 'Bexley Fen,Marsh Reach,Q1,300,150', ''].join('\n'));
+    const claim = (id: string, against: string) => `  - id: ${id}
+    claim: Tarnhollow agrees less than the rest of Marsh Reach on Q1.
+    kind: compare
+    source: s
+    where: { Question: Q1 }
+    focus: { Unit: Tarnhollow }
+    against: ${against}
+    expect: lower
+`;
+    const yaml = `title: Too few
+organisation: Marsh Reach Forum
+data_date: 2026-03-01
+sources:
+  s:
+    file: release.csv
+    shape: summary
+    respondents: Respondents
+    agree: Agreeing
+claims:
+${claim('against-rest', 'rest')}${claim('against-region', '{ Region: Marsh Reach }')}`;
+    const pack = buildPack(dir, yaml);
+    expect(pack.results.claims.map((c) => c.verdict)).toEqual(['too-little-data', 'too-little-data']);
+    expect(pack.text).toContain('Compared Tarnhollow against everyone else, for Q1.');
+    expect(pack.text).toContain('Compared Tarnhollow against the rest of Marsh Reach, for Q1.');
+    expect(pack.text).toContain('The agreement rate in Tarnhollow is the same as in the rest of Marsh Reach.');
+    expect(pack.text).not.toContain('against all respondents');
+    expect(pack.text).not.toContain('Tarnhollow against Marsh Reach');
+  }, 60_000);
+});

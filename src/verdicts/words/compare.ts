@@ -12,8 +12,8 @@ export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: Comp
   const claim = a.claim;
   const expectWord = claim.expect === 'lower' ? 'lower' : claim.expect === 'higher' ? 'higher' : '';
   const oneSided = a.test ? a.test.alternative !== 'two-sided' : claim.sided === 'one-sided' && claim.expect !== 'different';
-  const focusLabel = a.focus?.label ?? claim.focusLabel ?? filterLabel(claim.focus, claim.naming);
-  const againstLabel = a.against?.label ?? claim.againstLabel ?? filterLabel(claim.against, claim.naming);
+  const focusLabel = a.focus?.label ?? a.compared?.focus ?? claim.focusLabel ?? filterLabel(claim.focus, claim.naming);
+  const againstLabel = a.against?.label ?? a.compared?.against ?? claim.againstLabel ?? filterLabel(claim.against, claim.naming);
   const labelsOnly = { focus: { label: focusLabel }, against: { label: againstLabel }, expectWord, oneSided };
   const hypotheses = { null: t.render('compare.null', labelsOnly), alternative: t.render('compare.alternative', labelsOnly) };
   if (a.status === 'too-little-data' || !a.focus || !a.against || !a.difference || !a.test) {

@@ -11,8 +11,8 @@ export function composeEquivalence(a: EquivalenceAnalysis, decision: Decision, c
   const t = ctx.templates;
   const claim = a.claim;
   const margin = fmt.pointsSize(claim.margin);
-  const focusLabel = a.focus?.label ?? claim.focusLabel ?? filterLabel(claim.focus, claim.naming);
-  const againstLabel = a.against?.label ?? claim.againstLabel ?? filterLabel(claim.against, claim.naming);
+  const focusLabel = a.focus?.label ?? a.compared?.focus ?? claim.focusLabel ?? filterLabel(claim.focus, claim.naming);
+  const againstLabel = a.against?.label ?? a.compared?.against ?? claim.againstLabel ?? filterLabel(claim.against, claim.naming);
   const labelsOnly = { focus: { label: focusLabel }, against: { label: againstLabel }, margin };
   const hypotheses = { null: t.render('equivalence.null', labelsOnly), alternative: t.render('equivalence.alternative', labelsOnly) };
   if (a.status === 'too-little-data' || !a.focus || !a.against || !a.difference || !a.test || !a.equivalenceInterval) {
