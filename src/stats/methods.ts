@@ -53,6 +53,21 @@ export const METHODS: Record<string, MethodInfo> = {
     text: 'An interval for the difference between two independent rates, built from the two Wilson intervals. It keeps close to its stated coverage even for small groups and extreme rates.',
     source: 'Newcombe, R. G. (1998). Interval estimation for the difference between independent proportions: comparison of eleven methods. Statistics in Medicine 17, 873–890 (method 10).',
   },
+  'difference-of-differences-z': {
+    name: 'z test of a change in a gap',
+    text: 'Tests whether the gap between two groups’ rates changed from one period to another: the later gap minus the earlier one, over its standard error from the four groups’ own variances (each period answered by a different cohort, so the four rates are independent samples). A large-sample test: it needs each group to have at least about five agreeing and five not agreeing.',
+    source: 'Agresti, A. (2013). Categorical Data Analysis, 3rd ed., Wiley, §3.1, the standard error of a difference of independent proportions, here summed over two differences.',
+  },
+  'mover-wilson': {
+    name: 'Hybrid score interval for a change in a gap',
+    text: 'An interval for the change in the gap between two groups, built from the four Wilson intervals as Newcombe’s interval is built from two (the method of variance estimates recovery). It keeps close to its stated coverage for small groups and rates near 0% or 100%, where the plain Wald interval does not.',
+    source: 'Zou, G. Y. and Donner, A. (2008). Construction of confidence limits about effect measures: a general approach. Statistics in Medicine 27, 1693–1702; Newcombe, R. G. (1998). Statistics in Medicine 17, 873–890 (method 10).',
+  },
+  'gap-size-iut': {
+    name: 'Test that a gap narrowed or widened',
+    text: 'A gap narrowed when the later gap is closer to zero than the earlier one, whichever group is ahead. That is tested as two z tests that must both find their way: the change in the gap points back towards zero, and the later gap has not crossed beyond the earlier gap’s size on the other side (for widened: the change points away from zero on the side the later gap is on). Each is held to the two-sided threshold, because which group is ahead is read from the data, so the test keeps its stated level even when the earlier gap is near zero.',
+    source: 'Berger, R. L. (1982). Multiparameter hypothesis testing and acceptance sampling. Technometrics 24, 295–300 (the intersection–union test); Berger, R. L. and Hsu, J. C. (1996). Statistical Science 11, 283–319.',
+  },
   'power-two-proportions': {
     name: 'Smallest detectable difference',
     text: 'The smallest difference between two rates that a test of this kind, with these group sizes, would find 80% of the time, at the threshold that actually decided the verdict (after the adjustment for many claims, the threshold each claim was held to is smaller than one minus the confidence level, so the detectable difference is larger). It tells how large a difference a claim that is not supported could still hide.',
@@ -255,7 +270,7 @@ export const METHODS: Record<string, MethodInfo> = {
   },
   rounding: {
     name: 'How the figures are rounded',
-    text: 'Rates are printed as whole percentages, with as many decimals as it takes for two rates set side by side, or an interval\u2019s two ends, to print differently; differences usually to a tenth of a point. Every difference, interval and test is worked out from the unrounded counts, so a printed difference can disagree by up to a point with the gap between the two printed rates: 80.4% and 80.6%, for example, print as 80% and 81% with a difference of 0.2 points. results.json holds every figure unrounded.',
+    text: 'Rates are printed as whole percentages, with as many decimals as it takes for two rates set side by side, or an interval’s two ends, to print differently; differences usually to a tenth of a point. Every difference, interval and test is worked out from the unrounded counts, so a printed difference can disagree by up to a point with the gap between the two printed rates: 80.4% and 80.6%, for example, print as 80% and 81% with a difference of 0.2 points. results.json holds every figure unrounded.',
     // Reference cited from memory.
     source: 'Common practice, warrant\'s own rule; on rounding figures for readers see Ehrenberg, A. S. C. (1977). Rudiments of numeracy. Journal of the Royal Statistical Society, Series A 140, 277–297.',
   },
