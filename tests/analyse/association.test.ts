@@ -5,6 +5,7 @@ import { InputError } from '../../src/errors.js';
 import { decide } from '../../src/verdicts/decide.js';
 import { composeClaim } from '../../src/verdicts/compose.js';
 import { Templates } from '../../src/verdicts/templates.js';
+import { indefiniteArticle } from '../../src/verdicts/words/association.js';
 import { expectClose } from '../helpers/tolerance.js';
 import { base, codes, ctx, cubeOf, n, ourAlternative, ref } from './kinds-b-fixture.js';
 
@@ -198,5 +199,17 @@ describe('association: words and verdict paths', () => {
   it('refuses weights with controls, and a numeric column the source lacks', () => {
     expect(() => analyseAssociation(claim({ weighted: true, controls: [control] }), cube, ctx)).toThrow(InputError);
     expect(() => analyseAssociation(claim({ yMeasure: { type: 'column', column: 'Ratio' } }), cube, ctx)).toThrow(/no numeric column/);
+  });
+});
+
+describe('the article before a unit\'s name (common practice: by its first sound)', () => {
+  it('says "an institution" and "a department", "a university", "a unit", "an undergraduate course"', () => {
+    expect(indefiniteArticle('institution')).toBe('an');
+    expect(indefiniteArticle('department and institution combination')).toBe('a');
+    expect(indefiniteArticle('university')).toBe('a');
+    expect(indefiniteArticle('unit')).toBe('a');
+    expect(indefiniteArticle('undergraduate course')).toBe('an');
+    expect(indefiniteArticle('Engineering faculty')).toBe('an');
+    expect(indefiniteArticle('subject')).toBe('a');
   });
 });

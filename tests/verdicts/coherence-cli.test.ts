@@ -319,3 +319,38 @@ ${claim('against-rest', 'rest')}${claim('against-region', '{ Region: Marsh Reach
     expect(pack.text).not.toContain('Tarnhollow against Marsh Reach');
   }, 60_000);
 });
+
+describe('the association page speaks of its units in good English', () => {
+  it('"an institution with more such people", not "a institution"', () => {
+    const dir = join(work, 'institutions');
+    mkdirSync(dir, { recursive: true });
+    const rows = ['Institution,Question,Respondents,Agreeing'];
+    ['Ashgrove', 'Brindle', 'Corve', 'Dunlin', 'Eskham', 'Farrow'].forEach((name, i) => {
+      rows.push(`${name} College,Q1,200,${100 + 12 * i}`, `${name} College,Q2,200,${96 + 13 * i + (i % 2) * 5}`);
+    });
+    writeFileSync(join(dir, 'release.csv'), `${rows.join('\n')}\n`);
+    const yaml = `title: Units
+organisation: Ashgrove Forum
+data_date: 2026-03-01
+sources:
+  s:
+    file: release.csv
+    shape: summary
+    respondents: Respondents
+    agree: Agreeing
+claims:
+  - id: q1-with-q2
+    claim: Institutions where more agree on Q1 have more agreeing on Q2.
+    kind: association
+    source: s
+    units: Institution
+    x: { Question: Q1 }
+    y: { Question: Q2 }
+    expect: positive
+`;
+    const pack = buildPack(dir, yaml);
+    const cautions = (pack.results.claims[0] as Record<string, any>).cautions.join(' ');
+    expect(cautions).toContain('an institution with more such people scores higher on both');
+    expect(pack.text).not.toMatch(/\ba institution\b/);
+  }, 60_000);
+});

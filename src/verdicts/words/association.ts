@@ -28,6 +28,7 @@ export function composeAssociation(a: AssociationAnalysis, decision: Decision, c
   const view: View = {
     ...labelsOnly,
     unitName,
+    aUnitName: `${indefiniteArticle(unitName)} ${unitName}`,
     UnitsName: unitsName.charAt(0).toUpperCase() + unitsName.slice(1),
     rName: controlled ? 'partial r' : 'r',
     controlCount: claim.controls?.length ?? 0,
@@ -125,6 +126,14 @@ export function composeAssociation(a: AssociationAnalysis, decision: Decision, c
  * What one unit and several units are called: "department" / "departments" for one column; for several, the
  * combinations of their values ("department and institution combination(s)").
  */
+/**
+ * "a" or "an" before a unit's name, by its first sound as usually spelt: "an institution", "a department", "a
+ * university", "a unit", "an undergraduate course" (common practice; a leading "u" sounded "you" takes "a").
+ */
+export function indefiniteArticle(word: string): 'a' | 'an' {
+  return /^(?:[aeio]|u(?!ni|s[aeiu]|r[aeiou]|t[aeiou]))/i.test(word.trim()) ? 'an' : 'a';
+}
+
 export function unitWords(written: string | readonly string[]): { unitName: string; unitsName: string } {
   const columns = typeof written === 'string' ? [written] : written;
   if (columns.length === 1) return { unitName: (columns[0] as string).toLowerCase(), unitsName: plural(columns[0] as string) };
