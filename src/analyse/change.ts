@@ -15,7 +15,8 @@ import { pool } from '../data/select.js';
 import { InputError } from '../errors.js';
 import type { CompareContext } from './compare.js';
 import { filterLabel, sign } from './labels.js';
-import { periodColumnOf, resolvePeriods } from './periods.js';
+import { orderedPeriods, periodColumnOf, resolvePeriods } from './periods.js';
+import { orderIsInTime } from '../claims/periods.js';
 import { compareRates, expectSignOf, fpcWanted, rateSummary } from './rates.js';
 import { shortfall } from './thresholds.js';
 import type { ChangeAnalysis } from './types.js';
@@ -51,6 +52,19 @@ export function analyseChange(written: ChangeClaim, cube: Cube, ctx: CompareCont
       found: String(written.from),
       problem: `claim "${claim.id}" compares period ${to} with itself`,
       fix: 'give `from` an earlier period than `to` (e.g. `from: previous`, `to: latest`)',
+    });
+  }
+  // A change runs from the earlier period to the later: the other way round, a fall would be reported as a rise.
+  const order = orderedPeriods(cube, column);
+  if (order.indexOf(from) > order.indexOf(to) && order.indexOf(to) >= 0 && orderIsInTime([from, to])) {
+    throw new InputError({
+      file: ctx.claimsFile,
+      line: claim.place.line,
+      column: claim.place.column,
+      field: `claims.${claim.id}.from`,
+      found: String(written.from),
+      problem: `claim "${claim.id}" runs from ${from} to ${to}, but ${from} comes after ${to}: a change is measured from the earlier period to the later, so this one would report a fall as a rise`,
+      fix: `swap them: from: ${String(written.to)}, to: ${String(written.from)}`,
     });
   }
   const scope = Object.entries(claim.where).filter(([k]) => k !== column);

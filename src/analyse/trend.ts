@@ -26,7 +26,8 @@ import type { Alternative } from '../stats/result.js';
 import type { CompareContext } from './compare.js';
 import { requirePeriodColumn } from './change.js';
 import { sign } from './labels.js';
-import { resolvePeriods } from './periods.js';
+import { orderedPeriods, resolvePeriods } from './periods.js';
+import { orderIsInTime } from '../claims/periods.js';
 import { fpcWanted, rateSummary } from './rates.js';
 import { shortfall } from './thresholds.js';
 import type { TrendAnalysis } from './types.js';
@@ -71,6 +72,22 @@ export function analyseTrend(written: TrendClaim, cube: Cube, ctx: CompareContex
           ? `claim "${claim.id}" names the same period twice`
           : `claim "${claim.id}" has ${periods.length} period${periods.length === 1 ? '' : 's'}; a trend needs ${MIN_PERIODS} or more`,
       fix: 'list three or more different periods oldest first, or write `periods: { last: 3 }`; for two periods use the kind `change`',
+    });
+  }
+  // Periods are scored 0, 1, ... in the order listed: listed newest first, a fall would be reported as a rise.
+  const order = orderedPeriods(cube, column);
+  const at = periods.map((p) => order.indexOf(p));
+  if (at.every((i) => i >= 0) && orderIsInTime(periods) && at.some((i, k) => k > 0 && i < at[k - 1]!)) {
+    const asWritten = Array.isArray(written.periods) ? written.periods.map(String) : periods;
+    const sorted = asWritten.map((w, k) => ({ w, i: at[k]! })).sort((a, b) => a.i - b.i).map((x) => x.w);
+    throw new InputError({
+      file: ctx.claimsFile,
+      line: claim.place.line,
+      column: claim.place.column,
+      field: `claims.${claim.id}.periods`,
+      found: periods.join(', '),
+      problem: `claim "${claim.id}" lists its periods out of order (${periods.join(', ')}); a trend follows them in the order listed, so listed newest first a fall would be reported as a rise`,
+      fix: `list them oldest first: periods: [${sorted.join(', ')}]`,
     });
   }
   const pooled: Pooled[] = periods.map((p) => pool(cube, { ...claim.where, [column]: p }));

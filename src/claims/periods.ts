@@ -44,3 +44,12 @@ export function resolvePeriod(value: string | number, ordered: readonly string[]
   }
   return { ok: true, period: ordered[index]! };
 }
+
+/**
+ * True when the order above is surely the order in time for these periods: they differ only in their digit runs
+ * (2024 and 2025, "2024-25" and "2025-26", "Wave 9" and "Wave 10"). Names that differ in words ("Spring 2025",
+ * "Autumn 2025") are ordered as text, which need not be their order in time, so a claim's own order is trusted there.
+ */
+export function orderIsInTime(values: readonly string[]): boolean {
+  return new Set(values.map((v) => v.trim().replace(/\d+/g, '0'))).size <= 1;
+}

@@ -207,7 +207,8 @@ export function wordsAgainstFields(claim: Claim): WordsMismatch[] {
     const lastYear = /\b(last|previous|a) (year|survey|round|wave|release)('s)?\b|\b(a year ago|year on year)\b/.exec(text);
     const back = periodsBack(claim.from);
     const toBack = periodsBack(claim.to);
-    if (lastYear !== null && back !== undefined && toBack !== undefined && back - toBack !== 1) {
+    // from after to is refused against the data (src/analyse/change.ts), with its own message.
+    if (lastYear !== null && back !== undefined && toBack !== undefined && back - toBack > 1) {
       out.push({
         field: 'from',
         words: lastYear[0],

@@ -11,7 +11,7 @@ import { statSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { columnsUsed } from '../analyse/index.js';
 import { displayPathFor, inFileOrder, readClaimsLeniently } from '../claims/read.js';
-import { orderPeriods, periodsBack, resolvePeriod } from '../claims/periods.js';
+import { orderIsInTime, orderPeriods, periodsBack, resolvePeriod } from '../claims/periods.js';
 import { scanTable } from '../claims/scan.js';
 import type { Claim, Filter, FilterScalar, FilterValue, SourceSpec } from '../claims/types.js';
 import { locate, type ParsedYaml } from '../claims/yaml.js';
@@ -368,9 +368,30 @@ function claimDataProblems(claim: Claim, i: number, source: SourceSpec, cube: Cu
       const to = check(claim.to, toWritten ? periodAt('to') : periodAt('from'));
       if (from !== undefined && from === to) {
         problems.push({ file, ...place(periodAt('from'), 'value'), field: 'from', found: from, problem: `${owner} compares period ${from} with itself`, fix: 'Make from an earlier period than to, e.g. from: previous' });
+      } else if (from !== undefined && to !== undefined && periods.indexOf(from) > periods.indexOf(to) && orderIsInTime([from, to])) {
+        problems.push({
+          file,
+          ...place(periodAt('from'), 'value'),
+          field: 'from',
+          found: String(claim.from),
+          problem: `${owner} runs from ${from} to ${to}, but ${from} comes after ${to}: a change is measured from the earlier period to the later, so this one would report a fall as a rise`,
+          fix: `Swap them: from: ${String(claim.to)}, to: ${String(claim.from)}`,
+        });
       }
     } else if (Array.isArray(claim.periods)) {
-      claim.periods.forEach((v, k) => check(v, periodAt('periods', k)));
+      const listed = claim.periods.map((v, k) => check(v, periodAt('periods', k)));
+      const at = listed.map((t) => (t === undefined ? -1 : periods.indexOf(t)));
+      if (at.every((x) => x >= 0) && new Set(at).size === at.length && orderIsInTime(listed as string[]) && at.some((x, k) => k > 0 && x < at[k - 1]!)) {
+        const sorted = claim.periods.map((w, k) => ({ w: String(w), x: at[k]! })).sort((a, b) => a.x - b.x).map((o) => o.w);
+        problems.push({
+          file,
+          ...place(periodAt('periods'), 'value'),
+          field: 'periods',
+          found: listed.join(', '),
+          problem: `${owner} lists its periods out of order (${listed.join(', ')}); a trend follows them in the order listed, so listed newest first a fall would be reported as a rise`,
+          fix: `List them oldest first: periods: [${sorted.join(', ')}]`,
+        });
+      }
     } else if (claim.periods.last > periods.length) {
       problems.push({ file, ...place(periodAt('last'), 'value'), field: 'last', found: String(claim.periods.last), problem: `${owner} follows the last ${claim.periods.last} periods, but the data hold ${periods.length}`, fix: `Use last: ${Math.max(3, Math.min(periods.length, claim.periods.last))} or fewer, or add the earlier periods to the data` });
     }

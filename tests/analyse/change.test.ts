@@ -120,6 +120,13 @@ describe('change claims: later period against the earlier one', () => {
     expect(() => run(claim('A', 'lower', { from: 'latest' }))).toThrow(InputError);
   });
 
+  it('from after to is an input error naming the swap (else a fall would be reported as a rise)', () => {
+    // Data: A fell 15 points from 2025 to 2026; written the wrong way round it used to be "Points the other way".
+    expect(() => run(claim('A', 'lower', { from: 'latest', to: 'previous' }))).toThrow(/runs from 2026 to 2025, but 2026 comes after 2025.*swap them: from: previous, to: latest/);
+    expect(() => run(claim('A', 'lower', { from: 2026, to: 2024 }))).toThrow(/swap them: from: 2024, to: 2026/);
+    expect(run(claim('A', 'lower', { from: 2024, to: 2026 })).a.periods).toEqual({ from: '2024', to: '2026' });
+  });
+
   it('a source with no period column is an input error that says how to name one', () => {
     const noPeriod = { ...data, dimensions: ['Dept', 'Cohort'], values: { ...data.values, Cohort: ['x'] } };
     expect(() => analyse(claim('A', 'lower'), noPeriod, { minRespondents: 10, claimsFile: 'claims.yaml' })).toThrow(/period: <column>/);

@@ -105,4 +105,17 @@ describe('trend claims: Cochran–Armitage over periods scored 0..k-1', () => {
     expect(() => run(claim('Rising', 'rising', { periods: ['2024', '2025'] }))).toThrow(InputError);
     expect(() => run(claim('Rising', 'rising', { periods: { last: 5 } }))).toThrow(/last 5 periods but the data hold only 4/);
   });
+
+  it('periods listed newest first are an input error giving them oldest first (else a rise would be reported as a fall)', () => {
+    expect(() => run(claim('Rising', 'rising', { periods: ['2025', '2024', '2023', '2022'] }))).toThrow(/lists its periods out of order \(2025, 2024, 2023, 2022\).*periods: \[2022, 2023, 2024, 2025\]/);
+    expect(() => run(claim('Rising', 'rising', { periods: ['latest', 'previous', 'latest-2'] }))).toThrow(/periods: \[latest-2, previous, latest\]/);
+  });
+
+  it('periods named in words as well as numbers (Spring 2025, Autumn 2025) keep the order the claim lists', () => {
+    const seasons = ['Spring 2025', 'Autumn 2025', 'Spring 2026'];
+    const cells: Cell[] = RISING.x.slice(0, 3).map((x, i) => ({ dims: { Year: seasons[i] as string, Unit: 'Rising' }, n: RISING.n[i] as number, agree: x, approximate: false, firstRow: i + 2 }));
+    const c: Cube = { ...data, cells, rows: cells.length, values: { Year: seasons, Unit: ['Rising'] } };
+    const a = analyse(claim('Rising', 'rising', { periods: seasons }), c, ctx) as TrendAnalysis;
+    expect(a.periods).toEqual(seasons);
+  });
 });

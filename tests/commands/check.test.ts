@@ -70,6 +70,17 @@ describe('warrant check', () => {
     expect(parsed.warnings[0]).toMatchObject({ line: 11, column: 5, field: 'expect', found: 'less' });
   });
 
+  it('a change from a later period to an earlier one, and a trend listed newest first, are refused with the order to write', async () => {
+    const report = await checkClaimsFile(fx('check-order.yaml'), 'claims.yaml');
+    expect(report.problems.map((p) => ({ line: p.line, column: p.column, field: p.field, found: p.found }))).toEqual([
+      { line: 15, column: 11, field: 'from', found: 'latest' },
+      { line: 22, column: 14, field: 'periods', found: '2026, 2025, 2024' },
+    ]);
+    expect(report.problems[0]!.problem).toContain('runs from 2026 to 2025, but 2026 comes after 2025');
+    expect(report.problems[0]!.fix).toBe('Swap them: from: previous, to: latest');
+    expect(report.problems[1]!.fix).toBe('List them oldest first: periods: [2024, 2025, 2026]');
+  });
+
   it('a file the schema rejects reports the schema problems and exit 2', async () => {
     let out = '';
     expect(await check({ claims: fx('errors/unknown-kind.yaml'), write: (t) => (out += t) })).toBe(2);
