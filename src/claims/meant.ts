@@ -23,6 +23,15 @@ const KIND_SYNONYMS: Record<string, string[]> = {
   estimate: ['proportion', 'percentage', 'percent', 'rate', 'share', 'figure', 'margin-of-error', 'interval', 'confidence-interval', 'descriptive'],
 };
 
+/**
+ * A gap between two groups that narrowed or widened between periods: no kind says it. (When a kind does, this is the
+ * one place to change: the unknown-kind message and the change claim's focus/against message both use it.)
+ */
+export const GAP_CHANGE = {
+  why: 'warrant has no claim that a gap between two groups changed between periods (narrowed or widened)',
+  instead: 'To compare the two groups, use kind: compare in one period, one claim per period if both matter, or a change claim for each group; neither says whether the gap itself changed, so do not claim that it did',
+};
+
 /** Kinds of claim warrant has no test for, with what can be claimed instead. */
 const UNSAYABLE: Array<{ words: string[]; why: string; instead: string }> = [
   {
@@ -32,8 +41,7 @@ const UNSAYABLE: Array<{ words: string[]; why: string; instead: string }> = [
   },
   {
     words: ['interaction', 'diff-in-diff', 'difference-in-differences', 'did', 'gap-change', 'gap-narrowed', 'narrowed', 'narrowing', 'widened', 'widening', 'closing-gap', 'gap-closed'],
-    why: 'warrant has no claim that a gap between two groups changed between periods (narrowed or widened)',
-    instead: 'Write a compare claim of the gap in each period, or a change claim for each group; neither says whether the gap itself changed, so do not claim that it did',
+    ...GAP_CHANGE,
   },
   {
     words: ['each', 'every', 'all', 'for-each', 'per-unit', 'every-unit', 'all-units', 'none'],

@@ -110,8 +110,10 @@ export function wordsAgainstFields(claim: Claim): WordsMismatch[] {
   const out: WordsMismatch[] = [];
 
   const directional = claim.kind === 'compare' || claim.kind === 'change' || claim.kind === 'target' || claim.kind === 'means';
-  if (directional || claim.kind === 'trend') {
-    const expect = claim.expect as string;
+  const expect = claim.kind === 'compare' || claim.kind === 'change' || claim.kind === 'target' || claim.kind === 'means' || claim.kind === 'trend' ? (claim.expect as string) : '';
+  // Only the plain directions are read against words; a gap between two groups over periods has words of its own.
+  const plainExpect = ['lower', 'higher', 'different', 'rising', 'falling', 'any'].includes(expect) && !(claim.kind === 'change' && (claim as { focus?: unknown }).focus !== undefined);
+  if ((directional || claim.kind === 'trend') && plainExpect) {
     const one = REVERSED.test(text) ? undefined : oneDirection(text);
     const up = claim.kind === 'trend' ? 'rising' : 'higher';
     const down = claim.kind === 'trend' ? 'falling' : 'lower';

@@ -338,6 +338,13 @@ describe('new rules name line:column and give a fix', () => {
       phrases: ['does not apply to a change claim, which follows one selection (where) over periods', 'no claim that a gap between two groups changed', 'put its filter in where and delete focus and against'],
     },
     {
+      name: 'a trend claim with two groups',
+      claim: '  - { id: a, claim: c, kind: trend, focus: { Mode: part-time }, against: { Mode: full-time }, last: 3, expect: rising }',
+      at: 'focus',
+      field: 'focus',
+      phrases: ['does not apply to a trend claim, which follows one selection (where) over three or more periods', 'write a trend claim for each'],
+    },
+    {
       name: 'a control with both where and column',
       claim: '  - { id: a, claim: c, kind: association, units: provider, x: { question: Q01 }, y: { question: Q09 }, expect: any, controls: [{ label: L, column: StaffRatio, where: { question: Q12 } }] }',
       at: '{ label: L',

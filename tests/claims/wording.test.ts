@@ -14,7 +14,8 @@ import { wordsAgainstFields, wordsProblems } from '../../src/claims/wording.js';
 
 const root = resolve(__dirname, '../..');
 const base = { id: 'c', source: 's', where: {}, confidence: 0.95, confidenceWritten: '95%', sided: 'two-sided', minRespondents: 10, place: { line: 1, column: 1 } } as const;
-const claim = (c: Record<string, unknown>): Claim => ({ ...base, focus: {}, against: {}, select: {}, ...c }) as unknown as Claim;
+const pair = (kind: unknown): Record<string, unknown> => (kind === 'compare' || kind === 'means' || kind === 'equivalence' ? { focus: {}, against: {} } : kind === 'target' || kind === 'estimate' ? { select: {} } : {});
+const claim = (c: Record<string, unknown>): Claim => ({ ...base, ...pair(c.kind), ...c }) as unknown as Claim;
 const fields = (c: Record<string, unknown>): string[] => wordsAgainstFields(claim(c)).map((m) => m.field);
 
 describe('words against fields: each rule speaks when the words plainly disagree', () => {
@@ -73,6 +74,10 @@ describe('words against fields: quiet when they agree or the words are not plain
       const file = parseClaimsText(b, { absPath: join(root, 'demo/readme.yaml'), file: 'readme.yaml', sha256: '' });
       expect(wordsProblems(file, 'readme.yaml')).toEqual([]);
     }
+  });
+
+  it('a change claim between two groups (a gap over periods) is not read for a plain direction', () => {
+    expect(fields({ kind: 'change', statement: 'Part-time students are less satisfied, but the gap narrowed.', expect: 'higher', focus: { Mode: 'part-time' }, against: { Mode: 'full-time' }, from: 'previous', to: 'latest' })).toEqual([]);
   });
 
   it('problems are placed at the claim and name it', () => {
