@@ -27,6 +27,7 @@ import { pearson } from '../stats/pearson.js';
 import { partialCorrelation } from '../stats/partial-correlation.js';
 import { spearman } from '../stats/spearman.js';
 import { kendall } from '../stats/kendall.js';
+import { exactRankPValues } from '../stats/rank-exact.js';
 import { partialSpearman } from '../stats/partial-spearman.js';
 import { partialKendall, type PartialKendall } from '../stats/partial-kendall.js';
 import { leastSquares, simpleLinearFit } from '../stats/least-squares.js';
@@ -190,6 +191,11 @@ export function analyseAssociation(claim: AssociationClaim, cube: Cube, ctx: Com
   } else {
     leftOut.push({ check: 'kendall', reason: 'several-controls' });
   }
+  // With a few units and no ties the rank checks' p-values are exact (src/stats/rank-exact.ts): the t and normal
+  // approximations are far off there (four units in perfect order: p < 0.001 by t, 0.083 exactly).
+  const exact = controls.length === 0 ? exactRankPValues(x, y, alternative) : undefined;
+  if (exact && rho) rho = { ...rho, p: exact.spearman, warnings: [] };
+  if (exact && tau) tau = { ...tau, p: exact.kendall, warnings: [] };
   return {
     ...base,
     status: 'tested',
@@ -214,6 +220,7 @@ export function analyseAssociation(claim: AssociationClaim, cube: Cube, ctx: Com
       ...(rho ? [rho.method] : []),
       ...(tau ? ['kendall-tau-b'] : []),
       ...(partialTau ? ['partial-kendall'] : []),
+      ...(exact && (rho || tau) ? ['rank-exact'] : []),
     ],
   };
 }

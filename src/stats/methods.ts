@@ -148,6 +148,11 @@ export const METHODS: Record<string, MethodInfo> = {
     text: 'The correlation of the units’ ranks rather than their values: it measures whether two measures rise together at all, not whether they follow a straight line, and is less swayed by one unusual unit.',
     source: 'Spearman, C. (1904). The proof and measurement of association between two things. American Journal of Psychology 15, 72–101.',
   },
+  'rank-exact': {
+    name: 'Exact p-values for the rank checks',
+    text: 'With nine units or fewer and no ties, the p-values of Spearman’s rho and Kendall’s tau are counted exactly over every ordering of the units, as equally likely under no association; the t and normal approximations are far off with so few units.',
+    source: 'Kendall, M. G. and Gibbons, J. D. (1990). Rank Correlation Methods, 5th ed., Arnold, ch. 5–6; Best, D. J. and Roberts, D. E. (1975). Algorithm AS 89: the upper tail probabilities of Spearman’s rho. Applied Statistics 24, 377–379.',
+  },
   'kendall-tau-b': {
     name: 'Kendall rank correlation (tau-b)',
     text: 'The balance of pairs of units ordered the same way on both measures against pairs ordered the opposite way, corrected for ties.',

@@ -354,3 +354,39 @@ claims:
     expect(pack.text).not.toMatch(/\ba institution\b/);
   }, 60_000);
 });
+
+describe('rank checks with a few units', () => {
+  it('four units in perfect order: Spearman and Kendall p = 2/24 = 0.083 exactly (R cor.test), not "p < 0.001"', () => {
+    const dir = join(work, 'four-units');
+    mkdirSync(dir, { recursive: true });
+    const rows = ['Institution,Question,Respondents,Agreeing'];
+    ['Ashgrove', 'Brindle', 'Corve', 'Dunlin'].forEach((name, i) => rows.push(`${name} College,Q1,200,${100 + 12 * i}`, `${name} College,Q2,200,${96 + 14 * i}`));
+    writeFileSync(join(dir, 'release.csv'), `${rows.join('\n')}\n`);
+    const yaml = `title: Four units
+organisation: Ashgrove Forum
+data_date: 2026-03-01
+sources:
+  s:
+    file: release.csv
+    shape: summary
+    respondents: Respondents
+    agree: Agreeing
+claims:
+  - id: q1-with-q2
+    claim: Institutions where more agree on Q1 have more agreeing on Q2.
+    kind: association
+    source: s
+    units: Institution
+    x: { Question: Q1 }
+    y: { Question: Q2 }
+    expect: positive
+`;
+    const pack = buildPack(dir, yaml);
+    const checks = (pack.results.claims[0] as Record<string, any>).rankChecks as Array<{ method: string; p: number }>;
+    // R 4.x: cor.test(1:4, 1:4, method = "spearman")$p.value = cor.test(..., method = "kendall")$p.value = 0.08333333.
+    expect(checks.find((c) => c.method === 'spearman')!.p).toBeCloseTo(0.08333333, 7);
+    expect(checks.find((c) => c.method === 'kendall-tau-b')!.p).toBeCloseTo(0.08333333, 7);
+    expect(pack.text).toContain("Spearman's rho (check on ranks) 1.00 (p = 0.083)");
+    expect(pack.text).toContain('Exact p-values for the rank checks');
+  }, 60_000);
+});
