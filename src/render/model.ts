@@ -172,8 +172,10 @@ export interface ClaimSection {
    * pipeline always sets it; optional only so that hand-built models (renderer tests) may leave it out.
    */
   advice?: ClaimAdvice;
-  /** Other claims tested on the same data, to read together. */
+  /** Other claims tested on the same data, to read together (the first few: see LINKED_SHOWN). */
   linked?: LinkedClaim[];
+  /** How many more claims test the same data than `linked` names, and the sentence that says so. */
+  linkedMore?: { count: number; text: string };
   /**
    * Where the data came from, one sentence: the source's name, whether it is an independent release or the
    * organisation's own survey (or that this is not stated), and the response rate or that it is unknown.

@@ -95,6 +95,8 @@ export interface ClaimResult {
   advice?: { action: string; label: string; reason: string; wording?: string };
   /** Other claims tested on the same data. */
   linkedClaims?: string[];
+  /** How many more claims are tested on the same data than linkedClaims lists. */
+  linkedClaimsMore?: number;
   /** Lowest response rate among the selections (0-1), null when unknown. */
   responseRate?: number | null;
   /**
@@ -315,6 +317,7 @@ export function claimResult(a: Analysis, decision: Decision, section: ClaimSecti
     worthReporting: worth ? { value: worth.value, basis: worth.basis, ...(worth.standardized !== undefined ? { standardized: worth.standardized } : {}) } : null,
     ...(section.advice ? { advice: section.advice } : {}),
     linkedClaims: (section.linked ?? []).map((l) => l.id),
+    ...(section.linkedMore ? { linkedClaimsMore: section.linkedMore.count } : {}),
     responseRate: tested ? responseRateOf(a)?.rate ?? null : null,
     finitePopulationCorrection: a.fpc !== undefined ? { used: a.fpc.used, ...(a.fpc.why !== undefined ? { why: a.fpc.why } : {}), ...(a.fpc.form !== undefined ? { form: a.fpc.form } : {}) } : null,
     check:

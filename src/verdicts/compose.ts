@@ -16,7 +16,7 @@ import { composeCrosstab } from './words/crosstab.js';
 import { composeEquivalence } from './words/equivalence.js';
 import { composeMeans, scalePoints } from './words/means.js';
 import * as fmt from '../format/numbers.js';
-import { adviseClaim, linkedClaims, linkNote, notSupportedAs, worthReporting, type Worth } from './advice.js';
+import { adviseClaim, linkNote, linksOf, moreLinksNote, notSupportedAs, worthReporting, type Worth } from './advice.js';
 import type { NotSupportedAs } from '../render/model.js';
 import { withAdjustedInterval } from './words/adjusted.js';
 import { headline } from './adjusted-interval.js';
@@ -106,10 +106,11 @@ export function composeClaims(
   ctx: ComposeContext,
   sourceLines: string[],
 ): Array<{ section: ClaimSection; summary: SummaryRow; worth?: Worth }> {
-  const links = linkedClaims(analyses);
+  const links = linksOf(analyses);
   const composed = analyses.map((a, i) => {
     const decision = decisions[i] as Decision;
-    const linked = (links[i] ?? []).map((j) => analyses[j] as Analysis);
+    const own = links[i]!;
+    const linked = [...own.shown, ...(own.equivalence !== undefined && !own.shown.includes(own.equivalence) ? [own.equivalence] : [])].map((j) => analyses[j] as Analysis);
     const worth = worthReporting(a, decision, linked);
     const detail = notSupportedAs(a, decision, worth);
     const built = composeClaim(a, decision, ctx, { ...(detail ? { detail } : {}), ...(worth ? { worth } : {}), ...(sourceLines[i] ? { sourceLine: sourceLines[i] } : {}) });
@@ -117,10 +118,14 @@ export function composeClaims(
   });
   addTerms(composed.map((c) => c.section), ctx.templates);
   composed.forEach((c, i) => {
-    const notes = (links[i] ?? []).map((j) => linkNote({ id: composed[j]!.section.id, verdictLabel: composed[j]!.section.verdictLabel, kind: analyses[j]!.kind }, ctx.templates));
+    const own = links[i]!;
+    const notes = own.shown.map((j) => linkNote({ id: composed[j]!.section.id, verdictLabel: composed[j]!.section.verdictLabel, kind: analyses[j]!.kind }, ctx.templates));
     if (notes.length > 0) {
       c.section.linked = notes;
       c.summary.linked = notes;
+    }
+    if (own.count > own.shown.length) {
+      c.section.linkedMore = { count: own.count - own.shown.length, text: moreLinksNote(own.count - own.shown.length, ctx.templates) };
     }
   });
   return composed;

@@ -718,6 +718,27 @@ const cases: Case[] = [
     message:
       'data.csv, row 4: A value in a numeric column is too large to compute with (more than 10^15, a thousand million million, in size) (field "Ratio", found "1e306"). Fix: Check the cell: it may hold another figure (an ID, a number in the wrong unit); write the value the column measures, or leave the cell blank where there is none.',
   },
+  {
+    what: 'sixty copies of one compare claim: each page names three of the others and counts the rest',
+    group: 'never hang',
+    cousin: true,
+    // Every claim named every other claim on its data, one row each: the pack grew as the square of the claims
+    // (300 copies: 3,932 pages; 1,000: 285 s and 3.8 GB; 3,000, a 570 KB claims file: stopped after 4 GB).
+    setup: (dir) => {
+      const claim = (i: number): string => `  - id: copy-${i}\n    claim: Hanes agrees more than Łacina.\n    kind: compare\n    where: { Year: 2026 }\n    focus: { Department: Hanes }\n    against: { Department: Łacina }\n    expect: higher\n`;
+      summaryCase(dir, HEAD + SUMMARY_SOURCE('data.csv') + 'claims:\n' + Array.from({ length: 60 }, (_, i) => claim(i)).join(''));
+    },
+    builds: (run) => {
+      const claims = packResults(run).claims as unknown as Array<{ id: string; linkedClaims: string[]; linkedClaimsMore?: number }>;
+      expect(claims).toHaveLength(60);
+      expect(claims[0]!.linkedClaims).toEqual(['copy-1', 'copy-2', 'copy-3']);
+      expect(claims[2]!.linkedClaims).toEqual(['copy-0', 'copy-1', 'copy-3']);
+      expect(claims.every((c) => c.linkedClaims.length === 3 && c.linkedClaimsMore === 56)).toBe(true);
+      const text = packText(run);
+      expect(text.match(/56 more claims test the same data; the summary shows their verdicts\. Read them together\./g)).toHaveLength(60);
+      expect(text.match(/Claim copy-\d+ tests the same data/g)).toHaveLength(180);
+    },
+  },
 ];
 
 // ---- running ---------------------------------------------------------------------------------------------------------

@@ -209,6 +209,7 @@ function adviceRows(claim: ClaimSection): Array<{ label: string; value: string }
     rows.push({ label: 'Suggested wording', value: claim.advice.wording });
   }
   for (const link of claim.linked ?? []) rows.push({ label: 'Read with', value: link.text });
+  if (claim.linkedMore) rows.push({ label: 'Read with', value: claim.linkedMore.text });
   return rows;
 }
 
