@@ -16,6 +16,15 @@ export interface Selected {
  * Why the selections cannot be tested, as a phrase for "Too little data: ...", or undefined when they all can.
  * The phrase never contains the suppressed counts.
  */
+/** How a shortfall for a low response rate begins, so that the words can tell it from one of too few respondents. */
+const LOW_RESPONSE_LEAD = 'fewer than ';
+const LOW_RESPONSE = / of those eligible answered in /;
+
+/** True when a claim's shortfall is a response rate below min_response_rate (not too few respondents). */
+export function isLowResponse(shortfallText: string | undefined): boolean {
+  return shortfallText !== undefined && shortfallText.startsWith(LOW_RESPONSE_LEAD) && LOW_RESPONSE.test(shortfallText);
+}
+
 export function shortfall(claim: Claim, selections: Selected[]): string | undefined {
   const few = selections.filter((s) => s.pooled.n < claim.minRespondents);
   // A selection every row of which was withheld in the release has no figures at all: say so, not "fewer answered".
@@ -35,7 +44,7 @@ export function shortfall(claim: Claim, selections: Selected[]): string | undefi
       (s) => s.pooled.population !== undefined && s.pooled.population > 0 && s.pooled.n / s.pooled.population < minRate,
     );
     if (low.length > 0) {
-      return `fewer than ${percent(minRate)} of those eligible answered in ${low.map((s) => s.label).join(' and ')}`;
+      return `${LOW_RESPONSE_LEAD}${percent(minRate)} of those eligible answered in ${low.map((s) => s.label).join(' and ')}`;
     }
   }
   return undefined;

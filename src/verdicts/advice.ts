@@ -27,6 +27,7 @@
 import type { Analysis } from '../analyse/types.js';
 import type { ClaimsFile } from '../claims/types.js';
 import { filterLabel } from '../analyse/labels.js';
+import { isLowResponse } from '../analyse/thresholds.js';
 import * as fmt from '../format/numbers.js';
 import type { ClaimAdvice, LinkedClaim, NotSupportedAs } from '../render/model.js';
 import type { Decision } from './decide.js';
@@ -312,6 +313,7 @@ export function adviseClaim(input: AdviceInput): ClaimAdvice {
     association: a.kind === 'association',
     twoSided: a.expectSign === 0,
     adjusted: input.adjusted,
+    lowResponse: isLowResponse(a.shortfall),
     ...worthView(worth, e?.unit),
   };
   const make = (action: ClaimAdvice['action'], reason: string, wording?: string): ClaimAdvice => ({

@@ -390,3 +390,45 @@ claims:
     expect(pack.text).toContain('Exact p-values for the rank checks');
   }, 60_000);
 });
+
+describe('a claim withheld says why in terms of the threshold that withheld it', () => {
+  it('a low response rate is not called too few people; a claim\'s own min_respondents is the one quoted', () => {
+    const dir = join(work, 'withheld');
+    mkdirSync(dir, { recursive: true });
+    writeFileSync(join(dir, 'release.csv'), ['Unit,Question,Respondents,Agreeing,Eligible', 'Oakhurst,Q1,120,80,400', 'Pellmarsh,Q1,150,90,180', 'Quillby,Q1,20,12,22', ''].join('\n'));
+    const claim = (id: string, focus: string, against: string, extra = '') => `  - id: ${id}
+    claim: ${focus} agrees more than ${against}.
+    kind: compare
+    source: s
+    where: { Question: Q1 }
+    focus: { Unit: ${focus} }
+    against: { Unit: ${against} }
+    expect: higher${extra}
+`;
+    const yaml = `title: Withheld
+organisation: Oakhurst Forum
+data_date: 2026-03-01
+min_response_rate: 40%
+sources:
+  s:
+    file: release.csv
+    shape: summary
+    respondents: Respondents
+    agree: Agreeing
+    population: Eligible
+claims:
+${claim('oakhurst-higher', 'Oakhurst', 'Pellmarsh')}${claim('quillby-higher', 'Quillby', 'Pellmarsh', '\n    min_respondents: 30')}`;
+    const pack = buildPack(dir, yaml);
+    const [low, few] = pack.results.claims as Array<Record<string, any>>;
+    expect(low!.verdict).toBe('too-little-data');
+    // 120 of 400 answered in Oakhurst (30%, below 40%): many people, few of those eligible.
+    expect(low!.verdictText).toContain('fewer than 40% of those eligible answered in Oakhurst');
+    expect(low!.verdictText).toContain('those who did not may differ from those who did');
+    expect(low!.verdictText).not.toContain('Results from so few people');
+    expect(low!.advice.reason).toContain('Too few of those eligible answered');
+    // 20 in Quillby, below the claim's own minimum of 30 (the pack's is 10): the sentence quotes 30 both times.
+    expect(few!.verdictText).toContain('fewer than 30 people answered in Quillby');
+    expect(few!.verdictText).toContain('withholds any group with fewer than 30 respondents');
+    expect(few!.verdictText).not.toContain('fewer than 10 respondents');
+  }, 60_000);
+});

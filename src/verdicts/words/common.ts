@@ -8,6 +8,7 @@ import * as fmt from '../../format/numbers.js';
 import type { ClaimSection, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { Templates } from '../templates.js';
+import { isLowResponse } from '../../analyse/thresholds.js';
 
 export interface ComposeContext {
   templates: Templates;
@@ -183,12 +184,20 @@ export function fpcRow(a: Analysis): NumberRow | undefined {
 }
 
 export function tooLittle(a: Analysis, ctx: ComposeContext, compared: string, hypotheses: ClaimSection['hypotheses']): Composed {
-  const view = { shortfall: a.shortfall ?? 'too few people answered', minRespondents: ctx.minRespondents };
+  // The claim's own thresholds (a claim may set min_respondents or min_response_rate of its own), and which one
+  // withheld it: too few respondents, or too few of those eligible (non-response, not sample size).
+  const lowResponse = isLowResponse(a.shortfall);
+  const view = {
+    shortfall: a.shortfall ?? 'too few people answered',
+    minRespondents: a.claim.minRespondents ?? ctx.minRespondents,
+    lowResponse,
+    minResponseRate: a.claim.minResponseRate !== undefined ? fmt.percent(a.claim.minResponseRate) : '',
+  };
   return {
     section: {
       compared,
       hypotheses,
-      numbers: [{ label: 'Result', value: 'Withheld: too few respondents' }],
+      numbers: [{ label: 'Result', value: lowResponse ? 'Withheld: too few of those eligible answered' : 'Withheld: too few respondents' }],
       verdictText: ctx.templates.render('too-little-data', view),
       cautions: [],
       methodLine: 'No test was run.',
