@@ -402,6 +402,11 @@ async function buildPack(options: BuildOptions, chartsDrawn: () => void): Promis
     version,
     options: { date, templates: templatesDigest(templatesDir), ...(seal ? { seal: sha256Hex(canonicalJson(seal)) } : {}) },
   });
+  const wordsData = (c: Claim): { values: Cube['values']; period?: string } | undefined => {
+    const cube = cubes.find((x) => x.sourceId === c.source);
+    const period = claims.sources.find((x) => x.id === c.source)?.period;
+    return cube !== undefined ? { values: cube.values, ...(period !== undefined ? { period } : {}) } : undefined;
+  };
   const ctx = {
     templates,
     claimsTested,
@@ -410,6 +415,7 @@ async function buildPack(options: BuildOptions, chartsDrawn: () => void): Promis
     adjusted: claims.adjust !== 'none' && claimsTested > 1,
     minRespondents: claims.minRespondents,
     periodColumns: periodColumns(claims, cubes),
+    wordsData,
   };
   const sourceLines = analyses.map((a) => sourceLine(a, claims.sources.find((s) => s.id === a.claim.source), cubes.find((c) => c.sourceId === a.claim.source), templates));
   const composed = composeClaims(analyses, decisions, ctx, sourceLines).map((c, i) => {
@@ -507,7 +513,7 @@ async function buildPack(options: BuildOptions, chartsDrawn: () => void): Promis
   // Said on the terminal even with --quiet: a claim whose words and fields disagree (its page carries a caution too),
   // and an earlier pack that could not be read.
   const warnings = [
-    ...wordsProblems(claims, claimsDisplay).map((p) => `warning: ${formatProblem(p)}`),
+    ...wordsProblems(claims, claimsDisplay, wordsData).map((p) => `warning: ${formatProblem(p)}`),
     ...(unreadable ? [`The latest earlier pack, ${unreadable.name}, could not be read (${unreadable.reason}), so the pack cannot say what changed since it; it says so in place of "What changed".`] : []),
   ];
   return {

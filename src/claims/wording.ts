@@ -11,11 +11,12 @@
 import type { Problem } from '../errors.js';
 import type { Claim, ClaimsFile } from './types.js';
 import { periodsBack } from './amounts.js';
+import { nfc } from '../suggest.js';
 
 /** One disagreement between a claim's words and one of its fields. */
 export interface WordsMismatch {
   /** The field the words disagree with, as written in the claims file. */
-  field: 'expect' | 'value' | 'margin' | 'last' | 'periods' | 'from' | 'to' | 'kind';
+  field: 'expect' | 'value' | 'margin' | 'last' | 'periods' | 'from' | 'to' | 'kind' | 'where' | 'focus' | 'against' | 'select';
   /** The words of the claim that disagree, as written. */
   words: string;
   /** The field as written. */
@@ -104,10 +105,72 @@ const SAYS_ALIKE = /\b(no (?:real |meaningful |notable |significant |important )
  */
 const REVERSED = /\b(disagree\w*|dissatisf\w*|unhapp\w*|unsatisf\w*|discontent\w*|complain\w*|dislike\w*|negative\w*)\b/;
 
-/** Every disagreement between a claim's words and its fields (empty when they agree or the words are not plain). */
-export function wordsAgainstFields(claim: Claim): WordsMismatch[] {
-  const text = claim.statement.toLowerCase().replace(/[‘’]/g, "'");
+/** A value named in words: as a whole word or phrase, in its own case (Law, not "by law"), three characters or more. */
+function names(text: string, value: string): boolean {
+  const v = nfc(value.trim());
+  if (v.length < 3) return false;
+  const escaped = v.replace(/[.*+?^${}()|[\]\\]/g, '\\$&').replace(/\s+/g, '\\s+');
+  return new RegExp(`(^|[^\\p{L}\\p{N}])${escaped}(?=$|[^\\p{L}\\p{N}])`, 'u').test(nfc(text));
+}
+
+/**
+ * The claim's words against what its selections pick in the data: words that name a value of a column (a department,
+ * an institution, a question code) that no selection of the claim picks, while naming none of the values the
+ * selection does pick ("Engineering fell since last year" with where: { Department: Business }). `values` are the
+ * distinct values of each column in the claim's source. The period column is left to the period rules.
+ */
+function wordsAgainstValues(claim: Claim, values: Readonly<Record<string, readonly string[]>>, period: string | undefined): WordsMismatch[] {
+  const filters: Array<[string, Record<string, unknown>]> = [['where', claim.where]];
+  for (const key of ['focus', 'against', 'select'] as const) {
+    const f = (claim as unknown as Record<string, unknown>)[key];
+    if (f !== null && typeof f === 'object') filters.push([key, f as Record<string, unknown>]);
+  }
+  const picked = new Map<string, Set<string>>();
+  for (const [, f] of filters) {
+    for (const [col, v] of Object.entries(f)) {
+      if (v !== null && typeof v === 'object' && !Array.isArray(v)) continue;
+      const set = picked.get(col) ?? new Set<string>();
+      for (const x of Array.isArray(v) ? v : [v]) set.add(String(x).trim());
+      picked.set(col, set);
+    }
+  }
+  const labels = ['focusLabel', 'againstLabel', 'selectLabel'].map((k) => (claim as unknown as Record<string, unknown>)[k]).filter((x): x is string => typeof x === 'string');
+  const words = [claim.statement, ...labels].join(' \n ');
   const out: WordsMismatch[] = [];
+  for (const [key, f] of filters) {
+    for (const [col, v] of Object.entries(f)) {
+      if (col === period || (v !== null && typeof v === 'object' && !Array.isArray(v))) continue;
+      const known = values[col];
+      if (known === undefined) continue;
+      const chosen = (Array.isArray(v) ? v : [v]).map((x) => String(x).trim());
+      if (chosen.some((c) => names(words, c))) continue;
+      const all = picked.get(col) ?? new Set<string>();
+      // Another value of the column named, and not a longer value holding a chosen one ("Business and Management").
+      const others = known.filter((k) => !all.has(k.trim()) && names(words, k) && !chosen.some((c) => names(k, c)) && !known.some((o) => o !== k && all.has(o.trim()) && names(o, k)));
+      if (others.length === 0) continue;
+      const said = others.map((o) => `"${o}"`).join(', ');
+      const chosenWords = chosen.map((c) => `"${c}"`).join(', ');
+      out.push({
+        field: key as WordsMismatch['field'],
+        words: others.join(', '),
+        written: chosen.join(', '),
+        said: `name ${said} (${col}), but ${key} picks ${chosenWords}`,
+        problem: `the claim's words name ${said}, a value of column "${col}", but ${key} picks ${chosenWords} there, which the words do not name`,
+        fix: `Select the ${col} the words name (${key}: { ${col}: ${others[0]} }), or correct the words`,
+      });
+    }
+  }
+  return out;
+}
+
+/**
+ * Every disagreement between a claim's words and its fields (empty when they agree or the words are not plain). With
+ * `data` (the distinct values of each column of the claim's source, and its period column), also words that name a
+ * value the claim's selections do not pick.
+ */
+export function wordsAgainstFields(claim: Claim, data?: { values: Readonly<Record<string, readonly string[]>>; period?: string }): WordsMismatch[] {
+  const text = claim.statement.toLowerCase().replace(/[‘’]/g, "'");
+  const out: WordsMismatch[] = data !== undefined ? wordsAgainstValues(claim, data.values, data.period) : [];
 
   const directional = claim.kind === 'compare' || claim.kind === 'change' || claim.kind === 'target' || claim.kind === 'means';
   const expect = claim.kind === 'compare' || claim.kind === 'change' || claim.kind === 'target' || claim.kind === 'means' || claim.kind === 'trend' ? (claim.expect as string) : '';
@@ -241,9 +304,9 @@ export function wordsAgainstFields(claim: Claim): WordsMismatch[] {
  * The disagreements of every claim of a file as problems for the terminal (`warrant check`, `warrant build`), placed
  * at the claim; they are warnings, never a reason to stop.
  */
-export function wordsProblems(claims: ClaimsFile, file: string): Problem[] {
+export function wordsProblems(claims: ClaimsFile, file: string, dataOf?: (claim: Claim) => { values: Readonly<Record<string, readonly string[]>>; period?: string } | undefined): Problem[] {
   return claims.claims.flatMap((c) =>
-    wordsAgainstFields(c).map((m) => ({
+    wordsAgainstFields(c, dataOf?.(c)).map((m) => ({
       file,
       line: c.place.line,
       column: c.place.column,

@@ -107,6 +107,8 @@ export async function checkClaimsFile(path: string, displayPath?: string): Promi
 
   const templates = new Templates();
   const reading: NonNullable<CheckReport['reading']> = [];
+  // Each source's values, so that a claim's words can be read against what its selections pick (src/claims/wording.ts).
+  const valuesOf = new Map<string, { values: Cube['values']; period?: string }>();
   for (const source of claims.sources) {
     const users = claims.claims.map((c, i) => ({ claim: c, i })).filter((u) => u.claim.source === source.id);
     // A data file that is missing or of the wrong type was reported with the claims file's own problems.
@@ -114,11 +116,12 @@ export async function checkClaimsFile(path: string, displayPath?: string): Promi
     const skip = new Set<Claim>();
     const cube = await sourceCube(source, users, file, place, claimProblems, dataProblems, skip, parsed.data);
     if (cube === undefined) continue;
+    valuesOf.set(source.id, { values: cube.values, ...(source.period !== undefined ? { period: source.period } : {}) });
     const notes = readingNotes(cube, templates);
     if (notes.length > 0) reading.push({ source: source.id, file: cube.file, notes });
     for (const { claim, i } of users) if (!skip.has(claim)) claimProblems.push(...claimDataProblems(claim, i, source, cube, file, place, parsed));
   }
-  const warnings = wordsProblems(claims, file);
+  const warnings = wordsProblems(claims, file, (c) => valuesOf.get(c.source));
   return {
     file,
     claims: claims.claims.length,

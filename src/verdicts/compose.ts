@@ -73,7 +73,7 @@ export function composeClaim(a: Analysis, decision: Decision, ctx: ComposeContex
   section.hypotheses = { null: sentence(section.hypotheses.null), alternative: sentence(section.hypotheses.alternative) };
   section.verdictText = sentence(section.verdictText);
   // A claim whose own words and fields say different things: said first, since the verdict answers the fields.
-  const mismatched = wordsAgainstFields(a.claim).map((m) => ctx.templates.render('caution.words-fields', { said: m.said }));
+  const mismatched = wordsAgainstFields(a.claim, ctx.wordsData?.(a.claim)).map((m) => ctx.templates.render('caution.words-fields', { said: m.said }));
   section.cautions = [...mismatched, ...section.cautions].map(sentence);
   section.numbers = section.numbers.map((row) => ({ ...row, label: sentence(row.label) }));
   const detail = extras.detail;

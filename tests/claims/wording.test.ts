@@ -80,6 +80,26 @@ describe('words against fields: quiet when they agree or the words are not plain
     expect(fields({ kind: 'change', statement: 'Part-time students are less satisfied, but the gap narrowed.', expect: 'higher', focus: { Mode: 'part-time' }, against: { Mode: 'full-time' }, from: 'previous', to: 'latest' })).toEqual([]);
   });
 
+  it('words that name a value no selection picks, and none that it does', () => {
+    const data = { values: { Department: ['Business', 'Business and Management', 'Engineering', 'History', 'Law', 'Fine Art', 'Art'], Year: ['2025', '2026'] }, period: 'Year' };
+    const c = (statement: string, over: Record<string, unknown>): Array<[string, string]> =>
+      wordsAgainstFields(claim({ kind: 'compare', expect: 'lower', statement, ...over }), data).map((m) => [m.field, m.words]);
+    // The words name Engineering; where picks Business.
+    expect(c('Engineering fell since last year.', { kind: 'change', where: { Department: 'Business' }, from: 'previous', to: 'latest' })).toEqual([['where', 'Engineering']]);
+    // against picks History, the words name Law (History is named nowhere; Engineering is the focus's own).
+    expect(c('Engineering students are less satisfied than Law students.', { focus: { Department: 'Engineering' }, against: { Department: 'History' } })).toEqual([['against', 'Law']]);
+    // A label names the value too.
+    expect(c('Engineering students agree less.', { focus: { Department: 'Engineering' }, against: { Department: 'History' }, againstLabel: 'Law students' })).toEqual([['against', 'Law']]);
+    // Quiet: the chosen value named; a longer value holding the chosen one; a value inside a chosen one; no value named;
+    // "everything but"; the period column; a value in lower case ("by law").
+    expect(c('Business and Management students agree less than History students.', { focus: { Department: 'Business and Management' }, against: { Department: 'History' } })).toEqual([]);
+    expect(c('Fine Art students agree less than the rest.', { focus: { Department: 'Fine Art' }, against: {}, againstRest: true })).toEqual([]);
+    expect(c('Our students agree less than the region.', { focus: { Department: 'Engineering' }, against: { Department: 'History' } })).toEqual([]);
+    expect(c('Engineering agrees less than everyone else.', { focus: { Department: 'Engineering' }, against: { Department: { not: 'Engineering' } } })).toEqual([]);
+    expect(c('Engineering agreed less in 2025.', { where: { Year: 2026 }, focus: { Department: 'Engineering' }, against: { Department: 'History' } })).toEqual([]);
+    expect(c('Engineering students, as required by law, agree less than History students.', { focus: { Department: 'Engineering' }, against: { Department: 'History' } })).toEqual([]);
+  });
+
   it('problems are placed at the claim and name it', () => {
     const file = { claims: [claim({ id: 'x', kind: 'compare', statement: 'We are below the region.', expect: 'higher', place: { line: 12, column: 5 } })] } as never;
     const [p] = wordsProblems(file, 'claims.yaml');

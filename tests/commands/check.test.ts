@@ -59,14 +59,16 @@ describe('warrant check', () => {
     const code = await check({ claims: fx('check-words.yaml'), write: (t) => (out += t) });
     expect(code).toBe(0);
     expect(out).toMatch(/^warning: .*check-words\.yaml:11:5: the claim's words say "less" \(lower\), but expect is higher, so the pack tests the opposite of what the words say, in claim "below-tested-higher" \(field "expect", found "less"\)\. Fix: If the words are right, set expect: lower/);
-    expect(out).toMatch(/check-words\.yaml: 2 claims, 1 source, no problems, 1 warning \(a claim's words and its fields say different things; the pack repeats it on the claim's page\)\.\n$/);
+    // Against the data: the words name a provider the selection does not pick.
+    expect(out).toContain('check-words.yaml:25:5: the claim\'s words name "Ashwren Hall", a value of column "provider", but select picks "Tarnquill College" there, which the words do not name, in claim "names-another-provider" (field "select", found "Ashwren Hall"). Fix: Select the provider the words name (select: { provider: Ashwren Hall }), or correct the words.');
+    expect(out).toMatch(/check-words\.yaml: 3 claims, 1 source, no problems, 2 warnings \(a claim's words and its fields say different things; the pack repeats each on the claim's page\)\.\n$/);
     expect(out).not.toContain('agrees-with-itself');
     let json = '';
     expect(await check({ claims: fx('check-words.yaml'), json: true, write: (t) => (json += t) })).toBe(0);
     const parsed = JSON.parse(json) as { ok: boolean; problems: unknown[]; warnings: Array<Record<string, unknown>> };
     expect(parsed.ok).toBe(true);
     expect(parsed.problems).toEqual([]);
-    expect(parsed.warnings).toHaveLength(1);
+    expect(parsed.warnings).toHaveLength(2);
     expect(parsed.warnings[0]).toMatchObject({ line: 11, column: 5, field: 'expect', found: 'less' });
   });
 

@@ -39,6 +39,13 @@ claims:
     select: { Institution: Quarrendell University }
     value: 80%
     expect: lower
+  - id: names-another-institution
+    claim: Oxtrellis University is below the university's target of 80% content overall.
+    kind: target
+    where: { Year: latest, Question: Q08 }
+    select: { Institution: Quarrendell University }
+    value: 80%
+    expect: lower
 `;
 
 describe('a claim whose words and fields disagree', () => {
@@ -48,16 +55,18 @@ describe('a claim whose words and fields disagree', () => {
     expect(r.status).toBe(0);
     expect(r.stdout).toBe('');
     expect(r.stderr).toBe(
-      'warrant: warning: claims.yaml:12:5: the claim\'s words say "less" (lower), but expect is higher, so the pack tests the opposite of what the words say, in claim "below-tested-higher" (field "expect", found "less"). Fix: If the words are right, set expect: lower; if the test is right, reword the claim (where agreeing is the unwelcome answer, say it in terms of agreeing).\n',
+      'warrant: warning: claims.yaml:12:5: the claim\'s words say "less" (lower), but expect is higher, so the pack tests the opposite of what the words say, in claim "below-tested-higher" (field "expect", found "less"). Fix: If the words are right, set expect: lower; if the test is right, reword the claim (where agreeing is the unwelcome answer, say it in terms of agreeing).\n' +
+        'warrant: warning: claims.yaml:26:5: the claim\'s words name "Oxtrellis University", a value of column "Institution", but select picks "Quarrendell University" there, which the words do not name, in claim "names-another-institution" (field "select", found "Oxtrellis University"). Fix: Select the Institution the words name (select: { Institution: Oxtrellis University }), or correct the words.\n',
     );
     const folder = join(work, 'out', readdirSync(join(work, 'out')).find((d) => d !== 'latest') as string);
     const results = JSON.parse(readFileSync(join(folder, 'results.json'), 'utf8')) as { claims: Array<{ id: string; cautions: string[] }> };
     const caution = 'The claim\'s own words and the way it was tested disagree: the words say "less" (lower), but the claim was tested as expecting higher. The verdict answers the test described under "What was compared and tested", not the words; correct the claims file before quoting this claim.';
-    const [mismatched, agreeing] = results.claims;
+    const [mismatched, agreeing, named] = results.claims;
+    expect(named!.cautions[0]).toBe('The claim\'s own words and the way it was tested disagree: the words name "Oxtrellis University" (Institution), but select picks "Quarrendell University". The verdict answers the test described under "What was compared and tested", not the words; correct the claims file before quoting this claim.');
     expect(mismatched!.cautions[0]).toBe(caution);
     expect(agreeing!.cautions.join(' ')).not.toContain('own words');
     const text = fold(execFileSync('pdftotext', ['-enc', 'UTF-8', join(folder, 'pack.pdf'), '-'], { encoding: 'utf8' }));
     expect(text).toContain(caution);
-    expect(text.split("The claim's own words").length - 1).toBe(1);
+    expect(text.split("The claim's own words").length - 1).toBe(2);
   }, 60_000);
 });

@@ -6,6 +6,7 @@ import { filterLabel } from '../../analyse/labels.js';
 import type { Filter, Naming } from '../../claims/types.js';
 import * as fmt from '../../format/numbers.js';
 import type { ClaimSection, NumberRow } from '../../render/model.js';
+import type { Claim } from '../../claims/types.js';
 import type { Decision } from '../decide.js';
 import type { Templates } from '../templates.js';
 import { isLowResponse } from '../../analyse/thresholds.js';
@@ -21,6 +22,8 @@ export interface ComposeContext {
   minRespondents: number;
   /** The column that holds survey years, if known, to spot year-on-year claims. */
   periodColumns: string[];
+  /** The distinct values of each column of a claim's source (and its period column), to read its words against. */
+  wordsData?: (claim: Claim) => { values: Readonly<Record<string, readonly string[]>>; period?: string } | undefined;
 }
 
 /** What a kind's wording returns: the section body and the summary table's key figure. */
