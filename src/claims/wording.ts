@@ -205,6 +205,42 @@ export function wordsAgainstFields(claim: Claim, data?: { values: Readonly<Recor
     }
   }
 
+  if (claim.kind === 'association' && (claim.expect === 'positive' || claim.expect === 'negative' || claim.expect === 'any')) {
+    // "positively", "negatively", "inversely"; else two direction words, one for each measure: alike is positive
+    // ("better resources, higher satisfaction"), opposite is negative ("more students per tutor, fewer content").
+    const plain = REVERSED.test(text) || NEGATION.test(text) ? undefined : text;
+    let meant: 'positive' | 'negative' | undefined;
+    let words = '';
+    if (plain !== undefined) {
+      const pos = /\bpositive(ly)?\b/.exec(plain);
+      const neg = /\b(negative(ly)?|inverse(ly)?)\b/.exec(plain);
+      if (pos !== null && neg === null) [meant, words] = ['positive', pos[0]];
+      else if (neg !== null && pos === null) [meant, words] = ['negative', neg[0]];
+      else if (pos === null && neg === null) {
+        const found = directions(plain);
+        if (found !== undefined && found.length === 2) {
+          meant = found[0]!.dir === found[1]!.dir ? 'positive' : 'negative';
+          words = `${found[0]!.words} ... ${found[1]!.words}`;
+        }
+      }
+    }
+    if (meant !== undefined && meant !== claim.expect) {
+      const any = claim.expect === 'any';
+      out.push({
+        field: 'expect',
+        words,
+        written: claim.expect,
+        said: any
+          ? `say "${words}" (a ${meant} association), but the claim was tested as expecting an association either way, so one the other way would also count as support`
+          : `say "${words}" (a ${meant} association), but the claim was tested as expecting a ${claim.expect} one`,
+        problem: any
+          ? `the claim's words say "${words}" (a ${meant} association), but expect is any, which counts an association either way as support, the opposite of the words included`
+          : `the claim's words say "${words}" (a ${meant} association), but expect is ${claim.expect}, so the pack tests the opposite of what the words say`,
+        fix: `If the words are right, set expect: ${meant}; if the test is right, reword the claim`,
+      });
+    }
+  }
+
   if ((claim.kind === 'compare' || claim.kind === 'means') && claim.expect === 'different') {
     const m = SAYS_ALIKE.exec(text);
     if (m !== null) {

@@ -29,6 +29,9 @@ describe('words against fields: each rule speaks when the words plainly disagree
     ['target: the words name 80%, value 75%', { kind: 'target', statement: 'At least 80% of our students are satisfied.', expect: 'higher', value: 0.75, valueWritten: '75%' }, 'value', 'value: 80%'],
     ['target: "80 per cent", value 0.85', { kind: 'target', statement: 'We are still below the 80 per cent target.', expect: 'lower', value: 0.85, valueWritten: '0.85' }, 'value', 'value: 80%'],
     ['equivalence: "5 points", margin 3', { kind: 'equivalence', statement: 'History is within 5 points of the rest of the university.', margin: 0.03 }, 'margin', 'margin: 5 points'],
+    ['association: "better ... higher" tested as negative', { kind: 'association', statement: 'Departments with better resources report higher overall satisfaction.', expect: 'negative' }, 'expect', 'set expect: positive'],
+    ['association: "more ... fewer" tested as positive', { kind: 'association', statement: 'Departments with more students per tutor have fewer students content.', expect: 'positive' }, 'expect', 'set expect: negative'],
+    ['association: "inversely" tested as any', { kind: 'association', statement: 'Class size is inversely related to satisfaction.', expect: 'any' }, 'expect', 'set expect: negative'],
     ['compare: "no real difference" tested for a difference', { kind: 'compare', statement: 'There is no real difference between the two campuses.', expect: 'different' }, 'kind', 'kind: equivalence'],
     ['means: "about the same" tested for a difference', { kind: 'means', statement: 'Part-time and full-time students score about the same.', expect: 'different' }, 'kind', 'kind: equivalence'],
     ['trend: "four surveys", last 3', { kind: 'trend', statement: 'Satisfaction has risen over four surveys.', expect: 'rising', periods: { last: 3 } }, 'last', 'last: 4'],
@@ -61,6 +64,9 @@ describe('words against fields: quiet when they agree or the words are not plain
     ['"no more than 5 points" with its margin', { kind: 'equivalence', statement: 'No subject is more than 5 points from the institution.', margin: 0.05 }],
     ['"last year" one period apart', { kind: 'change', statement: 'More of our students know where to turn than last year.', expect: 'higher', from: 'previous', to: 'latest' }],
     ['an estimate', { kind: 'estimate', statement: 'About three in four of our students are content.' }],
+    ['an association whose words agree', { kind: 'association', statement: 'Departments whose students rate study spaces higher have more students content overall.', expect: 'positive' }],
+    ['an association of three direction words', { kind: 'association', statement: 'Where more students are content, more say feedback is timely and fewer leave.', expect: 'positive' }],
+    ['an association either way, worded so', { kind: 'association', statement: 'Resources and satisfaction are related across departments.', expect: 'any' }],
   ];
   for (const [name, c] of quiet) it(name, () => expect(fields(c)).toEqual([]));
 
