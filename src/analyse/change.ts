@@ -9,7 +9,7 @@
  * change (Newcombe 1998, Statistics in Medicine 17, 873–890, method 10). Building blocks shared with "compare" are in
  * rates.ts.
  */
-import type { ChangeClaim, Claim } from '../claims/types.js';
+import type { ChangeClaim, Claim, FilterScalar } from '../claims/types.js';
 import type { Cube } from '../data/types.js';
 import { pool } from '../data/select.js';
 import { InputError } from '../errors.js';
@@ -38,6 +38,26 @@ export function requirePeriodColumn(claim: Pick<Claim, 'id' | 'source' | 'place'
   return column;
 }
 
+/**
+ * A change (of one selection, or of a gap between two) runs from the earlier period to the later: the other way
+ * round, a fall would be reported as a rise. An InputError naming the swap when `from` comes after `to`.
+ */
+export function refuseBackwards(written: Pick<Claim, 'id' | 'place'> & { from: FilterScalar; to: FilterScalar }, from: string, to: string, cube: Cube, column: string, ctx: CompareContext): void {
+  const claim = written;
+  const order = orderedPeriods(cube, column);
+  if (order.indexOf(from) > order.indexOf(to) && order.indexOf(to) >= 0 && orderIsInTime([from, to])) {
+    throw new InputError({
+      file: ctx.claimsFile,
+      line: claim.place.line,
+      column: claim.place.column,
+      field: `claims.${claim.id}.from`,
+      found: String(written.from),
+      problem: `claim "${claim.id}" runs from ${from} to ${to}, but ${from} comes after ${to}: a change is measured from the earlier period to the later, so this one would report a fall as a rise`,
+      fix: `swap them: from: ${String(written.to)}, to: ${String(written.from)}`,
+    });
+  }
+}
+
 export function analyseChange(written: ChangeClaim, cube: Cube, ctx: CompareContext): ChangeAnalysis {
   const column = requirePeriodColumn(written, cube, ctx);
   const claim = resolvePeriods(written, cube, column, ctx.claimsFile).claim as ChangeClaim;
@@ -54,19 +74,7 @@ export function analyseChange(written: ChangeClaim, cube: Cube, ctx: CompareCont
       fix: 'give `from` an earlier period than `to` (e.g. `from: previous`, `to: latest`)',
     });
   }
-  // A change runs from the earlier period to the later: the other way round, a fall would be reported as a rise.
-  const order = orderedPeriods(cube, column);
-  if (order.indexOf(from) > order.indexOf(to) && order.indexOf(to) >= 0 && orderIsInTime([from, to])) {
-    throw new InputError({
-      file: ctx.claimsFile,
-      line: claim.place.line,
-      column: claim.place.column,
-      field: `claims.${claim.id}.from`,
-      found: String(written.from),
-      problem: `claim "${claim.id}" runs from ${from} to ${to}, but ${from} comes after ${to}: a change is measured from the earlier period to the later, so this one would report a fall as a rise`,
-      fix: `swap them: from: ${String(written.to)}, to: ${String(written.from)}`,
-    });
-  }
+  refuseBackwards(written, from, to, cube, column, ctx);
   const scope = Object.entries(claim.where).filter(([k]) => k !== column);
   const scopeLabel = scope.length > 0 ? `${filterLabel(Object.fromEntries(scope))}, ` : '';
   const laterPooled = pool(cube, { ...claim.where, [column]: to });

@@ -8,6 +8,8 @@
  * with the same power functions:
  * - compare, change: pooled two-proportion z test power (src/stats/power-two-proportions.ts), the second group's rate
  *   as the base, in the claimed direction (the larger of the two for an undirected claim);
+ * - gap-change: the z test of a change in a gap (src/stats/power-gap-change.ts), the standard error from the four
+ *   groups' rates; two-sided for narrowed and widened, whose two z tests are each held to the two-sided level;
  * - target: the one-sample score test (src/stats/power-one-proportion.ts), with the finite-population correction
  *   where the number eligible is known;
  * - trend: the Cochran–Armitage slope (detectableSlope in src/analyse/trend.ts);
@@ -25,6 +27,7 @@ import { minDetectableMeanDifference } from '../stats/power-two-means.js';
 import { detectableSlope } from './trend.js';
 import { effectiveSize } from '../stats/finite-population.js';
 import { minDetectableCramersV } from '../stats/power-chi-square.js';
+import { minDetectableGapChange } from '../stats/power-gap-change.js';
 
 /** The power every smallest detectable effect is computed at ("detected 80% of the time"). */
 export const POWER = 0.8;
@@ -49,6 +52,13 @@ export function detectableAt(a: Analysis, alpha: number): number | undefined {
       const m1 = corrected ? effectiveSize(first.n, first.population as number) : first.n;
       const m2 = corrected ? effectiveSize(second.n, second.population as number) : second.n;
       return pick(a.claim.expect, minDetectableDifference(m1, m2, second.rate, { alpha, power: POWER, sided }));
+    }
+    case 'gap-change': {
+      if (!a.earlier || !a.later) return undefined;
+      const four = [a.earlier.focus, a.earlier.against, a.later.focus, a.later.against];
+      const se = Math.sqrt(four.reduce((s, r) => s + (r.rate * (1 - r.rate)) / r.n, 0));
+      // The gap-size test holds each of its two z tests at the two-sided level.
+      return se > 0 ? minDetectableGapChange(se, { alpha, power: POWER, sided: a.test.method === 'gap-size-iut' ? 'two-sided' : sided }) : undefined;
     }
     case 'target': {
       if (!a.rate) return undefined;
@@ -85,7 +95,7 @@ export function detectableAt(a: Analysis, alpha: number): number | undefined {
  */
 export function atThreshold<A extends Analysis>(a: A, effectiveAlpha: number | undefined): A {
   if (effectiveAlpha === undefined || a.status !== 'tested') return a;
-  if (!['compare', 'change', 'target', 'trend', 'association', 'means', 'crosstab'].includes(a.kind)) return a;
+  if (!['compare', 'change', 'gap-change', 'target', 'trend', 'association', 'means', 'crosstab'].includes(a.kind)) return a;
   const detectable = detectableAt(a, effectiveAlpha);
   const rest = { ...a } as A & { detectable?: number };
   delete rest.detectable;

@@ -3,6 +3,7 @@ import type { Cube } from '../data/types.js';
 import { analyseAssociation } from './association.js';
 import { analyseCompare, type CompareContext } from './compare.js';
 import { analyseChange } from './change.js';
+import { analyseGapChange } from './gap-change.js';
 import { analyseEstimate } from './estimate.js';
 import { analyseTarget } from './target.js';
 import { analyseTrend } from './trend.js';
@@ -27,6 +28,8 @@ export function analyse(written: Claim, cube: Cube, ctx: CompareContext): Analys
       return analyseEquivalence(claim, cube, ctx);
     case 'change':
       return analyseChange(claim, cube, ctx);
+    case 'gap-change':
+      return analyseGapChange(claim, cube, ctx);
     case 'trend':
       return analyseTrend(claim, cube, ctx);
     case 'target':

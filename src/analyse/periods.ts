@@ -111,7 +111,7 @@ export function resolvePeriods(claim: Claim, cube: Cube, periodColumn: string | 
   if (claim.kind === 'association') {
     next.controls = claim.controls.map((ctl, i) => ({ ...ctl, filter: resolveFilter(r, ctl.filter, `controls.${i}`) }));
   }
-  if (claim.kind === 'change') {
+  if (claim.kind === 'change' || claim.kind === 'gap-change') {
     next.from = resolveScalar(r, claim.from, 'from');
     next.to = resolveScalar(r, claim.to, 'to');
   }

@@ -5,7 +5,7 @@
 import type { AssociationClaim, Claim, CompareClaim, CrosstabClaim, EquivalenceClaim, MeansClaim } from '../claims/types.js';
 import type { Interval, TestResult } from '../stats/result.js';
 import type { PartialKendall } from '../stats/partial-kendall.js';
-import type { ChangeClaim, EstimateClaim, TargetClaim, TrendClaim } from '../claims/types.js';
+import type { ChangeClaim, EstimateClaim, GapChangeClaim, TargetClaim, TrendClaim } from '../claims/types.js';
 
 /** One selection's pooled agreement rate with its interval. */
 export interface RateSummary {
@@ -256,6 +256,36 @@ export interface ChangeAnalysis extends AnalysisBase {
   responseRate?: number;
 }
 
+/** One period of a gap-change claim: the two selections' rates and the gap focus - against with Newcombe's interval. */
+export interface GapInPeriod {
+  focus: RateSummary;
+  against: RateSummary;
+  /** focus rate - against rate. */
+  gap: number;
+  interval: Interval;
+}
+
+/** A change claim with focus and against: the gap between two selections in an earlier and a later period. */
+export interface GapChangeAnalysis extends AnalysisBase {
+  kind: 'gap-change';
+  claim: GapChangeClaim;
+  /** The source's period column. */
+  periodColumn: string;
+  /** The two periods, as the data write them (relative words resolved). */
+  periods: { from: string; to: string };
+  /** How the two selections relate in the data (in the later period). */
+  relation: 'separate' | 'focus-inside' | 'against-inside';
+  earlier?: GapInPeriod;
+  later?: GapInPeriod;
+  /** The change in the gap, later gap - earlier gap, with the MOVER-Wilson interval. */
+  difference?: { value: number; interval: Interval };
+  /** The change in the gap's size, |later gap| - |earlier gap| (negative: narrowed). */
+  sizeChange?: number;
+  /** Smallest change in the gap (proportion units) detectable with 80% power (src/stats/power-gap-change.ts). */
+  detectable?: number;
+  responseRate?: number;
+}
+
 /** Claim kind "trend": the agreement rate over three or more ordered periods. */
 export interface TrendAnalysis extends AnalysisBase {
   kind: 'trend';
@@ -307,7 +337,7 @@ export interface EstimateAnalysis extends AnalysisBase {
   responseRate?: number;
 }
 
-export type Analysis = CompareAnalysis | AssociationAnalysis | CrosstabAnalysis | MeansAnalysis | EquivalenceAnalysis | ChangeAnalysis | TrendAnalysis | TargetAnalysis | EstimateAnalysis;
+export type Analysis = CompareAnalysis | AssociationAnalysis | CrosstabAnalysis | MeansAnalysis | EquivalenceAnalysis | ChangeAnalysis | GapChangeAnalysis | TrendAnalysis | TargetAnalysis | EstimateAnalysis;
 
 /** Pack-wide settings a claim's analysis needs. */
 export interface AnalysisSettings {

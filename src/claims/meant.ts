@@ -1,8 +1,8 @@
 /**
  * What a word written where warrant expects one of its own names probably meant: the claim kinds people call by other
  * names (a "correlation" is an association, a "benchmark" a target), the claims no kind can say (a place in a
- * ranking, a gap that narrowed, every unit at once) with what can be said instead, and the directions people write
- * in their own words ("below", "fell"). Used by the schema messages (src/claims/validate.ts) so that a refusal leads
+ * ranking, every unit at once) with what can be said instead, a gap that narrowed (a change claim with focus and
+ * against), and the directions people write in their own words ("below", "fell"). Used by the schema messages (src/claims/validate.ts) so that a refusal leads
  * to the form meant.
  */
 
@@ -24,12 +24,12 @@ const KIND_SYNONYMS: Record<string, string[]> = {
 };
 
 /**
- * A gap between two groups that narrowed or widened between periods: no kind says it. (When a kind does, this is the
- * one place to change: the unknown-kind message and the change claim's focus/against message both use it.)
+ * A gap between two groups that narrowed or widened between periods: a change claim with focus and against (the
+ * unknown-kind message leads there).
  */
 export const GAP_CHANGE = {
-  why: 'warrant has no claim that a gap between two groups changed between periods (narrowed or widened)',
-  instead: 'To compare the two groups, use kind: compare in one period, one claim per period if both matter, or a change claim for each group; neither says whether the gap itself changed, so do not claim that it did',
+  why: 'a gap between two groups that changed between periods (narrowed or widened) is a change claim with focus and against',
+  instead: 'Write kind: change with from and to (the two periods), focus and against (the two groups, or against: rest) and expect: narrowed or widened (the gap\'s size, whichever group is ahead), or lower, higher or different (focus minus against)',
 };
 
 /** Kinds of claim warrant has no test for, with what can be claimed instead. */

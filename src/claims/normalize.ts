@@ -20,6 +20,8 @@ import type {
   Filter,
   FilterScalar,
   FilterValue,
+  GapChangeClaim,
+  GapExpect,
   MeansClaim,
   Measure,
   Place,
@@ -232,7 +234,7 @@ function againstOf(c: Rec): { against: Filter; againstRest?: true } {
 }
 
 function claimOfKind(c: Rec, base: Base, lenient: boolean): Claim {
-  switch (c.kind as ClaimKind) {
+  switch (c.kind as Exclude<ClaimKind, 'gap-change'>) {
     case 'compare':
       return labels<CompareClaim>(
         { ...base, kind: 'compare', focus: copyFilter(c.focus as Filter), ...againstOf(c), expect: c.expect as CompareExpect },
@@ -263,6 +265,14 @@ function claimOfKind(c: Rec, base: Base, lenient: boolean): Claim {
       );
     }
     case 'change':
+      // With focus and against a change claim is about the gap between the two selections (rules.ts asks for both).
+      if (c.focus !== undefined || c.against !== undefined) {
+        return labels<GapChangeClaim>(
+          { ...base, kind: 'gap-change', from: c.from as FilterScalar, to: (c.to as FilterScalar | undefined) ?? 'latest', focus: copyFilter(c.focus as Filter | undefined), ...againstOf(c), expect: c.expect as GapExpect },
+          c,
+          PAIR_LABELS,
+        );
+      }
       return { ...base, kind: 'change', from: c.from as FilterScalar, to: (c.to as FilterScalar | undefined) ?? 'latest', expect: c.expect as CompareExpect };
     case 'trend':
       return {

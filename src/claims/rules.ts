@@ -195,6 +195,44 @@ export function crossFieldProblems(parsed: ParsedYaml, file: string, claimsDir: 
     if (c.kind === 'target') checkAmount(c, [...claimPath, 'value'], 'share0', 'the value');
     if (c.kind === 'equivalence') checkAmount(c, [...claimPath, 'margin'], 'points', 'the margin');
 
+    // A change claim with focus and against follows the gap between the two selections; it needs both, and only it
+    // can say that a gap narrowed or widened.
+    if (c.kind === 'change') {
+      const gap = 'focus' in c || 'against' in c;
+      if (gap && !('focus' in c && 'against' in c)) {
+        const has = 'focus' in c ? 'focus' : 'against';
+        const lacks = has === 'focus' ? 'against' : 'focus';
+        problems.push({
+          file,
+          ...at([...claimPath, has], 'key'),
+          field: lacks,
+          problem: `${describeOwner(data, claimPath)} gives ${has} but no ${lacks}: a change claim with focus and against follows the gap between two selections, and needs both`,
+          fix: has === 'focus'
+            ? 'Add against: the selection the focus is measured against (or against: rest for everyone else under where); or, to follow one group, put its filter in where and delete focus'
+            : 'Add focus: the selection the gap is about; or, to follow one group, put its filter in where and delete against',
+        });
+      }
+      if (!gap && (c.expect === 'narrowed' || c.expect === 'widened')) {
+        problems.push({
+          file,
+          ...at([...claimPath, 'expect']),
+          field: 'expect',
+          found: String(c.expect),
+          problem: `${describeOwner(data, claimPath)} expects the gap ${String(c.expect)}, but names no two selections: ${String(c.expect)} is about the gap between focus and against`,
+          fix: 'Add focus and against (the two groups whose gap is followed, e.g. focus: { Mode: Part-time } and against: { Mode: Full-time }); for one group\'s rate use expect: lower, higher or different',
+        });
+      }
+      if (gap && c.test === 'one-sided' && (c.expect === 'narrowed' || c.expect === 'widened')) {
+        problems.push({
+          file,
+          ...at([...claimPath, 'test']),
+          field: 'test',
+          found: 'one-sided',
+          problem: `${describeOwner(data, claimPath)} asks for a one-sided test of a gap that ${String(c.expect)}: which group is ahead is read from the data, so the two tests on the gap's size are always held to the two-sided level`,
+          fix: 'Delete the test line; or, to test one direction of focus minus against fixed in advance, use expect: lower or higher with test: one-sided',
+        });
+      }
+    }
     if (c.kind === 'trend' && ('periods' in c) === ('last' in c)) {
       problems.push({
         file,

@@ -85,7 +85,7 @@ export function samenessProblems(parsed: ParsedYaml, file: string): Problem[] {
     if (c.kind === 'crosstab' && typeof c.rows === 'string' && typeof c.columns === 'string' && same(c.rows, c.columns)) {
       push('columns', `crosses the column "${c.rows}" with itself, so every answer would fall on the table's diagonal`, 'Name two different columns under rows and columns');
     }
-    if ((c.kind === 'compare' || c.kind === 'means' || c.kind === 'equivalence') && 'focus' in c && 'against' in c && same(c.focus, c.against)) {
+    if ((c.kind === 'compare' || c.kind === 'means' || c.kind === 'equivalence' || c.kind === 'change') && 'focus' in c && 'against' in c && same(c.focus, c.against)) {
       push('against', 'compares a selection with itself (focus and against are the same), so the difference is zero by construction', 'Make against the selection the focus is compared with, e.g. another department or the rest of the region');
     }
     if (c.kind === 'change' && 'from' in c && 'to' in c && same(c.from, c.to)) {

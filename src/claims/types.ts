@@ -212,6 +212,31 @@ export interface ChangeClaim extends ClaimBase {
   expect: CompareExpect;
 }
 
+/**
+ * The direction of a gap's change: narrowed (its size fell: the two selections closer together, whichever is ahead),
+ * widened (its size grew), lower or higher (focus minus against fell or rose), or different (changed either way).
+ */
+export type GapExpect = CompareExpect | 'narrowed' | 'widened';
+
+/**
+ * The gap between two selections in two periods ("the gap between part-time and full-time students narrowed since
+ * 2024"): written as a change claim with focus and against. The gap is focus minus against in each period.
+ */
+export interface GapChangeClaim extends ClaimBase {
+  kind: 'gap-change';
+  /** Earlier period: a value or a relative word (`previous`, `latest-2`). */
+  from: FilterScalar;
+  /** Later period (default `latest`). */
+  to: FilterScalar;
+  focus: Filter;
+  against: Filter;
+  focusLabel?: string;
+  againstLabel?: string;
+  /** `against: rest`: everyone else the claim's `where` selects, in each period. */
+  againstRest?: true;
+  expect: GapExpect;
+}
+
 export type TrendExpect = 'rising' | 'falling' | 'any';
 
 /** A trend in the agreement rate over three or more ordered periods. */
@@ -293,6 +318,7 @@ export type Claim =
   | CompareClaim
   | AssociationClaim
   | ChangeClaim
+  | GapChangeClaim
   | TrendClaim
   | TargetClaim
   | CrosstabClaim

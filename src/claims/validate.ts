@@ -6,7 +6,7 @@ import type { ErrorObject } from 'ajv';
 import type { Problem } from '../errors.js';
 import { claimsSchema, claimsValidator, type JsonSchema } from './schema.js';
 import { closest } from '../suggest.js';
-import { GAP_CHANGE, KIND_WORDS, meantExpect, meantKind } from './meant.js';
+import { KIND_WORDS, meantExpect, meantKind } from './meant.js';
 import { locate, type ParsedYaml } from './yaml.js';
 
 type Segment = string | number;
@@ -232,15 +232,9 @@ function toProblem(e: ErrorObject, path: Segment[], parsed: ParsedYaml, file: st
         p.fix = `Remove ${field}`;
         return p;
       }
-      if (isClaim && current === 'change' && (field === 'focus' || field === 'against')) {
-        // Two groups followed over periods: "the gap between part-time and full-time students narrowed".
-        p.problem = `"${field}" does not apply to a change claim, which follows one selection (where) over periods, in ${describeOwner(data, owner)}; ${GAP_CHANGE.why}`;
-        p.fix = `To follow one group, put its filter in where and delete focus and against. ${GAP_CHANGE.instead}`;
-        return p;
-      }
       if (isClaim && current === 'trend' && (field === 'focus' || field === 'against')) {
         p.problem = `"${field}" does not apply to a trend claim, which follows one selection (where) over three or more periods, in ${describeOwner(data, owner)}`;
-        p.fix = 'Put the selection in where and delete focus and against; to follow two groups, write a trend claim for each';
+        p.fix = 'Put the selection in where and delete focus and against; to follow two groups, write a trend claim for each; to claim that the gap between them changed between two periods, use kind: change with focus and against (expect: narrowed or widened)';
         return p;
       }
       p.problem = `"${field}" does not apply when ${selector} is ${current}${belongs ? ` (it belongs with ${belongs})` : ''}, in ${describeOwner(data, owner)}`;

@@ -304,7 +304,7 @@ export function wordsAgainstFields(claim: Claim, data?: { values: Readonly<Recor
     }
   }
 
-  if (claim.kind === 'change') {
+  if (claim.kind === 'change' || claim.kind === 'gap-change') {
     const lastYear = /\b(last|previous|a) (year|survey|round|wave|release)('s)?\b|\b(a year ago|year on year)\b/.exec(text);
     const back = periodsBack(claim.from);
     const toBack = periodsBack(claim.to);

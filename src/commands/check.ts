@@ -356,7 +356,7 @@ function claimDataProblems(claim: Claim, i: number, source: SourceSpec, cube: Cu
   }
 
   // Periods of change and trend claims.
-  if (periodCol !== undefined && (claim.kind === 'change' || claim.kind === 'trend')) {
+  if (periodCol !== undefined && (claim.kind === 'change' || claim.kind === 'gap-change' || claim.kind === 'trend')) {
     const periodAt = (key: string, k?: number): Path => (k === undefined ? ['claims', i, key] : ['claims', i, key, k]);
     const check = (v: FilterScalar, p: Path): string | undefined => {
       const t = valueOf(periodCol, v, p);
@@ -365,7 +365,7 @@ function claimDataProblems(claim: Claim, i: number, source: SourceSpec, cube: Cu
       }
       return t;
     };
-    if (claim.kind === 'change') {
+    if (claim.kind === 'change' || claim.kind === 'gap-change') {
       const from = check(claim.from, periodAt('from'));
       const toWritten = locate(parsed, ['claims', i, 'to']).value !== undefined;
       const to = check(claim.to, toWritten ? periodAt('to') : periodAt('from'));

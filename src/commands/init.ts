@@ -250,6 +250,16 @@ export function starterText(scan: TableScan, guess: Guess, dataFile: string, sch
     '    from: previous',
     '    expect: lower',
   ]);
+  example(`change with focus and against: the gap between two selections in two periods${periodNote}`, [
+    '  - id: gap-example',
+    `    claim: The gap between ${u1} and the others narrowed since the previous survey.`,
+    '    kind: change',
+    whereLine,
+    '    from: previous',
+    `    focus: ${flow([[unitName, u1]])}`,
+    '    against: rest',
+    '    expect: narrowed   # the gap\'s size, whichever is ahead; or widened, or lower / higher (focus minus against)',
+  ]);
   example(`trend: a rise or fall over three or more periods${periodNote}`, [
     '  - id: trend-example',
     `    claim: Agreement at ${u1} has risen over the last three surveys.`,

@@ -127,6 +127,11 @@ export interface ClaimResult {
   sourceReadingNotes?: number;
   /** Crosstab cells whose adjusted residual lies beyond the level's critical value, largest first. */
   notableCells?: Array<{ row: string; column: string; residual: number }>;
+  /**
+   * Change claims with focus and against (kind gap-change): the gap (focus rate minus against rate) in each period with
+   * its Newcombe interval, and the change in the gap's size (|later gap| minus |earlier gap|; negative: narrowed).
+   */
+  gaps?: { from: GapResult; to: GapResult; sizeChange: number };
   /** Compare and change: Cohen's h for the two rates. */
   cohensH?: number | null;
   /** Target: the fixed value the rate is held to (proportion). */
@@ -200,6 +205,13 @@ export interface ResultsFile {
   claims: ClaimResult[];
 }
 
+/** One period's gap in a gap-change claim. */
+export interface GapResult {
+  period: string;
+  value: number;
+  interval: Interval;
+}
+
 function selection(r: RateSummary): SelectionResult {
   return {
     label: r.label,
@@ -243,7 +255,9 @@ export function claimResult(a: Analysis, decision: Decision, section: ClaimSecti
   // Every rate the pack prints: two selections (compare, equivalence), two periods (change, earlier first), each
   // period (trend), one selection (target, estimate), or a list of selections.
   const rates: RateSummary[] = [];
-  if (extra.focus && extra.against) rates.push(extra.focus as RateSummary, extra.against as RateSummary);
+  if (a.kind === 'gap-change') {
+    if (a.earlier && a.later) rates.push(a.earlier.focus, a.earlier.against, a.later.focus, a.later.against);
+  } else if (extra.focus && extra.against) rates.push(extra.focus as RateSummary, extra.against as RateSummary);
   else if (extra.earlier && extra.later) rates.push(extra.earlier as RateSummary, extra.later as RateSummary);
   else if (Array.isArray(extra.rates)) rates.push(...(extra.rates as RateSummary[]));
   else if (extra.rate && typeof extra.rate === 'object') rates.push(extra.rate as RateSummary);
@@ -262,7 +276,11 @@ export function claimResult(a: Analysis, decision: Decision, section: ClaimSecti
   const difference = extra.difference as { value?: number; interval?: Interval } | undefined;
   const estimate =
     difference && typeof difference.value === 'number' && difference.interval
-      ? { name: a.test?.estimate.name && /difference/i.test(a.test.estimate.name) ? a.test.estimate.name : 'difference from the comparison value', value: difference.value }
+      ? {
+          // A gap-change claim reports the change in the gap (its interval's quantity) whichever test decided it.
+          name: a.kind === 'gap-change' ? 'change in the difference of proportions' : a.test?.estimate.name && /difference/i.test(a.test.estimate.name) ? a.test.estimate.name : 'difference from the comparison value',
+          value: difference.value,
+        }
       : a.test?.estimate ?? null;
   return {
     id: a.claim.id,
@@ -344,6 +362,16 @@ function kindFigures(a: Analysis): Partial<ClaimResult> {
     case 'compare':
     case 'change':
       return { cohensH: a.cohensH ?? null };
+    case 'gap-change':
+      return a.earlier && a.later && a.sizeChange !== undefined
+        ? {
+            gaps: {
+              from: { period: a.periods.from, value: a.earlier.gap, interval: a.earlier.interval },
+              to: { period: a.periods.to, value: a.later.gap, interval: a.later.interval },
+              sizeChange: a.sizeChange,
+            },
+          }
+        : {};
     case 'target':
       return { comparisonValue: a.claim.value, ...(a.exactInterval ? { exactInterval: a.exactInterval } : {}) };
     case 'equivalence':

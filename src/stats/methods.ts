@@ -68,6 +68,11 @@ export const METHODS: Record<string, MethodInfo> = {
     text: 'A gap narrowed when the later gap is closer to zero than the earlier one, whichever group is ahead. That is tested as two z tests that must both find their way: the change in the gap points back towards zero, and the later gap has not crossed beyond the earlier gap’s size on the other side (for widened: the change points away from zero on the side the later gap is on). Each is held to the two-sided threshold, because which group is ahead is read from the data, so the test keeps its stated level even when the earlier gap is near zero.',
     source: 'Berger, R. L. (1982). Multiparameter hypothesis testing and acceptance sampling. Technometrics 24, 295–300 (the intersection–union test); Berger, R. L. and Hsu, J. C. (1996). Statistical Science 11, 283–319.',
   },
+  'power-gap-change': {
+    name: 'Smallest detectable change in a gap',
+    text: 'The smallest change in the gap between two groups that the z test, with these four groups’ sizes and rates, would find 80% of the time, at the threshold that actually decided the verdict: the sum of the normal quantiles for the threshold and for 80% power, times the standard error of the change. For a claim that the gap narrowed or widened it is the change the first of its two tests would find; the second (that the later gap did not cross to the other side by as much) can ask for more.',
+    source: 'Cohen, J. (1988). Statistical Power Analysis for the Behavioral Sciences, 2nd ed., Erlbaum, ch. 12 (the normal-approximation power of a z test; cited from memory); the standard error held at the observed rates (common practice).',
+  },
   'power-two-proportions': {
     name: 'Smallest detectable difference',
     text: 'The smallest difference between two rates that a test of this kind, with these group sizes, would find 80% of the time, at the threshold that actually decided the verdict (after the adjustment for many claims, the threshold each claim was held to is smaller than one minus the confidence level, so the detectable difference is larger). It tells how large a difference a claim that is not supported could still hide.',

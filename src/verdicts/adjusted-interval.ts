@@ -25,6 +25,7 @@ export function headline(a: Analysis): Headline | undefined {
   switch (a.kind) {
     case 'compare':
     case 'change':
+    case 'gap-change':
     case 'target':
       return a.difference ? { interval: a.difference.interval, unit: 'points' } : undefined;
     case 'equivalence':

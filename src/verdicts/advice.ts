@@ -75,6 +75,7 @@ export function effectInterval(a: Analysis): EffectInterval | undefined {
   switch (a.kind) {
     case 'compare':
     case 'change':
+    case 'gap-change':
     case 'target':
     case 'equivalence':
       return a.difference ? { value: a.difference.value, lower: a.difference.interval.lower, upper: a.difference.interval.upper, unit: 'points' } : undefined;
@@ -170,7 +171,7 @@ export function worthReporting(a: Analysis, decision: Decision, linked: Analysis
   if (a.kind === 'equivalence') return { value: a.claim.margin, basis: 'threshold' };
   if (a.status !== 'tested') return undefined;
   if (set?.from === 'file') return own(set.value, 'file');
-  if (a.kind === 'compare' || a.kind === 'change' || a.kind === 'target') return { value: WORTH_DEFAULTS.points, basis: 'default' };
+  if (a.kind === 'compare' || a.kind === 'change' || a.kind === 'gap-change' || a.kind === 'target') return { value: WORTH_DEFAULTS.points, basis: 'default' };
   if (a.kind === 'association') return { value: WORTH_DEFAULTS.correlation, basis: 'default' };
   if (a.kind === 'means') return standardized(WORTH_DEFAULTS.standardized, 'default');
   return undefined;
@@ -188,7 +189,7 @@ export function packWorthSizes(claims: ClaimsFile): string {
   const mark = (v: number | undefined): string => (v !== undefined ? ' (set in the claims file)' : '');
   // As written: "5 points", "2.5 points", "0.2 standard deviations" (no trailing zeros).
   const plain = (v: number): string => String(Number(v.toPrecision(12)));
-  if (['compare', 'change', 'target'].some((k) => kinds.has(k as never))) {
+  if (['compare', 'change', 'gap-change', 'target'].some((k) => kinds.has(k as never))) {
     parts.push(`${plain((set.rates ?? WORTH_DEFAULTS.points) * 100)} points for rates${mark(set.rates)}`);
   }
   if (kinds.has('means')) parts.push(`${plain(set.meanScores ?? WORTH_DEFAULTS.standardized)} standard deviations for mean scores${mark(set.meanScores)}`);
@@ -200,6 +201,19 @@ export function packWorthSizes(claims: ClaimsFile): string {
   return allSet ? `${list}${mark(0)}` : list;
 }
 
+/**
+ * The direction of the claim in the terms of its effect interval: the claim's expectSign, except for a gap that
+ * narrowed or widened, whose interval is the change in the gap (later minus earlier): narrowing moves it back towards
+ * zero from the earlier gap's side, widening away from zero on that side (no direction when the earlier gap was 0).
+ */
+export function intervalDirection(a: Analysis): 1 | -1 | 0 {
+  if (a.kind === 'gap-change' && (a.claim.expect === 'narrowed' || a.claim.expect === 'widened')) {
+    const side = a.earlier === undefined ? 0 : Math.sign(a.earlier.gap);
+    return (a.claim.expect === 'narrowed' ? -side : side) as 1 | -1 | 0;
+  }
+  return a.expectSign;
+}
+
 /** Which kind of "not supported" this is, or undefined for other verdicts and kinds that cannot be split. */
 export function notSupportedAs(a: Analysis, decision: Decision, worth: Worth | undefined): NotSupportedAs | undefined {
   if (decision.verdict !== 'not-supported') return undefined;
@@ -209,7 +223,8 @@ export function notSupportedAs(a: Analysis, decision: Decision, worth: Worth | u
   // Equivalence not shown: the interval crosses the margin, so it holds both a gap inside and one beyond it.
   if (a.kind === 'equivalence') return 'inconclusive';
   if (worth === undefined) return undefined;
-  const directions = a.expectSign === 0 ? [1, -1] : [a.expectSign];
+  const direction = intervalDirection(a);
+  const directions = direction === 0 ? [1, -1] : [direction];
   const ruledOut = directions.every((d) => (d > 0 ? e.upper < worth.value : e.lower > -worth.value));
   return ruledOut ? 'ruled-out' : 'inconclusive';
 }
@@ -263,6 +278,7 @@ export function worthView(worth: Worth | undefined, unit: EffectInterval['unit']
 function labelsOf(a: Analysis): { focus: string; against: string; subject: string } {
   const c = a.claim as unknown as { focus?: Record<string, unknown>; against?: Record<string, unknown>; focusLabel?: string; againstLabel?: string; selectLabel?: string; select?: Record<string, unknown>; where?: Record<string, unknown> };
   const x = a as unknown as { focus?: { label: string }; against?: { label: string }; rate?: { label: string } };
+  if (a.kind === 'gap-change') return { focus: c.focusLabel ?? filterLabel(a.claim.focus, a.claim.naming), against: a.claim.againstRest === true ? 'everyone else' : c.againstLabel ?? filterLabel(a.claim.against, a.claim.naming), subject: '' };
   const focus = x.focus?.label ?? c.focusLabel ?? (c.focus ? filterLabel(c.focus as never) : '');
   const against = x.against?.label ?? c.againstLabel ?? (c.against ? filterLabel(c.against as never) : '');
   const subject = x.rate?.label ?? c.selectLabel ?? (c.where ? filterLabel(c.where as never) : '');
@@ -271,7 +287,7 @@ function labelsOf(a: Analysis): { focus: string; against: string; subject: strin
 
 /** The suggested rewording of a claim whose size is ruled out: what the interval supports. */
 function rewording(a: Analysis, e: EffectInterval & { level: number }, t: Templates): string {
-  const direction = a.expectSign;
+  const direction = intervalDirection(a);
   // The bound the interval puts on an effect in the claimed direction(s), never below zero.
   const bound = direction > 0 ? Math.max(e.upper, 0) : direction < 0 ? Math.max(-e.lower, 0) : Math.max(Math.abs(e.lower), Math.abs(e.upper));
   const l = labelsOf(a);

@@ -9,6 +9,7 @@ import type { ComposeContext, Composed } from './words/common.js';
 import { composeAssociation } from './words/association.js';
 import { composeCompare } from './words/compare.js';
 import { composeChange } from './words/change.js';
+import { composeGapChange } from './words/gap-change.js';
 import { composeEstimate } from './words/estimate.js';
 import { composeTarget } from './words/target.js';
 import { composeTrend } from './words/trend.js';
@@ -38,6 +39,8 @@ function composeKind(a: Analysis, decision: Decision, ctx: ComposeContext): Comp
       return composeEquivalence(a, decision, ctx);
     case 'change':
       return composeChange(a, decision, ctx);
+    case 'gap-change':
+      return composeGapChange(a, decision, ctx);
     case 'trend':
       return composeTrend(a, decision, ctx);
     case 'target':

@@ -80,7 +80,8 @@ export function decide(analysis: Analysis, pAdjusted: number | undefined, effect
     if (pAdjusted < alpha) return { verdict: 'supported', ...base };
     return { verdict: analysis.beyondMargin ? 'opposite' : 'not-supported', ...base };
   }
-  if (analysis.test.alternative === 'two-sided') {
+  // The gap-size test (narrowed, widened) is two-sided in level but directed: its opposite is the other size change.
+  if (analysis.test.alternative === 'two-sided' && analysis.test.method !== 'gap-size-iut') {
     if (pAdjusted >= alpha || observed === 0) return { verdict: 'not-supported', ...base };
     if (expect === 0 || observed === expect) return supportedUnlessSmall(analysis, base);
     return { verdict: 'opposite', ...base };

@@ -1,7 +1,7 @@
 /**
  * The change in a gap between two groups from one period to another (src/stats/difference-of-differences.ts).
  *
- * Sources: GNU R 4.2.2, the formulas written out with prop.test's Wilson bounds and pnorm
+ * Sources: GNU R 4.2.2, the formulas written out with prop.test's Wilson bounds, pnorm and qnorm
  * (tests/fixtures/r/gap-change.R -> gap-change.json); Newcombe (1998), Table II, 56/70 - 48/80 (0.0524 to 0.3339) for
  * the contrast interval with one difference; and the intersection-union test's defining property, checked by
  * simulation: with the gap's size unchanged, "narrowed" is found no more often than 1 - level.
@@ -10,6 +10,7 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { differenceOfDifferences, gapSizeChange, proportionContrast, type Gap } from '../../src/stats/difference-of-differences.js';
 import { newcombeInterval } from '../../src/stats/newcombe.js';
+import { minDetectableGapChange } from '../../src/stats/power-gap-change.js';
 import { expectClose } from '../helpers/tolerance.js';
 
 interface Case {
@@ -30,6 +31,8 @@ interface Case {
   s_upper: number;
   p_narrowed: number;
   p_widened: number;
+  detectable_two: number;
+  detectable_one: number;
 }
 const r = JSON.parse(readFileSync(new URL('../fixtures/r/gap-change.json', import.meta.url), 'utf8')) as {
   r_version: string;
@@ -70,6 +73,8 @@ describe('difference of differences against R 4.2.2 (formulas written out)', () 
       expectClose(narrowed.s.z, c.z_s, 'closed', 'z of S');
       expectClose(narrowed.s.interval.lower, c.s_lower, 'bound', 'S lower');
       expectClose(narrowed.s.interval.upper, c.s_upper, 'bound', 'S upper');
+      expectClose(minDetectableGapChange(c.se, { alpha: 1 - c.level }), c.detectable_two, 'closed', 'detectable, two-sided');
+      expectClose(minDetectableGapChange(c.se, { alpha: 1 - c.level, sided: 'one-sided' }), c.detectable_one, 'closed', 'detectable, one-sided');
     });
   }
   it('refuses four samples that all answered one way', () => {

@@ -67,7 +67,7 @@ export function restOfGroupCaution(
  * only in a pack that has such a claim.
  */
 export function comparesPeriods(a: Analysis, periodColumns: readonly string[]): boolean {
-  if (a.kind === 'change' || a.kind === 'trend') return true;
+  if (a.kind === 'change' || a.kind === 'gap-change' || a.kind === 'trend') return true;
   const c = a.claim as unknown as { focus?: Filter; against?: Filter; rows?: string[]; columns?: string | string[] };
   if ((a.kind === 'compare' || a.kind === 'means' || a.kind === 'equivalence') && c.focus && c.against) {
     return periodColumns.some((p) => p in (c.focus as Filter) && p in (c.against as Filter));
@@ -130,7 +130,14 @@ export function commonRows(a: Analysis, decision: Decision, ctx: ComposeContext)
     rows.push({ label: 'Test statistic', value: `${a.test.statistic.symbol} = ${fmt.statistic(a.test.statistic.value)}${df}` });
   }
   // The TOST p-value is neither one- nor two-sided: it is the larger of the two one-sided p-values.
-  const sidedness = a.kind === 'equivalence' ? 'TOST, the larger of the two one-sided p-values' : a.test?.alternative === 'two-sided' ? 'two-sided' : 'one-sided';
+  const sidedness =
+    a.kind === 'equivalence'
+      ? 'TOST, the larger of the two one-sided p-values'
+      : a.test?.method === 'gap-size-iut'
+        ? 'both tests, each at the two-sided level'
+        : a.test?.alternative === 'two-sided'
+          ? 'two-sided'
+          : 'one-sided';
   rows.push({ label: `p-value (${sidedness})`, value: fmt.pValue(decision.p ?? NaN) });
   if (ctx.adjusted) rows.push({ label: `p-value adjusted for ${ctx.claimsTested} claims`, value: fmt.pValue(decision.pAdjusted ?? NaN) });
   const level = fmt.level(a.claim.confidence);
@@ -159,6 +166,7 @@ export function fpcWords(fpc: NonNullable<Analysis['fpc']>): string {
 function ratesOf(a: Analysis): RateSummary[] {
   const r = a as Partial<Record<'focus' | 'against' | 'later' | 'earlier' | 'rate', RateSummary>> & { rates?: RateSummary[] };
   if (a.kind === 'change') return [r.later, r.earlier].filter((x): x is RateSummary => x !== undefined);
+  if (a.kind === 'gap-change') return a.earlier && a.later ? [a.earlier.focus, a.earlier.against, a.later.focus, a.later.against] : [];
   return [r.focus, r.against, r.rate, ...(r.rates ?? [])].filter((x): x is RateSummary => x !== undefined);
 }
 
