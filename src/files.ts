@@ -15,6 +15,9 @@ import { InputError, type Problem } from './errors.js';
 /** Where a problem with a file is reported: the file as the user knows it, and optionally the line and field. */
 export type Place = Omit<Problem, 'problem' | 'fix'>;
 
+/** The fix for a data file that is not where its path says (the path may come from a claims file or the command line). */
+export const DATA_PATH_FIX = 'Check the path: in a claims file it is read relative to the claims file, on the command line relative to the folder you run warrant in';
+
 /** What a path is when it is not an ordinary file ("a named pipe (FIFO)"), or undefined for an ordinary file. */
 export function otherThanFile(st: Stats): string | undefined {
   if (st.isFile()) return undefined;

@@ -209,6 +209,12 @@ function overrideSources(claims: ClaimsFile, data: Record<string, string>, cwd: 
     const given = data[source.id];
     if (given === undefined) return source;
     const path = resolve(cwd, given);
+    try {
+      statSync(path);
+    } catch (e) {
+      // A loop of links or a file where a folder should be is said as such, not as a missing file.
+      if ((e as { code?: string }).code !== 'ENOENT') throw fsFailure(e, { file: given, field: `--data ${source.id}` }, 'opening the data file given on the command line') ?? e;
+    }
     if (!existsSync(path)) {
       throw new InputError({ file: given, field: `--data ${source.id}`, problem: `the data file given on the command line was not found (looked for at ${path})`, fix: 'Check the path; it is read relative to the folder you run warrant in' });
     }

@@ -11,7 +11,7 @@ import { POINTS_FORMS, readPoints, readShare, readWorth, SHARE_FORMS, periodsBac
 import { closest, nfc } from '../suggest.js';
 import { impossibleDate } from './dates.js';
 import { samenessProblems } from './sameness.js';
-import { notOrdinaryProblem, otherThanFile } from '../files.js';
+import { fsReason, notOrdinaryProblem, otherThanFile } from '../files.js';
 import { describeOwner } from './validate.js';
 import { locate, type ParsedYaml } from './yaml.js';
 
@@ -383,7 +383,18 @@ function fileProblems(written: string, claimsDir: string, file: string, place: {
   let stat;
   try {
     stat = statSync(abs);
-  } catch {
+  } catch (e) {
+    // A loop of links, a file where a folder should be, a folder that may not be opened: not a misspelt name.
+    const code = (e as { code?: string }).code;
+    const reason = code !== 'ENOENT' ? fsReason(e) : undefined;
+    if (reason !== undefined) {
+      const fixes: Record<string, string> = {
+        ELOOP: 'Check the symbolic links in the path: one leads back to itself; point file at the data file itself',
+        ENOTDIR: 'Check each folder named in the path: one of them is a file',
+        ENAMETOOLONG: 'Use a shorter path or shorter folder and file names',
+      };
+      return [{ file, ...place, field: 'file', found: written, problem: `the data file ${abs} cannot be opened: ${reason}`, fix: fixes[code ?? ''] ?? 'Allow access to the file and its folder, or copy the file somewhere you can use' }];
+    }
     let hint = '';
     try {
       const siblings = readdirSync(dirname(abs));

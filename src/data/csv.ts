@@ -26,7 +26,7 @@ import { closeSync, createReadStream, fstatSync, openSync, readSync } from 'node
 import { open } from 'node:fs/promises';
 import type Papa from 'papaparse';
 import { InputError } from '../errors.js';
-import { requireOrdinaryFile } from '../files.js';
+import { DATA_PATH_FIX, fsFailure, requireOrdinaryFile } from '../files.js';
 import { isTrimmedSpace } from './rows.js';
 import type { ReadOptions, SheetRow, SplitTally } from './rows.js';
 import { ASCII_TEXT } from './tally.js';
@@ -217,16 +217,15 @@ function recordTooLong(file: string, rowsRead: number, headerRead: boolean): Inp
 
 function openFailure(e: unknown, file: string): InputError | undefined {
   const code = (e as { code?: string } | null)?.code;
-  if (code === 'ENOENT') {
-    return new InputError({ file, problem: 'The data file was not found', fix: 'Check the file path in the claims file; it is relative to the claims file' });
-  }
+  if (code === 'ENOENT') return new InputError({ file, problem: 'The data file was not found', fix: DATA_PATH_FIX });
   if (code === 'EISDIR') {
     return new InputError({ file, problem: 'The data path is a folder, not a file', fix: 'Name the CSV file itself in the claims file' });
   }
   if (code === 'EACCES' || code === 'EPERM') {
     return new InputError({ file, problem: 'The data file cannot be read (permission denied)', fix: 'Allow reading the file, or copy it somewhere readable' });
   }
-  return undefined;
+  // A loop of links, a file where a folder should be, a name too long: said as the file system's failure.
+  return fsFailure(e, { file }, 'opening the data file');
 }
 
 /**

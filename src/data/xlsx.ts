@@ -24,7 +24,7 @@ import { createInflateRaw } from 'node:zlib';
 import { Transform, pipeline } from 'node:stream';
 import type { SaxesTagPlain } from 'saxes';
 import { InputError } from '../errors.js';
-import { requireOrdinaryFile } from '../files.js';
+import { DATA_PATH_FIX, fsFailure, fsReason, requireOrdinaryFile } from '../files.js';
 import type { ReadOptions, SheetRow } from './rows.js';
 import { SheetScanner, isBuiltInDateFormat, isDateFormatCode } from './sheet-scan.js';
 
@@ -112,7 +112,10 @@ function openZip(path: string, file: string): Promise<ZipFile> {
       if (err) {
         const code = (err as { code?: string }).code;
         if (code === 'ENOENT') {
-          reject(new InputError({ file, problem: 'The data file was not found', fix: 'Check the file path in the claims file; it is relative to the claims file' }));
+          reject(new InputError({ file, problem: 'The data file was not found', fix: DATA_PATH_FIX }));
+        } else if (code !== 'EISDIR' && fsReason(err) !== undefined) {
+          // A loop of links, a file where a folder should be, permission denied: the file system's failure, not a bad zip.
+          reject(fsFailure(err, { file }, 'opening the data file'));
         } else if (code === 'EISDIR') {
           reject(new InputError({ file, problem: 'The data path is a folder, not a file', fix: 'Name the workbook file itself in the claims file' }));
         } else {

@@ -739,6 +739,48 @@ const cases: Case[] = [
       expect(text.match(/Claim copy-\d+ tests the same data/g)).toHaveLength(180);
     },
   },
+  {
+    what: 'a data file that is a loop of symbolic links',
+    group: 'never hang',
+    cousin: true,
+    setup: (dir) => {
+      summaryCase(dir, HEAD + SUMMARY_SOURCE('loop-a.csv') + COMPARE, null);
+      symlinkSync('loop-b.csv', join(dir, 'loop-a.csv'));
+      symlinkSync('loop-a.csv', join(dir, 'loop-b.csv'));
+    },
+    message:
+      'claims.yaml:6:11: the data file <case>/loop-a.csv cannot be opened: the path goes round a loop of symbolic links (field "file", found "loop-a.csv"). Fix: Check the symbolic links in the path: one leads back to itself; point file at the data file itself.',
+  },
+  {
+    what: '--data naming a file inside a file',
+    group: 'never an internal error',
+    cousin: true,
+    setup: (dir) => summaryCase(dir),
+    argv: ['build', 'claims.yaml', '--out', 'out', '--data', 'results=data.csv/2026.csv'],
+    message:
+      'data.csv/2026.csv: opening the data file given on the command line failed: a part of the path is a file where a folder was expected (field "--data results"). Fix: Check each folder named in the path: one of them is a file.',
+  },
+  {
+    what: 'warrant init on a data path inside a file',
+    group: 'never an internal error',
+    cousin: true,
+    setup: (dir) => summaryCase(dir),
+    argv: ['init', 'data.csv/2026.csv', '--out', 'starter.yaml'],
+    message:
+      'data.csv/2026.csv: opening the data file failed: a part of the path is a file where a folder was expected. Fix: Check each folder named in the path: one of them is a file.',
+  },
+  {
+    what: 'warrant init on a workbook that is a loop of symbolic links',
+    group: 'never an internal error',
+    cousin: true,
+    setup: (dir) => {
+      symlinkSync('loop-b.xlsx', join(dir, 'loop-a.xlsx'));
+      symlinkSync('loop-a.xlsx', join(dir, 'loop-b.xlsx'));
+    },
+    argv: ['init', 'loop-a.xlsx', '--out', 'starter.yaml'],
+    message:
+      'loop-a.xlsx: opening the data file failed: the path goes round a loop of symbolic links. Fix: Check the symbolic links in the path: one leads back to itself.',
+  },
 ];
 
 // ---- running ---------------------------------------------------------------------------------------------------------
