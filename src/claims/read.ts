@@ -44,8 +44,28 @@ export function inFileOrder(problems: Problem[]): Problem[] {
     .map((x) => x.p);
 }
 
+/**
+ * Whether the bytes are UTF-16 text: a byte-order mark FF FE or FE FF (Unicode 15, 23.8), or, without one, a zero
+ * byte in every other place of the first characters (ASCII text in UTF-16), which UTF-8 text never has.
+ */
+function looksUtf16(bytes: Buffer): boolean {
+  if (bytes.length >= 2 && ((bytes[0] === 0xff && bytes[1] === 0xfe) || (bytes[0] === 0xfe && bytes[1] === 0xff))) return true;
+  const n = Math.min(bytes.length, 64) & ~1;
+  if (n < 4) return false;
+  let evenZero = 0;
+  let oddZero = 0;
+  for (let i = 0; i < n; i += 2) {
+    if (bytes[i] === 0) evenZero += 1;
+    if (bytes[i + 1] === 0) oddZero += 1;
+  }
+  return Math.max(evenZero, oddZero) * 2 >= n / 2 && Math.min(evenZero, oddZero) === 0;
+}
+
 /** Decode UTF-8 strictly; on failure report the line and column of the first bad byte. */
 function decodeUtf8(bytes: Buffer, file: string): string {
+  if (looksUtf16(bytes)) {
+    throw new InputError({ file, line: 1, column: 1, problem: 'the claims file is UTF-16 text (often saved as "Unicode" or "Unicode text"), and warrant reads claims files in UTF-8', fix: 'Save it again as UTF-8 in your text editor' });
+  }
   try {
     return new TextDecoder('utf-8', { fatal: true }).decode(bytes).replace(/^\uFEFF/, '');
   } catch {

@@ -740,6 +740,29 @@ const cases: Case[] = [
     },
   },
   {
+    what: 'a claims file saved as UTF-16 with its byte-order mark',
+    group: 'refuse nonsense',
+    cousin: true,
+    setup: (dir) => {
+      summaryCase(dir);
+      writeFileSync(join(dir, 'claims.yaml'), Buffer.concat([Buffer.from([0xff, 0xfe]), Buffer.from(HEAD + SUMMARY_SOURCE('data.csv') + COMPARE, 'utf16le')]));
+    },
+    message:
+      'claims.yaml:1:1: the claims file is UTF-16 text (often saved as "Unicode" or "Unicode text"), and warrant reads claims files in UTF-8. Fix: Save it again as UTF-8 in your text editor.',
+  },
+  {
+    what: 'a claims file saved as UTF-16 without a byte-order mark',
+    group: 'refuse nonsense',
+    cousin: true,
+    setup: (dir) => {
+      summaryCase(dir);
+      // Big-endian, as some editors save "Unicode (big-endian)": a zero byte before each ASCII letter.
+      writeFileSync(join(dir, 'claims.yaml'), Buffer.from(HEAD + SUMMARY_SOURCE('data.csv') + COMPARE, 'utf16le').swap16());
+    },
+    message:
+      'claims.yaml:1:1: the claims file is UTF-16 text (often saved as "Unicode" or "Unicode text"), and warrant reads claims files in UTF-8. Fix: Save it again as UTF-8 in your text editor.',
+  },
+  {
     what: 'a data file that is a loop of symbolic links',
     group: 'never hang',
     cousin: true,
