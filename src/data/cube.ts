@@ -168,7 +168,17 @@ function parseDecimal(text: string, style: NumberStyle): number {
 function parseCount(text: string, row: number, field: string, problems: Problems, style: NumberStyle): number | undefined {
   const x = parseDecimal(text, style);
   if (!Number.isFinite(x)) {
-    problems.add({ row, field, found: text, problem: 'A count is not a number', fix: 'Write the number of people as digits, e.g. 42; remove notes or markers from the cell' });
+    // "72%" where a count belongs: a column of percentages named as counts in the claims file.
+    const percent = /^[+-]?[\d.,]+\s*%$/.test(text);
+    problems.add({
+      row,
+      field,
+      found: text,
+      problem: percent ? 'A count is written as a percentage' : 'A count is not a number',
+      fix: percent
+        ? 'If this column gives the percent agreeing, name it with agree_percent instead of agree in the source (respondents stays the number who answered); otherwise write the number of people as digits'
+        : 'Write the number of people as digits, e.g. 42; remove notes or markers from the cell',
+    });
     return undefined;
   }
   if (x < 0) {

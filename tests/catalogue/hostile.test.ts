@@ -763,6 +763,14 @@ const cases: Case[] = [
       'claims.yaml:1:1: the claims file is UTF-16 text (often saved as "Unicode" or "Unicode text"), and warrant reads claims files in UTF-8. Fix: Save it again as UTF-8 in your text editor.',
   },
   {
+    what: 'a count column holding percentages',
+    group: 'refuse nonsense',
+    cousin: true,
+    setup: (dir) => summaryCase(dir, undefined, CSV.replace('Hanes,2025,50,30', 'Hanes,2025,50,60%')),
+    message:
+      'data.csv, row 2: A count is written as a percentage (field "Agreeing", found "60%"). Fix: If this column gives the percent agreeing, name it with agree_percent instead of agree in the source (respondents stays the number who answered); otherwise write the number of people as digits.',
+  },
+  {
     what: 'a data file that is a loop of symbolic links',
     group: 'never hang',
     cousin: true,
