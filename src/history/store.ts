@@ -4,7 +4,7 @@
  * A `latest` link names the newest. A pack is written into a temporary folder and renamed into place, so an
  * interrupted build leaves the earlier packs intact and no half-written pack behind.
  */
-import { existsSync, lstatSync, readdirSync, readlinkSync, realpathSync, statSync, writeFileSync } from 'node:fs';
+import { closeSync, existsSync, fstatSync, lstatSync, openSync, readdirSync, readlinkSync, readSync, realpathSync, statSync, writeFileSync } from 'node:fs';
 import { readlink, rename, rm, symlink } from 'node:fs/promises';
 import { basename, dirname, join } from 'node:path';
 import type { ResultsFile } from '../results/results.js';
@@ -167,6 +167,36 @@ export function hooksFromEnv(env: NodeJS.ProcessEnv = process.env): WriteHooks {
 }
 
 /**
+ * Whether a pack folder is whole: each of `names` an ordinary file that is not empty, results.json readable as a pack,
+ * and pack.pdf ending with the %%EOF marker (PDF 1.7, 7.5.5) in its last 1 KB, as a PDF cut short does not.
+ */
+function wholePack(folder: string, names: string[]): boolean {
+  try {
+    if (!names.every((rel) => {
+      const st = statSync(join(folder, rel));
+      return st.isFile() && st.size > 0;
+    })) return false;
+  } catch {
+    return false;
+  }
+  const results = readResultsOf(folder);
+  if (results === undefined || !('results' in results)) return false;
+  if (!names.includes('pack.pdf')) return true;
+  let fd: number | undefined;
+  try {
+    fd = openSync(join(folder, 'pack.pdf'), 'r');
+    const size = fstatSync(fd).size;
+    const tail = Buffer.alloc(Math.min(size, 1024));
+    readSync(fd, tail, 0, tail.length, size - tail.length);
+    return tail.includes('%%EOF');
+  } catch {
+    return false;
+  } finally {
+    if (fd !== undefined) closeSync(fd);
+  }
+}
+
+/**
  * Write a pack's files into `root/name` through a temporary folder, then point `latest` at it. When a pack with the
  * same name exists already (same inputs), it is left as it is and only `latest` moves.
  */
@@ -175,7 +205,10 @@ export async function storePack(root: string, name: string, files: Array<[string
   await sweepTemporary(root);
   const target = join(root, name);
   let reused = true;
-  if (!existsSync(join(target, 'results.json'))) {
+  // A folder of that name (the same inputs) is reused, never rewritten, when it is a whole pack: every file this
+  // build would write is there, results.json reads as a pack and pack.pdf ends as a PDF does. One with a file
+  // deleted or cut short (an earlier pack half there) is written again.
+  if (!wholePack(target, files.map(([rel]) => rel))) {
     reused = false;
     const tmp = join(root, `${TEMP_PREFIX}${process.pid}-${name}`);
     await rm(tmp, { recursive: true, force: true });

@@ -812,6 +812,21 @@ const cases: Case[] = [
     message:
       'loop-a.xlsx: opening the data file failed: the path goes round a loop of symbolic links. Fix: Check the symbolic links in the path: one leads back to itself.',
   },
+  {
+    what: 'an earlier pack of the same inputs half there (its pack.pdf deleted): written again, not called unchanged',
+    group: 'never an internal error',
+    cousin: true,
+    setup: (dir) => {
+      summaryCase(dir);
+      execFileSync(process.execPath, [bin, 'build', 'claims.yaml', '--out', 'out', '--quiet'], { cwd: dir, env: { ...process.env, NO_COLOR: '1' } });
+      const pack = readdirSync(join(dir, 'out')).find((n) => n !== 'latest')!;
+      rmSync(join(dir, 'out', pack, 'pack.pdf'));
+    },
+    builds: (run) => {
+      expect(run.stdout).toMatch(/^Evidence pack written: out\/\d{4}-\d{2}-\d{2}-[0-9a-f]{12}\/pack\.pdf$/m);
+      expect(packText(run)).toContain('Hanes agrees more than Łacina.');
+    },
+  },
 ];
 
 // ---- running ---------------------------------------------------------------------------------------------------------
