@@ -214,11 +214,28 @@ export function quickBuildArgs(argv: readonly string[]): BuildArgs | undefined {
 }
 
 /**
+ * Output piped into a reader that stops early (`warrant build claims.yaml | head -1`) makes the next write fail with
+ * EPIPE, which Node raises as an unhandled 'error' event: a stack trace after the work is done. Nobody is left to
+ * read what warrant says, so the rest is dropped; the exit code stays that of the command. Any other failure of the
+ * terminal streams is raised as before.
+ */
+function quietWhenReaderLeaves(): void {
+  for (const stream of [process.stdout, process.stderr]) {
+    if (stream.listenerCount('error') > 0) continue;
+    stream.on('error', (e: NodeJS.ErrnoException) => {
+      if (e.code === 'EPIPE' || e.code === 'ERR_STREAM_DESTROYED') return;
+      throw e;
+    });
+  }
+}
+
+/**
  * Run warrant with these arguments and return the exit code. `quick: false` always reads the command line with yargs
  * (for the test that compares the two readings).
  */
 export async function main(argv: string[], how: { quick?: boolean } = {}): Promise<number> {
   const debug = argv.includes('--debug');
+  quietWhenReaderLeaves();
   let code = 0;
   try {
     const quick = how.quick === false ? undefined : quickBuildArgs(argv);

@@ -11,7 +11,7 @@
  * The groups follow the issue: it must never hang, never stop with an internal error, and never build from
  * nonsense. Cases marked "cousin" were found while fixing the ones the issue names.
  */
-import { spawn, execFileSync } from 'node:child_process';
+import { spawn, spawnSync, execFileSync } from 'node:child_process';
 import { createHash } from 'node:crypto';
 import {
   cpSync, existsSync, lstatSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, readlinkSync, realpathSync, rmSync, symlinkSync, writeFileSync,
@@ -961,6 +961,20 @@ afterAll(() => {
     for (const [what, r] of runs) console.info(`${r.seconds.toFixed(2)} s (cpu ${r.cpuSeconds.toFixed(2)} s) ${r.peakMB.toFixed(0)} MB exit ${r.code}: ${what}\n  ${r.stderr.replaceAll(r.dir, '<case>').trim()}`);
   }
   rmSync(work, { recursive: true, force: true });
+});
+
+describe('output read by a program that stops early', () => {
+  it('warrant build | head -c 0: exit code 0, no stack trace, the pack written', () => {
+    const dir = join(work, 'pipe-closed');
+    mkdirSync(dir, { recursive: true });
+    summaryCase(dir);
+    // head has left long before the build prints (it reads nothing), so the build's first line meets a closed pipe
+    // (EPIPE), which was an unhandled 'error' event: a stack trace and exit code 1 after the pack was written.
+    const r = spawnSync('bash', ['-c', `set -o pipefail; "${process.execPath}" "${bin}" build claims.yaml --out out | head -c 0`], { cwd: dir, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' } });
+    expect(r.stderr).not.toMatch(/EPIPE|^\s+at /m);
+    expect(r.status).toBe(0);
+    expect(existsSync(join(dir, 'out', 'latest', 'pack.pdf'))).toBe(true);
+  });
 });
 
 describe('hostile and careless inputs, through the real command', () => {
