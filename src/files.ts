@@ -40,6 +40,8 @@ export function notOrdinaryFile(abs: string): string | undefined {
 
 /** The sentence for a path that is a pipe, a device or a socket (folders have their own messages at each caller). */
 export function notOrdinaryProblem(abs: string, kind: string, place: Place, role: string, fix?: string): Problem {
+  // A folder does not hang a read; it is simply not the file (a caller with its own folder message says it first).
+  if (kind === 'a folder') return { ...place, problem: `the ${role} ${abs} is a folder, not a file`, fix: fix ?? `Give the path of the ${role} itself, inside the folder` };
   return {
     ...place,
     problem: `the ${role} ${abs} is ${kind}, not an ordinary file; warrant reads only ordinary files, since reading from ${kind} could wait for ever or never end`,

@@ -827,6 +827,14 @@ const cases: Case[] = [
       expect(packText(run)).toContain('Hanes agrees more than Łacina.');
     },
   },
+  {
+    what: 'warrant init on a folder whose name ends in .csv',
+    group: 'refuse nonsense',
+    cousin: true,
+    setup: (dir) => mkdirSync(join(dir, 'results.csv')),
+    argv: ['init', 'results.csv', '--out', 'starter.yaml'],
+    message: 'results.csv: the data file <case>/results.csv is a folder, not a file. Fix: Give the path of the data file itself, inside the folder.',
+  },
 ];
 
 // ---- running ---------------------------------------------------------------------------------------------------------
