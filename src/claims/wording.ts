@@ -44,11 +44,21 @@ const HIGHER = [
 /** Words that turn a direction round or deny it ("not below", "no longer behind", "no more than"). */
 const NEGATION = /\b(not|no|never|nor|neither|none|cannot|isn't|aren't|wasn't|weren't|hasn't|haven't|didn't|doesn't|don't|won't)\b|n't\b/;
 
+/** The whole-word pattern of each phrase, made once: a claims file of hundreds of claims reads each claim's words. */
+const PHRASE_PATTERNS = new Map<string, RegExp>();
+
 /** Find each phrase of a list in lower-cased words, as whole words; returns the phrases found with their offsets. */
 function findPhrases(text: string, phrases: readonly string[]): Array<{ phrase: string; at: number }> {
   const found: Array<{ phrase: string; at: number }> = [];
   for (const p of phrases) {
-    const re = new RegExp(`(^|[^\\p{L}\\p{N}'’-])(${p.replace(/ /g, '\\s+')})(?=$|[^\\p{L}\\p{N}'’-])`, 'gu');
+    // Most phrases are not in a claim's words at all: a plain substring test rules them out before any pattern runs.
+    if (!text.includes(p.split(' ')[0]!)) continue;
+    let re = PHRASE_PATTERNS.get(p);
+    if (re === undefined) {
+      re = new RegExp(`(^|[^\\p{L}\\p{N}'’-])(${p.replace(/ /g, '\\s+')})(?=$|[^\\p{L}\\p{N}'’-])`, 'gu');
+      PHRASE_PATTERNS.set(p, re);
+    }
+    re.lastIndex = 0;
     for (let m = re.exec(text); m !== null; m = re.exec(text)) found.push({ phrase: m[2]!, at: m.index + m[1]!.length });
   }
   return found.sort((a, b) => a.at - b.at);
@@ -105,12 +115,43 @@ const SAYS_ALIKE = /\b(no (?:real |meaningful |notable |significant |important )
  */
 const REVERSED = /\b(disagree\w*|dissatisf\w*|unhapp\w*|unsatisf\w*|discontent\w*|complain\w*|dislike\w*|negative\w*)\b/;
 
-/** A value named in words: as a whole word or phrase, in its own case (Law, not "by law"), three characters or more. */
+/** Text in normal form C with each run of white space as one space, so that a value is found by a substring test. */
+const spaced = (s: string): string => nfc(s).replace(/\s+/g, ' ');
+
+const LETTER_OR_DIGIT = /^[\p{L}\p{N}]$/u;
+
+/** The character (whole code point) that ends just before `i`, or '' at the start. */
+function charBefore(s: string, i: number): string {
+  if (i <= 0) return '';
+  const low = s.charCodeAt(i - 1);
+  if (low >= 0xdc00 && low <= 0xdfff && i >= 2) {
+    const high = s.charCodeAt(i - 2);
+    if (high >= 0xd800 && high <= 0xdbff) return s.slice(i - 2, i);
+  }
+  return s[i - 1]!;
+}
+
+/**
+ * A value named in words: as a whole word or phrase, in its own case (Law, not "by law"), three characters or more.
+ * `text` is the words as `spaced` left them. The column of a claim's source may hold hundreds of values, each tested
+ * against every claim's words, so this finds the value as a substring and looks at the characters either side; a
+ * pattern made per value (with Unicode letter classes) cost a fraction of a millisecond each to compile.
+ */
+function namesIn(text: string, value: string): boolean {
+  const trimmed = nfc(value.trim());
+  if (trimmed.length < 3) return false;
+  const v = trimmed.replace(/\s+/g, ' ');
+  for (let at = text.indexOf(v); at !== -1; at = text.indexOf(v, at + 1)) {
+    const end = at + v.length;
+    const after = end < text.length ? String.fromCodePoint(text.codePointAt(end)!) : '';
+    if (!LETTER_OR_DIGIT.test(charBefore(text, at)) && !LETTER_OR_DIGIT.test(after)) return true;
+  }
+  return false;
+}
+
+/** A value named in words (see namesIn). */
 function names(text: string, value: string): boolean {
-  const v = nfc(value.trim());
-  if (v.length < 3) return false;
-  const escaped = v.replace(/[.*+?^${}()|[\]\\]/g, '\\$&').replace(/\s+/g, '\\s+');
-  return new RegExp(`(^|[^\\p{L}\\p{N}])${escaped}(?=$|[^\\p{L}\\p{N}])`, 'u').test(nfc(text));
+  return namesIn(spaced(text), value);
 }
 
 /**
@@ -135,7 +176,7 @@ function wordsAgainstValues(claim: Claim, values: Readonly<Record<string, readon
     }
   }
   const labels = ['focusLabel', 'againstLabel', 'selectLabel'].map((k) => (claim as unknown as Record<string, unknown>)[k]).filter((x): x is string => typeof x === 'string');
-  const words = [claim.statement, ...labels].join(' \n ');
+  const words = spaced([claim.statement, ...labels].join(' \n '));
   const out: WordsMismatch[] = [];
   for (const [key, f] of filters) {
     for (const [col, v] of Object.entries(f)) {
@@ -143,10 +184,10 @@ function wordsAgainstValues(claim: Claim, values: Readonly<Record<string, readon
       const known = values[col];
       if (known === undefined) continue;
       const chosen = (Array.isArray(v) ? v : [v]).map((x) => String(x).trim());
-      if (chosen.some((c) => names(words, c))) continue;
+      if (chosen.some((c) => namesIn(words, c))) continue;
       const all = picked.get(col) ?? new Set<string>();
       // Another value of the column named, and not a longer value holding a chosen one ("Business and Management").
-      const others = known.filter((k) => !all.has(k.trim()) && names(words, k) && !chosen.some((c) => names(k, c)) && !known.some((o) => o !== k && all.has(o.trim()) && names(o, k)));
+      const others = known.filter((k) => !all.has(k.trim()) && namesIn(words, k) && !chosen.some((c) => names(k, c)) && !known.some((o) => o !== k && all.has(o.trim()) && names(o, k)));
       if (others.length === 0) continue;
       const said = others.map((o) => `"${o}"`).join(', ');
       const chosenWords = chosen.map((c) => `"${c}"`).join(', ');

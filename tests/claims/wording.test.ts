@@ -106,6 +106,22 @@ describe('words against fields: quiet when they agree or the words are not plain
     expect(c('Engineering students, as required by law, agree less than History students.', { focus: { Department: 'Engineering' }, against: { Department: 'History' } })).toEqual([]);
   });
 
+  it('a value is named only as a whole word, by Unicode letters and digits either side, whatever the white space', () => {
+    // Whole-word rule as in Unicode regular expressions (\p{L}, \p{N}): a letter such as ŵ, a digit or a letter outside
+    // the basic plane (𝐀) beside the value makes it part of a longer word. common practice
+    const data = { values: { Unit: ['Caerwen', 'Caerwenŵ', 'Bryn Ffos', 'Tal 7'] } };
+    const c = (statement: string): string[] => wordsAgainstFields(claim({ kind: 'compare', expect: 'lower', statement, focus: { Unit: 'Tal 7' }, against: {}, againstRest: true }), data).map((m) => m.words);
+    expect(c('Caerwenŵ agrees less.')).toEqual(['Caerwenŵ']);
+    expect(c('Caerwen agrees less.')).toEqual(['Caerwen']);
+    expect(c('𝐀Caerwen and Caerwen9 agree less.')).toEqual([]);
+    expect(c('“Caerwen” agrees less.')).toEqual(['Caerwen']);
+    // A value of two words is found across a line break or two spaces in the words, and not as part of "Bryn Ffosydd".
+    expect(c('Bryn\n  Ffos agrees less.')).toEqual(['Bryn Ffos']);
+    expect(c('Bryn Ffosydd agrees less.')).toEqual([]);
+    // Found again after a first place that is part of a longer word.
+    expect(c('Caerwenŵ, unlike Caerwen, agrees less.')).toEqual(['Caerwen, Caerwenŵ']);
+  });
+
   it('problems are placed at the claim and name it', () => {
     const file = { claims: [claim({ id: 'x', kind: 'compare', statement: 'We are below the region.', expect: 'higher', place: { line: 12, column: 5 } })] } as never;
     const [p] = wordsProblems(file, 'claims.yaml');
