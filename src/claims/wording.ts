@@ -11,6 +11,7 @@
 import type { Problem } from '../errors.js';
 import type { Claim, ClaimsFile } from './types.js';
 import { periodsBack } from './amounts.js';
+import { orderPeriods, resolvePeriod } from './periods.js';
 import { nfc } from '../suggest.js';
 
 /** One disagreement between a claim's words and one of its fields. */
@@ -361,17 +362,38 @@ export function wordsAgainstFields(claim: Claim, data?: { values: Readonly<Recor
       });
     }
     const years = [...text.matchAll(/\b(19|20)\d\d\b/g)].map((m) => m[0]);
-    for (const [key, v] of [['from', claim.from], ['to', claim.to]] as const) {
-      if (years.length > 0 && /^(19|20)\d\d$/.test(String(v).trim()) && !years.includes(String(v).trim())) {
-        out.push({
-          field: key,
-          words: years.join(', '),
-          written: String(v),
-          said: `name ${years.join(' and ')}, but the claim compared ${key === 'from' ? 'from' : 'to'} ${String(v)}`,
-          problem: `the claim's words name ${years.join(' and ')}, but ${key} is ${String(v)}`,
-          fix: `Set ${key} to the year the words name, or correct the words`,
-        });
-      }
+    // latest, previous, latest-N: the period they name in the data, when the data are at hand (as in the pack, where
+    // the claim arrives with its periods already resolved), so that `warrant check` says what the pack will say.
+    const ordered = data?.period !== undefined && data.values[data.period] !== undefined ? orderPeriods(data.values[data.period]!) : undefined;
+    const sides = (['from', 'to'] as const).map((key) => {
+      const v = claim[key];
+      const relative = periodsBack(v) !== undefined;
+      const resolved = relative && ordered !== undefined ? resolvePeriod(v, ordered) : undefined;
+      return { key, v, relative, period: resolved?.ok === true ? resolved.period : String(v).trim() };
+    });
+    // One year in the words ("since 2024", "in 2026") names one end: it must be one of the two, and when it is neither,
+    // the end it is nearer in time is the one to set. Two or more name both ends.
+    const oneYear = years.length === 1 ? Number(years[0]) : undefined;
+    const mismatched = years.length === 0 ? [] : sides.filter((side) => /^(19|20)\d\d$/.test(side.period) && !years.includes(side.period));
+    const flagged =
+      oneYear === undefined || mismatched.length < 2
+        ? oneYear !== undefined && sides.some((side) => side.period === years[0]) ? [] : mismatched
+        : [oneYear > Number(sides[1]!.period) ? sides[1]! : sides[0]!];
+    for (const { key, v, relative, period } of flagged) {
+      const shown = relative ? `${String(v)} (${period})` : period;
+      out.push({
+        field: key,
+        words: years.join(', '),
+        written: String(v),
+        said: `name ${years.join(' and ')}, but the claim compared ${key === 'from' ? 'from' : 'to'} ${shown}`,
+        problem: `the claim's words name ${years.join(' and ')}, but ${key} is ${shown}`,
+        fix:
+          ordered !== undefined && !years.some((y) => ordered.includes(y))
+            ? `The data hold ${ordered.join(', ')}, not ${years.join(' or ')}: correct the words`
+            : relative
+              ? `Set ${key} to the year the words name (${key}: ${years.find((y) => ordered?.includes(y) ?? true)}), or correct the words`
+              : `Set ${key} to the year the words name, or correct the words`,
+      });
     }
   }
   return out;

@@ -122,6 +122,28 @@ describe('words against fields: quiet when they agree or the words are not plain
     expect(c('Caerwenŵ, unlike Caerwen, agrees less.')).toEqual(['Caerwen, Caerwenŵ']);
   });
 
+  it('years in the words are read against latest, previous and latest-N as the data resolve them', () => {
+    const data = { values: { Year: ['2026', '2024', '2025'], Department: ['Engineering'] }, period: 'Year' };
+    const c = (statement: string, from: unknown, to: unknown, withData = true): Array<[string, string]> =>
+      wordsAgainstFields(claim({ kind: 'change', expect: 'lower', statement, where: { Department: 'Engineering' }, from, to }), withData ? data : undefined).map((m) => [m.field, m.said]);
+    // Two years named: both ends must be among them; previous is 2025 in these data.
+    expect(c('Engineering fell between 2024 and 2026.', 'previous', 'latest')).toEqual([['from', 'name 2024 and 2026, but the claim compared from previous (2025)']]);
+    expect(c('Engineering fell between 2024 and 2026.', 'latest-2', 'latest')).toEqual([]);
+    // Without the data the relative words cannot be read, so nothing is said of them.
+    expect(c('Engineering fell between 2024 and 2026.', 'previous', 'latest', false)).toEqual([]);
+    // One year named is one end: "since 2024" with from 2024 (or latest-2) and to latest agrees.
+    expect(c('Engineering fell since 2024.', 2024, 'latest')).toEqual([]);
+    expect(c('Engineering fell since 2024.', 'latest-2', 'latest')).toEqual([]);
+    expect(c('Engineering fell in 2026.', 'previous', 'latest')).toEqual([]);
+    // One year that is neither end: the nearer end is named.
+    expect(c('Engineering fell since 2024.', 'previous', 'latest')).toEqual([['from', 'name 2024, but the claim compared from previous (2025)']]);
+    expect(c('Engineering fell since 2023.', 2025, 2026)).toEqual([['from', 'name 2023, but the claim compared from 2025']]);
+    // A year the data do not hold: the fix says which they do.
+    expect(wordsAgainstFields(claim({ kind: 'change', expect: 'lower', statement: 'Engineering fell since 2023.', from: 'previous', to: 'latest' }), data).map((m) => m.fix)).toEqual(['The data hold 2024, 2025, 2026, not 2023: correct the words']);
+    expect(wordsAgainstFields(claim({ kind: 'change', expect: 'lower', statement: 'Engineering fell since 2024.', from: 'previous', to: 'latest' }), data).map((m) => m.fix)).toEqual(['Set from to the year the words name (from: 2024), or correct the words']);
+    expect(c('Engineering was lower in 2027 than in the year before.', 2025, 2026)).toEqual([['to', 'name 2027, but the claim compared to 2026']]);
+  });
+
   it('problems are placed at the claim and name it', () => {
     const file = { claims: [claim({ id: 'x', kind: 'compare', statement: 'We are below the region.', expect: 'higher', place: { line: 12, column: 5 } })] } as never;
     const [p] = wordsProblems(file, 'claims.yaml');
