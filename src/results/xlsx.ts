@@ -1,8 +1,9 @@
 /**
  * results.xlsx: the numbers of results.json as a workbook for people who work in spreadsheets.
  *
- * Sheet "Claims": one row per claim (id, claim, kind, verdict, key estimate, interval, p, adjusted p, n's, cautions),
- * header row frozen, widths set, proportions formatted as percentages, long text wrapped.
+ * Sheet "Claims": one row per claim (id, claim, kind, verdict, the verdict's detail, what to do with the claim, why, a
+ * suggested wording, key estimate, interval, p, adjusted p, n's, cautions): the verdict and advice in the words of the
+ * claim's page in the pack, so the workbook and the pack never disagree. Header row frozen, widths set, proportions formatted as percentages, long text wrapped.
  * Sheet "Selections": each compared selection's n, agreeing count, rate and interval.
  *
  * Safe to open: every text cell is written as an explicit string, and text that a spreadsheet could take for a formula
@@ -55,6 +56,10 @@ export const CLAIM_COLUMNS: readonly Column[] = [
   { header: 'Claim', width: 60, wrap: true },
   { header: 'Kind', width: 13 },
   { header: 'Verdict', width: 16 },
+  { header: 'Verdict detail', width: 14 },
+  { header: 'What to do', width: 16 },
+  { header: 'Why', width: 60, wrap: true },
+  { header: 'Suggested wording', width: 50, wrap: true },
   { header: 'Key estimate', width: 26, wrap: true },
   { header: 'Estimate', width: 11 },
   { header: 'Interval lower', width: 11 },
@@ -65,6 +70,24 @@ export const CLAIM_COLUMNS: readonly Column[] = [
   { header: 'Respondents or units (n)', width: 16, wrap: true },
   { header: 'Cautions', width: 80, wrap: true },
 ];
+
+/**
+ * A claim's verdict and advice as the pack words them: the verdict word of its badge ("Not supported"), the detail
+ * the badge adds ("inconclusive", "ruled out", "too small"; empty when there is none), what to do ("Drop"), why, and
+ * the wording the data support where the pack suggests one. From results.json's verdictLabel and advice, which are
+ * the claim page's own; the bare verdict code only where those are absent.
+ */
+export function verdictCells(c: ClaimResult): { verdict: string; detail: string; action: string; reason: string; wording: string } {
+  const label = c.verdictLabel ?? c.verdict;
+  const at = label.indexOf(': ');
+  return {
+    verdict: at < 0 ? label : label.slice(0, at),
+    detail: at < 0 ? '' : label.slice(at + 2),
+    action: c.advice?.label ?? '',
+    reason: c.advice?.reason ?? '',
+    wording: c.advice?.wording ?? '',
+  };
+}
 
 /** The columns of the Selections sheet. */
 export const SELECTION_COLUMNS: readonly Column[] = [
@@ -285,16 +308,21 @@ export async function writeResultsXlsx(results: ResultsFile, path?: string): Pro
     claims.text(1, c.id);
     claims.text(2, c.statement);
     claims.text(3, c.kind);
-    claims.text(4, c.verdict);
-    if (c.estimate) claims.text(5, c.estimate.name);
-    claims.number(6, c.estimate?.value, fmt);
-    claims.number(7, c.interval?.lower, fmt);
-    claims.number(8, c.interval?.upper, fmt);
-    claims.number(9, c.interval?.level ?? c.confidence, '0%');
-    claims.number(10, c.p, '0.0000');
-    claims.number(11, c.pAdjusted, '0.0000');
-    if (c.n.length > 0) claims.text(12, c.n.map(grouped).join('; '));
-    if (c.cautions.length > 0) claims.text(13, c.cautions.join('\n'));
+    const v = verdictCells(c);
+    claims.text(4, v.verdict);
+    if (v.detail) claims.text(5, v.detail);
+    if (v.action) claims.text(6, v.action);
+    if (v.reason) claims.text(7, v.reason);
+    if (v.wording) claims.text(8, v.wording);
+    if (c.estimate) claims.text(9, c.estimate.name);
+    claims.number(10, c.estimate?.value, fmt);
+    claims.number(11, c.interval?.lower, fmt);
+    claims.number(12, c.interval?.upper, fmt);
+    claims.number(13, c.interval?.level ?? c.confidence, '0%');
+    claims.number(14, c.p, '0.0000');
+    claims.number(15, c.pAdjusted, '0.0000');
+    if (c.n.length > 0) claims.text(16, c.n.map(grouped).join('; '));
+    if (c.cautions.length > 0) claims.text(17, c.cautions.join('\n'));
   }
   const claimsXml = claims.xml();
 

@@ -3,7 +3,7 @@
  * here as the reference the new writer is compared with part by part (tests/results/xlsx-same.test.ts).
  */
 import type { ClaimResult, ResultsFile } from '../../src/results/results.js';
-import { CLAIM_COLUMNS, SELECTION_COLUMNS, neutralise, workbookDate, type Column } from '../../src/results/xlsx.js';
+import { CLAIM_COLUMNS, SELECTION_COLUMNS, neutralise, verdictCells, workbookDate, type Column } from '../../src/results/xlsx.js';
 
 type ExcelModule = typeof import('exceljs');
 type Worksheet = import('exceljs').Worksheet;
@@ -70,16 +70,21 @@ export async function writeResultsXlsxWithExceljs(results: ResultsFile, path?: s
     setText(claims, r, 1, c.id);
     setText(claims, r, 2, c.statement);
     setText(claims, r, 3, c.kind);
-    setText(claims, r, 4, c.verdict);
-    if (c.estimate) setText(claims, r, 5, c.estimate.name);
-    setNumber(claims, r, 6, c.estimate?.value, fmt);
-    setNumber(claims, r, 7, c.interval?.lower, fmt);
-    setNumber(claims, r, 8, c.interval?.upper, fmt);
-    setNumber(claims, r, 9, c.interval?.level ?? c.confidence, '0%');
-    setNumber(claims, r, 10, c.p, '0.0000');
-    setNumber(claims, r, 11, c.pAdjusted, '0.0000');
-    if (c.n.length > 0) setText(claims, r, 12, c.n.map((n) => n.toLocaleString('en-GB')).join('; '));
-    if (c.cautions.length > 0) setText(claims, r, 13, c.cautions.join('\n'));
+    const v = verdictCells(c);
+    setText(claims, r, 4, v.verdict);
+    if (v.detail) setText(claims, r, 5, v.detail);
+    if (v.action) setText(claims, r, 6, v.action);
+    if (v.reason) setText(claims, r, 7, v.reason);
+    if (v.wording) setText(claims, r, 8, v.wording);
+    if (c.estimate) setText(claims, r, 9, c.estimate.name);
+    setNumber(claims, r, 10, c.estimate?.value, fmt);
+    setNumber(claims, r, 11, c.interval?.lower, fmt);
+    setNumber(claims, r, 12, c.interval?.upper, fmt);
+    setNumber(claims, r, 13, c.interval?.level ?? c.confidence, '0%');
+    setNumber(claims, r, 14, c.p, '0.0000');
+    setNumber(claims, r, 15, c.pAdjusted, '0.0000');
+    if (c.n.length > 0) setText(claims, r, 16, c.n.map((n) => n.toLocaleString('en-GB')).join('; '));
+    if (c.cautions.length > 0) setText(claims, r, 17, c.cautions.join('\n'));
   });
 
   const selections = wb.addWorksheet('Selections');

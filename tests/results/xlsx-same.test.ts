@@ -141,6 +141,8 @@ const arbClaim = fc
     statement: text,
     kind: fc.constantFrom('compare', 'association', 'trend'),
     verdict: fc.constantFrom('supported', 'not-supported', 'too-little-data'),
+    verdictLabel: fc.option(fc.oneof(text, fc.constantFrom('Not supported: inconclusive', 'Supported')), { nil: undefined }),
+    advice: fc.option(fc.record({ action: fc.constant('reword'), label: text, reason: text, wording: fc.option(text, { nil: undefined }) }), { nil: undefined }),
     estimate: maybe(fc.record({ name: fc.constantFrom('difference in proportions', 'Pearson r', 'rate ratio', 'odds'), value: num })),
     interval: maybe(fc.record({ lower: num, upper: num, level: fc.constantFrom(0.9, 0.95), method: fc.constant('x') })),
     confidence: fc.constantFrom(0.9, 0.95, 0.99),
@@ -159,6 +161,7 @@ describe('results.xlsx written by warrant, against exceljs', () => {
         claim({ statement: '=HYPERLINK("x") & <b>', cautions: ['-1 point is small.', ' leading space', 'two\nlines'], selections: [{ label: '+rest', n: 10, agree: 5, rate: 0.5, interval: interval(0.2, 0.8), population: 40, approximate: true }] }),
         claim({ id: 'r', kind: 'association', estimate: { name: 'Pearson r', value: 0.88 }, n: [12], p: 1.3e-4 }),
         claim({ id: 'none', estimate: null, interval: null, p: null, pAdjusted: null, n: [], verdict: 'too-little-data' }),
+        claim({ id: 'split', verdict: 'not-supported', verdictLabel: 'Not supported: ruled out', advice: { action: 'reword', label: 'Reword', reason: 'Why.', wording: '=say this' } }),
       ]),
     );
   });

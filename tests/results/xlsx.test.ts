@@ -36,6 +36,9 @@ const results: ResultsFile = {
       expect: 'lower',
       verdict: 'supported',
       verdictText: 'Supported.',
+      verdictLabel: 'Supported',
+      verdictDetail: null,
+      advice: { action: 'quote', label: 'Quote as written', reason: 'The data give clear evidence for the claim.' },
       estimate: { name: 'difference in proportions', value: -0.11863073049375916 },
       interval: interval(-0.14249277736928878, -0.0949950762122753, 'newcombe-hybrid'),
       statistic: { symbol: 'z', value: -10.18 },
@@ -62,8 +65,16 @@ const results: ResultsFile = {
       confidence: 0.95,
       sided: 'two-sided',
       expect: 'higher',
-      verdict: 'supported',
-      verdictText: 'Supported.',
+      verdict: 'not-supported',
+      verdictText: 'Not supported.',
+      verdictLabel: 'Not supported: ruled out',
+      verdictDetail: 'ruled-out',
+      advice: {
+        action: 'reword',
+        label: 'Reword',
+        reason: 'The interval excludes a correlation of 0.30 or more.',
+        wording: '-0.1 to 0.2 is the range of the correlation the data allow.',
+      },
       estimate: { name: 'Pearson r', value: 0.8836016283027729 },
       interval: interval(0.6283227118673996, 0.9670910061102276, 'fisher-z'),
       statistic: { symbol: 't', value: 5.97 },
@@ -89,6 +100,9 @@ const results: ResultsFile = {
       expect: 'lower',
       verdict: 'too-little-data',
       verdictText: 'Too little data.',
+      verdictLabel: 'Too little data',
+      verdictDetail: null,
+      advice: { action: 'drop', label: 'Drop', reason: 'Too few people answered to test the claim.' },
       estimate: null,
       interval: null,
       statistic: null,
@@ -131,19 +145,34 @@ describe('writeResultsXlsx', () => {
       expect(row.getCell(1).value).toBe(c.id);
       expect(row.getCell(2).value).toBe(neutralise(c.statement));
       expect(row.getCell(3).value).toBe(c.kind);
-      expect(row.getCell(4).value).toBe(c.verdict);
-      expect(row.getCell(6).value ?? null).toBe(c.estimate?.value ?? null);
-      expect(row.getCell(7).value ?? null).toBe(c.interval?.lower ?? null);
-      expect(row.getCell(8).value ?? null).toBe(c.interval?.upper ?? null);
-      expect(row.getCell(10).value ?? null).toBe(c.p);
-      expect(row.getCell(11).value ?? null).toBe(c.pAdjusted);
-      const cautions = row.getCell(13).value ?? '';
+      expect(row.getCell(10).value ?? null).toBe(c.estimate?.value ?? null);
+      expect(row.getCell(11).value ?? null).toBe(c.interval?.lower ?? null);
+      expect(row.getCell(12).value ?? null).toBe(c.interval?.upper ?? null);
+      expect(row.getCell(14).value ?? null).toBe(c.p);
+      expect(row.getCell(15).value ?? null).toBe(c.pAdjusted);
+      const cautions = row.getCell(17).value ?? '';
       expect(cautions).toBe(c.cautions.length ? neutralise(c.cautions.join('\n')) : '');
     });
     // Differences in proportions are percentages; a correlation is not.
-    expect(sheet.getRow(2).getCell(6).numFmt).toBe('0.0%');
-    expect(sheet.getRow(3).getCell(6).numFmt).toBe('0.000');
-    expect(sheet.getRow(2).getCell(12).value).toBe('2,052; 6,603');
+    expect(sheet.getRow(2).getCell(10).numFmt).toBe('0.0%');
+    expect(sheet.getRow(3).getCell(10).numFmt).toBe('0.000');
+    expect(sheet.getRow(2).getCell(16).value).toBe('2,052; 6,603');
+  });
+
+  it("gives each claim the verdict, its detail and the advice of the claim's page, not the bare verdict code", () => {
+    const sheet = wb.getWorksheet('Claims')!;
+    expect([4, 5, 6, 7, 8].map((k) => sheet.getRow(1).getCell(k).value)).toEqual(['Verdict', 'Verdict detail', 'What to do', 'Why', 'Suggested wording']);
+    const cells = (r: number) => [4, 5, 6, 7, 8].map((k) => sheet.getRow(r).getCell(k).value ?? '');
+    expect(cells(2)).toEqual(['Supported', '', 'Quote as written', 'The data give clear evidence for the claim.', '']);
+    // The split of "not supported" and the suggested wording; a wording that starts like a formula is neutralised.
+    expect(cells(3)).toEqual([
+      'Not supported',
+      'ruled out',
+      'Reword',
+      'The interval excludes a correlation of 0.30 or more.',
+      "'-0.1 to 0.2 is the range of the correlation the data allow.",
+    ]);
+    expect(cells(4)).toEqual(['Too little data', '', 'Drop', 'Too few people answered to test the claim.', '']);
   });
 
   it('lists every selection with its n, agreeing count, rate and interval', () => {
