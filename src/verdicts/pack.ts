@@ -56,6 +56,36 @@ function readFrom(claims: ClaimsFile, sourceId: string): string {
   return rel.startsWith('..') || isAbsolute(rel) ? ` (outside the claims file's folder: read from ${real})` : '';
 }
 
+/** Kinds whose claims compare agreement rates and give their differences in percentage points. */
+const RATE_KINDS = new Set<Analysis['kind']>(['compare', 'change', 'gap-change', 'trend', 'target', 'equivalence']);
+
+/**
+ * Which glossary entries the pack uses, from its analyses and composed pages: each entry is listed only where
+ * something in the pack speaks of it (no "Correlation (r)" in a pack with no association claim, no "Power" where no
+ * hypothesis was tested, no "Rest of a group" where no group was compared with the rest of it), and of the terms
+ * explained beside a claim's numbers (Cohen's h, TOST, ...) only those a page explains (ClaimSection.terms).
+ */
+export function glossaryUse(analyses: Analysis[], sections: ClaimSection[], templates: Templates): Record<string, unknown> {
+  const tested = analyses.filter((a) => a.status === 'tested' && a.kind !== 'estimate');
+  const agreeMeasure = (m: { type: string } | undefined): boolean => m === undefined || m.type === 'agree';
+  const usedTerms = new Set(sections.flatMap((s) => (s.terms ?? []).map((t) => t.term)));
+  return {
+    rates: analyses.some((a) => {
+      if (RATE_KINDS.has(a.kind)) return true;
+      if (a.kind === 'estimate') return agreeMeasure(a.claim.measure);
+      if (a.kind === 'association') return agreeMeasure(a.claim.xMeasure) || agreeMeasure(a.claim.yMeasure);
+      return false;
+    }),
+    points: analyses.some((a) => RATE_KINDS.has(a.kind)),
+    tested: analyses.some((a) => a.kind !== 'estimate'),
+    correlation: analyses.some((a) => a.kind === 'association'),
+    // The smallest difference detected 80% of the time is given for every tested claim but an equivalence claim.
+    power: tested.some((a) => a.kind !== 'equivalence'),
+    rest: analyses.some((a) => ('relation' in a && a.relation !== undefined && a.relation !== 'separate') || (a.claim as { againstRest?: true }).againstRest === true),
+    terms: termDefinitions(templates).filter((t) => usedTerms.has(t.term)),
+  };
+}
+
 export function composePack(input: {
   claims: ClaimsFile;
   claimsDisplay: string;
@@ -100,7 +130,7 @@ export function composePack(input: {
   };
   if (input.sections.some((s) => s.verdictDetail === 'inconclusive' || s.verdictDetail === 'ruled-out')) methodIds.push('worth-reporting');
   const ordered = Object.keys(METHODS).filter((id) => methodIds.includes(id));
-  const glossary = templates.renderLines('glossary', { ...view, terms: termDefinitions(templates) }).map((line) => {
+  const glossary = templates.renderLines('glossary', { ...view, ...glossaryUse(input.analyses, input.sections, templates) }).map((line) => {
     const at = line.indexOf(':');
     const text = line.slice(at + 1).trim();
     return { term: line.slice(0, at).trim(), text: text.length > 0 ? text[0]!.toUpperCase() + text.slice(1) : text };

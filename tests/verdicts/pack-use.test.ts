@@ -1,0 +1,88 @@
+/**
+ * What the pack's back matter says follows what the pack holds: built through the pipeline from small invented
+ * summary files (one claim of a kind, or estimates alone), the glossary lists only the terms the pack uses.
+ */
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { build, type BuildResult } from '../../src/pipeline.js';
+
+const work = mkdtempSync(join(tmpdir(), 'warrant-pack-use-'));
+afterAll(() => rmSync(work, { recursive: true, force: true }));
+
+const csv = `Campus,Question,Respondents,Agreeing
+North,Q1,1000,560
+South,Q1,1000,510
+North,Q2,800,400
+South,Q2,800,404
+`;
+
+async function buildPack(name: string, header: string, claims: string): Promise<BuildResult> {
+  const dir = join(work, name);
+  const { mkdirSync } = await import('node:fs');
+  mkdirSync(dir, { recursive: true });
+  writeFileSync(join(dir, 'summary.csv'), csv);
+  writeFileSync(
+    join(dir, 'claims.yaml'),
+    `title: Pack use\norganisation: Fernwick Students\ndata_date: 2026-01-15\nconfidence: 95%\n${header}sources:\n  s:\n    file: summary.csv\n    shape: summary\n    respondents: Respondents\n    agree: Agreeing\nclaims:\n${claims}`,
+  );
+  return build({ claimsPath: join(dir, 'claims.yaml'), outDir: join(dir, 'out'), cwd: dir });
+}
+
+const compare = (q: string) => `  - id: north-${q.toLowerCase()}
+    claim: North campus agrees more often than South on ${q}.
+    kind: compare
+    where: { Question: ${q} }
+    focus: { Campus: North }
+    against: { Campus: South }
+    expect: higher
+`;
+const estimate = (q: string) => `  - id: north-estimate-${q.toLowerCase()}
+    claim: Most North students agree on ${q}.
+    kind: estimate
+    select: { Campus: North, Question: ${q} }
+`;
+
+let oneCompare: BuildResult;
+let estimatesOnly: BuildResult;
+beforeAll(async () => {
+  oneCompare = await buildPack('one-compare', 'adjust: holm\n', compare('Q1'));
+  estimatesOnly = await buildPack('estimates', '', estimate('Q1') + estimate('Q2'));
+}, 120_000);
+
+const terms = (b: BuildResult) => b.model.glossary.map((g) => g.term);
+
+describe('the glossary', () => {
+  it('lists for one comparison of two separate campuses the words its page uses, and no other', () => {
+    expect(terms(oneCompare)).toEqual([
+      'Agreement rate',
+      'Confidence level',
+      'Confidence interval',
+      'Null hypothesis',
+      'p-value',
+      'Adjustment for many claims',
+      'Percentage points',
+      'Power',
+      "Cohen's h",
+    ]);
+  });
+
+  it('lists for estimates alone no hypothesis, p-value, power, correlation or differences', () => {
+    expect(terms(estimatesOnly)).toEqual(['Agreement rate', 'Confidence level', 'Confidence interval']);
+  });
+
+  it('still lists every term the demo uses, each explained on a claim page first', async () => {
+    const { resolve } = await import('node:path');
+    const root = resolve(__dirname, '../..');
+    const demo = await build({ claimsPath: join(root, 'demo/claims.yaml'), outDir: join(work, 'demo-out'), cwd: root });
+    const onPages = new Set(demo.model.claims.flatMap((c) => (c.terms ?? []).map((t) => t.term)));
+    const listed = terms(demo);
+    for (const t of onPages) expect(listed).toContain(t);
+    expect(listed).toEqual(expect.arrayContaining(['Correlation (r)', 'Causation', 'Rest of a group', 'TOST', "Cohen's d"]));
+    // Every glossary entry after the general ones is a term some page explains.
+    const general = ['Agreement rate', 'Confidence level', 'Confidence interval', 'Null hypothesis', 'p-value', 'Adjustment for many claims', 'Percentage points', 'Correlation (r)', 'Causation', 'Power', 'Rest of a group'];
+    for (const t of listed) if (!general.includes(t)) expect(onPages.has(t), t).toBe(true);
+  }, 120_000);
+});
+
