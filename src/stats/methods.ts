@@ -10,6 +10,11 @@ export interface MethodInfo {
   text: string;
   /** Published source. */
   source: string;
+  /**
+   * The text for a pack in which no adjustment for many claims was made (adjust: none, or one claim tested), where
+   * `text` speaks of that adjustment.
+   */
+  unadjusted?: string;
 }
 
 export const METHODS: Record<string, MethodInfo> = {
@@ -76,6 +81,7 @@ export const METHODS: Record<string, MethodInfo> = {
   'power-two-proportions': {
     name: 'Smallest detectable difference',
     text: 'The smallest difference between two rates that a test of this kind, with these group sizes, would find 80% of the time, at the threshold that actually decided the verdict (after the adjustment for many claims, the threshold each claim was held to is smaller than one minus the confidence level, so the detectable difference is larger). It tells how large a difference a claim that is not supported could still hide.',
+    unadjusted: 'The smallest difference between two rates that a test of this kind, with these group sizes, would find 80% of the time, at the threshold that decided the verdict: one minus the claim’s confidence level, as no adjustment for many claims was made. It tells how large a difference a claim that is not supported could still hide.',
     source: 'Fleiss, J. L., Levin, B. and Paik, M. C. (2003). Statistical Methods for Rates and Proportions, 3rd ed., Wiley, ch. 4.',
   },
   pearson: {
@@ -96,6 +102,7 @@ export const METHODS: Record<string, MethodInfo> = {
   'power-correlation': {
     name: 'Smallest detectable correlation',
     text: 'The weakest correlation that a test with this number of units would find 80% of the time at the threshold that decided the verdict (after the adjustment for many claims), from the Fisher z approximation.',
+    unadjusted: 'The weakest correlation that a test with this number of units would find 80% of the time at the threshold that decided the verdict (one minus the claim’s confidence level, as no adjustment for many claims was made), from the Fisher z approximation.',
     source: 'Cohen, J. (1988). Statistical Power Analysis for the Behavioral Sciences, 2nd ed., Erlbaum, ch. 3.',
   },
   holm: {
@@ -201,11 +208,13 @@ export const METHODS: Record<string, MethodInfo> = {
   'power-trend': {
     name: 'Smallest detectable trend',
     text: 'The smallest steady change per period that the trend test would find 80% of the time with these numbers of respondents, at the threshold that decided the verdict (after the adjustment for many claims), from the normal approximation to the trend statistic with its spread under no trend.',
+    unadjusted: 'The smallest steady change per period that the trend test would find 80% of the time with these numbers of respondents, at the threshold that decided the verdict (one minus the claim’s confidence level, as no adjustment for many claims was made), from the normal approximation to the trend statistic with its spread under no trend.',
     source: 'Armitage, P. (1955). Tests for linear trends in proportions and frequencies. Biometrics 11, 375–386.',
   },
   'power-one-proportion': {
     name: 'Smallest detectable gap from a fixed value',
     text: 'The smallest gap between a rate and a fixed value (a target or benchmark) that the test against that value would find 80% of the time with this many respondents, at the threshold that decided the verdict (after the adjustment for many claims).',
+    unadjusted: 'The smallest gap between a rate and a fixed value (a target or benchmark) that the test against that value would find 80% of the time with this many respondents, at the threshold that decided the verdict (one minus the claim’s confidence level, as no adjustment for many claims was made).',
     source: 'Lachin, J. M. (1981). Introduction to sample size determination and power analysis for clinical trials. Controlled Clinical Trials 2, 93–113.',
   },
   't-interval-mean': {

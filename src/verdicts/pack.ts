@@ -174,7 +174,9 @@ export function composePack(input: {
     methods: ordered.map((id) => {
       const info = methodInfo(id);
       // The split of "not supported" names the sizes this pack used (the claims file's or the defaults).
-      const text = id === 'worth-reporting' && view.worthSizes ? `${info.text} ${templates.render('worth-sizes', view)}` : info.text;
+      // A note that speaks of the adjustment for many claims has its own words for a pack that made none.
+      const base = !view.adjusted && info.unadjusted !== undefined ? info.unadjusted : info.text;
+      const text = id === 'worth-reporting' && view.worthSizes ? `${base} ${templates.render('worth-sizes', view)}` : base;
       return { name: info.name, text, source: info.source };
     }),
     glossary,

@@ -1,6 +1,7 @@
 /**
  * What the pack's back matter says follows what the pack holds: built through the pipeline from small invented
- * summary files (one claim of a kind, or estimates alone), the glossary lists only the terms the pack uses.
+ * summary files (one claim of a kind, or estimates alone), the glossary lists only the terms the pack uses, and the
+ * method notes on the smallest detectable effect speak of an adjustment for many claims only where one was made.
  */
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -46,9 +47,13 @@ const estimate = (q: string) => `  - id: north-estimate-${q.toLowerCase()}
 
 let oneCompare: BuildResult;
 let estimatesOnly: BuildResult;
+let twoUnadjusted: BuildResult;
+let twoHolm: BuildResult;
 beforeAll(async () => {
   oneCompare = await buildPack('one-compare', 'adjust: holm\n', compare('Q1'));
   estimatesOnly = await buildPack('estimates', '', estimate('Q1') + estimate('Q2'));
+  twoUnadjusted = await buildPack('two-none', 'adjust: none\n', compare('Q1') + compare('Q2'));
+  twoHolm = await buildPack('two-holm', 'adjust: holm\n', compare('Q1') + compare('Q2'));
 }, 120_000);
 
 const terms = (b: BuildResult) => b.model.glossary.map((g) => g.term);
@@ -86,3 +91,23 @@ describe('the glossary', () => {
   }, 120_000);
 });
 
+describe('the method note on the smallest detectable difference', () => {
+  const note = (b: BuildResult) => b.model.methods.find((m) => m.name === 'Smallest detectable difference')?.text ?? '';
+
+  it('speaks of no adjustment with one claim tested under holm, as the cover and the method line do', () => {
+    expect(oneCompare.model.adjustmentText).toMatch(/^None/);
+    expect(note(oneCompare)).toContain('one minus the claim’s confidence level, as no adjustment for many claims was made');
+    expect(note(oneCompare)).not.toContain('after the adjustment');
+    expect(oneCompare.model.methods.map((m) => m.name)).not.toContain("Holm's step-down adjustment");
+  });
+
+  it('speaks of no adjustment with adjust: none and two claims', () => {
+    expect(note(twoUnadjusted)).toContain('as no adjustment for many claims was made');
+    expect(note(twoUnadjusted)).not.toContain('after the adjustment');
+  });
+
+  it('speaks of the adjustment where two claims were adjusted by Holm', () => {
+    expect(twoHolm.model.adjustmentText).toMatch(/^Holm's method across the 2 claims/);
+    expect(note(twoHolm)).toContain('after the adjustment for many claims, the threshold each claim was held to is smaller');
+  });
+});
