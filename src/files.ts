@@ -154,6 +154,64 @@ export function fsFailure(e: unknown, place: Place, doing: string, fix?: string)
   return new InputError({ ...place, problem: `${doing} failed: ${reason}`, fix: fix ?? fixes[code] ?? 'Check the path and the file, then run the command again' });
 }
 
+/** Whether a folder belongs to a file system of the kernel's (/proc, /sys), whose permissions are not the user's to change. */
+function systemFolder(abs: string): boolean {
+  return /^\/(proc|sys)(\/|$)/.test(abs);
+}
+
+/**
+ * The folder a write failed in: the folder itself when its access was checked, else the folder holding the file or
+ * folder being made (Node names it in the error's path), else `fallback`.
+ */
+function failedFolder(e: unknown, fallback: string): string {
+  const { path, syscall } = (e ?? {}) as { path?: unknown; syscall?: unknown };
+  if (typeof path !== 'string' || path === '') return fallback;
+  return syscall === 'access' ? path : dirname(path);
+}
+
+/**
+ * An InputError for a file-system failure while writing (a pack, the demo, a starter claims file, a seal), or
+ * undefined for other errors. It is said as a write: the folder that cannot be written and why, with the fixes for a
+ * write (another place, the folder's permissions, space on the disk), never the fixes for a file that cannot be read.
+ * `folder` is the folder written into, used when the error does not name one; `elsewhere` says how to write somewhere
+ * else ("give --out another folder"); `show` writes a path as the user knows it.
+ */
+export function writeFailure(e: unknown, place: Place, doing: string, folder: string, elsewhere: string, show: (abs: string) => string = (abs) => abs): InputError | undefined {
+  if (e instanceof InputError) return e;
+  const code = (e as { code?: unknown } | null)?.code;
+  const reason = fsReason(e);
+  if (reason === undefined) return undefined;
+  const where = failedFolder(e, folder);
+  const shown = show(where);
+  const Elsewhere = elsewhere.charAt(0).toUpperCase() + elsewhere.slice(1);
+  const cannot = (why: string, fix: string): InputError => new InputError({ ...place, problem: `${doing} failed: the folder ${shown} cannot be written: ${why}`, fix });
+  switch (code) {
+    case 'EACCES':
+    case 'EPERM':
+      return cannot(
+        'permission was denied',
+        systemFolder(where) ? `${Elsewhere}: one of your own, e.g. out` : `${Elsewhere}, or change the permissions of ${shown} so that you can write in it (e.g. chmod u+w ${shown})`,
+      );
+    case 'EROFS':
+      return cannot('it is on a read-only file system', `${Elsewhere}, on a disk that can be written`);
+    case 'ENOSPC':
+      return cannot('there is no space left on its disk', `Free some space on the disk and run the command again, or ${elsewhere} on another disk`);
+    case 'EDQUOT':
+      return cannot('your disk quota is used up', `Free some space within your quota and run the command again, or ${elsewhere} on another disk`);
+    case 'EISDIR': {
+      const at = (e as { dest?: unknown; path?: unknown }).dest ?? (e as { path?: unknown }).path;
+      const what = typeof at === 'string' ? show(at.replace(/\.\d+\.partial$/, '')) : 'the file to be written';
+      return new InputError({ ...place, problem: `${doing} failed: ${what} is a folder, where warrant writes a file`, fix: `Move or rename that folder, or ${elsewhere}` });
+    }
+    case 'ENAMETOOLONG':
+      return new InputError({ ...place, problem: `${doing} failed: the path, or a name in it, is longer than the file system allows`, fix: `Use a shorter path or shorter folder names: ${elsewhere} with a shorter path` });
+    case 'ENOTDIR':
+      return new InputError({ ...place, problem: `${doing} failed: a part of the path is a file where a folder was expected`, fix: `Check each folder named in the path (one of them is a file), or ${elsewhere}` });
+    default:
+      return fsFailure(e, place, doing);
+  }
+}
+
 /**
  * Read a small file whole, refusing anything that is not an ordinary file and stopping as soon as more than `cap`
  * bytes have arrived (whatever size the file reports). `tooBig` makes the error for a file over the cap; the size it

@@ -41,10 +41,10 @@ import { useChartThread } from './render/chart-thread.js';
 import { packageRoot } from './paths.js';
 import { formatProblem, InputError } from './errors.js';
 import { wordsProblems } from './claims/wording.js';
-import { fsFailure, readOrdinaryFile, requireOrdinaryFile } from './files.js';
+import { fsFailure, readOrdinaryFile, requireOrdinaryFile, writeFailure } from './files.js';
 import { impossibleDate } from './claims/dates.js';
 import { canonicalJson, packFingerprint, sha256Hex } from './history/fingerprint.js';
-import { latestInTheWay, latestOrUnreadable, latestProblem, listPacks, openPack, packFolderName, storePack, today, type StoredPack, type WriteHooks } from './history/store.js';
+import { latestInTheWay, latestOrUnreadable, latestProblem, listPacks, openPack, outsideTemporary, packFolderName, storePack, today, type StoredPack, type WriteHooks } from './history/store.js';
 import { diffPacks, type PackDiff } from './history/diff.js';
 import { changeSection, editedNotice, folderDay, verdictNotice } from './history/words.js';
 
@@ -237,7 +237,8 @@ function overrideSources(claims: ClaimsFile, data: Record<string, string>, cwd: 
   return { ...claims, sources };
 }
 
-const OUT_FIX = 'Give --out a folder of your own that you can write in, e.g. out';
+/** How to write the pack somewhere else, in a fix for a folder that cannot be written. */
+const OUT_ELSEWHERE = 'give --out another folder';
 
 /** Whether `abs` is a symbolic link (whatever it leads to). */
 function isLink(abs: string): boolean {
@@ -283,7 +284,7 @@ function checkFolders(options: BuildOptions, root: string, templatesDir: string 
         }
         continue;
       }
-      throw fsFailure(e, outPlace, 'writing the pack into the history folder') ?? e;
+      throw writeFailure(e, outPlace, 'writing the pack into the history folder', dirname(dir), OUT_ELSEWHERE, displayPath) ?? e;
     }
     if (!there.isDirectory()) {
       throw new InputError({
@@ -295,8 +296,7 @@ function checkFolders(options: BuildOptions, root: string, templatesDir: string 
     try {
       accessSync(dir, constants.W_OK | constants.X_OK);
     } catch (e) {
-      const denied = ['EACCES', 'EPERM'].includes((e as { code?: string }).code ?? '');
-      throw fsFailure(e, outPlace, `writing into ${dir === root ? 'the history folder' : dir}`, denied ? OUT_FIX : undefined) ?? e;
+      throw writeFailure(e, outPlace, 'writing the pack into the history folder', dir, OUT_ELSEWHERE, displayPath) ?? e;
     }
     return;
   }
@@ -514,7 +514,7 @@ async function buildPack(options: BuildOptions, chartsDrawn: () => void): Promis
     );
   } catch (e) {
     // A full disk, a read-only folder, a name too long: the user's to fix, and no half-written pack is left.
-    throw fsFailure(e, { file: options.outDir ?? displayPath(root), field: '--out' }, 'writing the pack into the history folder') ?? e;
+    throw writeFailure(e, { file: options.outDir ?? displayPath(root), field: '--out' }, 'writing the pack into the history folder', root, OUT_ELSEWHERE, (abs) => displayPath(outsideTemporary(abs, root))) ?? e;
   }
   // Said on the terminal even with --quiet: a claim whose words and fields disagree (its page carries a caution too),
   // and an earlier pack that could not be read.

@@ -13,7 +13,7 @@ import { dirname, join, relative, resolve, sep } from 'node:path';
 import { displayPathFor } from '../claims/read.js';
 import { claimsSchemaPath } from '../claims/schema.js';
 import { InputError } from '../errors.js';
-import { fsFailure, makeFolders, writeWhole } from '../files.js';
+import { makeFolders, writeFailure, writeWhole } from '../files.js';
 import { packageRoot } from '../paths.js';
 
 export interface DemoOptions {
@@ -98,7 +98,7 @@ export async function writeDemo(opts: DemoOptions): Promise<DemoWritten> {
       writeWhole(to, bytes, { replace: true });
     } catch (e) {
       // A read-only or system folder, a file in the path, a full disk: the user's to fix (files written before stay whole).
-      throw fsFailure(e, { file: join(shown, ...f.split('/')) }, 'writing the demo file') ?? e;
+      throw writeFailure(e, { file: join(shown, ...f.split('/')) }, 'writing the demo file', dirname(to), 'give warrant demo another folder', displayPathFor) ?? e;
     }
   }
   const dataFiles = files.filter((f) => f !== CLAIMS);

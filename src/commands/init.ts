@@ -12,7 +12,7 @@ import { claimsSchemaPath } from '../claims/schema.js';
 import { displayPathFor } from '../claims/read.js';
 import { PERIOD_NAME } from '../claims/periods.js';
 import { InputError } from '../errors.js';
-import { fsFailure, writeWhole } from '../files.js';
+import { writeFailure, writeWhole } from '../files.js';
 
 export interface InitOptions {
   /** The data file (.csv or .xlsx). */
@@ -422,7 +422,7 @@ export async function init(opts: InitOptions): Promise<number> {
   try {
     writeWhole(outPath, text, { replace: opts.force === true });
   } catch (e) {
-    throw fsFailure(e, { file: outDisplay, field: '--out' }, 'writing the starter claims file') ?? e;
+    throw writeFailure(e, { file: outDisplay, field: '--out' }, 'writing the starter claims file', outDir, 'give --out a file name in another folder', displayPathFor) ?? e;
   }
   const said: string[] = [`${outDisplay}: written with ${scan.columns.length} columns (${guess.shape} data, ${scan.rows} rows) and an example of every kind of claim; uncomment one and run warrant check ${outDisplay}`];
   if (format === 'xlsx') said.push(`  sheet "${scan.sheet}"${skipped.length > 0 ? `; passed over ${skipped.join(', ')}` : ''}`);

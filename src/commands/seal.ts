@@ -17,7 +17,7 @@ import { basename, dirname, extname, join, resolve } from 'node:path';
 import { readClaims } from '../claims/read.js';
 import type { ClaimsFile } from '../claims/types.js';
 import { InputError } from '../errors.js';
-import { fsFailure, writeWhole } from '../files.js';
+import { writeFailure, writeWhole } from '../files.js';
 import { claimFingerprint } from '../history/fingerprint.js';
 import { today } from '../history/store.js';
 
@@ -103,7 +103,7 @@ export async function seal(options: SealOptions): Promise<number> {
   try {
     writeWhole(target, `${JSON.stringify(sealed, null, 2)}\n`, { replace: true });
   } catch (e) {
-    throw fsFailure(e, { file: target }, 'writing the seal') ?? e;
+    throw writeFailure(e, { file: target }, 'writing the seal', dirname(target), 'copy the claims file and its data into a folder you can write in and seal it there') ?? e;
   }
   const kept = sealed.claims.filter((c) => c.sealed !== day).length;
   const fresh = sealed.claims.length - kept;

@@ -6,13 +6,19 @@
  */
 import { closeSync, existsSync, fstatSync, lstatSync, openSync, readdirSync, readlinkSync, readSync, realpathSync, statSync, writeFileSync } from 'node:fs';
 import { readlink, rename, rm, symlink } from 'node:fs/promises';
-import { basename, dirname, join } from 'node:path';
+import { basename, dirname, join, relative } from 'node:path';
 import type { ResultsFile } from '../results/results.js';
 import { InputError } from '../errors.js';
-import { fsFailure, fsReason, makeFolders, otherThanFile, readOrdinaryFile } from '../files.js';
+import { fsReason, makeFolders, otherThanFile, readOrdinaryFile, writeFailure } from '../files.js';
 
 export const LATEST = 'latest';
 const TEMP_PREFIX = '.building-';
+
+/** A path as the user knows it: anything inside a pack's temporary folder is said as the history folder `root`. */
+export function outsideTemporary(abs: string, root: string): string {
+  const rel = relative(root, abs);
+  return rel.startsWith(TEMP_PREFIX) ? root : abs;
+}
 const FOLDER = /^\d{4}-\d{2}-\d{2}-[0-9a-f]{12}$/;
 
 export interface StoredPack {
@@ -154,15 +160,21 @@ export interface WriteHooks {
   failAfterFiles?: number;
   /** Test hook: kill the process outright (SIGKILL) after this many files, as if the machine stopped. */
   killAfterFiles?: number;
+  /**
+   * Test hook, with failAfterFiles: the failure is the file system's error of this code (EACCES, ENOSPC...), thrown
+   * as Node throws it for the file being opened. Permission denied cannot be had otherwise when tests run as root.
+   */
+  failCode?: string;
 }
 
-/** Test hooks from the environment (WARRANT_TEST_FAIL_AFTER_FILES, WARRANT_TEST_KILL_AFTER_FILES); none normally. */
+/** Test hooks from the environment (WARRANT_TEST_FAIL_AFTER_FILES, WARRANT_TEST_FAIL_CODE, WARRANT_TEST_KILL_AFTER_FILES); none normally. */
 export function hooksFromEnv(env: NodeJS.ProcessEnv = process.env): WriteHooks {
   const hooks: WriteHooks = {};
   const fail = Number(env.WARRANT_TEST_FAIL_AFTER_FILES);
   const kill = Number(env.WARRANT_TEST_KILL_AFTER_FILES);
   if (env.WARRANT_TEST_FAIL_AFTER_FILES !== undefined && Number.isInteger(fail)) hooks.failAfterFiles = fail;
   if (env.WARRANT_TEST_KILL_AFTER_FILES !== undefined && Number.isInteger(kill)) hooks.killAfterFiles = kill;
+  if (env.WARRANT_TEST_FAIL_CODE !== undefined && /^E[A-Z]+$/.test(env.WARRANT_TEST_FAIL_CODE)) hooks.failCode = env.WARRANT_TEST_FAIL_CODE;
   return hooks;
 }
 
@@ -218,11 +230,12 @@ export async function storePack(root: string, name: string, files: Array<[string
       // claim), and a promise round trip per file and per folder cost about 0.1 s of a 200-claim build.
       const made = new Set<string>();
       for (const [rel, content] of files) {
+        const file = join(tmp, rel);
         if (hooks.failAfterFiles !== undefined && written >= hooks.failAfterFiles) {
+          if (hooks.failCode !== undefined) throw Object.assign(new Error(`${hooks.failCode}: open '${file}' (test hook)`), { code: hooks.failCode, syscall: 'open', path: file });
           throw new Error(`build interrupted on purpose after ${written} files (test hook)`);
         }
         if (hooks.killAfterFiles !== undefined && written >= hooks.killAfterFiles) process.kill(process.pid, 'SIGKILL');
-        const file = join(tmp, rel);
         const folder = dirname(file);
         if (!made.has(folder)) {
           makeFolders(folder);
@@ -286,6 +299,6 @@ async function pointLatest(root: string, name: string): Promise<void> {
     await rename(tmp, link);
   } catch (e) {
     await rm(tmp, { force: true });
-    throw fsFailure(e, { file: link, field: '--out' }, 'pointing the latest link at the new pack') ?? e;
+    throw writeFailure(e, { file: link, field: '--out' }, 'pointing the latest link at the new pack', root, 'give --out another folder') ?? e;
   }
 }

@@ -53,6 +53,8 @@ interface Case {
   message?: string;
   /** For an input that builds: checks on the run (exit code 0). */
   builds?: (run: Run) => void;
+  /** More of the environment (the test hooks of src/history/store.ts). */
+  env?: Record<string, string>;
 }
 
 interface Run {
@@ -337,7 +339,38 @@ const cases: Case[] = [
     setup: (dir) => summaryCase(dir),
     argv: ['build', 'claims.yaml', '--out', '/proc/self/packs'],
     message:
-      '/proc/self/packs: writing into /proc/self failed: permission was denied (field "--out"). Fix: Give --out a folder of your own that you can write in, e.g. out.',
+      '/proc/self/packs: writing the pack into the history folder failed: the folder /proc/self cannot be written: permission was denied (field "--out"). Fix: Give --out another folder: one of your own, e.g. out.',
+  },
+  // A folder that cannot be written is said as a write, with a write's fixes: tests run as root, for whom permissions
+  // are not enforced, so the file system's own error is thrown where the pack's first file is opened (test hook).
+  ...(
+    [
+      ['EACCES', 'permission was denied', 'Give --out another folder, or change the permissions of packs so that you can write in it (e.g. chmod u+w packs)'],
+      ['EPERM', 'permission was denied', 'Give --out another folder, or change the permissions of packs so that you can write in it (e.g. chmod u+w packs)'],
+      ['EROFS', 'it is on a read-only file system', 'Give --out another folder, on a disk that can be written'],
+      ['ENOSPC', 'there is no space left on its disk', 'Free some space on the disk and run the command again, or give --out another folder on another disk'],
+      ['EDQUOT', 'your disk quota is used up', 'Free some space within your quota and run the command again, or give --out another folder on another disk'],
+    ] as const
+  ).map(([code, why, fix]): Case => ({
+    what: `--out a folder that cannot be written (${code})`,
+    group: 'never an internal error',
+    cousin: true,
+    setup: (dir) => {
+      summaryCase(dir);
+      mkdirSync(join(dir, 'packs'));
+    },
+    argv: ['build', 'claims.yaml', '--out', 'packs'],
+    env: { WARRANT_TEST_FAIL_AFTER_FILES: '0', WARRANT_TEST_FAIL_CODE: code },
+    message: `packs: writing the pack into the history folder failed: the folder packs cannot be written: ${why} (field "--out"). Fix: ${fix}.`,
+  })),
+  {
+    what: '--out a folder inside the claims file',
+    group: 'never an internal error',
+    cousin: true,
+    setup: (dir) => summaryCase(dir),
+    argv: ['build', 'claims.yaml', '--out', 'claims.yaml/packs'],
+    message:
+      'claims.yaml/packs: writing the pack into the history folder failed: a part of the path is a file where a folder was expected (field "--out"). Fix: Check each folder named in the path (one of them is a file), or give --out another folder.',
   },
   {
     what: 'warrant demo into a new folder inside /proc/self',
@@ -417,7 +450,7 @@ const cases: Case[] = [
     setup: (dir) => summaryCase(dir),
     argv: ['demo', 'data.csv/demo', '--no-build'],
     message:
-      'data.csv/demo/claims.yaml: writing the demo file failed: a part of the path is a file where a folder was expected. Fix: Check each folder named in the path: one of them is a file.',
+      'data.csv/demo/claims.yaml: writing the demo file failed: a part of the path is a file where a folder was expected. Fix: Check each folder named in the path (one of them is a file), or give warrant demo another folder.',
   },
   {
     what: 'an association whose first measure is the same in every unit: too little data, said in words',
@@ -473,7 +506,7 @@ const cases: Case[] = [
     setup: (dir) => summaryCase(dir),
     argv: ['build', 'claims.yaml', '--out', 'x'.repeat(300)],
     message:
-      `${'x'.repeat(300)}: writing the pack into the history folder failed: the path, or a name in it, is longer than the file system allows (field "--out"). Fix: Use a shorter path or shorter folder and file names.`,
+      `${'x'.repeat(300)}: writing the pack into the history folder failed: the path, or a name in it, is longer than the file system allows (field "--out"). Fix: Use a shorter path or shorter folder names: give --out another folder with a shorter path.`,
   },
   {
     what: 'a claims file name longer than the file system allows',
@@ -887,7 +920,7 @@ function runCase(c: Case, i: number): Promise<Run> {
     const started = performance.now();
     const child = spawn(process.execPath, ['--import', peakHook, bin, ...argv], {
       cwd: dir,
-      env: { ...process.env, TMPDIR: tmp, TMP: tmp, TEMP: tmp, NO_COLOR: '1', CATALOGUE_PEAK_FILE: peakFile },
+      env: { ...process.env, TMPDIR: tmp, TMP: tmp, TEMP: tmp, NO_COLOR: '1', CATALOGUE_PEAK_FILE: peakFile, ...c.env },
       stdio: ['ignore', 'pipe', 'pipe'],
     });
     const out: Buffer[] = [];
