@@ -105,10 +105,12 @@ export function analyseGapChange(written: GapChangeClaim, cube: Cube, ctx: Compa
   const d = differenceOfDifferences(counts(earlier), counts(later), { level: claim.confidence, alternative });
   let test = d;
   let pOpposite: number | undefined;
+  let sizeTests: GapChangeAnalysis['sizeTests'];
   if (sizeClaim) {
     const s = gapSizeChange(counts(earlier), counts(later), claim.expect as 'narrowed' | 'widened', { level: claim.confidence });
     test = s.test;
     pOpposite = s.pOpposite;
+    sizeTests = s.components;
   } else if (alternative !== 'two-sided') {
     pOpposite = differenceOfDifferences(counts(earlier), counts(later), { level: claim.confidence, alternative: alternative === 'less' ? 'greater' : 'less' }).p;
   }
@@ -130,6 +132,7 @@ export function analyseGapChange(written: GapChangeClaim, cube: Cube, ctx: Compa
     observedSign: sign(effect),
     difference: { value: d.estimate.value, interval: d.interval as NonNullable<typeof d.interval> },
     sizeChange,
+    ...(sizeTests !== undefined ? { sizeTests } : {}),
     ...(smallest !== undefined ? { threshold: { effect, smallest, unit: 'points' as const } } : {}),
     ...(detectable !== undefined ? { detectable } : {}),
     ...(rates.length > 0 ? { responseRate: Math.min(...rates) } : {}),

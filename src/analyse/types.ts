@@ -2,6 +2,7 @@
  * What testing one claim produces, before any words are chosen. One interface per claim kind; the verdict is derived
  * afterwards (src/verdicts/decide.ts) from the adjusted p-value, the claim's direction and its confidence level.
  */
+import type { GapSizeComponent } from '../stats/difference-of-differences.js';
 import type { AssociationClaim, Claim, CompareClaim, CrosstabClaim, EquivalenceClaim, MeansClaim } from '../claims/types.js';
 import type { Interval, TestResult } from '../stats/result.js';
 import type { PartialKendall } from '../stats/partial-kendall.js';
@@ -281,6 +282,11 @@ export interface GapChangeAnalysis extends AnalysisBase {
   difference?: { value: number; interval: Interval };
   /** The change in the gap's size, |later gap| - |earlier gap| (negative: narrowed). */
   sizeChange?: number;
+  /**
+   * A claim that the gap narrowed or widened: the two one-sided z tests of the intersection–union test that decide
+   * its p-value (the change in the gap, then the sum of the two gaps; src/stats/difference-of-differences.ts).
+   */
+  sizeTests?: [GapSizeComponent, GapSizeComponent];
   /** Smallest change in the gap (proportion units) detectable with 80% power (src/stats/power-gap-change.ts). */
   detectable?: number;
   responseRate?: number;

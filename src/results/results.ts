@@ -131,7 +131,13 @@ export interface ClaimResult {
    * Change claims with focus and against (kind gap-change): the gap (focus rate minus against rate) in each period with
    * its Newcombe interval, and the change in the gap's size (|later gap| minus |earlier gap|; negative: narrowed).
    */
-  gaps?: { from: GapResult; to: GapResult; sizeChange: number };
+  gaps?: {
+    from: GapResult;
+    to: GapResult;
+    sizeChange: number;
+    /** A claim that the gap narrowed or widened: its two one-sided z tests, each p-value at the two-sided level. */
+    sizeTests?: Array<{ of: 'change' | 'sum'; alternative: 'less' | 'greater'; z: number; p: number }>;
+  };
   /** Compare and change: Cohen's h for the two rates. */
   cohensH?: number | null;
   /** Target: the fixed value the rate is held to (proportion). */
@@ -369,6 +375,7 @@ function kindFigures(a: Analysis): Partial<ClaimResult> {
               from: { period: a.periods.from, value: a.earlier.gap, interval: a.earlier.interval },
               to: { period: a.periods.to, value: a.later.gap, interval: a.later.interval },
               sizeChange: a.sizeChange,
+              ...(a.sizeTests ? { sizeTests: a.sizeTests.map((c) => ({ of: c.of, alternative: c.alternative, z: c.z, p: c.p })) } : {}),
             },
           }
         : {};

@@ -124,6 +124,18 @@ export function differenceOfDifferences(earlier: Gap, later: Gap, options: Contr
 }
 
 /**
+ * One of the two one-sided z tests behind a claim that a gap narrowed or widened: of the change in the gap (D, later
+ * minus earlier) or of the sum of the two gaps (S, later plus earlier), the direction it must find, its z and its
+ * one-sided p-value doubled (each test is held to the two-sided level; capped at 1).
+ */
+export interface GapSizeComponent {
+  of: 'change' | 'sum';
+  alternative: 'less' | 'greater';
+  z: number;
+  p: number;
+}
+
+/**
  * Whether the gap's size changed: "narrowed" is |later gap| < |earlier gap|, "widened" |later gap| > |earlier gap|,
  * whichever group is ahead. With D = later - earlier and S = later + earlier, |later| < |earlier| exactly when D and
  * S have opposite signs (later^2 - earlier^2 = D S), and |later| > |earlier| when they share a sign. Tested as an
@@ -136,14 +148,23 @@ export function differenceOfDifferences(earlier: Gap, later: Gap, options: Contr
  *
  * @returns test: method 'gap-size-iut', its p-value for the claimed change of size, estimate |later| - |earlier|
  *   and the interval for D; pOpposite: the p-value for the other one (narrowed <-> widened); d and s: the z tests of
- *   D and S (two-sided p-values).
+ *   D and S (two-sided p-values); components: the two one-sided tests of the claimed region that decide its p-value
+ *   (of D, then of S), each with its z and its one-sided p-value doubled (capped at 1), so that the claim's p-value
+ *   is the larger of the two; the region is the one with the smaller p-value (on a tie, the one on the side S lies).
  */
 export function gapSizeChange(
   earlier: Gap,
   later: Gap,
   claimed: 'narrowed' | 'widened',
   options: { level?: number } = {},
-): { test: TestResult; p: number; pOpposite: number; d: TestResult; s: { estimate: number; se: number; z: number; p: number; interval: Interval } } {
+): {
+  test: TestResult;
+  p: number;
+  pOpposite: number;
+  d: TestResult;
+  s: { estimate: number; se: number; z: number; p: number; interval: Interval };
+  components: [GapSizeComponent, GapSizeComponent];
+} {
   const fn = 'gapSizeChange';
   const level = options.level ?? 0.95;
   const d = differenceOfDifferences(earlier, later, { level });
@@ -153,6 +174,17 @@ export function gapSizeChange(
   const [dUp, dDown, sUp, sDown] = [normalSf(zd), normalCdf(zd), normalSf(zs), normalCdf(zs)];
   const narrowed = Math.min(1, 2 * Math.min(Math.max(dDown, sUp), Math.max(dUp, sDown)));
   const widened = Math.min(1, 2 * Math.min(Math.max(dUp, sUp), Math.max(dDown, sDown)));
+  // The claimed region's two tests: narrowed is D < 0 with S > 0 (the focus ahead) or D > 0 with S < 0; widened is
+  // D and S of one sign. Each region is named by the side S lies on.
+  const regionUp = claimed === 'narrowed' ? Math.max(dDown, sUp) : Math.max(dUp, sUp);
+  const regionDown = claimed === 'narrowed' ? Math.max(dUp, sDown) : Math.max(dDown, sDown);
+  const up = regionUp < regionDown || (regionUp === regionDown && zs >= 0);
+  const dAlt: 'less' | 'greater' = (claimed === 'narrowed') === up ? 'less' : 'greater';
+  const doubled = (q: number): number => Math.min(1, 2 * q);
+  const components: [GapSizeComponent, GapSizeComponent] = [
+    { of: 'change', alternative: dAlt, z: zd, p: doubled(dAlt === 'less' ? dDown : dUp) },
+    { of: 'sum', alternative: up ? 'greater' : 'less', z: zs, p: doubled(up ? sUp : sDown) },
+  ];
   const laterGap = later.first.x / later.first.n - later.second.x / later.second.n;
   const earlierGap = earlier.first.x / earlier.first.n - earlier.second.x / earlier.second.n;
   const test: TestResult = {
@@ -167,5 +199,6 @@ export function gapSizeChange(
     pOpposite: claimed === 'narrowed' ? widened : narrowed,
     d,
     s: { estimate: sum.estimate, se: sum.se, z: zs, p: pOf(zs, 'two-sided'), interval: sum.interval },
+    components,
   };
 }

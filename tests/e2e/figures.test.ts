@@ -162,6 +162,25 @@ describe('one precision per sentence', () => {
   });
 });
 
+describe('the gap-change claim that the gap narrowed: both tests of the intersection–union test', () => {
+  it('prints each of the two tests with its z and p-value, as results.json gives them, and the claim\'s p-value as the larger', () => {
+    const c = results.claims.find((x) => x.id === 'part-time-gap-narrowed')!;
+    const tests = c.gaps.sizeTests as Array<{ of: string; alternative: string; z: number; p: number }>;
+    expect(tests.map((t) => t.of)).toEqual(['change', 'sum']);
+    // The claim's statistic is the first test's z, and its p-value the larger of the two (Berger 1982).
+    expect(c.statistic.value).toBe(tests[0]!.z);
+    expect(c.p).toBe(Math.max(tests[0]!.p, tests[1]!.p));
+    const rows = tableRows('part-time-gap-narrowed', numbersTables(layout).get('part-time-gap-narrowed')!);
+    const z = (v: number) => `${v < 0 ? '\u2212' : ''}${Math.abs(v).toFixed(2)}`;
+    const p = (v: number) => (v >= 0.001 ? v.toFixed(3) : '< 0.001');
+    const first = rows.find((r) => r.label === 'First test: the gap moved back towards zero')!;
+    const second = rows.find((r) => r.label === 'Second test: it did not cross to the other side by as much')!;
+    expect(first.value).toContain(`z = ${z(tests[0]!.z)}, p = ${p(tests[0]!.p)}`);
+    expect(second.value).toContain(`z = ${z(tests[1]!.z)}, p = ${p(tests[1]!.p)}`);
+    expect(rows.some((r) => r.label === 'Test statistic')).toBe(false);
+  });
+});
+
 describe('reading a numbers table as labelled rows', () => {
   // The same table laid out two ways: other column widths, a second pair on a line, wrapped labels and values.
   const wide = [

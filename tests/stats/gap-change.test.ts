@@ -73,6 +73,13 @@ describe('difference of differences against R 4.2.2 (formulas written out)', () 
       expectClose(narrowed.s.z, c.z_s, 'closed', 'z of S');
       expectClose(narrowed.s.interval.lower, c.s_lower, 'bound', 'S lower');
       expectClose(narrowed.s.interval.upper, c.s_upper, 'bound', 'S upper');
+      // The two tests behind each claim: of D and of S, with R's z; the claim's p-value (R's) is the larger of theirs.
+      for (const [t, pR] of [[narrowed, c.p_narrowed], [widened, c.p_widened]] as const) {
+        expect(t.components.map((k) => k.of)).toEqual(['change', 'sum']);
+        expectClose(t.components[0].z, c.z, 'closed', 'component z of D');
+        expectClose(t.components[1].z, c.z_s, 'closed', 'component z of S');
+        expectClose(Math.max(t.components[0].p, t.components[1].p), pR, 'p', 'the larger component p');
+      }
       expectClose(minDetectableGapChange(c.se, { alpha: 1 - c.level }), c.detectable_two, 'closed', 'detectable, two-sided');
       expectClose(minDetectableGapChange(c.se, { alpha: 1 - c.level, sided: 'one-sided' }), c.detectable_one, 'closed', 'detectable, one-sided');
     });
@@ -130,6 +137,21 @@ describe('the gap-size test holds its level (intersection-union, defining proper
 });
 
 describe('the gap-size test result', () => {
+  it('names the two tests of the claimed region with their directions and p-values at the two-sided level', () => {
+    // Earlier 30% vs 50% (gap −20), later 42% vs 48% (gap −6): narrowed with the against group ahead, so the change
+    // in the gap must be above zero and the two gaps added together below zero. z of D = 0.14 / sqrt(0.3·0.7/1000 +
+    // 0.5·0.5/1000 + 0.42·0.58/1000 + 0.48·0.52/1000) = 0.14 / 0.030874 = 4.535 (worked by hand, common practice).
+    const t = gapSizeChange(gap([300, 1000, 500, 1000]), gap([420, 1000, 480, 1000]), 'narrowed');
+    expect(t.components.map((k) => [k.of, k.alternative])).toEqual([['change', 'greater'], ['sum', 'less']]);
+    expectClose(t.components[0].z, 0.14 / Math.sqrt((0.3 * 0.7 + 0.25 + 0.42 * 0.58 + 0.48 * 0.52) / 1000), 'closed', 'z of D');
+    expect(t.components[0].z).toBeCloseTo(4.535, 2);
+    expect(Math.max(t.components[0].p, t.components[1].p)).toBe(t.p);
+    // Widened, read on the same data: the region on the side S lies (the against group ahead) with D below zero.
+    const w = gapSizeChange(gap([300, 1000, 500, 1000]), gap([420, 1000, 480, 1000]), 'widened');
+    expect(w.components.map((k) => [k.of, k.alternative])).toEqual([['change', 'less'], ['sum', 'less']]);
+    expect(w.components[0].p).toBe(1);
+  });
+
   it('names its method and gives the change in size as its estimate', () => {
     const t = gapSizeChange(gap([300, 1000, 500, 1000]), gap([420, 1000, 480, 1000]), 'narrowed');
     expect(t.test.method).toBe('gap-size-iut');

@@ -134,7 +134,7 @@ export function commonRows(a: Analysis, decision: Decision, ctx: ComposeContext)
     a.kind === 'equivalence'
       ? 'TOST, the larger of the two one-sided p-values'
       : a.test?.method === 'gap-size-iut'
-        ? 'both tests, each at the two-sided level'
+        ? 'the larger of the two tests’'
         : a.test?.alternative === 'two-sided'
           ? 'two-sided'
           : 'one-sided';

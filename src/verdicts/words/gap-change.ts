@@ -13,6 +13,33 @@ export function gapTestName(methods: string[]): string {
   return methods.includes('gap-size-iut') ? 'Intersection–union test on the gap’s size (two z tests, each at the two-sided level)' : 'z test of the change in the gap (a difference of two differences)';
 }
 
+/**
+ * For a claim that the gap narrowed or widened: the numbers table's one test statistic (the change in the gap's z)
+ * replaced by the two one-sided tests that must both find their way, each with its z and p-value (at the two-sided
+ * level), named in plain words with the side they were read on; the claim's p-value is the larger of the two.
+ */
+function withSizeTests(rows: NumberRow[], a: GapChangeAnalysis, expect: string, focusName: string, againstName: string): NumberRow[] {
+  const tests = a.sizeTests;
+  if (tests === undefined) return rows;
+  const [change, sum] = tests;
+  const ahead = sum.alternative === 'greater' ? focusName : againstName;
+  const side = (alt: 'less' | 'greater') => (alt === 'less' ? 'below zero' : 'above zero');
+  const zp = (c: typeof change) => `z = ${fmt.statistic(c.z)}, p = ${fmt.pValue(c.p)}`;
+  const narrowed = expect === 'narrowed';
+  const two: NumberRow[] = [
+    {
+      label: narrowed ? 'First test: the gap moved back towards zero' : 'First test: the gap moved further from zero',
+      value: `change in the gap ${side(change.alternative)}, with ${ahead} ahead: ${zp(change)}`,
+    },
+    {
+      label: narrowed ? 'Second test: it did not cross to the other side by as much' : 'Second test: the gaps lie on the side it moved to',
+      value: `the two gaps added together ${side(sum.alternative)}: ${zp(sum)}`,
+    },
+  ];
+  const at = rows.findIndex((r) => r.label === 'Test statistic');
+  return at < 0 ? [...two, ...rows] : [...rows.slice(0, at), ...two, ...rows.slice(at + 1)];
+}
+
 export function composeGapChange(a: GapChangeAnalysis, decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
   const claim = a.claim;
@@ -84,7 +111,7 @@ export function composeGapChange(a: GapChangeAnalysis, decision: Decision, ctx: 
     { label: `Gap in ${a.periods.to}`, value: `${laterV.gap} points (interval ${laterV.gapLower} to ${laterV.gapUpper})` },
     { label: 'Change in the gap', value: `${view.change} points (interval ${view.changeLower} to ${view.changeUpper})` },
     ...(sizeClaim ? [{ label: 'Change in the gap’s size', value: `${sizeChange < 0 ? '−' : sizeChange > 0 ? '+' : ''}${view.sizeChange} points (${view.sizeVerb})` }] : []),
-    ...commonRows(a, decision, ctx),
+    ...withSizeTests(commonRows(a, decision, ctx), a, expect, focusName, againstName),
     { label: detectableLabel('change in the gap', decision), value: view.detectable ? `about ${view.detectable} points` : 'none within reach of these samples' },
   ];
   const cautions: string[] = [t.render('caution.cohorts', {})];
