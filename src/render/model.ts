@@ -217,6 +217,11 @@ export interface SummaryRow {
   intervalLevel?: string;
   /** True when the verdict would differ at 90%, 95% or 99% confidence: the summary marks such claims. */
   dependsOnLevel?: boolean;
+  /**
+   * True when the claim's own words and its fields disagree (the page's first caution says how): the summary marks
+   * such claims, so that a reader of the summary alone is not told to quote words the verdict does not answer.
+   */
+  wordsDisagree?: boolean;
   /** The verdict refined for 'not-supported' (see NotSupportedAs); absent otherwise. */
   verdictDetail?: NotSupportedAs;
   /**
@@ -269,6 +274,11 @@ export interface PackModel {
   sealText?: string;
   /** A short paragraph under the summary table: how to read it and the overall cautions. */
   summaryIntro: string;
+  /**
+   * The summary's marks on a claim's row and the note each refers to (under the claims table), for the marks the
+   * summary uses, e.g. { wordsDisagree: { mark: "Words and test disagree*", note: "* The claim's own words ..." } }.
+   */
+  summaryMarks?: { wordsDisagree?: { mark: string; note: string } };
   summary: SummaryRow[];
   claims: ClaimSection[];
   /** Method notes: one entry per method used, with what it assumes and its published source. */

@@ -88,7 +88,7 @@ export function composeClaim(a: Analysis, decision: Decision, ctx: ComposeContex
   const level = h ? fmt.level(h.interval.level) : a.kind === 'estimate' && a.status === 'tested' ? fmt.level(a.claim.confidence) : undefined;
   return {
     section: { ...head, ...built.section, ...(extras.sourceLine ? { sourceLine: extras.sourceLine } : {}) },
-    summary: { ...head, keyFigure: built.key, ...(level ? { intervalLevel: level } : {}) },
+    summary: { ...head, keyFigure: built.key, ...(level ? { intervalLevel: level } : {}), ...(mismatched.length > 0 ? { wordsDisagree: true } : {}) },
   };
 }
 

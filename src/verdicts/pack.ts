@@ -166,6 +166,10 @@ export function composePack(input: {
       };
     }),
     summaryIntro: templates.render('summary.intro', view),
+    // The mark on a summary row whose claim's words and fields disagree, and the note under the table that explains it.
+    ...(input.summary.some((r) => r.wordsDisagree)
+      ? { summaryMarks: { wordsDisagree: { mark: templates.render('summary.words-fields-mark', view), note: templates.render('summary.words-fields-note', view) } } }
+      : {}),
     ...(input.sealText !== undefined ? { sealText: input.sealText } : {}),
     verdictDefinitions: definitions(templates, 'verdict-definitions', view),
     actionDefinitions: definitions(templates, 'action-definitions', view),

@@ -68,5 +68,20 @@ describe('a claim whose words and fields disagree', () => {
     const text = fold(execFileSync('pdftotext', ['-enc', 'UTF-8', join(folder, 'pack.pdf'), '-'], { encoding: 'utf8' }));
     expect(text).toContain(caution);
     expect(text.split("The claim's own words").length - 1).toBe(2);
+    // The summary marks the two claims whose words and fields disagree, and says once, under its table, what the
+    // mark means; the claim whose words agree is not marked.
+    const layout = execFileSync('pdftotext', ['-enc', 'UTF-8', '-layout', join(folder, 'pack.pdf'), '-'], { encoding: 'utf8' });
+    const summary = layout.slice(layout.indexOf('The claims, and what to do with each'), layout.indexOf('CLAIM '));
+    expect(summary.split('Words and test disagree*').length - 1).toBe(2);
+    expect(fold(summary)).toContain('* Marked claims: the words of the claim say something other than what was tested (the first caution on its page says how). Its verdict and advice answer the test, not the words: correct the claims file before quoting the claim.');
+    // Rows in the summary's order (must not make first, then file order): the marks fall in the first and third rows.
+    const mark = 'Words and test disagree*';
+    const first = summary.indexOf(mark);
+    const second = summary.indexOf(mark, first + 1);
+    const rowStart = (words: string) => summary.indexOf(words);
+    expect(rowStart('Our students are less likely')).toBeLessThan(first);
+    expect(first).toBeLessThan(rowStart('We are still below'));
+    expect(second).toBeGreaterThan(rowStart('Oxtrellis University is below'));
+    expect(second).toBeGreaterThan(summary.indexOf('target-as-written'));
   }, 60_000);
 });

@@ -162,6 +162,10 @@ export function drawSummary(L: Layout, model: PackModel, root: Struct, bookmark:
             gap: 3,
           });
         }
+        const marks = model.summaryMarks?.wordsDisagree;
+        if (r.wordsDisagree && marks) {
+          verdictLines.push({ text: marks.mark, face: 'bold', size: SIZE.small, color: COLOR.noticeInk, gap: 2 });
+        }
         if (r.dependsOnLevel) {
           verdictLines.push({ text: 'Depends on the confidence level chosen: see its page', face: 'italic', size: SIZE.small, color: COLOR.muted, gap: 2 });
         }
@@ -186,6 +190,12 @@ export function drawSummary(L: Layout, model: PackModel, root: Struct, bookmark:
       },
     ),
   );
+
+  // The note a mark on a row refers to, under the table.
+  const wordsNote = model.summaryMarks?.wordsDisagree;
+  if (wordsNote && rows.some((r) => r.wordsDisagree)) {
+    blocks.push(L.paragraph(wordsNote.note, { size: SIZE.small, color: COLOR.noticeInk, spaceAfter: 10 }));
+  }
 
   // What each piece of advice means, for the advice the summary gives.
   const actions = (model.actionDefinitions ?? []).filter((d) => rows.some((r) => r.advice?.label === d.label));
