@@ -327,6 +327,8 @@ export function adviseClaim(input: AdviceInput): ClaimAdvice {
     ...(e ? effectEnds(e) : { lower: '', upper: '' }),
     unitWord: e?.unit === 'r' ? '' : ` ${e?.unit ?? ''}`,
     association: a.kind === 'association',
+    // A correlation across units is settled by more units, not by more respondents in the same units.
+    unitsName: a.kind === 'association' ? unitWords(a.claim.units).unitsName : '',
     twoSided: a.expectSign === 0,
     adjusted: input.adjusted,
     lowResponse: isLowResponse(a.shortfall),

@@ -100,6 +100,18 @@ describe('verdict words and what to do with each claim', () => {
     expect(byId('library-fell').advice.reason).toContain('The data point the other way: 68% in 2025 to 77% in 2026');
   });
 
+  it('says an inconclusive correlation across departments needs more departments, and an inconclusive comparison more respondents', () => {
+    // Fisher's z interval for r has standard error 1 / sqrt(units - 3) (Fisher 1921): more respondents in the same
+    // 12 departments leave it as wide as it is.
+    const across = byId('challenge-goes-with-arrangements');
+    expect(across.verdictDetail).toBe('inconclusive');
+    expect(across.advice.reason).toContain('More departments would be needed to settle it: more respondents in the same departments would not narrow the interval for the correlation');
+    expect(across.advice.reason).not.toContain('More respondents would be needed');
+    const ceramics = byId('ceramics-clearer-than-music');
+    expect(ceramics.verdictDetail).toBe('inconclusive');
+    expect(ceramics.advice.reason).toMatch(/More respondents would be needed to settle it\.$/);
+  });
+
   it('gives each claim its response rate, or null where the data hold no number eligible', () => {
     // lanternfield holds Eligible: Quarrendell's 2,025 respondents of 3,269 eligible on Q08 (its Ceramics and Glass row,
     // withheld in the 2026 release, counts on neither side), as the estimate page prints.

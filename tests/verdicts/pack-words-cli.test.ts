@@ -181,7 +181,7 @@ describe("the summary page's verdict definitions, as printed (pdftotext -layout 
     'Points the other way': 'The data give clear evidence against the claim, in the opposite direction. Do not make the claim.',
     Supported: 'The data give clear evidence for the claim at the stated confidence level, after adjusting for the number of claims tested together.',
     'Not supported: ruled out': `No clear evidence for the claim, and the interval excludes a difference of the size worth reporting, so the data speak against the claim as made. A reworded claim (what the interval supports) may be made instead. ${sizes}`,
-    'Not supported: inconclusive': `No clear evidence either way. The interval holds both no difference and a difference worth reporting; more respondents could settle it. It does not mean the claim is false. ${sizes}`,
+    'Not supported: inconclusive': `No clear evidence either way. The interval holds both no difference and a difference worth reporting; more data could settle it. It does not mean the claim is false. ${sizes}`,
     'Not supported: too small': 'The difference is real and in the claimed direction, but smaller than the smallest difference the claim said would matter.',
     'Not supported': 'No clear evidence for the claim. The result is not split further: the test gives no interval for the size of the effect (a table of counts), or no size worth reporting is set for it (a steady trend, whose interval is on its page).',
     'Too little data': 'Too few people answered for a test; no result is shown.',
