@@ -111,3 +111,17 @@ describe('the method note on the smallest detectable difference', () => {
     expect(note(twoHolm)).toContain('after the adjustment for many claims, the threshold each claim was held to is smaller');
   });
 });
+
+describe('the general cautions on intervals under an adjustment', () => {
+  it('say that the numbers give the interval at the adjusted level, as each claim page does', () => {
+    const cautions = twoHolm.model.generalCautions.join(' ');
+    expect(cautions).not.toContain('only the p-values are adjusted');
+    expect(cautions).toContain('Where adjusting for testing 2 claims together held a claim to a stricter level, its numbers also give the interval at that level (marked "adjusted for 2 claims")');
+    // Holm's first step holds the smaller p-value (Q1's) to 0.05 / 2 = 0.025 and the second to 0.05 (Holm 1979):
+    // Q1's numbers give the 97.5% interval, marked; Q2, held to its own level, has none to give.
+    const difference = twoHolm.model.claims.map((c) => c.numbers.find((r) => r.label === 'Difference')?.value ?? '');
+    expect(twoHolm.decisions.map((d) => d.effectiveAlpha)).toEqual([0.025, 0.05]);
+    expect(difference[0]).toMatch(/97\.5% interval .* adjusted for 2 claims/);
+    expect(difference[1]).not.toContain('adjusted for');
+  });
+});
