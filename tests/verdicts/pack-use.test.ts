@@ -19,11 +19,11 @@ North,Q2,800,400
 South,Q2,800,404
 `;
 
-async function buildPack(name: string, header: string, claims: string): Promise<BuildResult> {
+async function buildPack(name: string, header: string, claims: string, data = csv): Promise<BuildResult> {
   const dir = join(work, name);
   const { mkdirSync } = await import('node:fs');
   mkdirSync(dir, { recursive: true });
-  writeFileSync(join(dir, 'summary.csv'), csv);
+  writeFileSync(join(dir, 'summary.csv'), data);
   writeFileSync(
     join(dir, 'claims.yaml'),
     `title: Pack use\norganisation: Fernwick Students\ndata_date: 2026-01-15\nconfidence: 95%\n${header}sources:\n  s:\n    file: summary.csv\n    shape: summary\n    respondents: Respondents\n    agree: Agreeing\nclaims:\n${claims}`,
@@ -124,4 +124,28 @@ describe('the general cautions on intervals under an adjustment', () => {
     expect(difference[0]).toMatch(/97\.5% interval .* adjusted for 2 claims/);
     expect(difference[1]).not.toContain('adjusted for');
   });
+});
+
+describe('a comparison decided by Fisher\'s exact test whose interval leaves out no difference', () => {
+  it('says that the test and the interval disagree, with both figures, and none where they agree', async () => {
+    // North 0 of 30 against South 5 of 30: R 4.2 fisher.test(matrix(c(0, 30, 5, 25), 2))$p.value = 0.05218555, while
+    // Newcombe's hybrid score interval (method 10, worked in R from the two Wilson intervals) is -0.3356435 to
+    // -0.0197299: the 95% interval excludes no difference, the test at 5% does not find one.
+    const data = 'Campus,Question,Respondents,Agreeing\nNorth,Q1,30,0\nSouth,Q1,30,5\nNorth,Q2,30,0\nSouth,Q2,30,9\n';
+    const pack = await buildPack('fisher', '', compare('Q1'), data);
+    const a = pack.analyses[0]!;
+    expect(a.methods).toContain('fisher-exact-2x2');
+    expect(pack.decisions[0]!.p).toBeCloseTo(0.05218555, 7);
+    expect(pack.decisions[0]!.verdict).toBe('not-supported');
+    const cautions = pack.model.claims[0]!.cautions;
+    expect(cautions).toContain(
+      "Here the test and the interval for the difference disagree: the 95% interval (−33.6 to −2.0 points) leaves out no difference, yet Fisher's exact test does not find one at that level (p = 0.052). The two are worked out in different ways and can part with counts this small; the verdict follows the test, so read the claim as borderline.",
+    );
+    // North 0 of 30 against South 9 of 30 (an expected count of 4.5, so Fisher's test again): both find a difference
+    // (R fisher.test(matrix(c(0, 30, 9, 21), 2))$p.value = 0.0019356), so no such caution.
+    const agree = await buildPack('fisher-agree', '', compare('Q2'), data);
+    expect(agree.analyses[0]!.methods).toContain('fisher-exact-2x2');
+    expect(agree.decisions[0]!.p).toBeCloseTo(0.0019356, 7);
+    expect(agree.model.claims[0]!.cautions.join(' ')).not.toContain('disagree');
+  }, 60_000);
 });

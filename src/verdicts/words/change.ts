@@ -5,7 +5,7 @@ import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, detectableLabel, differenceView, pView, rateCautions, rateRow, rateView, scopeText, sharedDigits, tooLittle, twoRateTestName, type ComposeContext, type Composed } from './common.js';
+import { commonRows, fisherIntervalCaution, detectableLabel, differenceView, pView, rateCautions, rateRow, rateView, scopeText, sharedDigits, tooLittle, twoRateTestName, type ComposeContext, type Composed } from './common.js';
 
 /** Where-filters other than the period column, as a phrase ("Tarnquill, Q09"). */
 export function scopeOf(a: { claim: { where: ChangeAnalysis['claim']['where']; naming?: Naming }; periodColumn: string }): string {
@@ -57,7 +57,7 @@ export function composeChange(a: ChangeAnalysis, decision: Decision, ctx: Compos
   ];
   const cautions: string[] = [t.render('caution.cohorts', {})];
   cautions.push(...rateCautions([a.later, a.earlier], a.responseRate, t));
-  if (a.methods.includes('fisher-exact-2x2')) cautions.push(t.render('caution.fisher', {}));
+  if (a.methods.includes('fisher-exact-2x2')) cautions.push(t.render('caution.fisher', {}), ...fisherIntervalCaution(a, decision, t));
   const chart: Chart = {
     data: {
       kind: 'rates',

@@ -296,3 +296,43 @@ export function rateCautions(rates: RateSummary[], responseRate: number | undefi
   }
   return cautions;
 }
+
+/**
+ * For a two-rate claim decided by Fisher's exact test: a sentence where the printed interval for the difference
+ * (Newcombe's, from the two Wilson intervals) and the test disagree at a level the page gives, the interval leaving
+ * out no difference while the test finds none at that level, or the other way round. The exact test is the more
+ * cautious near small counts, so the two can part (common practice); the page would otherwise show an interval
+ * that excludes zero beside a verdict that no difference was found, with nothing to say why. Checked at the claim's
+ * own level (its p-value) and, where the adjustment for many claims held it to a stricter level, at that level (its
+ * adjusted p-value against the interval there); two-sided tests only, where interval and test answer the same
+ * question. None when they agree.
+ */
+export function fisherIntervalCaution(
+  a: { methods: string[]; test?: { alternative: string }; difference?: { value: number; interval: { lower: number; upper: number; level: number } } },
+  decision: Decision,
+  t: Templates,
+): string[] {
+  if (!a.methods.includes('fisher-exact-2x2') || a.test?.alternative !== 'two-sided' || !a.difference || decision.p === undefined) return [];
+  const checks: Array<{ interval: { lower: number; upper: number; level: number }; p: number; alpha: number }> = [
+    { interval: a.difference.interval, p: decision.p, alpha: decision.alpha },
+  ];
+  const adjusted = decision.adjustedInterval?.interval;
+  if (adjusted && decision.pAdjusted !== undefined) checks.push({ interval: adjusted, p: decision.pAdjusted, alpha: decision.alpha });
+  for (const c of checks) {
+    const excludes = c.interval.lower > 0 || c.interval.upper < 0;
+    const finds = c.p < c.alpha;
+    if (excludes === finds) continue;
+    const digits = fmt.pointsDigits(a.difference.value, c.interval.lower, c.interval.upper);
+    return [
+      t.render('caution.fisher-interval', {
+        level: fmt.level(c.interval.level),
+        lower: fmt.points(c.interval.lower, { sign: true, digits }),
+        upper: fmt.points(c.interval.upper, { sign: true, digits }),
+        pPhrase: fmt.pPhrase(c.p),
+        adjusted: c.interval !== a.difference.interval,
+        excludes,
+      }),
+    ];
+  }
+  return [];
+}

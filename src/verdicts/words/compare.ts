@@ -5,7 +5,7 @@ import { filterLabel } from '../../analyse/labels.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, comparesPeriods, detectableLabel, differenceView, pView, rateCautions, rateRow, rateView, restOfGroupCaution, sharedDigits, scopeText, tooLittle, twoRateTestName, type ComposeContext, type Composed } from './common.js';
+import { commonRows, fisherIntervalCaution, comparesPeriods, detectableLabel, differenceView, pView, rateCautions, rateRow, rateView, restOfGroupCaution, sharedDigits, scopeText, tooLittle, twoRateTestName, type ComposeContext, type Composed } from './common.js';
 
 export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
@@ -55,7 +55,7 @@ export function composeCompare(a: CompareAnalysis, decision: Decision, ctx: Comp
   const cautions: string[] = restOfGroupCaution(a.relation, claim, { focus: a.focus.n, against: a.against.n }, t);
   if (comparesPeriods(a, ctx.periodColumns)) cautions.push(t.render('caution.cohorts', {}));
   cautions.push(...rateCautions([a.focus, a.against], a.responseRate, t));
-  if (a.methods.includes('fisher-exact-2x2')) cautions.push(t.render('caution.fisher', {}));
+  if (a.methods.includes('fisher-exact-2x2')) cautions.push(t.render('caution.fisher', {}), ...fisherIntervalCaution(a, decision, t));
   const chart: Chart = {
     data: {
       kind: 'rates',
