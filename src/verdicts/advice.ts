@@ -317,6 +317,12 @@ function rewording(a: Analysis, e: EffectInterval & { level: number }, t: Templa
   return t.render(`advice.wording.${a.kind}`, view);
 }
 
+/** Does the interval reach `smallest` (a size, in its units) on the side the claim looks to? */
+function reachesSmallest(a: Analysis, e: EffectInterval, smallest: number): boolean {
+  const direction = intervalDirection(a) || a.observedSign;
+  return direction > 0 ? e.upper >= smallest : direction < 0 ? -e.lower >= smallest : false;
+}
+
 export function adviseClaim(input: AdviceInput): ClaimAdvice {
   const { analysis: a, decision, detail, worth, key, templates: t } = input;
   const e = judgedInterval(a, decision);
@@ -333,6 +339,10 @@ export function adviseClaim(input: AdviceInput): ClaimAdvice {
     adjusted: input.adjusted,
     lowResponse: isLowResponse(a.shortfall),
     ...worthView(worth, e?.unit),
+    // Too small: whether the interval still reaches the smallest difference that matters, in the claimed direction
+    // (or the observed one, for a claim of a difference either way). The estimate lies below it, but only an interval
+    // that stays below it shows the difference to be smaller.
+    reaches: detail === 'too-small' && e !== undefined && decision.belowThreshold !== undefined && reachesSmallest(a, e, decision.belowThreshold.smallest),
   };
   const make = (action: ClaimAdvice['action'], reason: string, wording?: string): ClaimAdvice => ({
     action,

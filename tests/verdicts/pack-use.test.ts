@@ -149,3 +149,27 @@ describe('a comparison decided by Fisher\'s exact test whose interval leaves out
     expect(agree.model.claims[0]!.cautions.join(' ')).not.toContain('disagree');
   }, 60_000);
 });
+
+describe('a real difference below the smallest difference that matters', () => {
+  // North 560 of 1,000 against South 510 of 1,000: R 4.2 prop.test(c(560, 510), c(1000, 1000), correct = FALSE)
+  // p = 0.02499 (real at 95%), difference +5.0 points, Newcombe's hybrid score interval (method 10, worked in R from
+  // the two Wilson intervals) +0.63 to +9.34 points.
+  const withSmallest = (size: string) => compare('Q1').replace('    expect: higher\n', `    expect: higher\n    smallest_difference: ${size}\n`);
+
+  it('is not said to be smaller than a size its interval still reaches', async () => {
+    const pack = await buildPack('small-6', '', withSmallest('6 points'));
+    expect(pack.model.claims[0]!.verdictDetail).toBe('too-small');
+    const advice = pack.model.claims[0]!.advice!;
+    expect(advice.reason).toContain('its estimate is below 6.0 points (the smallest difference that matters set by the claim); but the 95% interval (+0.6 to +9.3 points) reaches 6.0 points, so the data cannot say whether it is smaller.');
+    expect(advice.wording).toMatch(/: a real difference, estimated below 6\.0 points\.$/);
+    expect(advice.wording).not.toContain('smaller than');
+  }, 60_000);
+
+  it('is said to be smaller where the whole interval is below it', async () => {
+    const pack = await buildPack('small-10', '', withSmallest('10 points'));
+    expect(pack.model.claims[0]!.verdictDetail).toBe('too-small');
+    const advice = pack.model.claims[0]!.advice!;
+    expect(advice.reason).toBe('The difference is real and in the claimed direction, but smaller than 10.0 points (the smallest difference that matters set by the claim). Say how large it is rather than that it matters.');
+    expect(advice.wording).toMatch(/: a real difference, smaller than 10\.0 points\.$/);
+  }, 60_000);
+});
