@@ -28,6 +28,7 @@ import { detectableSlope } from './trend.js';
 import { effectiveSize } from '../stats/finite-population.js';
 import { minDetectableCramersV } from '../stats/power-chi-square.js';
 import { minDetectableGapChange } from '../stats/power-gap-change.js';
+import { rankDetectable } from './rank.js';
 
 /** The power every smallest detectable effect is computed at ("detected 80% of the time"). */
 export const POWER = 0.8;
@@ -65,6 +66,9 @@ export function detectableAt(a: Analysis, alpha: number): number | undefined {
       const corrected = a.rate.fpc === true && a.rate.population !== undefined;
       return pick(a.claim.expect, minDetectableGap(a.rate.n, a.claim.value, { alpha, power: POWER, sided, ...(corrected && a.rate.population !== undefined ? { populationSize: a.rate.population } : {}) }));
     }
+    case 'rank':
+      // The lead over the closest rival that its pair would detect; being shown ahead of every rival asks at least this.
+      return a.focus && a.closest ? rankDetectable(a.focus, a.closest.rival, a.claim.expect, alpha, sided) : undefined;
     case 'trend': {
       if (!a.rates) return undefined;
       const n = a.rates.map((r) => r.n);
@@ -95,7 +99,7 @@ export function detectableAt(a: Analysis, alpha: number): number | undefined {
  */
 export function atThreshold<A extends Analysis>(a: A, effectiveAlpha: number | undefined): A {
   if (effectiveAlpha === undefined || a.status !== 'tested') return a;
-  if (!['compare', 'change', 'gap-change', 'target', 'trend', 'association', 'means', 'crosstab'].includes(a.kind)) return a;
+  if (!['compare', 'change', 'gap-change', 'target', 'trend', 'association', 'means', 'crosstab', 'rank'].includes(a.kind)) return a;
   const detectable = detectableAt(a, effectiveAlpha);
   const rest = { ...a } as A & { detectable?: number };
   delete rest.detectable;

@@ -10,6 +10,7 @@ import { analyseTrend } from './trend.js';
 import { analyseCrosstab } from './crosstab.js';
 import { analyseEquivalence } from './equivalence.js';
 import { analyseMeans } from './means.js';
+import { analyseRank } from './rank.js';
 import type { Analysis } from './types.js';
 
 /** Test one claim on its source's cube. Adding a claim kind means adding a case here and a file beside this one. */
@@ -36,6 +37,8 @@ export function analyse(written: Claim, cube: Cube, ctx: CompareContext): Analys
       return analyseTarget(claim, cube, ctx);
     case 'estimate':
       return analyseEstimate(claim, cube, ctx);
+    case 'rank':
+      return analyseRank(claim, cube, ctx);
     default:
       throw new Error(`internal: claims of kind "${(claim as Claim).kind}" cannot be analysed yet`);
   }
@@ -58,11 +61,12 @@ function withHeaderWording(claim: Claim, cube: Cube): Claim {
 /** The columns a claim's selections use, so a respondent-level source keeps only those in its cube. */
 export function columnsUsed(claim: Claim): string[] {
   const filters: Filter[] = [claim.where];
-  if ('focus' in claim) filters.push(claim.focus, claim.against);
+  if ('focus' in claim) filters.push(claim.focus);
+  if ('against' in claim) filters.push(claim.against);
   if ('select' in claim) filters.push(claim.select);
   if (claim.kind === 'association') filters.push(claim.x, claim.y, ...claim.controls.map((c) => c.filter));
   const cols = new Set(filters.flatMap((f) => Object.keys(f)));
-  if (claim.kind === 'association') for (const u of [claim.units].flat()) cols.add(u);
+  if (claim.kind === 'association' || claim.kind === 'rank') for (const u of [claim.units].flat()) cols.add(u);
   if (claim.kind === 'crosstab') {
     for (const r of [claim.rows].flat()) cols.add(r);
     if (Array.isArray(claim.columns)) for (const c of claim.columns) cols.add(c);

@@ -6,7 +6,7 @@ import type { GapSizeComponent } from '../stats/difference-of-differences.js';
 import type { AssociationClaim, Claim, CompareClaim, CrosstabClaim, EquivalenceClaim, MeansClaim } from '../claims/types.js';
 import type { Interval, TestResult } from '../stats/result.js';
 import type { PartialKendall } from '../stats/partial-kendall.js';
-import type { ChangeClaim, EstimateClaim, GapChangeClaim, TargetClaim, TrendClaim } from '../claims/types.js';
+import type { ChangeClaim, EstimateClaim, EveryClaim, GapChangeClaim, RankClaim, TargetClaim, TrendClaim } from '../claims/types.js';
 
 /** One selection's pooled agreement rate with its interval. */
 export interface RateSummary {
@@ -343,7 +343,79 @@ export interface EstimateAnalysis extends AnalysisBase {
   responseRate?: number;
 }
 
-export type Analysis = CompareAnalysis | AssociationAnalysis | CrosstabAnalysis | MeansAnalysis | EquivalenceAnalysis | ChangeAnalysis | GapChangeAnalysis | TrendAnalysis | TargetAnalysis | EstimateAnalysis;
+/** A rank claim's comparison of the focus with one rival unit. */
+export interface RivalResult {
+  rival: RateSummary;
+  /** The one-sided test of the focus against this rival, in the claimed direction. */
+  test: TestResult;
+  /** The same test the other way (one-sided). */
+  pOpposite: number;
+  /** The p-value as the intersection–union test used it (doubled when the claim is two-sided). */
+  p?: number;
+  /** Focus minus rival, with Newcombe's interval at the claim's confidence. */
+  difference: { value: number; interval: Interval };
+  methods: string[];
+}
+
+/** Claim kind "rank": one unit the highest (or lowest) of the units under where. */
+export interface RankAnalysis extends AnalysisBase {
+  kind: 'rank';
+  claim: RankClaim;
+  /** The column whose values are the units, and how many units where selects (the focus included). */
+  unitColumn: string;
+  unitCount: number;
+  focus?: RateSummary;
+  /** Each rival tested, the closest (smallest lead) first. */
+  rivals?: RivalResult[];
+  /** The rival whose rate is nearest the focus's. */
+  closest?: RivalResult;
+  /** Every tested unit's rate, the focus among them, in the claimed order (highest first for highest). */
+  units?: RateSummary[];
+  /** Rivals with too few respondents to test (names only, never counts): the claim cannot be shown while any remain. */
+  suppressedUnits: string[];
+  /** Focus minus the closest rival, with Newcombe's interval. */
+  difference?: { value: number; interval: Interval };
+  /** Smallest lead over the closest rival (proportion units) detectable with 80% power in that pair. */
+  detectable?: number;
+  responseRate?: number;
+}
+
+/** An every claim's test of one unit against the value. */
+export interface UnitTest {
+  rate: RateSummary;
+  /** One-sided test of the unit's rate against the value, in the claimed direction. */
+  test: TestResult;
+  /** The same test the other way (one-sided). */
+  pOpposite: number;
+  /** The p-value as the intersection–union test used it (doubled when the claim is two-sided). */
+  p?: number;
+  /** Rate minus the value, with the rate's interval shifted by the value. */
+  difference: { value: number; interval: Interval };
+  exact: boolean;
+}
+
+/** Claim kind "every": each unit under where on one side of a fixed value. */
+export interface EveryAnalysis extends AnalysisBase {
+  kind: 'every';
+  claim: EveryClaim;
+  /** The column whose values are the units, and how many units where selects. */
+  unitColumn: string;
+  unitCount: number;
+  /** Each unit tested, the one with the smallest gap in the claimed direction first. */
+  tests?: UnitTest[];
+  /** The unit with the smallest gap in the claimed direction (nearest the wrong side of the value, or past it). */
+  nearest?: UnitTest;
+  /** Units with too few respondents to test (names only): the claim about every unit cannot be shown while any remain. */
+  suppressedUnits: string[];
+  /** The nearest unit's rate minus the value, with its interval. */
+  difference?: { value: number; interval: Interval };
+  /** The largest of the units' smallest detectable gaps from the value (80% power), and whose it is. */
+  detectable?: number;
+  detectableUnit?: string;
+  responseRate?: number;
+}
+
+export type Analysis = CompareAnalysis | AssociationAnalysis | CrosstabAnalysis | MeansAnalysis | EquivalenceAnalysis | ChangeAnalysis | GapChangeAnalysis | TrendAnalysis | TargetAnalysis | EstimateAnalysis | RankAnalysis;
 
 /** Pack-wide settings a claim's analysis needs. */
 export interface AnalysisSettings {

@@ -1,7 +1,7 @@
 /**
  * What a word written where warrant expects one of its own names probably meant: the claim kinds people call by other
- * names (a "correlation" is an association, a "benchmark" a target), the claims no kind can say (a place in a
- * ranking, every unit at once) with what can be said instead, a gap that narrowed (a change claim with focus and
+ * names (a "correlation" is an association, a "benchmark" a target, "highest" a rank), the claims no kind can say (a
+ * place such as the top third, every unit at once) with what can be said instead, a gap that narrowed (a change claim with focus and
  * against), and the directions people write in their own words ("below", "fell"). Used by the schema messages (src/claims/validate.ts) so that a refusal leads
  * to the form meant.
  */
@@ -20,6 +20,7 @@ const KIND_SYNONYMS: Record<string, string[]> = {
   crosstab: ['chi-square', 'chisq', 'chi-squared', 'contingency', 'table', 'cross-tab', 'cross-tabulation', 'distribution', 'spread', 'breakdown'],
   means: ['mean', 'average', 'averages', 'score', 'scores', 'mean-score', 't-test', 'ttest', 'welch', 'mann-whitney'],
   equivalence: ['equal', 'equality', 'same', 'similar', 'no-difference', 'parity', 'tost', 'alike', 'equivalent'],
+  rank: ['ranking', 'rankings', 'ranked', 'highest', 'lowest', 'top', 'bottom', 'best', 'worst', 'league', 'league-table', 'first-place', 'leader', 'extreme', 'max', 'min'],
   estimate: ['proportion', 'percentage', 'percent', 'rate', 'share', 'figure', 'margin-of-error', 'interval', 'confidence-interval', 'descriptive'],
 };
 
@@ -35,9 +36,9 @@ export const GAP_CHANGE = {
 /** Kinds of claim warrant has no test for, with what can be claimed instead. */
 const UNSAYABLE: Array<{ words: string[]; why: string; instead: string }> = [
   {
-    words: ['rank', 'ranking', 'rankings', 'ranked', 'top', 'top-third', 'top-quarter', 'league', 'league-table', 'position', 'percentile', 'quartile', 'tercile', 'best', 'worst'],
-    why: 'warrant has no claim of a place in a ranking ("in the top third"): a place depends on every other unit\'s result and its sampling error, and no test here gives it an interval',
-    instead: 'Claim what the place stands for: kind: compare with against: rest (above the rest of the group), or kind: target with value: the rate that marks the top third',
+    words: ['top-third', 'top-quarter', 'position', 'percentile', 'quartile', 'tercile', 'second', 'second-highest', 'top-three', 'top-five'],
+    why: 'warrant has no claim of a place in a ranking other than first or last ("in the top third"): such a place depends on every other unit\'s result and its sampling error, and no test here gives it an interval',
+    instead: 'Claim the highest or lowest place with kind: rank (expect: highest or lowest); or claim what the place stands for: kind: compare with against: rest (above the rest of the group), or kind: target with value: the rate that marks the top third',
   },
   {
     words: ['interaction', 'diff-in-diff', 'difference-in-differences', 'did', 'gap-change', 'gap-narrowed', 'narrowed', 'narrowing', 'widened', 'widening', 'closing-gap', 'gap-closed'],
@@ -69,6 +70,7 @@ export const KIND_WORDS: Record<string, string> = {
   means: 'mean scores of two selections',
   equivalence: 'two rates within a margin, no real difference',
   estimate: 'a figure with its margin of error',
+  rank: 'one unit the highest or lowest of several',
 };
 
 const LOWER = ['below', 'less', 'fewer', 'worse', 'down', 'decrease', 'decreased', 'decreasing', 'fell', 'fall', 'falls', 'fallen', 'declined', 'decline', 'dropped', 'drop', 'smaller', 'under', 'lower-than', 'less-than', 'negative'];
@@ -85,8 +87,12 @@ export function meantExpect(word: string, allowed: readonly string[]): { value: 
     const v = vs.find((x) => allowed.includes(x));
     return v !== undefined ? { value: v } : undefined;
   };
-  if (LOWER.includes(k)) return pick('lower', 'falling', 'negative');
-  if (HIGHER.includes(k)) return pick('higher', 'rising', 'positive');
+  if (['top', 'best', 'first', 'most', 'max', 'maximum', 'greatest', 'largest', 'biggest', 'leading'].includes(k)) return pick('highest', 'higher', 'rising', 'positive');
+  if (['bottom', 'worst', 'last', 'least', 'min', 'minimum', 'smallest', 'fewest'].includes(k)) return pick('lowest', 'lower', 'falling', 'negative');
+  if (LOWER.includes(k)) return pick('lower', 'falling', 'negative', 'lowest');
+  if (HIGHER.includes(k)) return pick('higher', 'rising', 'positive', 'highest');
+  if (k === 'highest') return pick('higher', 'rising', 'positive');
+  if (k === 'lowest') return pick('lower', 'falling', 'negative');
   if (EITHER.includes(k)) return pick('different', 'any', 'related');
   if (['same', 'equal', 'similar', 'none', 'no-difference', 'alike', 'equivalent'].includes(k)) {
     return { other: 'to claim that there is no real difference, use kind: equivalence with a margin (e.g. margin: 5 points), which has no expect' };

@@ -23,6 +23,8 @@ import type {
   GapChangeClaim,
   GapExpect,
   MeansClaim,
+  RankClaim,
+  RankExpect,
   Measure,
   Place,
   SourceSpec,
@@ -322,6 +324,12 @@ function claimOfKind(c: Rec, base: Base, lenient: boolean): Claim {
         c,
         PAIR_LABELS,
       );
+    case 'rank': {
+      // units defaults to the focus's one column (rules.ts asks for units when the focus names several).
+      const focus = copyFilter(c.focus as Filter);
+      const units = typeof c.units === 'string' ? c.units : (Object.keys(focus)[0] ?? '');
+      return labels<RankClaim>({ ...base, kind: 'rank', units, focus, expect: c.expect as RankExpect }, c, { focus_label: 'focusLabel' });
+    }
     case 'estimate':
       return labels<EstimateClaim>(
         { ...base, kind: 'estimate', select: copyFilter(c.select as Filter), measure: measureOf(c.measure, { type: 'agree' }) },

@@ -233,6 +233,38 @@ export function crossFieldProblems(parsed: ParsedYaml, file: string, claimsDir: 
         });
       }
     }
+    // A rank claim's focus is one unit: one value of the units column (units defaults to the focus's one column).
+    if (c.kind === 'rank' && isRec(c.focus)) {
+      const cols = Object.keys(c.focus);
+      const units = typeof c.units === 'string' ? c.units : undefined;
+      const value = units !== undefined ? c.focus[units] : cols.length === 1 ? c.focus[cols[0] as string] : undefined;
+      if (units === undefined && cols.length !== 1) {
+        problems.push({
+          file,
+          ...at([...claimPath, 'focus']),
+          field: 'focus',
+          problem: `${describeOwner(data, claimPath)} ranks a unit, but its focus names ${cols.length === 0 ? 'no column' : `${cols.length} columns (${cols.join(', ')})`}, so which column holds the units is not clear`,
+          fix: cols.length === 0 ? 'Write focus: { Institution: Quarrendell } (the column of the units and the one unit the claim is about)' : `Add units: the column whose values are ranked (e.g. units: ${cols[0] as string}), and move the other filters into where`,
+        });
+      } else if (units !== undefined && (cols.length !== 1 || cols[0] !== units)) {
+        problems.push({
+          file,
+          ...at([...claimPath, 'focus']),
+          field: 'focus',
+          found: cols.join(', '),
+          problem: `${describeOwner(data, claimPath)} ranks the values of ${units}, but its focus ${cols.includes(units) ? 'also filters on other columns' : `does not name a value of ${units}`}`,
+          fix: `Write focus: { ${units}: <the unit the claim is about> } and put any other filter in where`,
+        });
+      } else if (value === null || typeof value === 'object') {
+        problems.push({
+          file,
+          ...at([...claimPath, 'focus']),
+          field: 'focus',
+          problem: `${describeOwner(data, claimPath)} must name one unit as its focus, not a list or an exclusion: a claim that a group of units is highest is not a rank claim`,
+          fix: `Name one unit, e.g. focus: { ${units ?? (cols[0] as string)}: ${Array.isArray(value) ? String(value[0]) : 'Quarrendell'} }; to claim that a group is above the rest, use kind: compare with against: rest`,
+        });
+      }
+    }
     if (c.kind === 'trend' && ('periods' in c) === ('last' in c)) {
       problems.push({
         file,
@@ -588,6 +620,9 @@ function unpinnedPeriodProblems(
       });
     }
     extra = `, or make each unit a period by adding ${period} to units`;
+  } else if (kind === 'rank') {
+    if (grouped('units') || (!('units' in c) && names(c.focus))) return [];
+    missing.push({ path: claimPath, what: 'the ranking', key: 'where' });
   } else if (kind === 'crosstab') {
     if (grouped('rows') || grouped('columns')) return [];
     missing.push({ path: claimPath, what: 'the table', key: 'where' });
@@ -598,7 +633,7 @@ function unpinnedPeriodProblems(
   const first = missing[0]!;
   const one = missing.length === 1 && !(first.key === 'against' && c.against === 'rest');
   const single = kind === 'target' || kind === 'estimate';
-  const whole = kind === 'crosstab' || single || !one;
+  const whole = kind === 'crosstab' || kind === 'rank' || single || !one;
   const place = whole ? ('where' in c ? at([...claimPath, 'where'], 'key') : at(claimPath)) : at(first.path, 'key');
   const which = whole ? owner : `${first.what} of ${owner}`;
   const inWords = single ? 'where or select' : whole ? 'where' : `where or ${first.key === 'controls' ? 'the control' : `under ${first.key}`}`;

@@ -262,6 +262,39 @@ export interface TargetClaim extends ClaimBase {
   expect: CompareExpect;
 }
 
+export type RankExpect = 'highest' | 'lowest';
+
+/**
+ * One unit the highest (or lowest) of all the units under `where` ("Quarrendell has the highest rate of the
+ * institutions in Glasvane Reach"): shown only if its rate is shown above (below) each other unit's.
+ */
+export interface RankClaim extends ClaimBase {
+  kind: 'rank';
+  /** The column whose values are the units ranked, e.g. "Institution" (default: the focus's one column). */
+  units: string;
+  /** The unit the claim is about, as a filter on the units column, e.g. { Institution: Quarrendell }. */
+  focus: Filter;
+  focusLabel?: string;
+  expect: RankExpect;
+}
+
+/**
+ * Every unit under `where` on one side of a fixed value ("every department is at or above the 70% benchmark"): shown
+ * only if each unit's rate is shown above (below) the value.
+ */
+export interface EveryClaim extends ClaimBase {
+  kind: 'every';
+  /** The column whose values are the units, e.g. "Department". */
+  units: string;
+  /** The fixed value as a fraction (0.7 for 70%). */
+  value: number;
+  /** How the value was written, e.g. "70%". */
+  valueWritten: string;
+  /** What the value is, e.g. "the 70% benchmark". */
+  valueLabel?: string;
+  expect: 'lower' | 'higher';
+}
+
 /** Two categorical variables related or not: a table of counts (e.g. campus by agreeing / not agreeing). */
 export interface CrosstabClaim extends ClaimBase {
   kind: 'crosstab';
@@ -324,7 +357,8 @@ export type Claim =
   | CrosstabClaim
   | MeansClaim
   | EquivalenceClaim
-  | EstimateClaim;
+  | EstimateClaim
+  | RankClaim;
 export type ClaimKind = Claim['kind'];
 
 export interface ClaimsFile {

@@ -312,6 +312,23 @@ export function wordsAgainstFields(claim: Claim, data?: { values: Readonly<Recor
     }
   }
 
+  if (claim.kind === 'rank') {
+    // "the highest", "the best", "tops"... against expect: lowest, and the reverse; words naming both say nothing.
+    const high = /\b(highest|best|top|tops|most|greatest|leads?|leading)\b/.exec(text);
+    const low = /\b(lowest|worst|bottom|least|trails?)\b/.exec(text);
+    const said = high !== null && low === null ? { dir: 'highest' as const, words: high[0] } : low !== null && high === null ? { dir: 'lowest' as const, words: low[0] } : undefined;
+    if (said !== undefined && said.dir !== claim.expect) {
+      out.push({
+        field: 'expect',
+        words: said.words,
+        written: claim.expect,
+        said: `say "${said.words}" (${said.dir}), but the claim was tested as expecting ${claim.expect}`,
+        problem: `the claim's words say "${said.words}" (${said.dir}), but expect is ${claim.expect}, so the pack tests the opposite of what the words say`,
+        fix: `If the words are right, set expect: ${said.dir}; if the test is right, reword the claim`,
+      });
+    }
+  }
+
   if (claim.kind === 'equivalence') {
     const written = [...numbersWith(text, 'points'), ...numbersWith(text, 'percent')];
     if (written.length > 0 && !written.some((n) => Math.abs(n / 100 - claim.margin) < 1e-9)) {

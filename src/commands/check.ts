@@ -76,8 +76,8 @@ function filtersOf(claim: Claim, i: number): Record<string, PlacedFilter> {
   const out: Record<string, PlacedFilter> = { where: { path: at('where'), filter: claim.where } };
   if ('focus' in claim) {
     out.focus = { path: at('focus'), filter: claim.focus };
-    out.against = { path: at('against'), filter: claim.against };
   }
+  if ('against' in claim) out.against = { path: at('against'), filter: claim.against };
   if ('select' in claim) out.select = { path: at('select'), filter: claim.select };
   if (claim.kind === 'association') {
     out.x = { path: at('x'), filter: claim.x };
@@ -211,6 +211,7 @@ async function sourceCube(
       cols.forEach((c, k) => named.push([Array.isArray(raw) ? ['claims', i, key, k] : ['claims', i, key], c, 'value']));
     };
     if (claim.kind === 'association') grouping('units', claim.units);
+    if (claim.kind === 'rank') grouping('units', [claim.units]);
     if (claim.kind === 'crosstab') {
       grouping('rows', claim.rows);
       if (Array.isArray(claim.columns)) grouping('columns', claim.columns);

@@ -278,6 +278,14 @@ export function starterText(scan: TableScan, guess: Guess, dataFile: string, sch
     '    value_label: the 80% target',
     '    expect: higher',
   ]);
+  example('rank: one unit the highest (or lowest) of the units where selects', [
+    '  - id: rank-example',
+    `    claim: ${u1} has the highest agreement of all.`,
+    '    kind: rank',
+    whereWithLatest,
+    `    focus: ${flow([[unitName, u1]])}   # every other ${unitName} under where is a rival`,
+    '    expect: highest   # or lowest',
+  ]);
   example('crosstab: whether agreement (or another column) differs across the values of a column', [
     '  - id: crosstab-example',
     `    claim: Agreement differs across ${unitName}.`,

@@ -110,7 +110,7 @@ function ratesSpec(data: Extract<ChartData, { kind: 'rates' }>, maxHeight: numbe
   });
   if (data.reference) requireFinite(data.reference.value, 'reference value');
   const domain = data.domain ?? shareRange(shareValues(data));
-  return dotIntervalSpec(rows, data.axisTitle, domain, shareAxis(domain, { domain: false }), maxHeight, data.reference);
+  return dotIntervalSpec(rows, data.axisTitle, domain, shareAxis(domain, { domain: false }), maxHeight, data.reference, data.highlight);
 }
 
 function meansSpec(data: Extract<ChartData, { kind: 'means' }>, maxHeight: number): Record<string, unknown> {
@@ -137,24 +137,36 @@ function dotIntervalSpec(
   axis: Record<string, unknown>,
   maxHeight: number,
   reference?: { value: number; label: string },
+  highlight?: string,
 ): Record<string, unknown> {
   const [lo, hi] = domain;
   const values = rowsIn.map((r, i) => ({
     order: i,
     row: `${r.label} (n = ${count(r.n)})`,
+    ...(highlight !== undefined ? { marked: r.label === highlight } : {}),
     rate: r.value,
     lower: r.lower,
     upper: r.upper,
     rateText: r.text,
   }));
   const data = { bars: rowsIn, axisTitle, reference };
+  // A marked row (a rank claim's unit) in the second colour, its label in bold; other charts keep their one colour.
+  const markedRow = highlight !== undefined ? values.find((v) => v.marked === true)?.row : undefined;
+  const colour = markedRow !== undefined ? { color: { condition: { test: 'datum.marked', value: PALETTE.secondary }, value: PALETTE.primary } } : {};
   const rowOrder = values.map((v) => v.row);
   const y = {
     field: 'row',
     type: 'nominal',
     sort: rowOrder,
     title: null,
-    axis: { labelFontSize: AXIS_LABEL_SIZE, labelPadding: 6, ticks: false, domain: false, labelLimit: 0 },
+    axis: {
+      labelFontSize: AXIS_LABEL_SIZE,
+      labelPadding: 6,
+      ticks: false,
+      domain: false,
+      labelLimit: 0,
+      ...(markedRow !== undefined ? { labelFontWeight: { condition: { test: `datum.value === ${JSON.stringify(markedRow)}`, value: 'bold' }, value: 'normal' } } : {}),
+    },
     scale: { paddingOuter: 0.5 },
   };
   const xScale = { domain: [lo, hi], nice: false, zero: false };
@@ -163,6 +175,7 @@ function dotIntervalSpec(
       mark: { type: 'rule', color: PALETTE.primary, strokeWidth: 2 },
       encoding: {
         y,
+        ...colour,
         x: {
           field: 'lower',
           type: 'quantitative',
@@ -175,15 +188,15 @@ function dotIntervalSpec(
     },
     {
       mark: { type: 'tick', color: PALETTE.primary, orient: 'vertical', size: 10, thickness: 2 },
-      encoding: { y, x: { field: 'lower', type: 'quantitative' } },
+      encoding: { y, ...colour, x: { field: 'lower', type: 'quantitative' } },
     },
     {
       mark: { type: 'tick', color: PALETTE.primary, orient: 'vertical', size: 10, thickness: 2 },
-      encoding: { y, x: { field: 'upper', type: 'quantitative' } },
+      encoding: { y, ...colour, x: { field: 'upper', type: 'quantitative' } },
     },
     {
       mark: { type: 'point', filled: true, size: 70, color: PALETTE.primary, opacity: 1, stroke: '#ffffff', strokeWidth: 1 },
-      encoding: { y, x: { field: 'rate', type: 'quantitative' } },
+      encoding: { y, ...colour, x: { field: 'rate', type: 'quantitative' } },
     },
     {
       // The rates stand in a column at the right of the plot, where no interval or reference line can cross them.

@@ -51,7 +51,9 @@ export type ChartData =
       /** Decimals of the rate printed beside each bar: the claim's own precision for these rates (src/format/numbers.ts). */
       digits?: number;
       /** Optional reference line (a target), as a fraction. */
-      reference?: { value: number; label: string };      /** The axis range, common to the pack (see withCommonShareRange in charts.ts); fitted to this chart when absent. */
+      reference?: { value: number; label: string };
+      /** The label of a bar to mark (a rank claim's unit): drawn in the second colour, its label in bold. */
+      highlight?: string;      /** The axis range, common to the pack (see withCommonShareRange in charts.ts); fitted to this chart when absent. */
       domain?: [number, number];
     }
   | {

@@ -138,6 +138,12 @@ export interface ClaimResult {
     /** A claim that the gap narrowed or widened: its two one-sided z tests, each p-value at the two-sided level. */
     sizeTests?: Array<{ of: 'change' | 'sum'; alternative: 'less' | 'greater'; z: number; p: number }>;
   };
+  /**
+   * Rank claims: the focus against each rival unit tested (nearest rate first): focus minus rival with Newcombe's
+   * interval, the one-sided p-value the intersection-union test used, and whether the rival was separated at the
+   * threshold that decided the verdict; `closest` names the rival nearest the focus.
+   */
+  rivals?: { closest: string; each: RivalFigures[] };
   /** Compare and change: Cohen's h for the two rates. */
   cohensH?: number | null;
   /** Target: the fixed value the rate is held to (proportion). */
@@ -211,6 +217,15 @@ export interface ResultsFile {
   claims: ClaimResult[];
 }
 
+/** A rank claim's comparison of its unit with one rival. */
+export interface RivalFigures {
+  label: string;
+  difference: number;
+  interval: Interval;
+  p: number;
+  separated: boolean;
+}
+
 /** One period's gap in a gap-change claim. */
 export interface GapResult {
   period: string;
@@ -243,7 +258,7 @@ function testFields(test: TestResult | undefined) {
 /** The groups a claim's figures leave out (ClaimResult.suppression). */
 function suppressionOf(a: Analysis, rates: RateSummary[]): NonNullable<ClaimResult['suppression']> {
   const inRelease = rates.flatMap((r) => (r.suppressed ? [{ label: r.label, rows: r.suppressed.rows, of: r.suppressed.of }] : []));
-  const leftOut = a.kind === 'association' ? [...a.suppressedUnits] : a.kind === 'crosstab' ? [...a.suppressedRows] : [];
+  const leftOut = a.kind === 'association' || a.kind === 'rank' ? [...a.suppressedUnits] : a.kind === 'crosstab' ? [...a.suppressedRows] : [];
   return { groups: inRelease.length + leftOut.length, inRelease, leftOut };
 }
 
@@ -263,6 +278,8 @@ export function claimResult(a: Analysis, decision: Decision, section: ClaimSecti
   const rates: RateSummary[] = [];
   if (a.kind === 'gap-change') {
     if (a.earlier && a.later) rates.push(a.earlier.focus, a.earlier.against, a.later.focus, a.later.against);
+  } else if (a.kind === 'rank') {
+    if (a.units) rates.push(...a.units);
   } else if (extra.focus && extra.against) rates.push(extra.focus as RateSummary, extra.against as RateSummary);
   else if (extra.earlier && extra.later) rates.push(extra.earlier as RateSummary, extra.later as RateSummary);
   else if (Array.isArray(extra.rates)) rates.push(...(extra.rates as RateSummary[]));
@@ -358,12 +375,12 @@ export function claimResult(a: Analysis, decision: Decision, section: ClaimSecti
         : null,
     ...(a.kind === 'crosstab' ? { notableCells: a.notable } : {}),
     suppression: suppressionOf(a, rates),
-    ...(tested ? kindFigures(a) : {}),
+    ...(tested ? kindFigures(a, decision) : {}),
   };
 }
 
 /** The figures one kind's numbers table prints beyond the fields every claim has (see schema/results.schema.json). */
-function kindFigures(a: Analysis): Partial<ClaimResult> {
+function kindFigures(a: Analysis, decision: Decision): Partial<ClaimResult> {
   switch (a.kind) {
     case 'compare':
     case 'change':
@@ -418,6 +435,17 @@ function kindFigures(a: Analysis): Partial<ClaimResult> {
         rankChecksLeftOut: (a.rankChecksLeftOut ?? []).map((l) => ({ check: l.check, reason: l.reason })),
         unitCounts: { tested: a.points.length, all: a.points.length + a.suppressedUnits.length, leftOut: a.suppressedUnits.length },
       };
+    case 'rank': {
+      if (!a.rivals || !a.closest) return {};
+      const at = decision.effectiveAlpha ?? decision.alpha;
+      return {
+        rivals: {
+          closest: a.closest.rival.label,
+          each: a.rivals.map((r) => ({ label: r.rival.label, difference: r.difference.value, interval: r.difference.interval, p: r.p ?? 1, separated: (r.p ?? 1) < at })),
+        },
+        unitCounts: { tested: (a.units ?? []).length, all: a.unitCount, leftOut: a.suppressedUnits.length },
+      };
+    }
     case 'crosstab':
       return {
         table: { rows: a.rowLabels, columns: a.columnLabels, counts: a.counts, smallestExpected: a.minExpected ?? null, residualCutoff: a.residualCutoff ?? null },

@@ -68,6 +68,11 @@ export const METHODS: Record<string, MethodInfo> = {
     text: 'An interval for the change in the gap between two groups, built from the four Wilson intervals as Newcombe’s interval is built from two (the method of variance estimates recovery). It keeps close to its stated coverage for small groups and rates near 0% or 100%, where the plain Wald interval does not.',
     source: 'Zou, G. Y. and Donner, A. (2008). Construction of confidence limits about effect measures: a general approach. Statistics in Medicine 27, 1693–1702; Newcombe, R. G. (1998). Statistics in Medicine 17, 873–890 (method 10).',
   },
+  'rank-iut': {
+    name: 'Test that one unit is the highest (or lowest)',
+    text: 'A unit is shown highest only if it is shown higher than each other unit: one one-sided two-proportion test against every rival, all of which must find the difference at the claim’s level (an intersection–union test). The claim’s p-value is the largest of them, so the weakest comparison decides, and no further correction is needed within the claim; it is that one p-value that the adjustment for many claims sees. A rival with too few respondents to test leaves the claim unshown. Not being shown highest is not evidence that another unit is.',
+    source: 'Berger, R. L. (1982). Multiparameter hypothesis testing and acceptance sampling. Technometrics 24, 295–300; Berger, R. L. and Hsu, J. C. (1996). Bioequivalence trials, intersection–union tests and equivalence confidence sets. Statistical Science 11, 283–319.',
+  },
   'gap-size-iut': {
     name: 'Test that a gap narrowed or widened',
     text: 'A gap narrowed when the later gap is closer to zero than the earlier one, whichever group is ahead. That is tested as two z tests that must both find their way: the change in the gap points back towards zero, and the later gap has not crossed beyond the earlier gap’s size on the other side (for widened: the change points away from zero on the side the later gap is on). Each is held to the two-sided threshold, because which group is ahead is read from the data, so the test keeps its stated level even when the earlier gap is near zero.',

@@ -27,6 +27,7 @@ export function headline(a: Analysis): Headline | undefined {
     case 'change':
     case 'gap-change':
     case 'target':
+    case 'rank':
       return a.difference ? { interval: a.difference.interval, unit: 'points' } : undefined;
     case 'equivalence':
       return a.equivalenceInterval ? { interval: a.equivalenceInterval, unit: 'points' } : undefined;

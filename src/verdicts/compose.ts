@@ -16,6 +16,7 @@ import { composeTrend } from './words/trend.js';
 import { composeCrosstab } from './words/crosstab.js';
 import { composeEquivalence } from './words/equivalence.js';
 import { composeMeans, scalePoints } from './words/means.js';
+import { composeRank } from './words/rank.js';
 import * as fmt from '../format/numbers.js';
 import { adviseClaim, linkNote, linksOf, moreLinksNote, notSupportedAs, worthReporting, type Worth } from './advice.js';
 import type { NotSupportedAs } from '../render/model.js';
@@ -47,6 +48,8 @@ function composeKind(a: Analysis, decision: Decision, ctx: ComposeContext): Comp
       return composeTarget(a, decision, ctx);
     case 'estimate':
       return composeEstimate(a, decision, ctx);
+    case 'rank':
+      return composeRank(a, decision, ctx);
   }
 }
 

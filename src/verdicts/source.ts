@@ -11,6 +11,8 @@ import type { Templates } from './templates.js';
 
 /** Every selection's rate a claim reports (two groups, one selection, or one per period). */
 function ratesOf(a: Analysis): RateSummary[] {
+  // A rank claim reports every unit it ranked.
+  if (a.kind === 'rank') return a.units ?? [];
   const x = a as unknown as { focus?: RateSummary; against?: RateSummary; rate?: RateSummary; earlier?: RateSummary; later?: RateSummary; rates?: RateSummary[] };
   const all = [x.focus, x.against, x.rate, x.earlier, x.later, ...(x.rates ?? [])];
   return all.filter((r): r is RateSummary => r !== undefined && typeof r.n === 'number');

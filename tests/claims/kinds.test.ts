@@ -282,11 +282,18 @@ describe('new rules name line:column and give a fix', () => {
       phrases: ['"correlation" is not an allowed value of kind', 'Did you mean association (two measures across units, a correlation)? Write kind: association'],
     },
     {
-      name: 'a place in a ranking, which no kind can claim',
-      claim: '  - { id: a, claim: c, kind: ranking, select: { provider: A } }',
+      name: 'a place in a ranking other than first or last, which no kind can claim',
+      claim: '  - { id: a, claim: c, kind: top-third, select: { provider: A } }',
+      at: 'top-third',
+      field: 'kind',
+      phrases: ['warrant has no claim of a place in a ranking other than first or last', 'kind: rank (expect: highest or lowest)', 'kind: compare with against: rest', 'kind: target'],
+    },
+    {
+      name: 'a ranking is a rank claim',
+      claim: '  - { id: a, claim: c, kind: ranking, focus: { provider: A }, expect: highest }',
       at: 'ranking',
       field: 'kind',
-      phrases: ['warrant has no claim of a place in a ranking', 'kind: compare with against: rest', 'kind: target'],
+      phrases: ['did you mean rank'],
     },
     {
       name: 'a gap that narrowed written as a kind leads to the change claim with focus and against',

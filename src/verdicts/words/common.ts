@@ -135,9 +135,11 @@ export function commonRows(a: Analysis, decision: Decision, ctx: ComposeContext)
       ? 'TOST, the larger of the two one-sided p-values'
       : a.test?.method === 'gap-size-iut'
         ? 'the larger of the two tests’'
-        : a.test?.alternative === 'two-sided'
-          ? 'two-sided'
-          : 'one-sided';
+        : a.test?.method === 'rank-iut'
+          ? `the largest of the one-sided tests, one per rival${a.test.alternative === 'two-sided' ? ', each at the two-sided level' : ''}`
+          : a.test?.alternative === 'two-sided'
+            ? 'two-sided'
+            : 'one-sided';
   rows.push({ label: `p-value (${sidedness})`, value: fmt.pValue(decision.p ?? NaN) });
   if (ctx.adjusted) rows.push({ label: `p-value adjusted for ${ctx.claimsTested} claims`, value: fmt.pValue(decision.pAdjusted ?? NaN) });
   const level = fmt.level(a.claim.confidence);
@@ -167,6 +169,8 @@ function ratesOf(a: Analysis): RateSummary[] {
   const r = a as Partial<Record<'focus' | 'against' | 'later' | 'earlier' | 'rate', RateSummary>> & { rates?: RateSummary[] };
   if (a.kind === 'change') return [r.later, r.earlier].filter((x): x is RateSummary => x !== undefined);
   if (a.kind === 'gap-change') return a.earlier && a.later ? [a.earlier.focus, a.earlier.against, a.later.focus, a.later.against] : [];
+  // A rank claim's unit and its closest rival (every unit's figures carry the same decision).
+  if (a.kind === 'rank') return a.focus && a.closest ? [a.focus, a.closest.rival] : [];
   return [r.focus, r.against, r.rate, ...(r.rates ?? [])].filter((x): x is RateSummary => x !== undefined);
 }
 
