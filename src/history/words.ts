@@ -78,7 +78,15 @@ export function changeSection(d: PackDiff, t: Templates): ChangeSection {
   const built = folderDay(d.before.folder);
   return {
     heading: t.render('history.heading', { since: sinceName(d) }),
-    intro: t.render('history.intro', { ...(built ? { built } : {}), date: d.before.date, none: changed === 0, count: changed, one: changed === 1 }),
+    intro: t.render('history.intro', {
+      ...(built ? { built } : {}),
+      date: d.before.date,
+      none: changed === 0,
+      count: changed,
+      one: changed === 1,
+      // The caution that other people answered holds only for a verdict that new data changed, not an edited claim's.
+      newData: d.verdicts.some((v) => v.reasons.includes('new data')),
+    }),
     verdicts: d.verdicts.map((v) => ({ claim: `${v.statement} (${v.id})`, before: verdictName(t, v.before), after: verdictName(t, v.after), why: v.reasons.join(', ') || 'the same inputs' })),
     notes: changeNotes(d, t),
   };

@@ -76,6 +76,7 @@ describe('diffPacks', () => {
     const section = changeSection(d, t);
     expect(section.heading).toBe('What changed since 3 March 2025');
     expect(section.verdicts[0]).toEqual({ claim: 'Statement a (a)', before: 'Supported', after: 'Not supported', why: 'new data' });
+    expect(section.intro).toContain('Different people answer each survey, so a verdict changed by new data may reflect a different group of respondents');
     expect(section.notes.some((n) => n.includes('moved from \u22126.0 points to \u22121.0 points'))).toBe(true);
     expect(diffText(d, t)).toContain('a: Supported -> Not supported (new data)');
   });
@@ -95,6 +96,10 @@ describe('diffPacks', () => {
     });
     const d = diffPacks(before, after);
     expect(d.verdicts[0]?.reasons).toEqual(['changed claim', 'changed threshold']);
+    // The same data: no word of different people answering, which would explain the change by a cause it did not have.
+    const intro = changeSection(d, new Templates()).intro;
+    expect(intro).toContain('1 verdict changed.');
+    expect(intro).not.toContain('Different people answer');
     expect(d.edited).toEqual(['a']);
     expect(d.becameUntestable).toEqual(['a']);
     expect(d.settings).toEqual([{ name: 'minRespondents', before: '10', after: '1000' }]);
