@@ -56,8 +56,12 @@ function readFrom(claims: ClaimsFile, sourceId: string): string {
   return rel.startsWith('..') || isAbsolute(rel) ? ` (outside the claims file's folder: read from ${real})` : '';
 }
 
-/** Kinds whose claims compare agreement rates and give their differences in percentage points. */
-const RATE_KINDS = new Set<Analysis['kind']>(['compare', 'change', 'gap-change', 'trend', 'target', 'equivalence']);
+/**
+ * Kinds whose claims measure something other than agreement rates, or choose their measure: every other kind compares
+ * agreement rates and gives its differences in percentage points (compare, change, gap-change, trend, target,
+ * equivalence, rank, and any kind added later unless it is named here).
+ */
+const NOT_RATE_KINDS = new Set<string>(['association', 'crosstab', 'means', 'estimate']);
 
 /**
  * Which glossary entries the pack uses, from its analyses and composed pages: each entry is listed only where
@@ -71,12 +75,12 @@ export function glossaryUse(analyses: Analysis[], sections: ClaimSection[], temp
   const usedTerms = new Set(sections.flatMap((s) => (s.terms ?? []).map((t) => t.term)));
   return {
     rates: analyses.some((a) => {
-      if (RATE_KINDS.has(a.kind)) return true;
+      if (!NOT_RATE_KINDS.has(a.kind)) return true;
       if (a.kind === 'estimate') return agreeMeasure(a.claim.measure);
       if (a.kind === 'association') return agreeMeasure(a.claim.xMeasure) || agreeMeasure(a.claim.yMeasure);
       return false;
     }),
-    points: analyses.some((a) => RATE_KINDS.has(a.kind)),
+    points: analyses.some((a) => !NOT_RATE_KINDS.has(a.kind)),
     tested: analyses.some((a) => a.kind !== 'estimate'),
     correlation: analyses.some((a) => a.kind === 'association'),
     // The smallest difference detected 80% of the time is given for every tested claim but an equivalence claim.

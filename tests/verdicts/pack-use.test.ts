@@ -77,6 +77,15 @@ describe('the glossary', () => {
     expect(terms(estimatesOnly)).toEqual(['Agreement rate', 'Confidence level', 'Confidence interval']);
   });
 
+  it('lists agreement rates and percentage points for a rank claim alone', async () => {
+    const data = 'Campus,Question,Respondents,Agreeing\nNorth,Q1,1000,700\nSouth,Q1,1000,500\nWest,Q1,1000,520\n';
+    const rank = `  - id: north-highest\n    claim: North has the highest rate on Q1 of the three campuses.\n    kind: rank\n    where: { Question: Q1 }\n    focus: { Campus: North }\n    expect: highest\n`;
+    const pack = await buildPack('rank', '', rank, data);
+    expect(pack.analyses[0]!.kind).toBe('rank');
+    expect(terms(pack)).toEqual(expect.arrayContaining(['Agreement rate', 'Percentage points', 'p-value', 'Power']));
+    expect(terms(pack)).not.toContain('Correlation (r)');
+  }, 60_000);
+
   it('still lists every term the demo uses, each explained on a claim page first', async () => {
     const { resolve } = await import('node:path');
     const root = resolve(__dirname, '../..');
