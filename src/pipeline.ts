@@ -44,7 +44,7 @@ import { wordsProblems } from './claims/wording.js';
 import { fsFailure, readOrdinaryFile, requireOrdinaryFile, writeFailure } from './files.js';
 import { impossibleDate } from './claims/dates.js';
 import { canonicalJson, packFingerprint, sha256Hex } from './history/fingerprint.js';
-import { latestInTheWay, latestOrUnreadable, latestProblem, listPacks, openPack, outsideTemporary, packFolderName, storePack, today, type StoredPack, type WriteHooks } from './history/store.js';
+import { latestInTheWay, latestOrUnreadable, latestProblem, listPacks, openPack, outsideTemporary, packFolderName, stagePack, today, type StagedPack, type StoredPack, type WriteHooks } from './history/store.js';
 import { diffPacks, type PackDiff } from './history/diff.js';
 import { changeSection, editedNotice, folderDay, verdictNotice } from './history/words.js';
 
@@ -492,29 +492,51 @@ async function buildPack(options: BuildOptions, chartsDrawn: () => void): Promis
   // pages would otherwise wait for the charts.
   const { writeResultsXlsx } = await import('./results/xlsx.js');
   const xlsx = await writeResultsXlsx(results);
-  const resultsJson = `${JSON.stringify(results, null, 2)}\n`;
-  const { renderPdf } = await import('./render/pdf.js');
-  const pdf = await renderPdf(model, { createdAt: pdfDate(date), chartsDrawn });
-  const { chartFiles } = await import('./results/charts-out.js');
-  const charts = await chartFiles(model);
-  // 8. write
-  say('Writing the pack');
-  let stored: Awaited<ReturnType<typeof storePack>>;
+  const { renderPdfParts } = await import('./render/pdf.js');
+  const { chartFileNames, chartFilesOf } = await import('./results/charts-out.js');
+  // 8. write: into a temporary folder opened now, each chart's files as soon as its page has used it (held until
+  // the end, two copies of every chart's SVG grew with the number of claims), the PDF last, then renamed into place.
+  const names = ['results.json', 'results.xlsx', ...chartFileNames(model), 'pack.pdf'];
+  const outPlace = { file: options.outDir ?? displayPath(root), field: '--out' };
+  // A full disk, a read-only folder, a name too long: the user's to fix, and no half-written pack is left.
+  const writeProblem = (e: unknown): unknown =>
+    writeFailure(e, outPlace, 'writing the pack into the history folder', root, OUT_ELSEWHERE, (abs) => displayPath(outsideTemporary(abs, root))) ?? e;
+  let staged: StagedPack;
   try {
-    stored = await storePack(
-      root,
-      name,
-      [
-        ['results.json', resultsJson],
-        ['results.xlsx', xlsx],
-        ...charts,
-        ['pack.pdf', pdf],
-      ],
-      options.hooks ?? {},
-    );
+    staged = await stagePack(root, name, names, options.hooks ?? {});
   } catch (e) {
-    // A full disk, a read-only folder, a name too long: the user's to fix, and no half-written pack is left.
-    throw writeFailure(e, { file: options.outDir ?? displayPath(root), field: '--out' }, 'writing the pack into the history folder', root, OUT_ELSEWHERE, (abs) => displayPath(outsideTemporary(abs, root))) ?? e;
+    throw writeProblem(e);
+  }
+  let stored: { path: string; reused: boolean };
+  try {
+    const put = (rel: string, content: string | Buffer | Buffer[]): void => {
+      try {
+        staged.write(rel, content);
+      } catch (e) {
+        throw writeProblem(e);
+      }
+    };
+    // The text of results.json (two bytes a character once a name holds a letter beyond Latin-1: 18 MB for 2,000
+    // claims) is made here and written at once, never held in a variable of this function while the pages are drawn.
+    put('results.json', `${JSON.stringify(results, null, 2)}\n`);
+    put('results.xlsx', xlsx);
+    const pdf = await renderPdfParts(model, {
+      createdAt: pdfDate(date),
+      chartsDrawn,
+      chartDrawn: (claim, svg) => {
+        if (!staged.reused) for (const [rel, content] of chartFilesOf(claim, svg)) put(rel, content);
+      },
+    });
+    say('Writing the pack');
+    put('pack.pdf', pdf);
+    try {
+      stored = await staged.finish();
+    } catch (e) {
+      throw writeProblem(e);
+    }
+  } catch (e) {
+    await staged.abandon();
+    throw e;
   }
   // Said on the terminal even with --quiet: a claim whose words and fields disagree (its page carries a caution too),
   // and an earlier pack that could not be read.

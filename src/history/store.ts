@@ -4,7 +4,7 @@
  * A `latest` link names the newest. A pack is written into a temporary folder and renamed into place, so an
  * interrupted build leaves the earlier packs intact and no half-written pack behind.
  */
-import { closeSync, existsSync, fstatSync, lstatSync, openSync, readdirSync, readlinkSync, readSync, realpathSync, statSync, writeFileSync } from 'node:fs';
+import { closeSync, existsSync, fstatSync, lstatSync, openSync, readdirSync, readlinkSync, readSync, realpathSync, rmdirSync, statSync, writeFileSync, writevSync } from 'node:fs';
 import { readlink, rename, rm, symlink } from 'node:fs/promises';
 import { basename, dirname, join, relative } from 'node:path';
 import type { ResultsFile } from '../results/results.js';
@@ -208,51 +208,129 @@ function wholePack(folder: string, names: string[]): boolean {
   }
 }
 
+/** A pack being written (stagePack): its files as they are made, then the pack put in place whole. */
+export interface StagedPack {
+  /** A pack of the same name is whole already (the same inputs): nothing is written, only `latest` moves. */
+  readonly reused: boolean;
+  /** Write one of the pack's files (relative path) into the temporary folder; nothing when the pack is reused. */
+  write(rel: string, content: string | Buffer | Buffer[]): void;
+  /** Put the pack in place and point `latest` at it. */
+  finish(): Promise<{ path: string; reused: boolean }>;
+  /** Remove what was written, and the history folder when it was made for this pack and holds nothing else. */
+  abandon(): Promise<void>;
+}
+
+/** Write a new file from pieces of bytes, one after another, without joining them first. */
+function writePieces(file: string, pieces: Buffer[]): void {
+  const fd = openSync(file, 'wx');
+  try {
+    for (let i = 0; i < pieces.length; i += 512) {
+      const batch = pieces.slice(i, i + 512);
+      let left = batch.reduce((n, b) => n + b.length, 0);
+      while (left > 0) {
+        const n = writevSync(fd, batch);
+        left -= n;
+        if (left > 0) {
+          // A short write (a full disk reports ENOSPC instead): drop what was written and go on.
+          let skip = n;
+          while (skip > 0 && batch.length > 0) {
+            const first = batch[0]!;
+            if (first.length <= skip) {
+              skip -= first.length;
+              batch.shift();
+            } else {
+              batch[0] = first.subarray(skip);
+              skip = 0;
+            }
+          }
+        }
+      }
+    }
+  } finally {
+    closeSync(fd);
+  }
+}
+
+/**
+ * Begin writing a pack into `root/name` through a temporary folder, so that its files can be written as they are made
+ * (a chart's files as soon as its page has used it) rather than all held until the end. `names` are the files the
+ * pack will hold. When a pack with the same name exists already and is whole (the same inputs), it is left as it is.
+ */
+export async function stagePack(root: string, name: string, names: string[], hooks: WriteHooks = {}): Promise<StagedPack> {
+  // The folders made here, from the top, so that a build stopped before its pack is written leaves none behind.
+  const made: string[] = [];
+  for (let dir = root; !existsSync(dir) && dirname(dir) !== dir; dir = dirname(dir)) made.unshift(dir);
+  makeFolders(root);
+  await sweepTemporary(root);
+  const target = join(root, name);
+  // A folder of that name (the same inputs) is reused, never rewritten, when it is a whole pack: every file this
+  // build would write is there, results.json reads as a pack and pack.pdf ends as a PDF does. One with a file
+  // deleted or cut short (an earlier pack half there) is written again.
+  const reused = wholePack(target, names);
+  const tmp = join(root, `${TEMP_PREFIX}${process.pid}-${name}`);
+  if (!reused) await rm(tmp, { recursive: true, force: true });
+  let written = 0;
+  // Written synchronously, each folder made once: a pack is hundreds of small files (a chart and its spec per
+  // claim), and a promise round trip per file and per folder cost about 0.1 s of a 200-claim build.
+  const folders = new Set<string>();
+  return {
+    reused,
+    write(rel, content) {
+      if (reused) return;
+      const file = join(tmp, rel);
+      if (hooks.failAfterFiles !== undefined && written >= hooks.failAfterFiles) {
+        if (hooks.failCode !== undefined) throw Object.assign(new Error(`${hooks.failCode}: open '${file}' (test hook)`), { code: hooks.failCode, syscall: 'open', path: file });
+        throw new Error(`build interrupted on purpose after ${written} files (test hook)`);
+      }
+      if (hooks.killAfterFiles !== undefined && written >= hooks.killAfterFiles) process.kill(process.pid, 'SIGKILL');
+      const folder = dirname(file);
+      if (!folders.has(folder)) {
+        makeFolders(folder);
+        folders.add(folder);
+      }
+      if (Array.isArray(content)) writePieces(file, content);
+      else writeFileSync(file, content);
+      written += 1;
+    },
+    async finish() {
+      if (!reused) {
+        try {
+          await rm(target, { recursive: true, force: true });
+          await rename(tmp, target);
+        } catch (e) {
+          await rm(tmp, { recursive: true, force: true });
+          throw e;
+        }
+      }
+      await pointLatest(root, name);
+      return { path: target, reused };
+    },
+    async abandon() {
+      await rm(tmp, { recursive: true, force: true });
+      for (const dir of made.reverse()) {
+        try {
+          rmdirSync(dir);
+        } catch {
+          break; // not empty (another build's pack, or something of the user's): left as it is
+        }
+      }
+    },
+  };
+}
+
 /**
  * Write a pack's files into `root/name` through a temporary folder, then point `latest` at it. When a pack with the
  * same name exists already (same inputs), it is left as it is and only `latest` moves.
  */
 export async function storePack(root: string, name: string, files: Array<[string, string | Buffer]>, hooks: WriteHooks = {}): Promise<{ path: string; reused: boolean }> {
-  makeFolders(root);
-  await sweepTemporary(root);
-  const target = join(root, name);
-  let reused = true;
-  // A folder of that name (the same inputs) is reused, never rewritten, when it is a whole pack: every file this
-  // build would write is there, results.json reads as a pack and pack.pdf ends as a PDF does. One with a file
-  // deleted or cut short (an earlier pack half there) is written again.
-  if (!wholePack(target, files.map(([rel]) => rel))) {
-    reused = false;
-    const tmp = join(root, `${TEMP_PREFIX}${process.pid}-${name}`);
-    await rm(tmp, { recursive: true, force: true });
-    try {
-      let written = 0;
-      // Written synchronously, each folder made once: a pack is hundreds of small files (a chart and its spec per
-      // claim), and a promise round trip per file and per folder cost about 0.1 s of a 200-claim build.
-      const made = new Set<string>();
-      for (const [rel, content] of files) {
-        const file = join(tmp, rel);
-        if (hooks.failAfterFiles !== undefined && written >= hooks.failAfterFiles) {
-          if (hooks.failCode !== undefined) throw Object.assign(new Error(`${hooks.failCode}: open '${file}' (test hook)`), { code: hooks.failCode, syscall: 'open', path: file });
-          throw new Error(`build interrupted on purpose after ${written} files (test hook)`);
-        }
-        if (hooks.killAfterFiles !== undefined && written >= hooks.killAfterFiles) process.kill(process.pid, 'SIGKILL');
-        const folder = dirname(file);
-        if (!made.has(folder)) {
-          makeFolders(folder);
-          made.add(folder);
-        }
-        writeFileSync(file, content);
-        written += 1;
-      }
-      await rm(target, { recursive: true, force: true });
-      await rename(tmp, target);
-    } catch (e) {
-      await rm(tmp, { recursive: true, force: true });
-      throw e;
-    }
+  const staged = await stagePack(root, name, files.map(([rel]) => rel), hooks);
+  try {
+    for (const [rel, content] of files) staged.write(rel, content);
+  } catch (e) {
+    await staged.abandon();
+    throw e;
   }
-  await pointLatest(root, name);
-  return { path: target, reused };
+  return staged.finish();
 }
 
 /**

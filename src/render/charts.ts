@@ -712,7 +712,9 @@ const svgs = new KeptUntilUsed<Promise<string>>(SVGS_KEPT);
  * size is handed back from memory rather than compiled and rendered again. Drawn on the chart thread when one runs.
  */
 export function chartSvg(data: ChartData, options: ChartSizeOptions = {}): Promise<string> {
-  return rememberedSvg(data, options, true);
+  const svg = rememberedSvg(data, options, true);
+  askAhead();
+  return svg;
 }
 
 function rememberedSvg(data: ChartData, options: ChartSizeOptions, urgent: boolean): Promise<string> {
@@ -743,5 +745,22 @@ export function drawsOnThread(): boolean {
  */
 export function prefetchCharts(charts: ChartData[]): void {
   if (!chartThread()) return;
-  for (const data of charts) rememberedSvg(data, {}, false).catch(() => undefined);
+  ahead = charts;
+  nextAhead = 0;
+  askAhead();
+}
+
+/**
+ * How many charts asked for ahead may be drawn and not yet used at once. The pages use the charts in the order they
+ * were asked for, so the thread keeps this far ahead of the pages and the memory they hold does not grow with the
+ * number of claims (asked for all at once, every chart of a pack of 2,000 claims was held until its page).
+ */
+const AHEAD = 32;
+let ahead: ChartData[] = [];
+let nextAhead = 0;
+
+/** Ask for the next charts of prefetchCharts' list, up to AHEAD not yet used. */
+function askAhead(): void {
+  while (nextAhead < ahead.length && svgs.unused < AHEAD) rememberedSvg(ahead[nextAhead++]!, {}, false).catch(() => undefined);
+  if (nextAhead >= ahead.length) ahead = [];
 }

@@ -7,13 +7,17 @@
  */
 export class KeptUntilUsed<V> {
   private readonly entries = new Map<string, { value: V; used: boolean }>();
+  private notUsed = 0;
 
   constructor(private readonly limit: number) {}
 
   /** The value kept for `key`; `use` marks it used (so that it may be forgotten when room is needed). */
   get(key: string, use = true): V | undefined {
     const entry = this.entries.get(key);
-    if (entry !== undefined && use) entry.used = true;
+    if (entry !== undefined && use && !entry.used) {
+      entry.used = true;
+      this.notUsed--;
+    }
     return entry?.value;
   }
 
@@ -31,11 +35,20 @@ export class KeptUntilUsed<V> {
         }
       }
     }
+    this.delete(key);
     this.entries.set(key, { value, used });
+    if (!used) this.notUsed++;
   }
 
   delete(key: string): void {
+    const entry = this.entries.get(key);
+    if (entry !== undefined && !entry.used) this.notUsed--;
     this.entries.delete(key);
+  }
+
+  /** How many entries are kept and not yet used. */
+  get unused(): number {
+    return this.notUsed;
   }
 
   get size(): number {

@@ -16,10 +16,10 @@
  * furniture.ts (header and footer).
  */
 import { createHash } from 'node:crypto';
+import { deflateRawSync, inflateRawSync } from 'node:zlib';
 import PDFDocument from 'pdfkit';
-import type { ChartData, PackModel } from './model.js';
+import type { ClaimSection, PackModel } from './model.js';
 import { FONT_NAME, fontFor, shapeQuickly } from './fonts.js';
-import { chartSvg, drawsOnThread } from './charts.js';
 import { Layout } from './pdf/layout.js';
 import { drawCover, drawSummary, drawChanges } from './pdf/front-matter.js';
 import { drawClaims } from './pdf/claim.js';
@@ -34,6 +34,8 @@ export interface RenderOptions {
   createdAt?: Date;
   /** Called once every claim's chart is in the document: a build lets the chart thread go then, freeing its memory. */
   chartsDrawn?: () => void;
+  /** Called with each claim's chart, drawn at its usual size, when its page has used it (a build writes its files). */
+  chartDrawn?: (claim: ClaimSection, svg: string) => void;
 }
 
 /** The fixed date used when no creation date is given (a build must not depend on the clock). */
@@ -50,6 +52,9 @@ interface Latin1Writer {
   latin1Write(text: string, offset: number): number;
 }
 
+/** Pages whose operators are kept as they are until pdfkit takes them; those after are kept deflated (a large pack). */
+const PAGES_KEPT_PLAIN = 400;
+
 /**
  * pdfkit turns every content operator it is given into a small byte array of its own and, with buffered pages, keeps
  * them all until the document ends: some 160,000 arrays for a pack of 200 charted claims, most of the renderer's
@@ -64,20 +69,44 @@ function keepContentAsBytes(): (content: ContentStream) => () => void {
   let used = 0;
   /** The hand-over of the page whose operators the buffer holds. */
   let owner: (() => void) | undefined;
+  let pages = 0;
   return (content) => {
     const write = content.write.bind(content);
     const finalize = content.finalize.bind(content);
+    // pdfkit keeps every buffered page's operators until the document ends (the page furniture is drawn last, on every
+    // page), uncompressed: about 26 KB a page, some 100 MB for a pack of 2,000 claims. A page after the first
+    // PAGES_KEPT_PLAIN keeps them deflated (raw, fastest level) until pdfkit is next given this page's bytes, when
+    // they are inflated and handed over first: the same bytes, in the same order, in a fifth of the memory.
+    const deferred = ++pages > PAGES_KEPT_PLAIN;
+    let stored: Buffer | undefined;
+    const release = (): void => {
+      if (stored === undefined) return;
+      const bytes = inflateRawSync(stored);
+      stored = undefined;
+      write(bytes);
+    };
+    let handed = false;
     const flush = (): void => {
       if (owner !== flush) return;
       owner = undefined;
       if (used === 0) return;
       const bytes = Buffer.from(scratch.subarray(0, used));
       used = 0;
+      if (deferred && !handed && stored === undefined) {
+        const packed = deflateRawSync(bytes, { level: 1 });
+        // zlib's result is a view of a buffer of 16 KB or more: copied, so that only the deflated bytes are kept.
+        stored = Buffer.from(packed);
+        return;
+      }
+      release();
+      handed = true;
       write(bytes);
     };
     content.write = (chunk: string | Uint8Array): void => {
       if (chunk instanceof Uint8Array) {
         flush();
+        release();
+        handed = true;
         write(chunk);
         return;
       }
@@ -95,6 +124,7 @@ function keepContentAsBytes(): (content: ContentStream) => () => void {
     };
     content.finalize = (): void => {
       flush();
+      release();
       finalize();
     };
     return flush;
@@ -169,12 +199,17 @@ export function keepOutput(stream: OutputStream): () => Buffer[] {
   stream._write = (data: string | Uint8Array): void => {
     if (data instanceof Uint8Array) {
       flush();
-      parts.push(Buffer.from(data.buffer, data.byteOffset, data.byteLength));
+      // A compressed stream can be a small view of zlib's larger buffer: copied then, so the buffer is let go.
+      const whole = data.byteLength * 2 >= data.buffer.byteLength;
+      parts.push(whole ? Buffer.from(data.buffer, data.byteOffset, data.byteLength) : Buffer.from(data));
       stream._offset += data.length;
     } else {
       const line = `${data}\n`;
       text += line;
       stream._offset += line.length;
+      // Made bytes every 64 K characters: while the pages are drawn, pdfkit writes the objects it has ended (the
+      // structure tree's parts) and no stream, and the text grew into one string of some 650,000 joined pieces.
+      if (text.length > 65536) flush();
     }
   };
   return () => {
@@ -185,22 +220,20 @@ export function keepOutput(stream: OutputStream): () => Buffer[] {
 
 /** Render the evidence pack. Deterministic: the same model and options give the same bytes. */
 export async function renderPdf(model: PackModel, options: RenderOptions = {}): Promise<Buffer> {
+  return Buffer.concat(await renderPdfParts(model, options));
+}
+
+/**
+ * The evidence pack as the pieces of its bytes in order, to be written one after another (joined, the PDF of a pack
+ * of 3,000 claims was held twice at the end, some 60 MB).
+ */
+export async function renderPdfParts(model: PackModel, options: RenderOptions = {}): Promise<Buffer[]> {
   if (!model.title.trim()) throw new Error('Pack model: the title is empty; a title is required for the PDF.');
   const created = options.createdAt ?? FIXED_EPOCH;
   if (Number.isNaN(created.getTime())) throw new Error('Render options: createdAt is not a valid date.');
 
-  // Every chart is asked for first. On the chart thread they are drawn while the pages before them are laid out,
-  // each claim waiting only for its own chart; drawn here, each is drawn in turn before any page.
-  const svgs = new Map<string, Promise<string>>();
-  const threaded = drawsOnThread();
-  for (const claim of model.claims) {
-    if (!claim.chart) continue;
-    const svg = chartSvg(claim.chart.data as ChartData);
-    if (threaded) svg.catch(() => undefined);
-    else await svg;
-    svgs.set(claim.id, svg);
-  }
-
+  // Each claim's chart is asked for when its page comes (on the chart thread, the pack's charts were asked for ahead,
+  // charts.ts's prefetchCharts), and let go once drawn: held all at once, they grew with the number of claims.
   const doc = new PDFDocument({
     size: 'A4',
     margins: MARGIN,
@@ -236,8 +269,8 @@ export async function renderPdf(model: PackModel, options: RenderOptions = {}): 
   const chunks: Buffer[] = [];
   doc.on('data', (c: Buffer) => chunks.push(c));
   const written = keepOutput(doc as unknown as OutputStream);
-  const finished = new Promise<Buffer>((resolve, reject) => {
-    doc.on('end', () => resolve(Buffer.concat([...chunks, ...written()])));
+  const finished = new Promise<Buffer[]>((resolve, reject) => {
+    doc.on('end', () => resolve([...chunks, ...written()]));
     doc.on('error', reject);
   });
 
@@ -250,7 +283,7 @@ export async function renderPdf(model: PackModel, options: RenderOptions = {}): 
   drawCover(L, model, root, bookmark);
   drawSummary(L, model, root, bookmark);
   drawChanges(L, model, root, bookmark);
-  await drawClaims(L, model, svgs, root);
+  await drawClaims(L, model, root, options.chartDrawn);
   options.chartsDrawn?.();
   drawBackMatter(L, model, root, bookmark);
   drawFurniture(L, model);

@@ -29,12 +29,11 @@ export function withAltText(svg: string, alt: string): string {
 }
 
 /**
- * Files for every claim with a chart, in claim order: [relative path, content] pairs, e.g.
- * ["charts/feedback-below-region.svg", "<svg ...>"]. Deterministic: the same model gives the same files.
- * Throws when two claim ids would give the same file name.
+ * The names of the chart files of a pack, in claim order ("charts/<stem>.svg", "charts/<stem>.vl.json" for each claim
+ * with a chart), known before any chart is drawn. Throws when two claim ids would give the same file name.
  */
-export async function chartFiles(model: PackModel): Promise<Array<[string, string]>> {
-  const files: Array<[string, string]> = [];
+export function chartFileNames(model: PackModel): string[] {
+  const names: string[] = [];
   const seen = new Map<string, string>();
   for (const claim of model.claims) {
     if (!claim.chart) continue;
@@ -46,9 +45,33 @@ export async function chartFiles(model: PackModel): Promise<Array<[string, strin
       );
     }
     seen.set(stem.toLowerCase(), claim.id);
-    const spec = { description: claim.chart.alt, ...(chartSpec(claim.chart.data) as Record<string, unknown>) };
-    files.push([`charts/${stem}.svg`, withAltText(await chartSvg(claim.chart.data), claim.chart.alt)]);
-    files.push([`charts/${stem}.vl.json`, `${JSON.stringify(spec, null, 2)}\n`]);
+    names.push(`charts/${stem}.svg`, `charts/${stem}.vl.json`);
+  }
+  return names;
+}
+
+/** The two files of one claim's chart, from the SVG drawn for it at its usual size: [relative path, content] pairs. */
+export function chartFilesOf(claim: PackModel['claims'][number], svg: string): Array<[string, string]> {
+  if (!claim.chart) return [];
+  const stem = chartFileStem(claim.id);
+  const spec = { description: claim.chart.alt, ...(chartSpec(claim.chart.data) as Record<string, unknown>) };
+  return [
+    [`charts/${stem}.svg`, withAltText(svg, claim.chart.alt)],
+    [`charts/${stem}.vl.json`, `${JSON.stringify(spec, null, 2)}\n`],
+  ];
+}
+
+/**
+ * Files for every claim with a chart, in claim order: [relative path, content] pairs, e.g.
+ * ["charts/feedback-below-region.svg", "<svg ...>"]. Deterministic: the same model gives the same files.
+ * Throws when two claim ids would give the same file name. (A build writes each claim's files as its chart is drawn,
+ * with chartFileNames and chartFilesOf, rather than holding them all.)
+ */
+export async function chartFiles(model: PackModel): Promise<Array<[string, string]>> {
+  chartFileNames(model);
+  const files: Array<[string, string]> = [];
+  for (const claim of model.claims) {
+    if (claim.chart) files.push(...chartFilesOf(claim, await chartSvg(claim.chart.data)));
   }
   return files;
 }

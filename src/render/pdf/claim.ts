@@ -308,11 +308,12 @@ function keepTogether(height: number): Block {
 }
 
 /** Draw every claim: each on a new page unless it fits in the space left below the previous one. */
-export async function drawClaims(L: Layout, model: PackModel, svgs: Map<string, Promise<string>>, root: Struct): Promise<void> {
+export async function drawClaims(L: Layout, model: PackModel, root: Struct, chartDrawn?: (claim: ClaimSection, svg: string) => void): Promise<void> {
   const doc = L.doc;
   let claimsBookmark: PDFKit.OutlineItem | undefined;
   for (const claim of model.claims) {
-    const { blocks } = await layClaim(L, claim, await svgs.get(claim.id), () => claimsBookmark!);
+    const svg = claim.chart ? await chartSvg(claim.chart.data) : undefined;
+    const { blocks } = await layClaim(L, claim, svg, () => claimsBookmark!);
     if (claimsBookmark === undefined || blocksHeight(blocks) + CLAIM_GAP > L.remaining()) {
       L.newPage();
     } else {
@@ -331,5 +332,7 @@ export async function drawClaims(L: Layout, model: PackModel, svgs: Map<string, 
     L.flow(blocks, sect);
     L.continuation = undefined;
     sect.end();
+    L.forgetMeasured();
+    if (svg !== undefined) chartDrawn?.(claim, svg);
   }
 }

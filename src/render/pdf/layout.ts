@@ -50,6 +50,9 @@ function postscriptName(face: Face): string {
   return (fontFor(face) as unknown as { postscriptName: string }).postscriptName;
 }
 
+/** How many measured texts and texts' words Layout keeps before forgetMeasured lets them go. */
+const FORGET_AFTER = 4000;
+
 export class Layout {
   readonly doc: Doc;
   /** Measured texts by their text (see measure), with the text's words once it has been wrapped by wrapWords. */
@@ -185,6 +188,17 @@ export class Layout {
     const words = this.wordsOfText(text);
     const known = advancesOf(font);
     return wrapWords(words, width, wordWidths(words, font, size, false, (word) => wordWidth(font, size, word, known)));
+  }
+
+  /**
+   * Forget the texts measured so far, once there are many: called between claims, when every block measured has been
+   * drawn. Kept for the whole pack, the measurements of every claim's texts grew with the number of claims (and the
+   * collector's work on them with it); a text measured again wraps into the same lines.
+   */
+  forgetMeasured(): void {
+    if (this.measured.size + this.wordsByText.size < FORGET_AFTER) return;
+    this.measured.clear();
+    this.wordsByText.clear();
   }
 
   /** The measurement of this text in this face, size, width and line gap, if it has been measured. */
