@@ -41,7 +41,7 @@ import { useChartThread } from './render/chart-thread.js';
 import { packageRoot } from './paths.js';
 import { formatProblem, InputError } from './errors.js';
 import { wordsProblems } from './claims/wording.js';
-import { fsFailure, readOrdinaryFile, requireOrdinaryFile, writeFailure } from './files.js';
+import { fsFailure, otherThanFile, readOrdinaryFile, requireOrdinaryFile, writeFailure } from './files.js';
 import { impossibleDate } from './claims/dates.js';
 import { canonicalJson, packFingerprint, sha256Hex } from './history/fingerprint.js';
 import { latestInTheWay, latestOrUnreadable, latestProblem, listPacks, openPack, outsideTemporary, packFolderName, stagePack, today, type StagedPack, type StoredPack, type WriteHooks } from './history/store.js';
@@ -289,7 +289,7 @@ function checkFolders(options: BuildOptions, root: string, templatesDir: string 
     if (!there.isDirectory()) {
       throw new InputError({
         ...outPlace,
-        problem: dir === root ? 'this is a file, not a history folder for packs' : `${dir} is a file, so the history folder cannot be made inside it`,
+        problem: dir === root ? `this is ${otherThanFile(there) ?? 'a file'}, not a history folder for packs` : `${dir} is ${otherThanFile(there) ?? 'a file'}, so the history folder cannot be made inside it`,
         fix: 'Give --out a folder (new or used before for packs of this claims file)',
       });
     }

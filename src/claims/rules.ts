@@ -20,6 +20,12 @@ export const DEFAULT_AGREE_CODES = [4, 5] as const;
 
 export const DATA_EXTENSIONS: Record<string, 'csv' | 'xlsx'> = { '.csv': 'csv', '.xlsx': 'xlsx' };
 
+/** The longest claim id: it names the claim's chart files (charts/<id>.vl.json), within a file name's 255 bytes. */
+export const MAX_ID_LENGTH = 120;
+
+/** The longest value a claim may select (a group's name, a question's code). */
+export const MAX_VALUE_LENGTH = 400;
+
 type Rec = Record<string, unknown>;
 const isRec = (v: unknown): v is Rec => v !== null && typeof v === 'object' && !Array.isArray(v);
 
@@ -135,7 +141,34 @@ export function crossFieldProblems(parsed: ParsedYaml, file: string, claimsDir: 
   claims.forEach((c, i) => {
     if (!isRec(c)) return;
     checkConfidence(['claims', i, 'confidence']);
-    if (typeof c.id === 'string' && c.id !== '') {
+    // A value thousands of characters long is text pasted by mistake, not a group's name; drawn as a chart's label
+    // or a table's word it would cost the pack seconds and hundreds of MB, wrapped a character at a time.
+    for (const [path, f] of claimFilters(c, ['claims', i])) {
+      for (const [col, v] of Object.entries(f)) {
+        const values = Array.isArray(v) ? v : isRec(v) && 'not' in v ? (Array.isArray(v.not) ? v.not : [v.not]) : [v];
+        const long = values.find((x): x is string => typeof x === 'string' && x.length > MAX_VALUE_LENGTH);
+        if (long === undefined) continue;
+        problems.push({
+          file,
+          ...at([...path, col]),
+          field: col,
+          found: `${long.slice(0, 40)}… (${long.length} characters)`,
+          problem: `the value selected in ${col} is ${long.length} characters long, longer than any name of a group warrant reads (at most ${MAX_VALUE_LENGTH} characters)`,
+          fix: `Check the value: it may be a paragraph pasted by mistake. Write the name of the group as the data give it in ${col}`,
+        });
+      }
+    }
+    if (typeof c.id === 'string' && c.id.length > MAX_ID_LENGTH) {
+      // Each claim's chart files are named by its id (charts/<id>.vl.json): a file name has at most 255 bytes.
+      problems.push({
+        file,
+        ...at(['claims', i, 'id']),
+        field: 'id',
+        found: `${c.id.slice(0, 40)}… (${c.id.length} characters)`,
+        problem: `the claim id is ${c.id.length} characters long; a claim's id names its chart files in the pack (charts/<id>.svg), and a file's name may be at most 255 bytes on most disks`,
+        fix: `Give the claim a short id, at most ${MAX_ID_LENGTH} characters, e.g. ${c.id.slice(0, 24).replace(/[-_]+$/, '')}`,
+      });
+    } else if (typeof c.id === 'string' && c.id !== '') {
       const here = at(['claims', i, 'id']);
       const first = firstById.get(c.id);
       if (first) {

@@ -56,6 +56,31 @@ function typeWords(t: unknown): string {
   return Array.isArray(t) ? t.map((x) => one(String(x))).join(' or ') : one(String(t));
 }
 
+function isPlainMapping(v: unknown): v is Record<string, unknown> {
+  return v !== null && typeof v === 'object' && !Array.isArray(v);
+}
+
+/** A small mapping of plain values as written in YAML's flow style ("{ col: Ratio }"), else undefined. */
+function flowText(v: unknown): string | undefined {
+  if (!isPlainMapping(v)) return undefined;
+  const parts = Object.entries(v).map(([k, x]) => (x === null || typeof x === 'object' ? undefined : `${k}: ${String(x)}`));
+  if (parts.length === 0 || parts.length > 4 || parts.some((x) => x === undefined)) return undefined;
+  const text = `{ ${parts.join(', ')} }`;
+  return text.length <= 80 ? text : undefined;
+}
+
+/** The numeric columns of the source of the claim at `path` (["claims", i, ...]), or none. */
+function numericColumnsOf(data: unknown, path: Segment[]): string[] {
+  if (!isPlainMapping(data) || path[0] !== 'claims') return [];
+  const claim = (data.claims as unknown[] | undefined)?.[Number(path[1])];
+  const sources = isPlainMapping(data.sources) ? data.sources : {};
+  const ids = Object.keys(sources);
+  const id = isPlainMapping(claim) && typeof claim.source === 'string' ? claim.source : ids.length === 1 ? ids[0] : undefined;
+  const source = id !== undefined ? sources[id] : undefined;
+  const numeric = isPlainMapping(source) ? source.numeric : undefined;
+  return Array.isArray(numeric) ? numeric.filter((x): x is string => typeof x === 'string') : [];
+}
+
 /** The value as it is quoted in the "found" part of a message (formatProblem adds the quotes). */
 function foundRaw(v: unknown): string {
   return typeof v === 'string' ? v : foundWords(v);
@@ -267,10 +292,16 @@ function toProblem(e: ErrorObject, path: Segment[], parsed: ParsedYaml, file: st
       if (e.schemaPath.includes('/measure/')) {
         const p = base(valuePlace);
         p.field = field;
-        p.found = foundRaw(value);
+        p.found = flowText(value) ?? foundRaw(value);
         p.problem = `"${field}" in ${describeOwner(data, path.slice(0, -1))} is not a measure warrant knows`;
         const guess = typeof value === 'string' ? closest(value, ['agree', 'mean']) : undefined;
-        p.fix = `Write agree, mean, or { column: NAME } naming a numeric column of the source${guess !== undefined ? ` (did you mean ${guess}?)` : ''}`;
+        // A numeric column named bare (x_measure: Ratio), or under another key ({ col: Ratio }, { mean: Ratio }).
+        const named = typeof value === 'string' ? value : isPlainMapping(value) && Object.keys(value).length === 1 ? Object.values(value)[0] : undefined;
+        const numeric = typeof named === 'string' && numericColumnsOf(data, path).includes(named) ? named : undefined;
+        p.fix =
+          numeric !== undefined
+            ? `${numeric} is a numeric column of the source: write ${field}: { column: ${numeric} }`
+            : `Write agree, mean, or { column: NAME } naming a numeric column of the source${guess !== undefined ? ` (did you mean ${guess}?)` : ''}`;
         return p;
       }
       if (path[0] === 'claims' && path.length === 3 && field === 'against') {

@@ -204,7 +204,8 @@ async function sourceCube(
   for (const { claim, i } of users) {
     const before = claimProblems.length;
     const named: Array<[Path, string, 'key' | 'value']> = [];
-    for (const f of Object.values(filtersOf(claim, i))) for (const col of Object.keys(f.filter)) named.push([[...f.path, col], col, 'key']);
+    const filters = Object.values(filtersOf(claim, i));
+    for (const f of filters) for (const col of Object.keys(f.filter)) named.push([[...f.path, col], col, 'key']);
     // units, rows and columns name one column or a list; the path of a listed one ends in its index.
     const grouping = (key: string, cols: readonly string[]): void => {
       const raw = (written as { claims?: Array<Record<string, unknown>> }).claims?.[i]?.[key];
@@ -219,6 +220,28 @@ async function sourceCube(
     for (const [p, col, prefer] of named) {
       if (selectable.includes(col)) continue;
       const key = String(p[2] ?? '');
+      // { column: Ratio } is the form of a measure (x_measure, y_measure, measure), written where rows are selected.
+      const written = prefer === 'key' && /^(column|measure)$/i.test(col) ? filters.find((f) => f.path.length === p.length - 1 && f.path.every((x, k) => x === p[k]))?.filter[col] : undefined;
+      if (written !== undefined && (typeof written === 'string' || typeof written === 'number')) {
+        const selection = p.slice(2, -1).join(' ');
+        const value = String(written);
+        const measureKey = claim.kind === 'association' && (key === 'x' || key === 'y') ? `${key}_measure` : claim.kind === 'means' ? 'measure' : undefined;
+        const rowsKey = key === 'x' || key === 'y' ? key : 'where';
+        const units: readonly string[] = claim.kind === 'association' ? claim.units : [];
+        const example = selectable.find((c) => !units.includes(c) && c !== source.period) ?? selectable[0] ?? 'Question';
+        claimProblems.push({
+          file,
+          ...place(p, prefer),
+          field: selection,
+          found: `{ ${col}: ${value} }`,
+          problem: `${selection} in claim "${claim.id}" selects rows by the values of their columns, and the data of source "${source.id}" have no column "${col}"; { ${col}: ${value} } is how a measure is written`,
+          fix:
+            measureKey !== undefined
+              ? `To measure the numeric column ${value}, write ${measureKey}: { column: ${value} }${measureKey === 'measure' ? '' : ` beside ${key}`}, and let ${rowsKey} select the rows it is measured on, e.g. ${rowsKey}: { ${example}: ... }`
+              : `A ${claim.kind} claim measures agreement; a numeric column such as ${value} can be measured by an association claim (x_measure: { column: ${value} }) or a means claim (measure: { column: ${value} }). Here, select rows by a column of the data (${lowerFirst(fixFor(col, selectable, 'columns'))})`,
+        });
+        continue;
+      }
       const isQuestion = (source.questions ?? []).includes(col);
       const isMeasure = measures.has(col) || isQuestion;
       // "units: Department, Institution" is one name with a comma: the columns were meant as a list.
@@ -429,4 +452,9 @@ export async function check(opts: CheckOptions): Promise<number> {
     );
   }
   return ok ? 0 : 2;
+}
+
+/** A sentence's first letter made small, for a fix quoted inside another sentence. */
+function lowerFirst(text: string): string {
+  return text.charAt(0).toLowerCase() + text.slice(1);
 }

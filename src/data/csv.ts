@@ -205,7 +205,27 @@ function nulInText(file: string, rowsRead: number): InputError {
  */
 const MAX_RECORD_CHARS = 4 * 1024 * 1024;
 
-function recordTooLong(file: string, rowsRead: number, headerRead: boolean): InputError {
+/** A row over the limit with this many separators is said to be too wide rather than unending. */
+const WIDE_ROW = 100_000;
+
+function recordTooLong(file: string, rowsRead: number, headerRead: boolean, carried = ''): InputError {
+  // A row cut into a great many values by commas, semicolons or tabs is a table far too wide, not a missing line break.
+  const first = carried.indexOf('\n');
+  const row = first >= 0 ? carried.slice(0, first) : carried;
+  let separators = 0;
+  for (let i = 0; i < row.length; i++) {
+    const c = row.charCodeAt(i);
+    if (c === 44 || c === 59 || c === 9) separators++;
+  }
+  if (separators >= WIDE_ROW) {
+    return new InputError({
+      file,
+      row: rowsRead + 1,
+      found: `more than ${Math.floor(separators / 1000)} thousand columns`,
+      problem: `Row ${rowsRead + 1} of the file has more than ${Math.floor(separators / 1000)} thousand columns in its first 4 million characters, and runs on beyond them; warrant reads rows of at most 4 million characters`,
+      fix: 'Save the table with only the columns the claims use and the columns that describe each row (a survey table has at most a few thousand columns)',
+    });
+  }
   return new InputError({
     file,
     row: rowsRead + 1,
@@ -609,7 +629,7 @@ export async function* readCsvBatches(path: string, options: CsvOptions = {}): A
         }
       }
       pending += text;
-      if (pending.length > MAX_RECORD_CHARS) throw recordTooLong(file, row, dialectSet);
+      if (pending.length > MAX_RECORD_CHARS) throw recordTooLong(file, row, dialectSet, pending);
       if (!dialectSet) {
         const found = sniff(pending, pending.length >= PEEK_LIMIT);
         if (found === undefined) return;

@@ -751,6 +751,118 @@ const cases: Case[] = [
     message:
       'data.csv, row 4: A value in a numeric column is too large to compute with (more than 10^15, a thousand million million, in size) (field "Ratio", found "1e306"). Fix: Check the cell: it may hold another figure (an ID, a number in the wrong unit); write the value the column measures, or leave the cell blank where there is none.',
   },
+  // A field of the wrong shape is said at its line, as that field, with what was found and the form meant.
+  ...(
+    [
+      [
+        'an association claim measuring a numeric column with x: { column: Ratio } (x selects rows; x_measure measures)',
+        '    x: { column: Ratio }\n    y: { Question: Q1 }\n',
+        'claims.yaml:16:10: x in claim "ratio-with-agree" selects rows by the values of their columns, and the data of source "results" have no column "column"; { column: Ratio } is how a measure is written (field "x", found "{ column: Ratio }"). Fix: To measure the numeric column Ratio, write x_measure: { column: Ratio } beside x, and let x select the rows it is measured on, e.g. x: { Question: ... }.',
+      ],
+      [
+        'an association claim with x_measure: { col: Ratio }',
+        '    x: { Question: Q1 }\n    x_measure: { col: Ratio }\n    y: { Question: Q1 }\n',
+        'claims.yaml:17:16: "x_measure" in claim "ratio-with-agree" is not a measure warrant knows (field "x_measure", found "{ col: Ratio }"). Fix: Ratio is a numeric column of the source: write x_measure: { column: Ratio }.',
+      ],
+      [
+        'an association claim with y_measure: Ratio, a numeric column named bare',
+        '    x: { Question: Q1 }\n    y: { Question: Q1 }\n    y_measure: Ratio\n',
+        'claims.yaml:18:16: "y_measure" in claim "ratio-with-agree" is not a measure warrant knows (field "y_measure", found "Ratio"). Fix: Ratio is a numeric column of the source: write y_measure: { column: Ratio }.',
+      ],
+    ] as const
+  ).map(([what, fields, message]): Case => ({
+    what,
+    group: 'refuse nonsense',
+    cousin: true,
+    setup: (dir) => {
+      const rows = ['Hanes', 'Łacina', 'Brithŵyr', 'Morva', 'Tallis', 'Brenn'].map((d, i) => `${d},Q1,100,${40 + 3 * i},${10 + ((i * 7) % 5)}`);
+      writeFileSync(join(dir, 'data.csv'), `Department,Question,Respondents,Agreeing,Ratio\n${rows.join('\n')}\n`);
+      writeFileSync(
+        join(dir, 'claims.yaml'),
+        HEAD + SUMMARY_SOURCE('data.csv', '    numeric: [Ratio]\n') +
+          `claims:\n  - id: ratio-with-agree\n    claim: Departments with more staff per student agree more.\n    kind: association\n    units: Department\n${fields}    expect: positive\n`,
+      );
+    },
+    message,
+  })),
+  {
+    what: 'a compare claim selecting with focus: { column: Ratio }',
+    group: 'refuse nonsense',
+    cousin: true,
+    setup: (dir) => {
+      writeFileSync(join(dir, 'data.csv'), 'Department,Respondents,Agreeing,Ratio\nHanes,50,30,12\nŁacina,40,20,14\n');
+      writeFileSync(
+        join(dir, 'claims.yaml'),
+        HEAD + SUMMARY_SOURCE('data.csv', '    numeric: [Ratio]\n') +
+          'claims:\n  - id: hanes-above-lacina\n    claim: Hanes agrees more than Łacina.\n    kind: compare\n    focus: { column: Ratio }\n    against: { Department: Łacina }\n    expect: higher\n',
+      );
+    },
+    message:
+      'claims.yaml:15:14: focus in claim "hanes-above-lacina" selects rows by the values of their columns, and the data of source "results" have no column "column"; { column: Ratio } is how a measure is written (field "focus", found "{ column: Ratio }"). Fix: A compare claim measures agreement; a numeric column such as Ratio can be measured by an association claim (x_measure: { column: Ratio }) or a means claim (measure: { column: Ratio }). Here, select rows by a column of the data (use one of the columns found: "Department").',
+  },
+  {
+    what: 'a claim id 10,000 characters long (it names the claim\'s chart files)',
+    group: 'refuse nonsense',
+    cousin: true,
+    setup: (dir) => summaryCase(dir, HEAD + SUMMARY_SOURCE('data.csv') + COMPARE.replace('id: hanes-above-lacina', `id: ${'h'.repeat(10_000)}`)),
+    message: `claims.yaml:11:9: the claim id is 10000 characters long; a claim's id names its chart files in the pack (charts/<id>.svg), and a file's name may be at most 255 bytes on most disks (field "id", found "${'h'.repeat(40)}… (10000 characters)"). Fix: Give the claim a short id, at most 120 characters, e.g. ${'h'.repeat(24)}.`,
+  },
+  {
+    what: 'a group name of 5,000 characters selected in the claims file',
+    group: 'never hang',
+    cousin: true,
+    setup: (dir) => {
+      const long = 'Z'.repeat(5000);
+      summaryCase(dir, HEAD + SUMMARY_SOURCE('data.csv') + COMPARE.replace('{ Department: Hanes }', `{ Department: ${long} }`), CSV.replaceAll('Hanes', long));
+    },
+    message: `claims.yaml:14:26: the value selected in Department is 5000 characters long, longer than any name of a group warrant reads (at most 400 characters) (field "Department", found "${'Z'.repeat(40)}… (5000 characters)"). Fix: Check the value: it may be a paragraph pasted by mistake. Write the name of the group as the data give it in Department.`,
+  },
+  {
+    what: 'group names made of regular-expression characters: read as themselves',
+    group: 'refuse nonsense',
+    cousin: true,
+    setup: (dir) => {
+      const meta = '(a+)+$[.*?]{2}|^\\\\d';
+      summaryCase(
+        dir,
+        HEAD + SUMMARY_SOURCE('data.csv') + COMPARE.replace('{ Department: Hanes }', `{ Department: '${meta}' }`),
+        CSV.replaceAll('Hanes', `"${meta}"`),
+      );
+    },
+    builds: (run) => {
+      const results = packResults(run);
+      // No period column: both years pooled, by hand from the CSV (50 + 52 answering, 30 + 31 agreeing; 40 + 41, 20 + 19).
+      expect(results.claims[0]?.selections.map((s) => [s.label, s.n, s.agree])).toEqual([
+        ['(a+)+$[.*?]{2}|^\\\\d', 102, 61],
+        ['Łacina', 81, 39],
+      ]);
+    },
+  },
+  {
+    what: 'a CSV header of 600,000 columns',
+    group: 'never hang',
+    cousin: true,
+    setup: (dir) => {
+      const cols = Array.from({ length: 600_000 }, (_, i) => `C${i}`).join(',');
+      summaryCase(dir, undefined, `Department,Year,Respondents,Agreeing,${cols}\nHanes,2025,50,30\n`);
+    },
+    message:
+      'data.csv, row 1: Row 1 of the file has more than <n> thousand columns in its first 4 million characters, and runs on beyond them; warrant reads rows of at most 4 million characters (found "more than <n> thousand columns"). Fix: Save the table with only the columns the claims use and the columns that describe each row (a survey table has at most a few thousand columns).',
+  },
+  ...(
+    [
+      ['the data file', 'data.csv', 'this is a file'],
+      ['the claims file', 'claims.yaml', 'this is a file'],
+      ['/dev/null', '/dev/null', 'this is a device (character special file)'],
+    ] as const
+  ).map(([what, out, kind]): Case => ({
+    what: `--out naming ${what}: refused, and the file left as it was`,
+    group: 'refuse nonsense',
+    cousin: true,
+    setup: (dir) => summaryCase(dir),
+    argv: ['build', 'claims.yaml', '--out', out],
+    message: `${out}: ${kind}, not a history folder for packs (field "--out"). Fix: Give --out a folder (new or used before for packs of this claims file).`,
+  })),
   {
     what: 'sixty copies of one compare claim: each page names three of the others and counts the rest',
     group: 'never hang',
