@@ -29,6 +29,7 @@ import { effectiveSize } from '../stats/finite-population.js';
 import { minDetectableCramersV } from '../stats/power-chi-square.js';
 import { minDetectableGapChange } from '../stats/power-gap-change.js';
 import { rankDetectable } from './rank.js';
+import { everyDetectable } from './every.js';
 
 /** The power every smallest detectable effect is computed at ("detected 80% of the time"). */
 export const POWER = 0.8;
@@ -69,6 +70,9 @@ export function detectableAt(a: Analysis, alpha: number): number | undefined {
     case 'rank':
       // The lead over the closest rival that its pair would detect; being shown ahead of every rival asks at least this.
       return a.focus && a.closest ? rankDetectable(a.focus, a.closest.rival, a.claim.expect, alpha, sided) : undefined;
+    case 'every':
+      // The smallest unit's gap from the value; every unit must be shown, so the claim asks at least this.
+      return a.tests ? everyDetectable(a.tests.map((u) => u.rate), a.claim.value, a.claim.expect, alpha, sided)?.value : undefined;
     case 'trend': {
       if (!a.rates) return undefined;
       const n = a.rates.map((r) => r.n);
@@ -99,7 +103,7 @@ export function detectableAt(a: Analysis, alpha: number): number | undefined {
  */
 export function atThreshold<A extends Analysis>(a: A, effectiveAlpha: number | undefined): A {
   if (effectiveAlpha === undefined || a.status !== 'tested') return a;
-  if (!['compare', 'change', 'gap-change', 'target', 'trend', 'association', 'means', 'crosstab', 'rank'].includes(a.kind)) return a;
+  if (!['compare', 'change', 'gap-change', 'target', 'trend', 'association', 'means', 'crosstab', 'rank', 'every'].includes(a.kind)) return a;
   const detectable = detectableAt(a, effectiveAlpha);
   const rest = { ...a } as A & { detectable?: number };
   delete rest.detectable;

@@ -11,6 +11,7 @@ import { analyseCrosstab } from './crosstab.js';
 import { analyseEquivalence } from './equivalence.js';
 import { analyseMeans } from './means.js';
 import { analyseRank } from './rank.js';
+import { analyseEvery } from './every.js';
 import type { Analysis } from './types.js';
 
 /** Test one claim on its source's cube. Adding a claim kind means adding a case here and a file beside this one. */
@@ -39,6 +40,8 @@ export function analyse(written: Claim, cube: Cube, ctx: CompareContext): Analys
       return analyseEstimate(claim, cube, ctx);
     case 'rank':
       return analyseRank(claim, cube, ctx);
+    case 'every':
+      return analyseEvery(claim, cube, ctx);
     default:
       throw new Error(`internal: claims of kind "${(claim as Claim).kind}" cannot be analysed yet`);
   }
@@ -66,7 +69,7 @@ export function columnsUsed(claim: Claim): string[] {
   if ('select' in claim) filters.push(claim.select);
   if (claim.kind === 'association') filters.push(claim.x, claim.y, ...claim.controls.map((c) => c.filter));
   const cols = new Set(filters.flatMap((f) => Object.keys(f)));
-  if (claim.kind === 'association' || claim.kind === 'rank') for (const u of [claim.units].flat()) cols.add(u);
+  if (claim.kind === 'association' || claim.kind === 'rank' || claim.kind === 'every') for (const u of [claim.units].flat()) cols.add(u);
   if (claim.kind === 'crosstab') {
     for (const r of [claim.rows].flat()) cols.add(r);
     if (Array.isArray(claim.columns)) for (const c of claim.columns) cols.add(c);

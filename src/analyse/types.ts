@@ -415,7 +415,7 @@ export interface EveryAnalysis extends AnalysisBase {
   responseRate?: number;
 }
 
-export type Analysis = CompareAnalysis | AssociationAnalysis | CrosstabAnalysis | MeansAnalysis | EquivalenceAnalysis | ChangeAnalysis | GapChangeAnalysis | TrendAnalysis | TargetAnalysis | EstimateAnalysis | RankAnalysis;
+export type Analysis = CompareAnalysis | AssociationAnalysis | CrosstabAnalysis | MeansAnalysis | EquivalenceAnalysis | ChangeAnalysis | GapChangeAnalysis | TrendAnalysis | TargetAnalysis | EstimateAnalysis | RankAnalysis | EveryAnalysis;
 
 /** Pack-wide settings a claim's analysis needs. */
 export interface AnalysisSettings {

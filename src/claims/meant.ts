@@ -1,7 +1,7 @@
 /**
  * What a word written where warrant expects one of its own names probably meant: the claim kinds people call by other
  * names (a "correlation" is an association, a "benchmark" a target, "highest" a rank), the claims no kind can say (a
- * place such as the top third, every unit at once) with what can be said instead, a gap that narrowed (a change claim with focus and
+ * place such as the top third, every unit within a margin) with what can be said instead, "each" an every claim, a gap that narrowed (a change claim with focus and
  * against), and the directions people write in their own words ("below", "fell"). Used by the schema messages (src/claims/validate.ts) so that a refusal leads
  * to the form meant.
  */
@@ -20,6 +20,7 @@ const KIND_SYNONYMS: Record<string, string[]> = {
   crosstab: ['chi-square', 'chisq', 'chi-squared', 'contingency', 'table', 'cross-tab', 'cross-tabulation', 'distribution', 'spread', 'breakdown'],
   means: ['mean', 'average', 'averages', 'score', 'scores', 'mean-score', 't-test', 'ttest', 'welch', 'mann-whitney'],
   equivalence: ['equal', 'equality', 'same', 'similar', 'no-difference', 'parity', 'tost', 'alike', 'equivalent'],
+  every: ['each', 'all', 'for-each', 'per-unit', 'every-unit', 'all-units', 'all-groups', 'each-unit', 'across-the-board'],
   rank: ['ranking', 'rankings', 'ranked', 'highest', 'lowest', 'top', 'bottom', 'best', 'worst', 'league', 'league-table', 'first-place', 'leader', 'extreme', 'max', 'min'],
   estimate: ['proportion', 'percentage', 'percent', 'rate', 'share', 'figure', 'margin-of-error', 'interval', 'confidence-interval', 'descriptive'],
 };
@@ -45,9 +46,9 @@ const UNSAYABLE: Array<{ words: string[]; why: string; instead: string }> = [
     ...GAP_CHANGE,
   },
   {
-    words: ['each', 'every', 'all', 'for-each', 'per-unit', 'every-unit', 'all-units', 'none'],
-    why: 'no kind tests every unit at once ("no subject is more than 5 points from the institution")',
-    instead: 'Write one claim for each unit (for instance one equivalence claim per subject, each with margin: 5 points, against: rest); the adjustment for many claims then applies across them',
+    words: ['none', 'no-unit', 'within-margin-each'],
+    why: 'no kind tests that every unit lies within a margin of something ("no subject is more than 5 points from the institution")',
+    instead: 'For every unit above or below a fixed value use kind: every (units, value, expect: higher or lower); for every unit within a margin write one equivalence claim per unit (margin: 5 points, against: rest); the adjustment for many claims then applies across them',
   },
 ];
 
@@ -71,6 +72,7 @@ export const KIND_WORDS: Record<string, string> = {
   equivalence: 'two rates within a margin, no real difference',
   estimate: 'a figure with its margin of error',
   rank: 'one unit the highest or lowest of several',
+  every: 'every unit above or below a fixed value',
 };
 
 const LOWER = ['below', 'less', 'fewer', 'worse', 'down', 'decrease', 'decreased', 'decreasing', 'fell', 'fall', 'falls', 'fallen', 'declined', 'decline', 'dropped', 'drop', 'smaller', 'under', 'lower-than', 'less-than', 'negative'];

@@ -24,6 +24,7 @@ import type {
   GapExpect,
   MeansClaim,
   RankClaim,
+  EveryClaim,
   RankExpect,
   Measure,
   Place,
@@ -329,6 +330,14 @@ function claimOfKind(c: Rec, base: Base, lenient: boolean): Claim {
       const focus = copyFilter(c.focus as Filter);
       const units = typeof c.units === 'string' ? c.units : (Object.keys(focus)[0] ?? '');
       return labels<RankClaim>({ ...base, kind: 'rank', units, focus, expect: c.expect as RankExpect }, c, { focus_label: 'focusLabel' });
+    }
+    case 'every': {
+      const v = readShare(c.value, true);
+      return labels<EveryClaim>(
+        { ...base, kind: 'every', units: String(c.units), value: amount(v, lenient) ?? 0, valueWritten: v.written, expect: c.expect as EveryClaim['expect'] },
+        c,
+        { value_label: 'valueLabel' },
+      );
     }
     case 'estimate':
       return labels<EstimateClaim>(

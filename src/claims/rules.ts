@@ -225,7 +225,7 @@ export function crossFieldProblems(parsed: ParsedYaml, file: string, claimsDir: 
     const claimPath = ['claims', i] as Array<string | number>;
     checkAmount(c, [...claimPath, 'min_response_rate'], 'share', 'the minimum response rate');
     checkAmount(c, [...claimPath, 'smallest_difference'], 'points', 'the smallest difference that matters,');
-    if (c.kind === 'target') checkAmount(c, [...claimPath, 'value'], 'share0', 'the value');
+    if (c.kind === 'target' || c.kind === 'every') checkAmount(c, [...claimPath, 'value'], 'share0', 'the value');
     if (c.kind === 'equivalence') checkAmount(c, [...claimPath, 'margin'], 'points', 'the margin');
 
     // A change claim with focus and against follows the gap between the two selections; it needs both, and only it
@@ -653,8 +653,8 @@ function unpinnedPeriodProblems(
       });
     }
     extra = `, or make each unit a period by adding ${period} to units`;
-  } else if (kind === 'rank') {
-    if (grouped('units') || (!('units' in c) && names(c.focus))) return [];
+  } else if (kind === 'rank' || kind === 'every') {
+    if (grouped('units') || (kind === 'rank' && !('units' in c) && names(c.focus))) return [];
     missing.push({ path: claimPath, what: 'the ranking', key: 'where' });
   } else if (kind === 'crosstab') {
     if (grouped('rows') || grouped('columns')) return [];
@@ -666,7 +666,7 @@ function unpinnedPeriodProblems(
   const first = missing[0]!;
   const one = missing.length === 1 && !(first.key === 'against' && c.against === 'rest');
   const single = kind === 'target' || kind === 'estimate';
-  const whole = kind === 'crosstab' || kind === 'rank' || single || !one;
+  const whole = kind === 'crosstab' || kind === 'rank' || kind === 'every' || single || !one;
   const place = whole ? ('where' in c ? at([...claimPath, 'where'], 'key') : at(claimPath)) : at(first.path, 'key');
   const which = whole ? owner : `${first.what} of ${owner}`;
   const inWords = single ? 'where or select' : whole ? 'where' : `where or ${first.key === 'controls' ? 'the control' : `under ${first.key}`}`;

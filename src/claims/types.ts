@@ -358,7 +358,8 @@ export type Claim =
   | MeansClaim
   | EquivalenceClaim
   | EstimateClaim
-  | RankClaim;
+  | RankClaim
+  | EveryClaim;
 export type ClaimKind = Claim['kind'];
 
 export interface ClaimsFile {

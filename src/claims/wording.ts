@@ -214,8 +214,8 @@ export function wordsAgainstFields(claim: Claim, data?: { values: Readonly<Recor
   const text = claim.statement.toLowerCase().replace(/[‘’]/g, "'");
   const out: WordsMismatch[] = data !== undefined ? wordsAgainstValues(claim, data.values, data.period) : [];
 
-  const directional = claim.kind === 'compare' || claim.kind === 'change' || claim.kind === 'target' || claim.kind === 'means';
-  const expect = claim.kind === 'compare' || claim.kind === 'change' || claim.kind === 'target' || claim.kind === 'means' || claim.kind === 'trend' ? (claim.expect as string) : '';
+  const directional = claim.kind === 'compare' || claim.kind === 'change' || claim.kind === 'target' || claim.kind === 'means' || claim.kind === 'every';
+  const expect = claim.kind === 'compare' || claim.kind === 'change' || claim.kind === 'target' || claim.kind === 'means' || claim.kind === 'every' || claim.kind === 'trend' ? (claim.expect as string) : '';
   // Only the plain directions are read against words; a gap between two groups over periods has words of its own.
   const plainExpect = ['lower', 'higher', 'different', 'rising', 'falling', 'any'].includes(expect) && !(claim.kind === 'change' && (claim as { focus?: unknown }).focus !== undefined);
   if ((directional || claim.kind === 'trend') && plainExpect) {
@@ -297,7 +297,7 @@ export function wordsAgainstFields(claim: Claim, data?: { values: Readonly<Recor
     }
   }
 
-  if (claim.kind === 'target') {
+  if (claim.kind === 'target' || claim.kind === 'every') {
     const written = numbersWith(text, 'percent');
     if (written.length > 0 && !written.some((n) => Math.abs(n / 100 - claim.value) < 1e-9)) {
       const words = `${written.join('%, ')}%`;

@@ -212,7 +212,7 @@ async function sourceCube(
       cols.forEach((c, k) => named.push([Array.isArray(raw) ? ['claims', i, key, k] : ['claims', i, key], c, 'value']));
     };
     if (claim.kind === 'association') grouping('units', claim.units);
-    if (claim.kind === 'rank') grouping('units', [claim.units]);
+    if (claim.kind === 'rank' || claim.kind === 'every') grouping('units', [claim.units]);
     if (claim.kind === 'crosstab') {
       grouping('rows', claim.rows);
       if (Array.isArray(claim.columns)) grouping('columns', claim.columns);

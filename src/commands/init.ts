@@ -286,6 +286,16 @@ export function starterText(scan: TableScan, guess: Guess, dataFile: string, sch
     `    focus: ${flow([[unitName, u1]])}   # every other ${unitName} under where is a rival`,
     '    expect: highest   # or lowest',
   ]);
+  example('every: each unit where selects above (or below) a fixed value', [
+    '  - id: every-example',
+    `    claim: Every ${unitName} is above the 70% benchmark.`,
+    '    kind: every',
+    whereWithLatest,
+    `    units: ${yamlScalar(unitName)}`,
+    '    value: 70%',
+    '    value_label: the 70% benchmark',
+    '    expect: higher   # or lower',
+  ]);
   example('crosstab: whether agreement (or another column) differs across the values of a column', [
     '  - id: crosstab-example',
     `    claim: Agreement differs across ${unitName}.`,

@@ -144,9 +144,15 @@ export interface ClaimResult {
    * threshold that decided the verdict; `closest` names the rival nearest the focus.
    */
   rivals?: { closest: string; each: RivalFigures[] };
+  /**
+   * Every claims: each unit tested against the value (nearest the value first): its rate minus the value with the
+   * rate's interval shifted by the value, the one-sided p-value the intersection-union test used, and whether the unit
+   * was shown on the claimed side at the threshold that decided the verdict.
+   */
+  unitTests?: Array<{ label: string; difference: number; interval: Interval; p: number; shown: boolean }>;
   /** Compare and change: Cohen's h for the two rates. */
   cohensH?: number | null;
-  /** Target: the fixed value the rate is held to (proportion). */
+  /** Target and every: the fixed value the rate (each unit's rate) is held to (proportion). */
   comparisonValue?: number;
   /** Equivalence: the margin (proportion; 0.06 = 6 percentage points). */
   margin?: number;
@@ -258,7 +264,7 @@ function testFields(test: TestResult | undefined) {
 /** The groups a claim's figures leave out (ClaimResult.suppression). */
 function suppressionOf(a: Analysis, rates: RateSummary[]): NonNullable<ClaimResult['suppression']> {
   const inRelease = rates.flatMap((r) => (r.suppressed ? [{ label: r.label, rows: r.suppressed.rows, of: r.suppressed.of }] : []));
-  const leftOut = a.kind === 'association' || a.kind === 'rank' ? [...a.suppressedUnits] : a.kind === 'crosstab' ? [...a.suppressedRows] : [];
+  const leftOut = a.kind === 'association' || a.kind === 'rank' || a.kind === 'every' ? [...a.suppressedUnits] : a.kind === 'crosstab' ? [...a.suppressedRows] : [];
   return { groups: inRelease.length + leftOut.length, inRelease, leftOut };
 }
 
@@ -280,6 +286,8 @@ export function claimResult(a: Analysis, decision: Decision, section: ClaimSecti
     if (a.earlier && a.later) rates.push(a.earlier.focus, a.earlier.against, a.later.focus, a.later.against);
   } else if (a.kind === 'rank') {
     if (a.units) rates.push(...a.units);
+  } else if (a.kind === 'every') {
+    if (a.tests) rates.push(...a.tests.map((u) => u.rate));
   } else if (extra.focus && extra.against) rates.push(extra.focus as RateSummary, extra.against as RateSummary);
   else if (extra.earlier && extra.later) rates.push(extra.earlier as RateSummary, extra.later as RateSummary);
   else if (Array.isArray(extra.rates)) rates.push(...(extra.rates as RateSummary[]));
@@ -444,6 +452,15 @@ function kindFigures(a: Analysis, decision: Decision): Partial<ClaimResult> {
           each: a.rivals.map((r) => ({ label: r.rival.label, difference: r.difference.value, interval: r.difference.interval, p: r.p ?? 1, separated: (r.p ?? 1) < at })),
         },
         unitCounts: { tested: (a.units ?? []).length, all: a.unitCount, leftOut: a.suppressedUnits.length },
+      };
+    }
+    case 'every': {
+      if (!a.tests) return {};
+      const at = decision.effectiveAlpha ?? decision.alpha;
+      return {
+        comparisonValue: a.claim.value,
+        unitTests: a.tests.map((u) => ({ label: u.rate.label, difference: u.difference.value, interval: u.difference.interval, p: u.p ?? 1, shown: (u.p ?? 1) < at })),
+        unitCounts: { tested: a.tests.length, all: a.unitCount, leftOut: a.suppressedUnits.length },
       };
     }
     case 'crosstab':

@@ -28,6 +28,7 @@ export function headline(a: Analysis): Headline | undefined {
     case 'gap-change':
     case 'target':
     case 'rank':
+    case 'every':
       return a.difference ? { interval: a.difference.interval, unit: 'points' } : undefined;
     case 'equivalence':
       return a.equivalenceInterval ? { interval: a.equivalenceInterval, unit: 'points' } : undefined;

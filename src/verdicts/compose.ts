@@ -17,6 +17,7 @@ import { composeCrosstab } from './words/crosstab.js';
 import { composeEquivalence } from './words/equivalence.js';
 import { composeMeans, scalePoints } from './words/means.js';
 import { composeRank } from './words/rank.js';
+import { composeEvery } from './words/every.js';
 import * as fmt from '../format/numbers.js';
 import { adviseClaim, linkNote, linksOf, moreLinksNote, notSupportedAs, worthReporting, type Worth } from './advice.js';
 import type { NotSupportedAs } from '../render/model.js';
@@ -50,6 +51,8 @@ function composeKind(a: Analysis, decision: Decision, ctx: ComposeContext): Comp
       return composeEstimate(a, decision, ctx);
     case 'rank':
       return composeRank(a, decision, ctx);
+    case 'every':
+      return composeEvery(a, decision, ctx);
   }
 }
 

@@ -61,7 +61,7 @@ function supportedUnlessSmall(a: Analysis, base: Omit<Decision, 'verdict'>): Dec
 }
 
 /** Tests two-sided in level but with a direction: decided as one-sided tests are, with pOpposite for the other way. */
-export const DIRECTED_AT_TWO_SIDED_LEVEL: ReadonlySet<string> = new Set(['gap-size-iut', 'rank-iut']);
+export const DIRECTED_AT_TWO_SIDED_LEVEL: ReadonlySet<string> = new Set(['gap-size-iut', 'rank-iut', 'every-iut']);
 
 /** 1 - confidence, rounded so that 1 - 0.95 is 0.05 exactly, not 0.050000000000000044: p = 0.05 is not below alpha. */
 export function alphaOf(confidence: number): number {
@@ -84,7 +84,8 @@ export function decide(analysis: Analysis, pAdjusted: number | undefined, effect
     return { verdict: analysis.beyondMargin ? 'opposite' : 'not-supported', ...base };
   }
   // The gap-size test (narrowed, widened) is two-sided in level but directed: its opposite is the other size change.
-  // So are intersection-union tests of a rank claim held to the two-sided level: their opposite is pOpposite.
+  // So are the intersection-union tests of rank and every claims held to the two-sided level: their opposite is
+  // pOpposite.
   if (analysis.test.alternative === 'two-sided' && !DIRECTED_AT_TWO_SIDED_LEVEL.has(analysis.test.method)) {
     if (pAdjusted >= alpha || observed === 0) return { verdict: 'not-supported', ...base };
     if (expect === 0 || observed === expect) return supportedUnlessSmall(analysis, base);

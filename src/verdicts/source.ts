@@ -13,6 +13,7 @@ import type { Templates } from './templates.js';
 function ratesOf(a: Analysis): RateSummary[] {
   // A rank claim reports every unit it ranked.
   if (a.kind === 'rank') return a.units ?? [];
+  if (a.kind === 'every') return (a.tests ?? []).map((u) => u.rate);
   const x = a as unknown as { focus?: RateSummary; against?: RateSummary; rate?: RateSummary; earlier?: RateSummary; later?: RateSummary; rates?: RateSummary[] };
   const all = [x.focus, x.against, x.rate, x.earlier, x.later, ...(x.rates ?? [])];
   return all.filter((r): r is RateSummary => r !== undefined && typeof r.n === 'number');

@@ -303,11 +303,11 @@ describe('new rules name line:column and give a fix', () => {
       phrases: ['is a change claim with focus and against', 'Write kind: change with from and to', 'expect: narrowed or widened'],
     },
     {
-      name: 'every unit at once, which no kind can claim',
-      claim: '  - { id: a, claim: c, kind: each, focus: { region: A }, against: rest, margin: 5 }',
-      at: 'each',
+      name: 'every unit within a margin, which no kind can claim',
+      claim: '  - { id: a, claim: c, kind: none, focus: { region: A }, against: rest, margin: 5 }',
+      at: 'none',
       field: 'kind',
-      phrases: ['no kind tests every unit at once', 'one claim for each unit'],
+      phrases: ['no kind tests that every unit lies within a margin', 'one equivalence claim per unit', 'kind: every'],
     },
     {
       name: 'a kind of no known meaning lists the kinds with what each claims',

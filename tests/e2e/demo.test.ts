@@ -42,7 +42,7 @@ describe('demo evidence pack', () => {
 
   it('uses every kind of claim', () => {
     const kinds = new Set(first.claims.claims.map((c) => c.kind));
-    expect([...kinds].sort()).toEqual(['association', 'change', 'compare', 'crosstab', 'equivalence', 'estimate', 'gap-change', 'means', 'rank', 'target', 'trend']);
+    expect([...kinds].sort()).toEqual(['association', 'change', 'compare', 'crosstab', 'equivalence', 'estimate', 'every', 'gap-change', 'means', 'rank', 'target', 'trend']);
   });
 
   it('prints every claim, its verdict sentence and its hypotheses in the PDF', () => {

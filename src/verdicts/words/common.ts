@@ -137,6 +137,8 @@ export function commonRows(a: Analysis, decision: Decision, ctx: ComposeContext)
         ? 'the larger of the two tests’'
         : a.test?.method === 'rank-iut'
           ? `the largest of the one-sided tests, one per rival${a.test.alternative === 'two-sided' ? ', each at the two-sided level' : ''}`
+          : a.test?.method === 'every-iut'
+            ? `the largest of the one-sided tests, one per ${a.claim.kind === 'every' ? a.claim.units.toLowerCase() : 'unit'}${a.test.alternative === 'two-sided' ? ', each at the two-sided level' : ''}`
           : a.test?.alternative === 'two-sided'
             ? 'two-sided'
             : 'one-sided';
@@ -171,6 +173,8 @@ function ratesOf(a: Analysis): RateSummary[] {
   if (a.kind === 'gap-change') return a.earlier && a.later ? [a.earlier.focus, a.earlier.against, a.later.focus, a.later.against] : [];
   // A rank claim's unit and its closest rival (every unit's figures carry the same decision).
   if (a.kind === 'rank') return a.focus && a.closest ? [a.focus, a.closest.rival] : [];
+  // Each unit of an every claim, nearest the value first.
+  if (a.kind === 'every') return (a.tests ?? []).map((u) => u.rate);
   return [r.focus, r.against, r.rate, ...(r.rates ?? [])].filter((x): x is RateSummary => x !== undefined);
 }
 

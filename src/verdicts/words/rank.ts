@@ -34,7 +34,7 @@ export function composeRank(a: RankAnalysis, decision: Decision, ctx: ComposeCon
   };
   const hypotheses = { null: t.render('rank.null', head), alternative: t.render('rank.alternative', head) };
   if (a.status === 'too-little-data' || !a.focus || !a.rivals || !a.closest || !a.units || !a.difference || !a.test) {
-    return tooLittle(a, ctx, `${focusLabel} against the other ${unitsWord}${scope ? ` of ${scope}` : ''}.`, hypotheses);
+    return tooLittle(a, ctx, `${focusLabel} against the other ${unitsWord}${scope ? ` (${scope})` : ''}.`, hypotheses);
   }
   const alphaUsed = decision.effectiveAlpha ?? decision.alpha;
   const notSeparated = a.rivals.filter((r) => (r.p ?? 1) >= alphaUsed).map((r) => r.rival.label);
