@@ -123,7 +123,8 @@ export function analyseEvery(claim: EveryClaim, cube: Cube, ctx: CompareContext)
     nearest,
     suppressedUnits,
     ...(wanted !== undefined ? { fpc: wanted } : {}),
-    test: iut.test,
+    // Each unit's respondents, nearest the value first (the order of the page's table).
+    test: { ...iut.test, n: ordered.map((u) => u.rate.n) },
     pOpposite,
     observedSign: gapOf(nearest) > 0 ? 1 : gapOf(nearest) < 0 ? -1 : 0,
     difference: nearest.difference,

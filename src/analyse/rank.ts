@@ -121,7 +121,8 @@ export function analyseRank(claim: RankClaim, cube: Cube, ctx: CompareContext): 
     units,
     suppressedUnits,
     ...(wanted !== undefined ? { fpc: wanted } : {}),
-    test: iut.test,
+    // Each unit's respondents once (the focus first, then the rivals nearest first), not the focus once per comparison.
+    test: { ...iut.test, n: [focus.n, ...ordered.map((r) => r.rival.n)] },
     pOpposite,
     observedSign: lead(closest) > 0 ? 1 : lead(closest) < 0 ? -1 : 0,
     difference: closest.difference,

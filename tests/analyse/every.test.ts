@@ -65,6 +65,7 @@ describe('every claims: each unit on one side of a value (intersection-union tes
     const { a, d, w } = run(claim(0.7, 'higher'), cubeOf(ref.x, ref.n));
     expect(d.verdict).toBe('supported');
     expect(a.nearest?.rate.label).toBe('U1');
+    expect(a.test?.n).toEqual([380, 200, 110, 400]); // each unit once, nearest the value first (78.9%, 80%, 81.8%, 82.5%)
     expect(w.section.verdictText).toContain('Supported. Each of the 4 units was shown above the value of 70%. The nearest to it is U1');
     expect(w.section.chart?.data).toMatchObject({ kind: 'rates', reference: { value: 0.7 } });
   });

@@ -82,6 +82,7 @@ describe('rank claims: one unit the highest or lowest (intersection-union test)'
     expect(d.verdict).toBe('supported');
     expect(a.closest?.rival.label).toBe('U1'); // 82.5% against 75%: the nearest rate
     expect(a.units?.map((u) => u.label)).toEqual(['U0', 'U1', 'U2', 'U3']); // highest first
+    expect(a.test?.n).toEqual([400, 400, 350, 220]); // each unit once: the focus, then the rivals nearest first
     expect(w.section.verdictText).toContain('Supported. U0 has the highest rate: 83% of its 400 respondents agreed, 7.5 points above the closest rival, U1');
     expect(w.section.chart?.data).toMatchObject({ kind: 'rates', highlight: 'U0' });
   });
