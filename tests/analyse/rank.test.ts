@@ -105,6 +105,21 @@ describe('rank claims: one unit the highest or lowest (intersection-union test)'
     const { d, w } = run(claim('U0', 'highest'), cubeOf(ref.x, ref.n));
     expect(d.verdict).toBe('opposite');
     expect(w.section.verdictText).toContain('U1 is shown above it');
+    // 90/100 against 50/100: 40 points above, the interval's ends low to high (Newcombe, R fixture case 5).
+    const m = /(\d+\.\d) points above \(95% interval (\d+\.\d) to (\d+\.\d) points/.exec(w.section.verdictText) as RegExpExecArray;
+    const r = ref.rivals.find((x) => x.rival === 1) as RivalRef;
+    expect(Number(m[1])).toBeCloseTo(-r.difference * 100, 1);
+    expect(Number(m[2])).toBeCloseTo(-r.upper * 100, 1);
+    expect(Number(m[3])).toBeCloseTo(-r.lower * 100, 1);
+  });
+
+  it('lowest, pointing the other way: the rival below the focus is named, its interval low to high', () => {
+    const { d, w } = run(claim('U0', 'lowest'), cubeOf([330, 300, 260], [400, 400, 350]));
+    expect(d.verdict).toBe('opposite');
+    const m = /shown below it: .* (\d+\.\d) points below \(95% interval (\d+\.\d) to (\d+\.\d) points/.exec(w.section.verdictText) as RegExpExecArray;
+    expect(m).not.toBeNull();
+    expect(Number(m[2])).toBeLessThan(Number(m[1]));
+    expect(Number(m[1])).toBeLessThan(Number(m[3]));
   });
 
   it('lowest: the interval of the lead reads low to high', () => {

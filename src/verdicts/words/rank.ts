@@ -44,7 +44,8 @@ export function composeRank(a: RankAnalysis, decision: Decision, ctx: ComposeCon
   const closest = a.closest;
   // A rival shown on the far side of the focus, for "points the other way": the one with the smallest p that way.
   const ahead = a.rivals.reduce<RivalResult>((best, r) => (r.pOpposite < best.pOpposite ? r : best), a.rivals[0] as RivalResult);
-  const av = differenceView({ value: -ahead.difference.value, interval: { lower: -ahead.difference.interval.upper, upper: -ahead.difference.interval.lower } }, -a.expectSign);
+  // As sizes (the rival's lead over the focus), the interval's ends read low to high whichever side it lies on.
+  const av = differenceView(ahead.difference, Math.sign(ahead.difference.value));
   const observedTop = a.observedSign > 0;
   const view: View = {
     ...head,
