@@ -106,6 +106,46 @@ function placeOf(lines: LineCounter, offset: number): Place {
   return { line: Math.max(1, line), column: Math.max(1, col) };
 }
 
+/** Brackets ([ and {) nested deeper than this are refused before the YAML reader sees them. */
+const MAX_FLOW_DEPTH = 200;
+
+/**
+ * The offset of the first [ or { nested deeper than MAX_FLOW_DEPTH, or undefined. Quoted text and comments are passed
+ * over (a quote counts where a value can start: after a space, a bracket, a comma or a colon, or at a line's start);
+ * a claims file nests a few levels, so a rough count cannot mistake one for a file nested hundreds deep.
+ */
+function tooDeep(text: string): number | undefined {
+  let depth = 0;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (c === 91 || c === 123) {
+      if (++depth > MAX_FLOW_DEPTH) return i;
+    } else if (c === 93 || c === 125) {
+      if (depth > 0) depth--;
+    } else if (c === 34 || c === 39 || c === 35) {
+      const prev = i === 0 ? 10 : text.charCodeAt(i - 1);
+      // 32 space, 9 tab, 10 line break, 91 [, 123 {, 44 comma, 58 colon
+      const starts = prev === 32 || prev === 9 || prev === 10 || prev === 13 || (c !== 35 && (prev === 91 || prev === 123 || prev === 44 || prev === 58));
+      if (!starts) continue;
+      if (c === 35) {
+        const end = text.indexOf('\n', i);
+        if (end < 0) return undefined;
+        i = end;
+        continue;
+      }
+      for (i++; i < text.length; i++) {
+        const q = text.charCodeAt(i);
+        if (c === 34 && q === 92) i++;
+        else if (q === c) {
+          if (c === 39 && text.charCodeAt(i + 1) === 39) i++;
+          else break;
+        }
+      }
+    }
+  }
+  return undefined;
+}
+
 /** Parse YAML text. Only syntax problems are reported here; what the data mean is checked later. */
 export function parseYaml(text: string, file: string): YamlOutcome {
   const quick = readPlainYaml(text);
@@ -129,6 +169,18 @@ export function parseYaml(text: string, file: string): YamlOutcome {
     };
   }
   const { isScalar, visit } = Y();
+  // Brackets nested thousands deep make the YAML reader recurse until the call stack runs out, after seconds and a
+  // few hundred MB: found first, by a plain count, and said at the bracket that goes too deep.
+  const deep = tooDeep(text);
+  if (deep !== undefined) {
+    const before = text.slice(0, deep);
+    const line = before.split('\n').length;
+    const column = deep - before.lastIndexOf('\n');
+    return {
+      ok: false,
+      problems: [{ file, line, column, found: `more than ${MAX_FLOW_DEPTH} levels of [ or {`, problem: SYNTAX.RESOURCE_EXHAUSTION!.problem, fix: SYNTAX.RESOURCE_EXHAUSTION!.fix }],
+    };
+  }
   let doc: Document.Parsed;
   let lines: LineCounter;
   try {

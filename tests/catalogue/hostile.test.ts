@@ -801,6 +801,14 @@ const cases: Case[] = [
       'claims.yaml:15:14: focus in claim "hanes-above-lacina" selects rows by the values of their columns, and the data of source "results" have no column "column"; { column: Ratio } is how a measure is written (field "focus", found "{ column: Ratio }"). Fix: A compare claim measures agreement; a numeric column such as Ratio can be measured by an association claim (x_measure: { column: Ratio }) or a means claim (measure: { column: Ratio }). Here, select rows by a column of the data (use one of the columns found: "Department").',
   },
   {
+    what: 'a claims file nesting 100,000 brackets',
+    group: 'never hang',
+    cousin: true,
+    setup: (dir) => summaryCase(dir, `${HEAD}${SUMMARY_SOURCE('data.csv')}claims: ${'['.repeat(100_000)}${']'.repeat(100_000)}\n`),
+    message:
+      'claims.yaml:10:209: the file nests brackets or lists too deeply to be read (found "more than 200 levels of [ or {"). Fix: Write the claims file as plain keys and lists, nested a few levels at most.',
+  },
+  {
     what: 'a claim id 10,000 characters long (it names the claim\'s chart files)',
     group: 'refuse nonsense',
     cousin: true,
