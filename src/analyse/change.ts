@@ -9,7 +9,7 @@
  * change (Newcombe 1998, Statistics in Medicine 17, 873–890, method 10). Building blocks shared with "compare" are in
  * rates.ts.
  */
-import type { ChangeClaim, Claim, FilterScalar } from '../claims/types.js';
+import type { ChangeClaim, Claim, FilterScalar, GapChangeClaim } from '../claims/types.js';
 import type { Cube } from '../data/types.js';
 import { pool } from '../data/select.js';
 import { InputError } from '../errors.js';
@@ -58,9 +58,14 @@ export function refuseBackwards(written: Pick<Claim, 'id' | 'place'> & { from: F
   }
 }
 
-export function analyseChange(written: ChangeClaim, cube: Cube, ctx: CompareContext): ChangeAnalysis {
+/**
+ * The two periods a change claim compares, resolved against the data (latest, previous, latest-N), with the claim as
+ * resolved: refused when the source has no period column, when both are one period, or when from comes after to.
+ * `what` names what is compared in the message ("period", "the gap in period").
+ */
+export function twoPeriods<C extends ChangeClaim | GapChangeClaim>(written: C, cube: Cube, ctx: CompareContext, what: string): { claim: C; column: string; from: string; to: string } {
   const column = requirePeriodColumn(written, cube, ctx);
-  const claim = resolvePeriods(written, cube, column, ctx.claimsFile).claim as ChangeClaim;
+  const claim = resolvePeriods(written, cube, column, ctx.claimsFile).claim as C;
   const from = String(claim.from).trim();
   const to = String(claim.to).trim();
   if (from === to) {
@@ -70,11 +75,16 @@ export function analyseChange(written: ChangeClaim, cube: Cube, ctx: CompareCont
       column: claim.place.column,
       field: `claims.${claim.id}.from`,
       found: String(written.from),
-      problem: `claim "${claim.id}" compares period ${to} with itself`,
+      problem: `claim "${claim.id}" compares ${what} ${to} with itself`,
       fix: 'give `from` an earlier period than `to` (e.g. `from: previous`, `to: latest`)',
     });
   }
   refuseBackwards(written, from, to, cube, column, ctx);
+  return { claim, column, from, to };
+}
+
+export function analyseChange(written: ChangeClaim, cube: Cube, ctx: CompareContext): ChangeAnalysis {
+  const { claim, column, from, to } = twoPeriods(written, cube, ctx, 'period');
   const scope = Object.entries(claim.where).filter(([k]) => k !== column);
   const scopeLabel = scope.length > 0 ? `${filterLabel(Object.fromEntries(scope))}, ` : '';
   const laterPooled = pool(cube, { ...claim.where, [column]: to });

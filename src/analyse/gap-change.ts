@@ -15,14 +15,12 @@
 import type { GapChangeClaim } from '../claims/types.js';
 import type { Cube, Pooled } from '../data/types.js';
 import { relate } from '../data/select.js';
-import { InputError } from '../errors.js';
 import { newcombeInterval } from '../stats/newcombe.js';
 import { differenceOfDifferences, gapSizeChange, type Gap } from '../stats/difference-of-differences.js';
 import { minDetectableGapChange } from '../stats/power-gap-change.js';
 import { refuseOverlap, type CompareContext } from './compare.js';
-import { refuseBackwards, requirePeriodColumn } from './change.js';
+import { twoPeriods } from './change.js';
 import { filterLabel, restLabel, sign } from './labels.js';
-import { resolvePeriods } from './periods.js';
 import { alternativeFor, fpcWanted, rateSummary } from './rates.js';
 import { shortfall, type Selected } from './thresholds.js';
 import type { GapChangeAnalysis, GapInPeriod } from './types.js';
@@ -36,22 +34,7 @@ function expectSignOf(expect: GapChangeClaim['expect']): 1 | -1 | 0 {
 }
 
 export function analyseGapChange(written: GapChangeClaim, cube: Cube, ctx: CompareContext): GapChangeAnalysis {
-  const column = requirePeriodColumn(written, cube, ctx);
-  const claim = resolvePeriods(written, cube, column, ctx.claimsFile).claim as GapChangeClaim;
-  const from = String(claim.from).trim();
-  const to = String(claim.to).trim();
-  if (from === to) {
-    throw new InputError({
-      file: ctx.claimsFile,
-      line: claim.place.line,
-      column: claim.place.column,
-      field: `claims.${claim.id}.from`,
-      found: String(written.from),
-      problem: `claim "${claim.id}" compares the gap in period ${to} with itself`,
-      fix: 'give `from` an earlier period than `to` (e.g. `from: previous`, `to: latest`)',
-    });
-  }
-  refuseBackwards(written, from, to, cube, column, ctx);
+  const { claim, column, from, to } = twoPeriods(written, cube, ctx, 'the gap in period');
   const naming = { ...claim.naming, period: column };
   const focusName = claim.focusLabel ?? filterLabel(claim.focus, claim.naming);
   const againstName = claim.againstLabel ?? filterLabel(claim.against, claim.naming);

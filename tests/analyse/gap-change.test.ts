@@ -134,6 +134,10 @@ describe('a gap between two groups in two periods, against R 4.2.2', () => {
     expect(() => run(claim('Arts', 'narrowed', { from: 'latest', to: '2024' }))).toThrow(/runs from 2026 to 2024, but 2026 comes after 2024[\s\S]*swap them: from: 2024, to: latest/);
   });
 
+  it('a gap compared with itself (from and to one period once resolved) is refused', () => {
+    expect(() => run(claim('Arts', 'narrowed', { from: 'latest', to: '2026' }))).toThrow(/compares the gap in period 2026 with itself/);
+  });
+
   it('a group under the minimum withholds the claim', () => {
     const { a, d, words: w } = run(claim('Dance', 'narrowed'));
     expect(a.status).toBe('too-little-data');
