@@ -111,6 +111,10 @@ describe('rank claims: one unit the highest or lowest (intersection-union test)'
     expect(Number(m[1])).toBeCloseTo(-r.difference * 100, 1);
     expect(Number(m[2])).toBeCloseTo(-r.upper * 100, 1);
     expect(Number(m[3])).toBeCloseTo(-r.lower * 100, 1);
+    // The numbers table names the row for what it is: the rival furthest above (U1, 90 against 50), not a smallest lead.
+    const labels = w.section.numbers.map((row) => row.label);
+    expect(labels).toContain('Difference from the unit furthest above it, U0 minus U1');
+    expect(labels.some((l) => /Smallest difference/.test(l))).toBe(false);
   });
 
   it('lowest, pointing the other way: the rival below the focus is named, its interval low to high', () => {

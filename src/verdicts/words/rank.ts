@@ -85,7 +85,13 @@ export function composeRank(a: RankAnalysis, decision: Decision, ctx: ComposeCon
   };
   const numbers: NumberRow[] = [
     rateRow(a.focus, `${a.focus.label} (the claim's ${unitWord})`, dg),
-    { label: `Smallest difference, ${a.focus.label} minus ${closest.rival.label} (the closest rival)`, value: `${view.lead} points (interval ${view.leadLower} to ${view.leadUpper})` },
+    {
+      // A rival ahead of the focus: its row is the one furthest ahead, not a smallest lead.
+      label: (highest ? closest.difference.value < 0 : closest.difference.value > 0)
+        ? `Difference from the ${unitWord} furthest ${highest ? 'above' : 'below'} it, ${a.focus.label} minus ${closest.rival.label}`
+        : `Smallest difference, ${a.focus.label} minus ${closest.rival.label} (the closest rival)`,
+      value: `${view.lead} points (interval ${view.leadLower} to ${view.leadUpper})`,
+    },
     { label: `Each other ${unitWord}, closest first`, value: `its rate; ${a.focus.label} minus it; the test's p-value` },
     ...a.rivals.map(rivalRow),
     { label: 'Rivals not separated', value: notSeparated.length > 0 ? listWords(notSeparated) : 'none' },
