@@ -33,7 +33,8 @@ import type { ClaimAdvice, LinkedClaim, NotSupportedAs } from '../render/model.j
 import type { Decision } from './decide.js';
 import type { Templates } from './templates.js';
 import { intervalEnds } from './words/adjusted.js';
-import { listWords, unitWords } from './words/association.js';
+import { unitWords } from './words/association.js';
+import { listWords } from './words/common.js';
 
 /** A difference worth reporting, in the units of the claim's interval, and where it comes from. */
 export interface Worth {

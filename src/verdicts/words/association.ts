@@ -6,7 +6,7 @@ import { filterLabel } from '../../analyse/labels.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, detectableLabel, plural, pView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, detectableLabel, listWords, plural, pView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 export function composeAssociation(a: AssociationAnalysis, decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
@@ -148,10 +148,6 @@ function unitsUsedText(a: AssociationAnalysis, unitsName: string): string {
   return `${a.points.length} of ${a.points.length + left} ${unitsName} (${left} under ${a.claim.minRespondents} respondents left out)`;
 }
 
-/** "A", "A and B", "A, B and C". */
-export function listWords(items: string[]): string {
-  return items.length <= 1 ? (items[0] ?? '') : `${items.slice(0, -1).join(', ')} and ${items[items.length - 1] as string}`;
-}
 
 /**
  * The scatter of residuals for a controlled claim: each unit's x and y less what the controls predict, in the

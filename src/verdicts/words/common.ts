@@ -344,3 +344,8 @@ export function fisherIntervalCaution(
   }
   return [];
 }
+
+/** A list for people: "A", "A and B", "A, B and C". */
+export function listWords(items: readonly string[]): string {
+  return items.length <= 1 ? (items[0] ?? '') : `${items.slice(0, -1).join(', ')} and ${items[items.length - 1] as string}`;
+}

@@ -6,7 +6,7 @@ import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
 import { unitWords } from './association.js';
 import { questionWords } from '../../analyse/labels.js';
-import { commonRows, comparesPeriods, detectableLabel, pView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
+import { commonRows, comparesPeriods, detectableLabel, listWords, pView, scopeText, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 /** Test names for people, by method machine name. */
 const TEST_NAMES: Record<string, string> = {
@@ -129,10 +129,6 @@ function notableValue(a: CrosstabAnalysis): string {
   return other !== undefined ? `${text}; ${other}: the same with opposite signs` : text;
 }
 
-/** A list for people: "a", "a and b", "a, b and c". */
-function list(items: string[]): string {
-  return items.length <= 1 ? (items[0] ?? '') : `${items.slice(0, -1).join(', ')} and ${items[items.length - 1]}`;
-}
 
 /**
  * The cells beyond the residual cutoff, one clause per row, naming the columns as a reader would: "2026 has more
@@ -153,7 +149,7 @@ export function notableCells(a: CrosstabAnalysis, columnsName: string, t: Compos
     return col;
   };
   const phrase = (cols: string[], first: boolean): string => {
-    const named = list(cols.map(name));
+    const named = listWords(cols.map(name));
     if (kind === 'answers') return first ? `answers of ${named}` : `of ${named}`;
     if (kind === 'agreement') return `respondents ${named}`;
     return first ? `respondents with ${columnsName} ${named}` : `with ${named}`;

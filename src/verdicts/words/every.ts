@@ -4,8 +4,7 @@ import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, detectableLabel, differenceView, pView, plural, rateCautions, rateView, scopeText, sharedDigits, tooLittle, type ComposeContext, type Composed } from './common.js';
-import { listWords } from './rank.js';
+import { commonRows, detectableLabel, differenceView, listWords, pView, plural, rateCautions, rateView, scopeText, sharedDigits, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 export function composeEvery(a: EveryAnalysis, decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;

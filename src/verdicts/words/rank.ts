@@ -5,13 +5,7 @@ import * as fmt from '../../format/numbers.js';
 import type { Chart, NumberRow } from '../../render/model.js';
 import type { Decision } from '../decide.js';
 import type { View } from '../templates.js';
-import { commonRows, detectableLabel, differenceView, pView, plural, rateCautions, rateRow, rateView, scopeText, sharedDigits, tooLittle, type ComposeContext, type Composed } from './common.js';
-
-/** "A", "A and B", "A, B and C". */
-export function listWords(items: readonly string[]): string {
-  if (items.length <= 1) return items.join('');
-  return `${items.slice(0, -1).join(', ')} and ${items[items.length - 1] as string}`;
-}
+import { commonRows, detectableLabel, differenceView, listWords, pView, plural, rateCautions, rateRow, rateView, scopeText, sharedDigits, tooLittle, type ComposeContext, type Composed } from './common.js';
 
 export function composeRank(a: RankAnalysis, decision: Decision, ctx: ComposeContext): Composed {
   const t = ctx.templates;
