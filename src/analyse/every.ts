@@ -15,17 +15,15 @@
 import type { EveryClaim } from '../claims/types.js';
 import type { Cube, Pooled } from '../data/types.js';
 import { InputError } from '../errors.js';
-import { binomialExactTest } from '../stats/binomial-exact.js';
-import { effectiveSize, oneSampleScoreFpc } from '../stats/finite-population.js';
+import { effectiveSize } from '../stats/finite-population.js';
 import { intersectionUnion } from '../stats/intersection-union.js';
-import { oneSampleScoreTest } from '../stats/one-sample-score.js';
 import { minDetectableGap } from '../stats/power-one-proportion.js';
 import type { Alternative, TestResult } from '../stats/result.js';
 import type { CompareContext } from './compare.js';
 import { valueWords } from './labels.js';
 import { unitsUnder } from './rank.js';
 import { fpcWanted, rateSummary } from './rates.js';
-import { needsExact } from './target.js';
+import { needsExact, testAgainstValue } from './target.js';
 import { shortfall } from './thresholds.js';
 import type { EveryAnalysis, FpcChoice, RateSummary, UnitTest } from './types.js';
 
@@ -83,12 +81,7 @@ export function analyseEvery(claim: EveryClaim, cube: Cube, ctx: CompareContext)
   const tests: UnitTest[] = testedUnits.map((u) => {
     const rate = rateSummary(labelOf(u.value), u.pooled, claim.confidence, correct);
     const exact = needsExact(rate.n, p0);
-    const run = (alt: Alternative): TestResult =>
-      exact
-        ? binomialExactTest(rate.agree, rate.n, p0, { alternative: alt, level: claim.confidence })
-        : correct
-          ? oneSampleScoreFpc(rate.agree, rate.n, rate.population as number, p0, { alternative: alt, level: claim.confidence })
-          : oneSampleScoreTest(rate.agree, rate.n, p0, { alternative: alt, level: claim.confidence });
+    const run = (alt: Alternative): TestResult => testAgainstValue(rate, p0, { exact, corrected: correct, level: claim.confidence }, alt);
     const diff = rate.rate - p0;
     return {
       rate,

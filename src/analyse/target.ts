@@ -23,11 +23,22 @@ import { filterLabel, sign } from './labels.js';
 import { alternativeFor, expectSignOf, fpcWanted, rateSummary } from './rates.js';
 import { oneSampleScoreFpc } from '../stats/finite-population.js';
 import { shortfall } from './thresholds.js';
-import type { TargetAnalysis } from './types.js';
+import type { RateSummary, TargetAnalysis } from './types.js';
 
 /** True when the exact binomial test is used instead of the score test (fewer than 5 expected either way). */
 export function needsExact(n: number, p0: number): boolean {
   return n * p0 < 5 || n * (1 - p0) < 5;
+}
+
+/**
+ * One rate tested against a fixed value: the exact binomial test when `exact` (see needsExact), else the score test,
+ * with the finite-population correction when `corrected` (the rate's population is then known).
+ */
+export function testAgainstValue(rate: RateSummary, p0: number, how: { exact: boolean; corrected: boolean; level: number }, alternative: Alternative): TestResult {
+  const options = { alternative, level: how.level };
+  if (how.exact) return binomialExactTest(rate.agree, rate.n, p0, options);
+  if (how.corrected) return oneSampleScoreFpc(rate.agree, rate.n, rate.population as number, p0, options);
+  return oneSampleScoreTest(rate.agree, rate.n, p0, options);
 }
 
 export function analyseTarget(claim: TargetClaim, cube: Cube, ctx: CompareContext): TargetAnalysis {
@@ -56,12 +67,7 @@ export function analyseTarget(claim: TargetClaim, cube: Cube, ctx: CompareContex
   const corrected = rate.fpc === true && rate.population !== undefined;
   const fpc = wanted?.used === true && !corrected ? { used: false, why: 'no-population' as const } : wanted;
   const alternative = alternativeFor(claim.expect, claim.sided);
-  const run = (alt: Alternative): TestResult =>
-    exact
-      ? binomialExactTest(rate.agree, rate.n, p0, { alternative: alt, level: claim.confidence })
-      : corrected
-        ? oneSampleScoreFpc(rate.agree, rate.n, rate.population as number, p0, { alternative: alt, level: claim.confidence })
-        : oneSampleScoreTest(rate.agree, rate.n, p0, { alternative: alt, level: claim.confidence });
+  const run = (alt: Alternative): TestResult => testAgainstValue(rate, p0, { exact, corrected, level: claim.confidence }, alt);
   const test = run(alternative);
   const pOpposite = alternative === 'two-sided' ? undefined : run(alternativeFor(claim.expect, claim.sided, true)).p;
   const diff = rate.rate - p0;
